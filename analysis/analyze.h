@@ -1,0 +1,69 @@
+#pragma once
+// Runs the study's analysis on the stored data and returns one plain value
+// holding every number a report shows (report/ never recomputes).
+//
+// What counts: the current plan's probes; a probe's outcome is its current
+// response (the newest of a correction chain); a probe with no response is a
+// negative outcome ("none") once it was sent. A set enters the paired table
+// only when every probe of it was sent (or, for imported data, has an outcome).
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/design.h"
+#include "core/status.h"
+#include "core/store.h"
+#include "stats/binomial.h"
+#include "stats/mcnemar.h"
+
+namespace twinprobe {
+
+struct ArmResult {
+  std::string label;
+  bool is_reference = false;
+  int64_t probes = 0;      // probes in analysed sets
+  int64_t positive = 0;    // positive callbacks
+  double rate = 0;         // positive / probes
+  stats::Interval ci;      // Clopper–Pearson at the study's confidence
+};
+
+struct StratumTable {
+  std::string name;   // stratum column, e.g. "occupation"
+  std::string value;  // e.g. "bookkeeper"
+  stats::PairedCounts table;
+};
+
+struct AnalysisResult {
+  std::string study_id;
+  std::string title;
+  std::string kind;            // paired | sets | unpaired
+  std::string plan_origin;     // plan | import
+  double confidence = 0.95;    // 1 - alpha
+  double alpha = 0.05;
+  std::string correction;      // the design's multiple-comparison method
+  std::vector<std::string> positive_codes;
+
+  int64_t vacancies = 0;
+  int64_t probes_planned = 0;
+  int64_t probes_sent = 0;
+  int64_t responses = 0;        // current responses
+  int64_t responses_superseded = 0;
+  int64_t sets_analysed = 0;
+  int64_t sets_incomplete = 0;  // sets left out because a probe was not sent
+
+  std::vector<ArmResult> arms;  // reference first
+
+  // Paired design: reference arm vs the other arm.
+  bool has_paired = false;
+  std::string reference_label;
+  std::string other_label;
+  stats::PairedCounts paired;
+  double mcnemar_exact_p = 1;
+  std::vector<StratumTable> strata;  // the paired table within each stratum value
+};
+
+// Requires a plan in the store. `plan` supplies alpha and the correction.
+Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan);
+
+}  // namespace twinprobe

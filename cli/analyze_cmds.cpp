@@ -1,0 +1,93 @@
+// Commands that read the store: analyze, report, verify.
+#include <filesystem>
+#include <fstream>
+#include <iostream>
+
+#include <nlohmann/json.hpp>
+
+#include "analysis/analyze.h"
+#include "cli/command.h"
+#include "core/audit.h"
+#include "report/json_report.h"
+#include "report/text_report.h"
+
+namespace twinprobe {
+namespace {
+
+Result<AnalysisResult> AnalyzeStudy(Context& ctx) {
+  auto store = OpenStudyStore(ctx, false);
+  if (!store.ok()) return store.error();
+  auto settings = LoadStudySettings(ctx, *store.value());
+  if (!settings.ok()) return settings.error();
+  return Analyze(*store.value(), settings.value().outcomes, settings.value().analysis);
+}
+
+int RunAnalyze(Context& ctx) {
+  auto r = AnalyzeStudy(ctx);
+  if (!r.ok()) return ReportError(r.error());
+  std::cout << (ctx.json ? RenderJsonReport(r.value()) : RenderTextReport(r.value()));
+  return 0;
+}
+
+struct ReportOptions {
+  std::string out;
+  bool text = false;
+};
+
+int RunReport(Context& ctx, const ReportOptions& o) {
+  auto r = AnalyzeStudy(ctx);
+  if (!r.ok()) return ReportError(r.error());
+  std::string body = ctx.json ? RenderJsonReport(r.value()) : RenderTextReport(r.value());
+  if (o.out.empty()) {
+    std::cout << body;
+    return 0;
+  }
+  std::ofstream out(o.out, std::ios::binary);
+  out << body;
+  if (!out) return ReportError(BadInput(o.out, "cannot write the report", "check that the folder exists and is writable"));
+  std::cerr << "Report written to " << o.out << "\n";
+  return 0;
+}
+
+int RunVerify(Context& ctx) {
+  auto store = OpenStudyStore(ctx, false);
+  if (!store.ok()) return ReportError(store.error());
+  AuditReport rep = VerifyAudit(*store.value());
+  if (ctx.json) {
+    nlohmann::json problems = nlohmann::json::array();
+    for (const auto& p : rep.problems) problems.push_back({{"seq", p.seq}, {"what", p.what}});
+    std::cout << nlohmann::json{{"ok", rep.ok()},
+                                {"entries", rep.entries},
+                                {"sealed_rows", rep.sealed_rows},
+                                {"head_hash", rep.head_hash},
+                                {"problems", problems}}
+                     .dump(2)
+              << "\n";
+  } else if (rep.ok()) {
+    std::cout << "The audit chain is intact: " << rep.entries << " entries sealing " << rep.sealed_rows
+              << " rows; head " << rep.head_hash.substr(0, 16) << "…\n";
+  } else {
+    std::cout << "The audit chain is BROKEN. First broken link: entry " << rep.problems.front().seq << ": "
+              << rep.problems.front().what << ".\n";
+    for (size_t i = 1; i < rep.problems.size(); ++i)
+      std::cout << "  also entry " << rep.problems[i].seq << ": " << rep.problems[i].what << "\n";
+  }
+  return rep.ok() ? 0 : 1;
+}
+
+void RegisterAnalyzeCommands(CLI::App& app, Context& ctx) {
+  app.add_subcommand("analyze", "Compute callback rates, the paired table and exact tests from the stored data")
+      ->callback([&ctx] { ctx.exit_code = RunAnalyze(ctx); });
+  auto ro = std::make_shared<ReportOptions>();
+  auto* report = app.add_subcommand("report", "Write the study report (text, or JSON with --json)");
+  report->add_option("--out", ro->out, "Write to this file instead of standard output");
+  report->add_flag("--text", ro->text, "Plain-text summary (the default until the HTML report lands)");
+  report->callback([&ctx, ro] { ctx.exit_code = RunReport(ctx, *ro); });
+  app.add_subcommand("verify", "Recompute the audit chain and report the first broken link, if any")
+      ->callback([&ctx] { ctx.exit_code = RunVerify(ctx); });
+}
+
+const bool kRegistered = RegisterCommand(70, &RegisterAnalyzeCommands);
+
+}  // namespace
+}  // namespace twinprobe

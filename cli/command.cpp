@@ -1,0 +1,64 @@
+#include "cli/command.h"
+
+#include <algorithm>
+#include <filesystem>
+#include <iostream>
+#include <vector>
+
+#include "core/meta.h"
+#include "planner/design_file.h"
+
+namespace twinprobe {
+namespace {
+
+std::vector<std::pair<int, Registrar>>& Registry() {
+  static std::vector<std::pair<int, Registrar>> registry;
+  return registry;
+}
+
+}  // namespace
+
+bool RegisterCommand(int order, Registrar registrar) {
+  Registry().emplace_back(order, registrar);
+  return true;
+}
+
+void RegisterAllCommands(CLI::App& app, Context& ctx) {
+  auto& r = Registry();
+  std::stable_sort(r.begin(), r.end(), [](const auto& a, const auto& b) { return a.first < b.first; });
+  for (const auto& [order, registrar] : r) registrar(app, ctx);
+}
+
+int ReportError(const Error& error) {
+  std::cerr << "twinprobe: " << error.Message() << "\n";
+  return static_cast<int>(error.exit_code());
+}
+
+void Warn(const std::string& message) { std::cerr << "twinprobe: warning: " << message << "\n"; }
+
+std::string StudyPath(const Context& ctx, const std::string& relative) {
+  return (std::filesystem::path(ctx.study_dir) / relative).string();
+}
+
+std::string StorePath(const Context& ctx) { return StudyPath(ctx, "study.db"); }
+
+Result<std::unique_ptr<Store>> OpenStudyStore(const Context& ctx, bool create) {
+  if (create) std::filesystem::create_directories(ctx.study_dir);
+  return Store::Open(StorePath(ctx), create);
+}
+
+Result<StudySettings> LoadStudySettings(const Context& ctx, Store& store) {
+  StudySettings s;
+  if (std::filesystem::exists(DesignPath(ctx.study_dir))) {
+    auto d = LoadDesign(ctx.study_dir);
+    if (!d.ok()) return d.error();
+    s.outcomes = d.value().outcomes;
+    s.analysis = d.value().analysis;
+    s.has_design = true;
+  } else {
+    s.outcomes = StoredOutcomeScheme(store);
+  }
+  return s;
+}
+
+}  // namespace twinprobe

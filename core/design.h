@@ -1,0 +1,109 @@
+#pragma once
+// The study design as plain data: what `study.toml` says, after parsing and
+// validation (planner/design_file.h reads it; every other module takes it as
+// a value). Field names follow DESIGN.md's words.
+#include <cstdint>
+#include <map>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace twinprobe {
+
+// Where a value came from in study.toml, for error messages.
+struct SourcePos {
+  int line = 0;
+  int column = 0;
+};
+
+struct Factor {
+  std::string name;
+  std::vector<std::string> levels;
+  std::string reference;  // one of levels
+  SourcePos pos;
+};
+
+// One combination of levels, e.g. {origin: "coastal"}. label is
+// "origin=coastal" (several factors: "gender=f,origin=coastal").
+struct Arm {
+  std::string label;
+  std::map<std::string, std::string> levels;  // factor -> level
+  bool is_reference = false;
+};
+
+struct NamePool {
+  std::string factor;
+  std::string level;
+  std::string file;  // relative to the study folder; CSV with a header (at least given_name,family_name)
+};
+
+struct OutcomeScheme {
+  std::vector<std::string> codes = {"none", "rejection", "info_request", "invitation", "offer"};
+  std::vector<std::string> positive = {"info_request", "invitation", "offer"};
+  int window_days = 28;
+  bool is_positive(const std::string& code) const;
+  bool has_code(const std::string& code) const;
+};
+
+struct Schedule {
+  int gap_min_hours = 24;
+  int gap_max_hours = 72;
+  std::vector<int> weekdays = {0, 1, 2, 3, 4};  // 0 = Monday
+  std::string start;                            // YYYY-MM-DD, first sending day
+};
+
+struct AnalysisPlan {
+  std::string primary = "positive_callback";
+  std::string correction = "holm";  // bonferroni | holm | hochberg | hommel | bh | by | none
+  double alpha = 0.05;
+  std::vector<int> looks;  // planned interim looks, in completed sets
+};
+
+struct EthicsBlock {
+  std::string approval;        // reference of the ethics board's approval
+  int retention_days = 0;
+  int decline_within_hours = 0;
+  int cap_per_employer = 0;
+  bool present = false;
+};
+
+struct Source {
+  std::string name;
+  std::vector<std::string> allow_hosts;
+  std::string url;  // pattern with {query} {location} {page}
+  std::vector<std::string> queries;
+  std::vector<std::string> locations;
+  int pages = 1;
+  double min_interval_seconds = 5.0;
+  std::string user_agent;
+  int page_limit = 100;
+  std::string item_selector;
+  std::map<std::string, std::string> fields;  // field name -> "selector@attr" or "selector" (text)
+  std::string item_key;                       // field that identifies an item
+  SourcePos pos;
+};
+
+struct Design {
+  std::string study_id;
+  std::string title;
+  uint64_t seed = 1;
+  std::string kind = "paired";  // paired | sets | unpaired
+  std::vector<Factor> factors;
+  std::vector<Arm> arms;  // arms[reference_arm] is the reference
+  int reference_arm = 0;
+  std::vector<NamePool> name_pools;
+  std::string mailbox_pattern = "{given}.{family}@mail.example";  // placeholders
+  std::string phone_pattern;
+  std::vector<std::string> templates;  // files relative to the study folder
+  std::vector<std::string> factor_fields;  // template fields a factor controls (given_name, …)
+  Schedule schedule;
+  OutcomeScheme outcomes;
+  std::vector<std::string> strata;  // vacancy columns
+  std::string vacancies_file = "vacancies.csv";
+  AnalysisPlan analysis;
+  EthicsBlock ethics;
+  std::vector<Source> sources;
+  std::string canonical;  // canonical text of the design (hashed by freeze)
+};
+
+}  // namespace twinprobe

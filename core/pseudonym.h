@@ -1,0 +1,19 @@
+#pragma once
+// Keyed pseudonyms for employers (DESIGN.md, "Store rules"): the key is an
+// HMAC-SHA-256 of the normalised employer name under a per-study secret, so
+// the same employer gets the same key within a study, while the key reveals
+// nothing once `purge` has removed the secret and the employer table.
+#include <string>
+
+namespace twinprobe {
+
+class Store;
+
+// Returns "E-" + 10 hex characters. Creates the study's secret on first use
+// (call inside a write transaction).
+std::string EmployerKey(Store& store, const std::string& employer_name);
+
+// Lowercased, inner whitespace collapsed, trimmed.
+std::string NormaliseName(const std::string& name);
+
+}  // namespace twinprobe

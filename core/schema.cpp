@@ -1,0 +1,280 @@
+#include "core/schema.h"
+
+#include <string>
+
+#include "core/store.h"
+
+namespace twinprobe {
+namespace {
+
+// Every table that holds observations carries `audit_seq`, the audit row of
+// the command that wrote it; rows are never updated, only added (a
+// correction is a new row that supersedes the old one).
+constexpr const char* kMigration1 = R"SQL(
+CREATE TABLE meta(
+  id INTEGER PRIMARY KEY,
+  key TEXT NOT NULL,
+  value TEXT NOT NULL,
+  audit_seq INTEGER NOT NULL);           -- the newest row of a key is its value
+CREATE INDEX meta_key ON meta(key);
+
+CREATE TABLE secret(                      -- not sealed; purge clears it
+  name TEXT PRIMARY KEY,
+  value TEXT NOT NULL);
+
+CREATE TABLE plan(
+  id INTEGER PRIMARY KEY,
+  origin TEXT NOT NULL CHECK (origin IN ('plan', 'import')),
+  kind TEXT NOT NULL,                     -- paired | sets | unpaired
+  design_sha256 TEXT,
+  seed INTEGER,
+  created_at TEXT NOT NULL,
+  audit_seq INTEGER NOT NULL);
+
+CREATE TABLE factor(
+  id INTEGER PRIMARY KEY,
+  plan_id INTEGER NOT NULL REFERENCES plan(id),
+  name TEXT NOT NULL,
+  audit_seq INTEGER NOT NULL,
+  UNIQUE(plan_id, name));
+
+CREATE TABLE level(
+  id INTEGER PRIMARY KEY,
+  factor_id INTEGER NOT NULL REFERENCES factor(id),
+  name TEXT NOT NULL,
+  is_reference INTEGER NOT NULL DEFAULT 0,
+  audit_seq INTEGER NOT NULL,
+  UNIQUE(factor_id, name));
+
+CREATE TABLE arm(
+  id INTEGER PRIMARY KEY,
+  plan_id INTEGER NOT NULL REFERENCES plan(id),
+  label TEXT NOT NULL,
+  is_reference INTEGER NOT NULL DEFAULT 0,
+  audit_seq INTEGER NOT NULL,
+  UNIQUE(plan_id, label));
+
+CREATE TABLE arm_level(
+  arm_id INTEGER NOT NULL REFERENCES arm(id),
+  level_id INTEGER NOT NULL REFERENCES level(id),
+  audit_seq INTEGER NOT NULL,
+  PRIMARY KEY(arm_id, level_id));
+
+CREATE TABLE employer(                    -- the only identifying table; purge empties it
+  key TEXT PRIMARY KEY,                   -- keyed pseudonym (HMAC of the name)
+  name TEXT,
+  contact TEXT);
+
+CREATE TABLE vacancy(
+  id INTEGER PRIMARY KEY,
+  plan_id INTEGER NOT NULL REFERENCES plan(id),
+  ref TEXT NOT NULL,
+  employer_key TEXT,
+  source TEXT,
+  opened_on TEXT,
+  closed_on TEXT,
+  audit_seq INTEGER NOT NULL,
+  UNIQUE(plan_id, ref));
+
+CREATE TABLE vacancy_stratum(
+  vacancy_id INTEGER NOT NULL REFERENCES vacancy(id),
+  name TEXT NOT NULL,
+  value TEXT NOT NULL,
+  audit_seq INTEGER NOT NULL,
+  PRIMARY KEY(vacancy_id, name));
+
+CREATE TABLE profile(
+  id INTEGER PRIMARY KEY,
+  plan_id INTEGER NOT NULL REFERENCES plan(id),
+  arm_id INTEGER NOT NULL REFERENCES arm(id),
+  display_name TEXT NOT NULL,
+  mailbox TEXT,
+  phone TEXT,
+  fields TEXT NOT NULL DEFAULT '{}',     -- JSON object of the profile's template fields
+  audit_seq INTEGER NOT NULL);
+
+CREATE TABLE probe(
+  id INTEGER PRIMARY KEY,
+  plan_id INTEGER NOT NULL REFERENCES plan(id),
+  ref TEXT NOT NULL,                      -- what people type: P00001 …
+  vacancy_id INTEGER NOT NULL REFERENCES vacancy(id),
+  profile_id INTEGER REFERENCES profile(id),
+  arm_id INTEGER NOT NULL REFERENCES arm(id),
+  template TEXT,
+  send_order INTEGER NOT NULL DEFAULT 1,
+  planned_at TEXT,
+  audit_seq INTEGER NOT NULL,
+  UNIQUE(plan_id, ref));
+CREATE INDEX probe_vacancy ON probe(vacancy_id);
+
+CREATE TABLE sending(                     -- a probe was sent (append-only)
+  id INTEGER PRIMARY KEY,
+  probe_id INTEGER NOT NULL REFERENCES probe(id),
+  sent_at TEXT NOT NULL,
+  entered_by TEXT NOT NULL,
+  entered_at TEXT NOT NULL,
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX sending_probe ON sending(probe_id);
+
+CREATE TABLE response(
+  id INTEGER PRIMARY KEY,
+  probe_id INTEGER NOT NULL REFERENCES probe(id),
+  code TEXT NOT NULL,
+  received_at TEXT,
+  channel TEXT,
+  note TEXT,                              -- free text; purge clears it
+  note_sha256 TEXT,                       -- sealed in its place
+  origin TEXT NOT NULL,                   -- record | import | mail-review | demo
+  flags TEXT NOT NULL DEFAULT '',         -- e.g. 'late' (outside the observation window)
+  entered_by TEXT NOT NULL,
+  entered_at TEXT NOT NULL,
+  supersedes INTEGER REFERENCES response(id),
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX response_probe ON response(probe_id);
+
+CREATE TABLE import_file(                 -- makes a second import of the same file a no-op
+  id INTEGER PRIMARY KEY,
+  kind TEXT NOT NULL,
+  sha256 TEXT NOT NULL,
+  path TEXT NOT NULL,
+  rows_landed INTEGER NOT NULL,
+  rows_rejected INTEGER NOT NULL,
+  audit_seq INTEGER NOT NULL);
+
+CREATE TABLE listing(
+  id INTEGER PRIMARY KEY,
+  source TEXT NOT NULL,
+  query TEXT,
+  location TEXT,
+  page INTEGER,
+  seen_by TEXT,                           -- profile or account that saw the list (personalised listings)
+  fetched_at TEXT NOT NULL,
+  url TEXT,
+  http_status INTEGER,
+  snapshot_sha256 TEXT,
+  extraction TEXT NOT NULL DEFAULT 'ok',  -- ok | failed
+  extraction_error TEXT,
+  audit_seq INTEGER NOT NULL);
+
+CREATE TABLE listing_item(
+  id INTEGER PRIMARY KEY,
+  listing_id INTEGER NOT NULL REFERENCES listing(id),
+  position INTEGER NOT NULL,
+  item_key TEXT NOT NULL,
+  fields TEXT NOT NULL DEFAULT '{}',      -- JSON object of extracted fields
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX listing_item_listing ON listing_item(listing_id);
+
+CREATE TABLE item_label(                  -- item key -> group level (labels file)
+  id INTEGER PRIMARY KEY,
+  item_key TEXT NOT NULL,
+  factor TEXT NOT NULL,
+  level TEXT NOT NULL,
+  audit_seq INTEGER NOT NULL);
+
+CREATE TABLE fetch_log(                   -- every URL considered by fetch, fetched or not
+  id INTEGER PRIMARY KEY,
+  url TEXT NOT NULL,
+  at TEXT NOT NULL,
+  outcome TEXT NOT NULL,                  -- fetched | robots | allowlist | limit | failed
+  http_status INTEGER,
+  detail TEXT,
+  snapshot_sha256 TEXT,
+  audit_seq INTEGER NOT NULL);
+
+CREATE TABLE mail_message(
+  id INTEGER PRIMARY KEY,
+  message_id TEXT NOT NULL UNIQUE,
+  mailbox TEXT,
+  from_addr TEXT,
+  to_addr TEXT,
+  subject TEXT,
+  sent_date TEXT,
+  body_sha256 TEXT,
+  excerpt TEXT,                           -- purge clears it
+  probe_id INTEGER REFERENCES probe(id),  -- NULL: unmatched, waits in the review queue
+  match_reason TEXT,
+  suggested_code TEXT,
+  evidence TEXT,
+  audit_seq INTEGER NOT NULL);
+
+CREATE TABLE review_decision(
+  id INTEGER PRIMARY KEY,
+  mail_message_id INTEGER NOT NULL REFERENCES mail_message(id),
+  decision TEXT NOT NULL,                 -- confirmed | changed | dismissed
+  response_id INTEGER REFERENCES response(id),
+  decided_by TEXT NOT NULL,
+  decided_at TEXT NOT NULL,
+  audit_seq INTEGER NOT NULL);
+
+CREATE TABLE audit(
+  seq INTEGER PRIMARY KEY,
+  at TEXT NOT NULL,
+  actor TEXT NOT NULL,
+  command TEXT NOT NULL,
+  summary TEXT NOT NULL,
+  content_sha256 TEXT NOT NULL,           -- digest of every sealed row carrying this seq
+  prev_hash TEXT NOT NULL,
+  hash TEXT NOT NULL);
+
+-- verify and sealing read the rows of one audit entry at a time.
+CREATE INDEX meta_seq ON meta(audit_seq);
+CREATE INDEX plan_seq ON plan(audit_seq);
+CREATE INDEX factor_seq ON factor(audit_seq);
+CREATE INDEX level_seq ON level(audit_seq);
+CREATE INDEX arm_seq ON arm(audit_seq);
+CREATE INDEX arm_level_seq ON arm_level(audit_seq);
+CREATE INDEX vacancy_seq ON vacancy(audit_seq);
+CREATE INDEX vacancy_stratum_seq ON vacancy_stratum(audit_seq);
+CREATE INDEX profile_seq ON profile(audit_seq);
+CREATE INDEX probe_seq ON probe(audit_seq);
+CREATE INDEX sending_seq ON sending(audit_seq);
+CREATE INDEX response_seq ON response(audit_seq);
+CREATE INDEX import_file_seq ON import_file(audit_seq);
+CREATE INDEX listing_seq ON listing(audit_seq);
+CREATE INDEX listing_item_seq ON listing_item(audit_seq);
+CREATE INDEX item_label_seq ON item_label(audit_seq);
+CREATE INDEX fetch_log_seq ON fetch_log(audit_seq);
+CREATE INDEX mail_message_seq ON mail_message(audit_seq);
+CREATE INDEX review_decision_seq ON review_decision(audit_seq);
+
+-- What analysis reads: the newest plan, and the current response of each probe.
+CREATE VIEW current_plan AS SELECT * FROM plan WHERE id = (SELECT max(id) FROM plan);
+CREATE VIEW current_probe AS SELECT * FROM probe WHERE plan_id = (SELECT max(id) FROM plan);
+CREATE VIEW current_response AS
+  SELECT r.* FROM response r
+  WHERE NOT EXISTS (SELECT 1 FROM response s WHERE s.supersedes = r.id);
+)SQL";
+
+struct Migration {
+  int version;
+  const char* sql;
+};
+
+const Migration kMigrations[] = {{1, kMigration1}};
+
+}  // namespace
+
+void Migrate(Store& store) {
+  int current = store.schema_version();
+  for (const Migration& m : kMigrations) {
+    if (m.version <= current) continue;
+    Transaction tx(store);
+    store.Exec(m.sql);
+    store.Exec("PRAGMA user_version = " + std::to_string(m.version));
+    tx.Commit();
+  }
+}
+
+const std::vector<SealedTable>& SealedTables() {
+  static const std::vector<SealedTable> tables = {
+      {"meta", {}},          {"plan", {}},           {"factor", {}},       {"level", {}},
+      {"arm", {}},           {"arm_level", {}},      {"vacancy", {}},      {"vacancy_stratum", {}},
+      {"profile", {}},       {"probe", {}},          {"sending", {}},      {"response", {"note"}},
+      {"import_file", {}},   {"listing", {}},        {"listing_item", {}}, {"item_label", {}},
+      {"fetch_log", {}},     {"mail_message", {"excerpt"}}, {"review_decision", {}},
+  };
+  return tables;
+}
+
+}  // namespace twinprobe

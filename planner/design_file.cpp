@@ -1,0 +1,511 @@
+#include "planner/design_file.h"
+
+#include <toml++/toml.h>
+
+#include <algorithm>
+#include <filesystem>
+#include <fstream>
+#include <set>
+#include <sstream>
+
+#include "core/suggest.h"
+
+namespace twinprobe {
+namespace fs = std::filesystem;
+namespace {
+
+// Walks the parsed TOML and turns every problem into one positioned error.
+class DesignReader {
+ public:
+  DesignReader(const toml::table& root, std::string label, std::string study_dir)
+      : root_(root), label_(std::move(label)), dir_(std::move(study_dir)) {}
+
+  Result<Design> Read();
+
+ private:
+  std::string Where(const toml::node* node) const {
+    if (!node) return label_;
+    const auto& b = node->source().begin;
+    return label_ + ":" + std::to_string(b.line) + ":" + std::to_string(b.column);
+  }
+  SourcePos Pos(const toml::node* node) const {
+    if (!node) return {};
+    return {static_cast<int>(node->source().begin.line), static_cast<int>(node->source().begin.column)};
+  }
+  void Fail(const toml::node* node, std::string what, std::string fix) {
+    if (!error_) error_ = BadInput(Where(node), std::move(what), std::move(fix));
+  }
+  void CheckKeys(const toml::table& t, const std::string& section, const std::vector<std::string>& allowed);
+  const toml::table* Table(const toml::table& parent, const std::string& key, bool required);
+  std::string String(const toml::table& t, const std::string& section, const std::string& key, bool required,
+                     const std::string& fallback = {});
+  int64_t Integer(const toml::table& t, const std::string& section, const std::string& key, int64_t fallback,
+                  int64_t min, int64_t max);
+  double Real(const toml::table& t, const std::string& section, const std::string& key, double fallback,
+              double min, double max);
+  std::vector<std::string> Strings(const toml::table& t, const std::string& section, const std::string& key,
+                                   bool required, std::vector<std::string> fallback = {});
+  void CheckFile(const toml::node* node, const std::string& rel, const std::string& what);
+
+  void ReadStudy(Design& d);
+  void ReadFactors(Design& d);
+  void ReadArms(Design& d);
+  void ReadProfiles(Design& d);
+  void ReadTemplates(Design& d);
+  void ReadSchedule(Design& d);
+  void ReadOutcomes(Design& d);
+  void ReadRest(Design& d);
+
+  const toml::table& root_;
+  std::string label_;
+  std::string dir_;
+  std::optional<Error> error_;
+};
+
+void DesignReader::CheckKeys(const toml::table& t, const std::string& section,
+                             const std::vector<std::string>& allowed) {
+  for (const auto& [key, node] : t) {
+    std::string k(key.str());
+    if (std::find(allowed.begin(), allowed.end(), k) == allowed.end())
+      Fail(&node, "unknown key '" + k + "' in " + section + DidYouMean(k, allowed),
+           "the keys allowed here are: " + [&] {
+             std::string s;
+             for (const auto& a : allowed) s += (s.empty() ? "" : ", ") + a;
+             return s;
+           }());
+  }
+}
+
+const toml::table* DesignReader::Table(const toml::table& parent, const std::string& key, bool required) {
+  const toml::node* n = parent.get(key);
+  if (!n) {
+    if (required) Fail(nullptr, "the section [" + key + "] is missing", "add it; see 'twinprobe init' for an example");
+    return nullptr;
+  }
+  if (!n->is_table()) {
+    Fail(n, "'" + key + "' must be a section (a table)", "write it as [" + key + "]");
+    return nullptr;
+  }
+  return n->as_table();
+}
+
+std::string DesignReader::String(const toml::table& t, const std::string& section, const std::string& key,
+                                 bool required, const std::string& fallback) {
+  const toml::node* n = t.get(key);
+  if (!n) {
+    if (required) Fail(&t, section + "." + key + " is missing", "add " + key + " = \"…\" under " + section);
+    return fallback;
+  }
+  if (!n->is_string()) {
+    Fail(n, section + "." + key + " must be a text in quotes", "write " + key + " = \"…\"");
+    return fallback;
+  }
+  return std::string(n->as_string()->get());
+}
+
+int64_t DesignReader::Integer(const toml::table& t, const std::string& section, const std::string& key,
+                              int64_t fallback, int64_t min, int64_t max) {
+  const toml::node* n = t.get(key);
+  if (!n) return fallback;
+  if (!n->is_integer()) {
+    Fail(n, section + "." + key + " must be a whole number", "write " + key + " = 42");
+    return fallback;
+  }
+  int64_t v = n->as_integer()->get();
+  if (v < min || v > max)
+    Fail(n, section + "." + key + " must be between " + std::to_string(min) + " and " + std::to_string(max) +
+                ", got " + std::to_string(v),
+         "choose a value in that range");
+  return v;
+}
+
+double DesignReader::Real(const toml::table& t, const std::string& section, const std::string& key,
+                          double fallback, double min, double max) {
+  const toml::node* n = t.get(key);
+  if (!n) return fallback;
+  double v;
+  if (n->is_floating_point()) v = n->as_floating_point()->get();
+  else if (n->is_integer()) v = static_cast<double>(n->as_integer()->get());
+  else {
+    Fail(n, section + "." + key + " must be a number", "write " + key + " = 0.05");
+    return fallback;
+  }
+  if (!(v > min && v < max)) {
+    std::ostringstream os;
+    os << section << "." << key << " must be above " << min << " and below " << max << ", got " << v;
+    Fail(n, os.str(), "choose a value in that range");
+  }
+  return v;
+}
+
+std::vector<std::string> DesignReader::Strings(const toml::table& t, const std::string& section,
+                                               const std::string& key, bool required,
+                                               std::vector<std::string> fallback) {
+  const toml::node* n = t.get(key);
+  if (!n) {
+    if (required) Fail(&t, section + "." + key + " is missing", "add " + key + " = [\"…\", \"…\"]");
+    return fallback;
+  }
+  if (!n->is_array()) {
+    Fail(n, section + "." + key + " must be a list of texts", "write " + key + " = [\"…\", \"…\"]");
+    return fallback;
+  }
+  std::vector<std::string> out;
+  for (const auto& el : *n->as_array()) {
+    if (!el.is_string()) {
+      Fail(&el, section + "." + key + " must hold only texts in quotes", "quote every entry");
+      return fallback;
+    }
+    std::string v(el.as_string()->get());
+    if (std::find(out.begin(), out.end(), v) != out.end())
+      Fail(&el, section + "." + key + " lists '" + v + "' twice", "remove the duplicate");
+    out.push_back(v);
+  }
+  return out;
+}
+
+void DesignReader::CheckFile(const toml::node* node, const std::string& rel, const std::string& what) {
+  if (dir_.empty()) return;
+  fs::path p(rel);
+  if (p.is_absolute() || rel.find("..") != std::string::npos) {
+    Fail(node, what + " '" + rel + "' is outside the study folder", "give a path inside the study folder");
+    return;
+  }
+  if (!fs::is_regular_file(fs::path(dir_) / p))
+    Fail(node, what + " '" + rel + "' does not exist in the study folder", "create it or fix the path");
+}
+
+void DesignReader::ReadStudy(Design& d) {
+  const toml::table* s = Table(root_, "study", true);
+  if (!s) return;
+  CheckKeys(*s, "[study]", {"id", "title", "seed", "kind"});
+  d.study_id = String(*s, "[study]", "id", true);
+  for (char c : d.study_id)
+    if (!(std::isalnum(static_cast<unsigned char>(c)) || c == '-' || c == '_' || c == '.')) {
+      Fail(s->get("id"), "[study].id may hold only letters, digits, '-', '_' and '.'", "rename the study id");
+      break;
+    }
+  d.title = String(*s, "[study]", "title", false, d.study_id);
+  d.seed = static_cast<uint64_t>(Integer(*s, "[study]", "seed", 1, 0, INT64_MAX));
+  d.kind = String(*s, "[study]", "kind", false, "paired");
+  if (d.kind != "paired" && d.kind != "sets" && d.kind != "unpaired")
+    Fail(s->get("kind"), "[study].kind must be paired, sets or unpaired, got '" + d.kind + "'" +
+                             DidYouMean(d.kind, {"paired", "sets", "unpaired"}),
+         "pick one of the three");
+}
+
+void DesignReader::ReadFactors(Design& d) {
+  const toml::node* n = root_.get("factor");
+  if (!n) {
+    Fail(nullptr, "no [[factor]] is declared", "declare the protected attribute under test as [[factor]]");
+    return;
+  }
+  if (!n->is_array_of_tables()) {
+    Fail(n, "'factor' must be written as [[factor]] sections", "write [[factor]] once per attribute");
+    return;
+  }
+  for (const auto& el : *n->as_array()) {
+    const toml::table& t = *el.as_table();
+    CheckKeys(t, "[[factor]]", {"name", "levels", "reference"});
+    Factor f;
+    f.pos = Pos(&t);
+    f.name = String(t, "[[factor]]", "name", true);
+    f.levels = Strings(t, "[[factor]]", "levels", true);
+    if (f.levels.size() < 2 && !error_) Fail(t.get("levels"), "factor '" + f.name + "' needs at least two levels", "list two or more levels");
+    f.reference = String(t, "[[factor]]", "reference", false, f.levels.empty() ? "" : f.levels[0]);
+    if (!f.levels.empty() && std::find(f.levels.begin(), f.levels.end(), f.reference) == f.levels.end())
+      Fail(t.get("reference"), "the reference level '" + f.reference + "' is not a level of '" + f.name + "'" +
+                                   DidYouMean(f.reference, f.levels),
+           "use one of its levels");
+    for (const auto& g : d.factors)
+      if (g.name == f.name) Fail(t.get("name"), "factor '" + f.name + "' is declared twice", "rename or remove one");
+    d.factors.push_back(f);
+  }
+}
+
+std::string ArmLabel(const std::map<std::string, std::string>& levels) {
+  std::string label;
+  for (const auto& [f, l] : levels) label += (label.empty() ? "" : ",") + f + "=" + l;
+  return label;
+}
+
+void DesignReader::ReadArms(Design& d) {
+  const toml::table* a = Table(root_, "arms", false);
+  std::vector<std::map<std::string, std::string>> combos;
+  if (a) CheckKeys(*a, "[arms]", {"include", "list"});
+  const toml::node* list = a ? a->get("list") : nullptr;
+  if (list) {
+    if (!list->is_array()) {
+      Fail(list, "[arms].list must be a list of inline tables", "write list = [{origin = \"inland\"}, …]");
+      return;
+    }
+    for (const auto& el : *list->as_array()) {
+      if (!el.is_table()) {
+        Fail(&el, "each entry of [arms].list must be an inline table", "write {factor = \"level\"}");
+        return;
+      }
+      std::map<std::string, std::string> combo;
+      for (const auto& [k, v] : *el.as_table()) {
+        std::string fk(k.str());
+        auto fit = std::find_if(d.factors.begin(), d.factors.end(), [&](const Factor& f) { return f.name == fk; });
+        std::vector<std::string> names;
+        for (const auto& f : d.factors) names.push_back(f.name);
+        if (fit == d.factors.end()) {
+          Fail(&v, "arm names unknown factor '" + fk + "'" + DidYouMean(fk, names), "declare it as [[factor]] or fix the name");
+          return;
+        }
+        std::string lv = v.is_string() ? std::string(v.as_string()->get()) : "";
+        if (std::find(fit->levels.begin(), fit->levels.end(), lv) == fit->levels.end()) {
+          Fail(&v, "arm names unknown level '" + lv + "' of factor '" + fk + "'" + DidYouMean(lv, fit->levels),
+               "use one of its levels");
+          return;
+        }
+        combo[fk] = lv;
+      }
+      if (combo.size() != d.factors.size()) {
+        Fail(&el, "each arm must give a level for every factor", "add the missing factors to this arm");
+        return;
+      }
+      combos.push_back(combo);
+    }
+  } else {
+    std::string include = a ? String(*a, "[arms]", "include", false, "all") : "all";
+    if (include != "all") {
+      Fail(a->get("include"), "[arms].include must be \"all\"", "or list the arms with list = [...]");
+      return;
+    }
+    combos.push_back({});
+    for (const auto& f : d.factors) {
+      std::vector<std::map<std::string, std::string>> next;
+      for (const auto& c : combos)
+        for (const auto& l : f.levels) {
+          auto e = c;
+          e[f.name] = l;
+          next.push_back(e);
+        }
+      combos = next;
+    }
+  }
+  for (const auto& c : combos) {
+    Arm arm;
+    arm.levels = c;
+    arm.label = ArmLabel(c);
+    arm.is_reference = std::all_of(d.factors.begin(), d.factors.end(),
+                                   [&](const Factor& f) { return c.at(f.name) == f.reference; });
+    for (const auto& other : d.arms)
+      if (other.label == arm.label) Fail(list, "arm " + arm.label + " is listed twice", "remove the duplicate");
+    d.arms.push_back(arm);
+  }
+  auto ref = std::find_if(d.arms.begin(), d.arms.end(), [](const Arm& x) { return x.is_reference; });
+  if (ref == d.arms.end()) {
+    Fail(list, "no arm has every factor at its reference level", "add the reference arm to [arms].list");
+    return;
+  }
+  d.reference_arm = static_cast<int>(ref - d.arms.begin());
+  if (d.kind == "paired" && d.arms.size() != 2)
+    Fail(a ? static_cast<const toml::node*>(a) : nullptr,
+         "a paired study needs exactly two arms, this design has " + std::to_string(d.arms.size()),
+         "use kind = \"sets\" for more arms, or list two arms in [arms].list");
+}
+
+void DesignReader::ReadProfiles(Design& d) {
+  const toml::table* p = Table(root_, "profiles", true);
+  if (!p) return;
+  CheckKeys(*p, "[profiles]", {"mailbox", "phone", "pool"});
+  d.mailbox_pattern = String(*p, "[profiles]", "mailbox", false, d.mailbox_pattern);
+  d.phone_pattern = String(*p, "[profiles]", "phone", false, "");
+  const toml::node* pools = p->get("pool");
+  if (pools && !pools->is_array_of_tables()) {
+    Fail(pools, "name pools must be written as [[profiles.pool]] sections", "write one [[profiles.pool]] per level");
+    return;
+  }
+  if (pools) {
+    for (const auto& el : *pools->as_array()) {
+      const toml::table& t = *el.as_table();
+      CheckKeys(t, "[[profiles.pool]]", {"factor", "level", "file"});
+      NamePool np{String(t, "[[profiles.pool]]", "factor", true), String(t, "[[profiles.pool]]", "level", true),
+                  String(t, "[[profiles.pool]]", "file", true)};
+      auto fit = std::find_if(d.factors.begin(), d.factors.end(), [&](const Factor& f) { return f.name == np.factor; });
+      if (fit == d.factors.end()) {
+        Fail(t.get("factor"), "name pool for unknown factor '" + np.factor + "'", "use a declared factor");
+        continue;
+      }
+      if (std::find(fit->levels.begin(), fit->levels.end(), np.level) == fit->levels.end())
+        Fail(t.get("level"), "name pool for unknown level '" + np.level + "' of '" + np.factor + "'" +
+                                 DidYouMean(np.level, fit->levels),
+             "use one of its levels");
+      CheckFile(t.get("file"), np.file, "the name pool");
+      d.name_pools.push_back(np);
+    }
+  }
+  // Names signal the first factor; every one of its levels needs a pool.
+  if (!d.factors.empty()) {
+    const Factor& f = d.factors.front();
+    for (const auto& l : f.levels) {
+      bool has = std::any_of(d.name_pools.begin(), d.name_pools.end(),
+                             [&](const NamePool& np) { return np.factor == f.name && np.level == l; });
+      if (!has)
+        Fail(p, "level '" + l + "' of factor '" + f.name + "' has no name pool",
+             "add [[profiles.pool]] with factor = \"" + f.name + "\", level = \"" + l + "\" and a names file");
+    }
+  }
+}
+
+void DesignReader::ReadTemplates(Design& d) {
+  const toml::table* t = Table(root_, "templates", true);
+  if (!t) return;
+  CheckKeys(*t, "[templates]", {"files", "factor_fields"});
+  d.templates = Strings(*t, "[templates]", "files", true);
+  const toml::node* files = t->get("files");
+  if (files && files->is_array())
+    for (size_t i = 0; i < d.templates.size(); ++i) CheckFile(files->as_array()->get(i), d.templates[i], "the template");
+  d.factor_fields = Strings(*t, "[templates]", "factor_fields", false,
+                            {"given_name", "family_name", "full_name", "mailbox", "phone"});
+  if (d.kind != "unpaired" && d.templates.size() < d.arms.size() && !error_)
+    Fail(files, "a " + d.kind + " study with " + std::to_string(d.arms.size()) + " arms needs at least " +
+                    std::to_string(d.arms.size()) + " templates, so no two probes of one set share one",
+         "add templates to [templates].files");
+}
+
+void DesignReader::ReadSchedule(Design& d) {
+  const toml::table* s = Table(root_, "schedule", false);
+  if (!s) return;
+  CheckKeys(*s, "[schedule]", {"start", "gap_hours", "weekdays"});
+  d.schedule.start = String(*s, "[schedule]", "start", false, "");
+  if (const toml::node* g = s->get("gap_hours")) {
+    const toml::array* arr = g->as_array();
+    if (!arr || arr->size() != 2 || !arr->get(0)->is_integer() || !arr->get(1)->is_integer()) {
+      Fail(g, "[schedule].gap_hours must be two whole numbers [min, max]", "write gap_hours = [24, 72]");
+    } else {
+      d.schedule.gap_min_hours = static_cast<int>(arr->get(0)->as_integer()->get());
+      d.schedule.gap_max_hours = static_cast<int>(arr->get(1)->as_integer()->get());
+      if (d.schedule.gap_min_hours < 0)
+        Fail(g, "[schedule].gap_hours cannot be negative", "use hours of 0 or more");
+      else if (d.schedule.gap_min_hours > d.schedule.gap_max_hours)
+        Fail(g, "[schedule].gap_hours is reversed: min " + std::to_string(d.schedule.gap_min_hours) + " > max " +
+                    std::to_string(d.schedule.gap_max_hours),
+             "write the smaller number first");
+    }
+  }
+  static const std::vector<std::string> kDays = {"mon", "tue", "wed", "thu", "fri", "sat", "sun"};
+  if (s->get("weekdays")) {
+    d.schedule.weekdays.clear();
+    for (const auto& w : Strings(*s, "[schedule]", "weekdays", false)) {
+      auto it = std::find(kDays.begin(), kDays.end(), w);
+      if (it == kDays.end())
+        Fail(s->get("weekdays"), "unknown weekday '" + w + "'" + DidYouMean(w, kDays), "use mon, tue, … sun");
+      else
+        d.schedule.weekdays.push_back(static_cast<int>(it - kDays.begin()));
+    }
+    if (d.schedule.weekdays.empty() && !error_)
+      Fail(s->get("weekdays"), "[schedule].weekdays is empty", "list at least one sending day");
+  }
+}
+
+void DesignReader::ReadOutcomes(Design& d) {
+  const toml::table* o = Table(root_, "outcomes", false);
+  if (!o) return;
+  CheckKeys(*o, "[outcomes]", {"codes", "positive", "window_days"});
+  d.outcomes.codes = Strings(*o, "[outcomes]", "codes", false, d.outcomes.codes);
+  d.outcomes.positive = Strings(*o, "[outcomes]", "positive", false, d.outcomes.positive);
+  d.outcomes.window_days = static_cast<int>(Integer(*o, "[outcomes]", "window_days", 28, 1, 3650));
+  for (const auto& p : d.outcomes.positive)
+    if (!d.outcomes.has_code(p))
+      Fail(o->get("positive"), "positive code '" + p + "' is not among [outcomes].codes" + DidYouMean(p, d.outcomes.codes),
+           "add it to codes or fix the spelling");
+  if (d.outcomes.positive.empty() && !error_)
+    Fail(o, "[outcomes].positive is empty", "say which codes count as a positive callback");
+}
+
+void DesignReader::ReadRest(Design& d) {
+  if (const toml::table* s = Table(root_, "strata", false)) {
+    CheckKeys(*s, "[strata]", {"columns"});
+    d.strata = Strings(*s, "[strata]", "columns", false);
+  }
+  if (const toml::table* v = Table(root_, "vacancies", false)) {
+    CheckKeys(*v, "[vacancies]", {"file"});
+    d.vacancies_file = String(*v, "[vacancies]", "file", false, d.vacancies_file);
+    CheckFile(v->get("file"), d.vacancies_file, "the vacancies file");
+  }
+  if (const toml::table* a = Table(root_, "analysis", false)) {
+    CheckKeys(*a, "[analysis]", {"primary", "correction", "alpha", "looks"});
+    d.analysis.primary = String(*a, "[analysis]", "primary", false, d.analysis.primary);
+    d.analysis.correction = String(*a, "[analysis]", "correction", false, d.analysis.correction);
+    static const std::vector<std::string> kCorrections = {"none", "bonferroni", "holm", "hochberg", "hommel", "bh", "by"};
+    if (std::find(kCorrections.begin(), kCorrections.end(), d.analysis.correction) == kCorrections.end())
+      Fail(a->get("correction"), "unknown correction '" + d.analysis.correction + "'" +
+                                     DidYouMean(d.analysis.correction, kCorrections),
+           "use none, bonferroni, holm, hochberg, hommel, bh or by");
+    d.analysis.alpha = Real(*a, "[analysis]", "alpha", 0.05, 0.0, 1.0);
+    if (const toml::node* looks = a->get("looks")) {
+      const toml::array* arr = looks->as_array();
+      if (!arr) Fail(looks, "[analysis].looks must be a list of whole numbers", "write looks = [200, 400]");
+      else
+        for (const auto& el : *arr) {
+          if (!el.is_integer() || el.as_integer()->get() <= 0) {
+            Fail(&el, "[analysis].looks must hold positive whole numbers", "write looks = [200, 400]");
+            break;
+          }
+          d.analysis.looks.push_back(static_cast<int>(el.as_integer()->get()));
+        }
+    }
+  }
+  if (const toml::table* e = Table(root_, "ethics", false)) {
+    CheckKeys(*e, "[ethics]", {"approval", "retention_days", "decline_within_hours", "cap_per_employer"});
+    d.ethics.present = true;
+    d.ethics.approval = String(*e, "[ethics]", "approval", false);
+    d.ethics.retention_days = static_cast<int>(Integer(*e, "[ethics]", "retention_days", 0, 1, 36500));
+    d.ethics.decline_within_hours = static_cast<int>(Integer(*e, "[ethics]", "decline_within_hours", 0, 1, 720));
+    d.ethics.cap_per_employer = static_cast<int>(Integer(*e, "[ethics]", "cap_per_employer", 0, 1, 1000));
+  }
+}
+
+Result<Design> DesignReader::Read() {
+  CheckKeys(root_, "the design",
+            {"study", "factor", "arms", "profiles", "templates", "vacancies", "schedule", "outcomes", "strata",
+             "analysis", "ethics", "source", "mail"});
+  Design d;
+  ReadStudy(d);
+  if (!error_) ReadFactors(d);
+  if (!error_) ReadArms(d);
+  if (!error_) ReadProfiles(d);
+  if (!error_) ReadTemplates(d);
+  if (!error_) ReadSchedule(d);
+  if (!error_) ReadOutcomes(d);
+  if (!error_) ReadRest(d);
+  if (error_) return *error_;
+  // Canonical form: the parsed tables as JSON with keys in sorted order
+  // (toml++ keeps tables ordered), so comments and layout do not change it.
+  std::ostringstream os;
+  os << toml::json_formatter{root_};
+  d.canonical = os.str();
+  return d;
+}
+
+}  // namespace
+
+std::string DesignPath(const std::string& study_dir) { return (fs::path(study_dir) / "study.toml").string(); }
+
+Result<Design> ParseDesign(std::string_view text, const std::string& label, const std::string& study_dir) {
+  toml::table root;
+  try {
+    root = toml::parse(text, label);
+  } catch (const toml::parse_error& e) {
+    const auto& b = e.source().begin;
+    return BadInput(label + ":" + std::to_string(b.line) + ":" + std::to_string(b.column),
+                    "not valid TOML: " + std::string(e.description()), "fix the syntax at this place");
+  }
+  return DesignReader(root, label, study_dir).Read();
+}
+
+Result<Design> LoadDesign(const std::string& study_dir) {
+  std::string path = DesignPath(study_dir);
+  std::ifstream in(path, std::ios::binary);
+  if (!in)
+    return BadInput(path, "no design file here", "run 'twinprobe init' to create one, or pass --study DIR");
+  std::stringstream ss;
+  ss << in.rdbuf();
+  return ParseDesign(ss.str(), path, study_dir);
+}
+
+}  // namespace twinprobe

@@ -1,0 +1,23 @@
+#pragma once
+// Reading and validating the design file, study.toml (DESIGN.md, "The design
+// file"). Every error names study.toml:LINE:COL and says how to fix it.
+#include <string>
+#include <string_view>
+
+#include "core/design.h"
+#include "core/status.h"
+
+namespace twinprobe {
+
+// Reads DIR/study.toml. Files the design names (name pools, templates) are
+// checked to exist inside DIR.
+Result<Design> LoadDesign(const std::string& study_dir);
+
+// Parses design text. `label` is the file name used in messages; `study_dir`
+// is where referenced files are looked up ("" skips file checks).
+Result<Design> ParseDesign(std::string_view text, const std::string& label, const std::string& study_dir);
+
+// Path of the design file in a study folder.
+std::string DesignPath(const std::string& study_dir);
+
+}  // namespace twinprobe

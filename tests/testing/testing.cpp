@@ -1,0 +1,68 @@
+#include "testing/testing.h"
+
+#include <unistd.h>
+#include <sys/wait.h>
+
+#include <cstdlib>
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+#include <stdexcept>
+
+namespace twinprobe::testing {
+namespace fs = std::filesystem;
+
+TempDir::TempDir() {
+  std::string templ = (fs::temp_directory_path() / "twinprobe-test-XXXXXX").string();
+  if (!mkdtemp(templ.data())) throw std::runtime_error("mkdtemp failed");
+  path_ = templ;
+}
+
+TempDir::~TempDir() {
+  std::error_code ec;
+  fs::remove_all(path_, ec);
+}
+
+namespace {
+std::string ShellQuote(const std::string& s) {
+  std::string out = "'";
+  for (char c : s) {
+    if (c == '\'') out += "'\\''";
+    else out += c;
+  }
+  return out + "'";
+}
+}  // namespace
+
+std::string ReadFile(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  std::stringstream ss;
+  ss << in.rdbuf();
+  return ss.str();
+}
+
+void WriteFile(const std::string& path, const std::string& content) {
+  fs::create_directories(fs::path(path).parent_path());
+  std::ofstream out(path, std::ios::binary);
+  out << content;
+}
+
+std::string SourceDir() { return TWINPROBE_SOURCE_DIR; }
+std::string BinaryPath() { return TWINPROBE_BIN; }
+
+CliRun RunCli(const std::vector<std::string>& args, const std::vector<std::string>& env) {
+  TempDir io;
+  std::string cmd;
+  for (const auto& e : env) cmd += e + " ";
+  cmd += ShellQuote(BinaryPath());
+  for (const auto& a : args) cmd += " " + ShellQuote(a);
+  cmd += " </dev/null >" + ShellQuote(io / "out") + " 2>" + ShellQuote(io / "err");
+  int status = std::system(cmd.c_str());
+  CliRun r;
+  r.exit_code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
+  r.out = ReadFile(io / "out");
+  r.err = ReadFile(io / "err");
+  return r;
+}
+
+}  // namespace twinprobe::testing

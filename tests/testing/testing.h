@@ -1,0 +1,40 @@
+#pragma once
+// Shared test fixtures: temporary folders and running the real twinprobe
+// binary (end-to-end tests use the executable, not a mock).
+#include <string>
+#include <vector>
+
+namespace twinprobe::testing {
+
+// A fresh folder under the system temp dir, removed with its contents.
+class TempDir {
+ public:
+  TempDir();
+  ~TempDir();
+  TempDir(const TempDir&) = delete;
+  TempDir& operator=(const TempDir&) = delete;
+  const std::string& path() const { return path_; }
+  std::string operator/(const std::string& rel) const { return path_ + "/" + rel; }
+
+ private:
+  std::string path_;
+};
+
+struct CliRun {
+  int exit_code = -1;
+  std::string out;
+  std::string err;
+};
+
+// Runs `twinprobe ARGS...` (each arg shell-quoted) with `env` assignments
+// ("NAME=value") prepended. Standard input is /dev/null.
+CliRun RunCli(const std::vector<std::string>& args, const std::vector<std::string>& env = {});
+
+std::string ReadFile(const std::string& path);
+void WriteFile(const std::string& path, const std::string& content);
+
+// Path of the source tree (for fixtures) and of the built binary.
+std::string SourceDir();
+std::string BinaryPath();
+
+}  // namespace twinprobe::testing
