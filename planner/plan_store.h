@@ -26,10 +26,4 @@ struct PlanSummary {
 Result<PlanSummary> StorePlan(Store& store, const Design& design, const std::vector<Vacancy>& vacancies,
                               const Plan& plan);
 
-// Stores factors/levels/arms for a new plan row and returns the plan id and
-// arm ids (in design order). Shared by `plan` and by imports that create a
-// study from data. Must run inside an AuditedWrite with sequence `seq`.
-int64_t StorePlanHeader(Store& store, int64_t seq, const std::string& origin, const Design& design,
-                        std::vector<int64_t>& arm_ids);
-
 }  // namespace twinprobe

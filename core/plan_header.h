@@ -1,0 +1,21 @@
+#pragma once
+// The head of a plan in the store: a plan row, the study's meta (id, title,
+// outcome scheme, strata), its factors, levels and arms. Shared by `plan` and
+// by imports that create a study from data (`import pairs`).
+#include <cstdint>
+#include <string>
+#include <vector>
+
+#include "core/design.h"
+
+namespace twinprobe {
+
+class Store;
+
+// Inserts the plan header under audit entry `seq` (call inside an
+// AuditedWrite). `origin` is "plan" or "import". Returns the new plan id and
+// fills `arm_ids` with the arms' row ids in design order.
+int64_t StorePlanHeader(Store& store, int64_t seq, const std::string& origin, const Design& design,
+                        std::vector<int64_t>& arm_ids);
+
+}  // namespace twinprobe
