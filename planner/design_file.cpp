@@ -9,6 +9,7 @@
 #include <sstream>
 
 #include "core/suggest.h"
+#include "planner/mail_section.h"
 
 namespace twinprobe {
 namespace fs = std::filesystem;
@@ -473,6 +474,7 @@ Result<Design> DesignReader::Read() {
   if (!error_) ReadSchedule(d);
   if (!error_) ReadOutcomes(d);
   if (!error_) ReadRest(d);
+  if (Status mail = error_ ? Status() : ReadMailSection(root_, label_, d); !mail.ok()) error_ = mail.error();
   if (error_) return *error_;
   // Canonical form: the parsed tables as JSON with keys in sorted order
   // (toml++ keeps tables ordered), so comments and layout do not change it.
