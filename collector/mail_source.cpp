@@ -26,6 +26,13 @@ bool IsEscapedFrom(std::string_view line) {
   return k > 0 && line.substr(k).rfind("From ", 0) == 0;
 }
 
+// The empty line before a separator (or at the end of the file) belongs to
+// the mbox, not to the message: removes it when `raw` ends with one.
+void DropSeparatorLine(std::string& raw) {
+  if (raw.size() >= 2 && raw.compare(raw.size() - 2, 2, "\n\n") == 0) raw.pop_back();
+  else if (raw.size() >= 4 && raw.compare(raw.size() - 4, 4, "\r\n\r\n") == 0) raw.resize(raw.size() - 2);
+}
+
 }  // namespace
 
 std::string CanonicalRaw(const std::string& raw) {
@@ -64,11 +71,7 @@ Result<std::vector<RawMail>> ReadMbox(const std::string& path) {
     bool separator = bare.rfind("From ", 0) == 0 && previous_empty &&
                      (current == nullptr || ParseMboxFromLineDate(bare).has_value());
     if (separator) {
-      if (current && current->raw.size() >= 1 && current->raw.back() == '\n') {
-        // The empty line before a separator belongs to the separator.
-        size_t cut = current->raw.size() >= 2 && current->raw[current->raw.size() - 2] == '\r' ? 2 : 1;
-        if (current->raw.size() > cut) current->raw.resize(current->raw.size() - cut);
-      }
+      if (current) DropSeparatorLine(current->raw);
       out.push_back({"", path + ":" + std::to_string(line_no), ParseMboxFromLineDate(bare)});
       current = &out.back();
     } else if (current) {
@@ -78,6 +81,7 @@ Result<std::vector<RawMail>> ReadMbox(const std::string& path) {
     previous_empty = bare.empty();
     pos = next;
   }
+  if (current && previous_empty) DropSeparatorLine(current->raw);  // the file ends with one
   return out;
 }
 

@@ -171,7 +171,9 @@ std::string FreshText(std::string_view body, std::string_view subject) {
       forward_seen = true;
     } else if (IsReplyBoundary(lines, i)) {
       if (expect_forwarded_header || (forward_subject && !forward_seen)) {
-        expect_forwarded_header = false;
+        // The forwarded message starts here; a "-----Original Message-----"
+        // line is followed by its header block, which belongs to it too.
+        expect_forwarded_header = !IsHeaderBlockAt(lines, i);
         forward_seen = true;
       } else {
         break;
