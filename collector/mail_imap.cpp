@@ -65,6 +65,10 @@ Error CurlFailure(const std::string& label, CURLcode rc, const char* errbuf, con
   // libcurl's messages do not quote credentials today; make sure they never do.
   detail = Scrub(detail, o.password);
   if (o.user.size() >= 3) detail = Scrub(detail, o.user);
+  // libcurl reports a refused SELECT with the same code as a refused login.
+  if (rc == CURLE_LOGIN_DENIED && detail.find("Select") != std::string::npos)
+    return BadInput(label, "the server refused to open this folder",
+                    "check the folder name in the URL (most servers tell case apart)");
   switch (rc) {
     case CURLE_LOGIN_DENIED:
       return BadInput(label, "the IMAP server refused the login",
