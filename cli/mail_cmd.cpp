@@ -51,6 +51,8 @@ bool IsLoopback(const std::string& url) {
 // "\rreading URL: 12/40" on a terminal; nothing otherwise.
 void ShowProgress(const std::string& label, size_t done, size_t total) {
   if (!isatty(STDERR_FILENO)) return;
+  // Redraw about a hundred times in all, not once per message.
+  if (done != total && total > 100 && done % (total / 100) != 0) return;
   const int width = 30;
   int filled = total ? static_cast<int>(width * done / total) : width;
   std::cerr << "\r" << label << " [" << std::string(filled, '#') << std::string(width - filled, ' ') << "] " << done
@@ -101,7 +103,8 @@ int RunMail(Context& ctx, const MailOptions& o) {
     batches.push_back({s.kind, label, std::move(read.value())});
   }
 
-  auto summary = IngestMail(*store.value(), rules.value(), batches);
+  auto summary = IngestMail(*store.value(), rules.value(), batches,
+                            [](size_t done, size_t total) { ShowProgress("matching", done, total); });
   if (!summary.ok()) return ReportError(summary.error());
   const IntakeSummary& sum = summary.value();
 

@@ -35,18 +35,23 @@ std::string MailKey(const std::string& message_id, const std::string& raw) {
   return "raw:" + Sha256Hex(CanonicalRaw(raw));
 }
 
-Result<IntakeSummary> IngestMail(Store& store, const MailRules& rules, const std::vector<MailBatch>& batches) {
+Result<IntakeSummary> IngestMail(Store& store, const MailRules& rules, const std::vector<MailBatch>& batches,
+                                 const std::function<void(size_t, size_t)>& progress) {
   AuditedWrite write(store, "mail");
   IntakeSummary summary;
   const MatchIndex index = LoadMatchIndex(store);
+  const Suggester suggester(rules);
   Stmt find = store.Prepare("SELECT id FROM mail_message WHERE message_id = ?1");
   Stmt ins = store.Prepare(
       "INSERT INTO mail_message(message_id, mailbox, from_addr, to_addr, subject, sent_date, body_sha256, excerpt, "
       "probe_id, match_reason, suggested_code, evidence, audit_seq) "
       "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13)");
+  size_t total = 0;
+  for (const MailBatch& batch : batches) total += batch.messages.size();
   for (const MailBatch& batch : batches) {
     for (const RawMail& raw : batch.messages) {
       ++summary.read;
+      if (progress) progress(static_cast<size_t>(summary.read), total);
       const MailMessage m = ParseMailMessage(raw.raw);
       const std::string key = MailKey(m.message_id, raw.raw);
       IntakeMessage out;
@@ -65,7 +70,7 @@ Result<IntakeSummary> IngestMail(Store& store, const MailRules& rules, const std
 
       const MatchResult match = MatchMessage(index, m, rules);
       const std::string fresh = FreshText(m.text, m.subject);
-      const Suggestion suggestion = SuggestCode(m.subject, fresh, rules);
+      const Suggestion suggestion = suggester.Suggest(m.subject, fresh);
       std::optional<int64_t> date = m.date ? m.date : raw.envelope_time;
 
       nlohmann::json phrases = nlohmann::json::array(), contexts = nlohmann::json::array();

@@ -15,6 +15,7 @@
 // a person needs to review it (sender, subject, an excerpt, each phrase in
 // its context) are kept in the unsealed `excerpt` column, which purge clears.
 #include <cstdint>
+#include <functional>
 #include <string>
 #include <vector>
 
@@ -60,7 +61,9 @@ struct IntakeSummary {
 std::string MailKey(const std::string& message_id, const std::string& raw);
 
 // Stores the new messages of `batches` in one AuditedWrite ("mail"). Writes
-// nothing when every message was stored before.
-Result<IntakeSummary> IngestMail(Store& store, const MailRules& rules, const std::vector<MailBatch>& batches);
+// nothing when every message was stored before. `progress`, when set, is
+// called after each message with (done, total).
+Result<IntakeSummary> IngestMail(Store& store, const MailRules& rules, const std::vector<MailBatch>& batches,
+                                 const std::function<void(size_t, size_t)>& progress = {});
 
 }  // namespace twinprobe

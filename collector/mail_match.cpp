@@ -71,6 +71,7 @@ MatchIndex LoadMatchIndex(Store& store) {
     p.probe_ref = s.Text(1);
     p.profile_mailbox = s.Text(2);
     p.vacancy_ref = s.Text(3);
+    p.vacancy_ref_folded = FoldPhrase(p.vacancy_ref);
     p.employer_key = s.Text(4);
     p.employer_name = EmployerMatchName(s.Text(5));
     auto contact = ExtractAddresses(s.Text(6));
@@ -121,7 +122,7 @@ MatchResult MatchMessage(const MatchIndex& index, const MailMessage& m, const Ma
       ++n_candidates;
       const MatchProbe& p = index.probes[i];
       Evidence e;
-      e.reference = mentions(FoldPhrase(p.vacancy_ref));
+      e.reference = mentions(p.vacancy_ref_folded.empty() ? FoldPhrase(p.vacancy_ref) : p.vacancy_ref_folded);
       std::string employer_domain = AddressDomain(p.employer_contact);
       bool generic = std::find(rules.generic_domains.begin(), rules.generic_domains.end(), employer_domain) !=
                      rules.generic_domains.end();

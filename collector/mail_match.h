@@ -36,6 +36,7 @@ struct MatchProbe {
   std::string probe_ref;        // P00001
   std::string profile_mailbox;  // lowercased
   std::string vacancy_ref;
+  std::string vacancy_ref_folded;  // as FoldPhrase() gives it (filled by LoadMatchIndex)
   std::string employer_key;     // pseudonym
   std::string employer_name;    // folded, parenthesised parts removed; "" after purge
   std::string employer_contact;  // lowercased address; "" if none (or purged)

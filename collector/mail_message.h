@@ -30,8 +30,9 @@ struct MailMessage {
   std::vector<std::string> forwarded_sender_addresses;
   // The body as text. In multipart/alternative text/plain wins, else text/html
   // (through HtmlToText); text parts of multipart/mixed follow one another;
-  // an attached message (message/rfc822) follows as "From: / Date: /
-  // Subject: / To:" lines and its own text. Attachments are left out.
+  // an attached message (message/rfc822) follows as a line
+  // "-------- Attached message --------", its "From: / Date: / Subject: /
+  // To:" lines and its own text. Attachments are left out.
   std::string text;
   int attachments = 0;  // parts left out of `text`
 };

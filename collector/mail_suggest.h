@@ -31,8 +31,23 @@ struct Suggestion {
   std::vector<PhraseEvidence> evidence;  // at most one entry per phrase (its first hit), rules in order
 };
 
-// `fresh_body` is the text FreshText() returns. `context_chars` code points
-// on each side of a hit are kept as its context.
+// The rules with their phrases and negations folded once, for many messages.
+class Suggester {
+ public:
+  explicit Suggester(const MailRules& rules);
+  // `fresh_body` is the text FreshText() returns. `context_chars` code
+  // points on each side of a hit are kept as its context.
+  Suggestion Suggest(std::string_view subject, std::string_view fresh_body, int context_chars = 60) const;
+
+ private:
+  struct Phrase {
+    std::string code, phrase, folded;
+  };
+  std::vector<Phrase> phrases_;  // rules in order, phrases in order
+  std::vector<std::string> negations_;
+};
+
+// Suggester(rules).Suggest(subject, fresh_body, context_chars).
 Suggestion SuggestCode(std::string_view subject, std::string_view fresh_body, const MailRules& rules,
                        int context_chars = 60);
 

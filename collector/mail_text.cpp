@@ -192,6 +192,7 @@ SearchText MakeSearchText(std::string_view text) {
   SearchText st;
   // Collapse whitespace first, so `plain` is what contexts are cut from.
   bool pending = false;
+  st.plain.reserve(text.size());
   for (size_t i = 0; i < text.size();) {
     size_t len;
     uint32_t cp = DecodeAt(text, i, len);
@@ -204,13 +205,15 @@ SearchText MakeSearchText(std::string_view text) {
     }
     i += len;
   }
+  st.folded.reserve(st.plain.size());
+  st.origin.reserve(st.plain.size() + 1);
   for (size_t i = 0; i < st.plain.size();) {
     size_t len;
     uint32_t cp = DecodeAt(st.plain, i, len);
     size_t before = st.folded.size();
     if (cp == 0xFFFD && len == 1) st.folded += st.plain[i];
     else Encode(st.folded, Lower(Plain(cp)));
-    st.origin.insert(st.origin.end(), st.folded.size() - before, static_cast<uint32_t>(i));
+    for (size_t k = before; k < st.folded.size(); ++k) st.origin.push_back(static_cast<uint32_t>(i));
     i += len;
   }
   st.origin.push_back(static_cast<uint32_t>(st.plain.size()));
