@@ -30,6 +30,7 @@ nlohmann::json ItemJson(const ReviewItem& i) {
   return {{"message", i.message},
           {"status", i.status},
           {"date", NullIfEmpty(i.date)},
+          {"date_source", NullIfEmpty(i.date_source)},
           {"source", i.source},
           {"where", NullIfEmpty(i.where)},
           {"probe", NullIfEmpty(i.probe_ref)},
@@ -57,7 +58,10 @@ void PrintItem(const ReviewItem& i) {
   auto row = [](const char* label, const std::string& value) {
     if (!value.empty()) std::cout << "  " << label << std::string(10 - std::string(label).size(), ' ') << value << "\n";
   };
-  row("date", i.date.empty() ? "(none in the message)" : i.date);
+  row("date", i.date.empty()                   ? "(none in the message)"
+              : i.date_source == "forwarded" ? i.date + " (the forwarded message's date)"
+              : i.date_source == "envelope"  ? i.date + " (from the mailbox, the message has no Date)"
+                                             : i.date);
   row("source", i.where.empty() ? i.source : i.where);
   row("profile", i.profile.empty() ? "(no profile's mailbox found)" : i.profile);
   row("employer", i.employer_key);

@@ -356,6 +356,8 @@ std::optional<int64_t> ParseMailDate(std::string_view value) {
     else if (depth == 0) text += c;
   }
   auto w = Words(text);
+  // Mail clients write forwarded dates as "Fri, 5 Mar 2027 at 11:02".
+  w.erase(std::remove_if(w.begin(), w.end(), [](std::string_view x) { return Lower(x) == "at"; }), w.end());
   size_t k = 0;
   if (k < w.size() && !AllDigits(w[k])) ++k;  // day of week
   if (k + 2 >= w.size()) return std::nullopt;

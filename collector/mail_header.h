@@ -60,7 +60,9 @@ std::string AddressDomain(std::string_view address);
 
 // RFC 5322 section 3.3 date-time, with the obsolete forms of section 4.3
 // (two-digit years, zone names UT, GMT, EST … , missing seconds, comments),
-// as UTC seconds since 1970. nullopt if it cannot be read.
+// as UTC seconds since 1970; also the "5 Mar 2027 at 11:02" form mail
+// clients write in forwarded headers (no zone: read as UTC). nullopt if it
+// cannot be read.
 std::optional<int64_t> ParseMailDate(std::string_view value);
 
 // The asctime-style date of an mbox "From " line

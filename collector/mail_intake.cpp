@@ -71,7 +71,10 @@ Result<IntakeSummary> IngestMail(Store& store, const MailRules& rules, const std
       const MatchResult match = MatchMessage(index, m, rules);
       const std::string fresh = FreshText(m.text, m.subject);
       const Suggestion suggestion = suggester.Suggest(m.subject, fresh);
-      std::optional<int64_t> date = m.date ? m.date : raw.envelope_time;
+      // A forward's own date is when the fieldworker passed it on; the
+      // employer's date is in the forwarded header block.
+      std::optional<int64_t> date = m.forwarded_date ? m.forwarded_date : m.date ? m.date : raw.envelope_time;
+      const char* date_source = m.forwarded_date ? "forwarded" : m.date ? "header" : raw.envelope_time ? "envelope" : "none";
 
       nlohmann::json phrases = nlohmann::json::array(), contexts = nlohmann::json::array();
       for (const auto& e : suggestion.evidence) {
@@ -79,6 +82,7 @@ Result<IntakeSummary> IngestMail(Store& store, const MailRules& rules, const std
         contexts.push_back(e.context);
       }
       nlohmann::json evidence = {{"match", MatchStatusName(match.status)},
+                                 {"date", date_source},
                                  {"candidates", match.candidates},
                                  {"phrases", phrases}};
       nlohmann::json excerpt = {{"from", m.from},

@@ -183,6 +183,51 @@ std::vector<std::string> ForwardedSenders(const std::string& text) {
   return out;
 }
 
+bool StartsNoCase(std::string_view s, std::string_view prefix) {
+  return s.size() >= prefix.size() && Lower(s.substr(0, prefix.size())) == prefix;
+}
+
+std::string_view StripLead(std::string_view line) {
+  size_t k = 0;
+  while (k < line.size() && (line[k] == ' ' || line[k] == '*' || line[k] == '\t')) ++k;
+  return line.substr(k);
+}
+
+// Whether the message forwards another, and the date of the forwarded one:
+// after a marker (or, for a Fw: subject, from the start), the first "From:"
+// line opens the forwarded header block; a "Date:" or "Sent:" line within
+// the next five lines carries its date.
+void ReadForward(MailMessage& m) {
+  std::string_view subject = StripLead(m.subject);
+  bool by_subject = StartsNoCase(subject, "fw:") || StartsNoCase(subject, "fwd:") || StartsNoCase(subject, "fw :");
+  std::vector<std::string_view> lines;
+  for (size_t pos = 0; pos <= m.text.size();) {
+    size_t eol = m.text.find('\n', pos);
+    if (eol == std::string::npos) eol = m.text.size();
+    lines.emplace_back(m.text.data() + pos, eol - pos);
+    pos = eol + 1;
+  }
+  bool armed = by_subject;
+  for (size_t i = 0; i < lines.size(); ++i) {
+    std::string l = Lower(StripLead(lines[i]));
+    if (l.find("forwarded message") != std::string::npos || l.rfind("begin forwarded message", 0) == 0 ||
+        l.find("attached message") != std::string::npos) {
+      m.is_forward = true;
+      armed = true;
+      continue;
+    }
+    if (!armed || !StartsNoCase(l, "from:")) continue;
+    for (size_t k = i + 1; k < lines.size() && k <= i + 5 && !m.forwarded_date; ++k) {
+      std::string_view t = StripLead(lines[k]);
+      if (StartsNoCase(t, "date:")) m.forwarded_date = ParseMailDate(t.substr(5));
+      else if (StartsNoCase(t, "sent:")) m.forwarded_date = ParseMailDate(t.substr(5));
+    }
+    break;  // only the first forwarded header block
+  }
+  m.is_forward = m.is_forward || by_subject;
+  if (!m.is_forward) m.forwarded_date.reset();
+}
+
 }  // namespace
 
 MailMessage ParseMailMessage(std::string_view raw) {
@@ -204,6 +249,7 @@ MailMessage ParseMailMessage(std::string_view raw) {
       AppendAddresses(m.recipient_addresses, ExtractAddresses(DecodeHeaderText(v)));
   TextCollector(m).Walk(top, 0);
   m.forwarded_sender_addresses = ForwardedSenders(m.text);
+  ReadForward(m);
   return m;
 }
 

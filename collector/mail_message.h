@@ -28,6 +28,14 @@ struct MailMessage {
   // Addresses on "From:" lines inside the text: the original sender of a
   // forwarded message (inline, or attached as message/rfc822).
   std::vector<std::string> forwarded_sender_addresses;
+  // A forward: the subject starts with "Fw:"/"Fwd:", or the text holds a
+  // forwarding marker ("Forwarded message", "Begin forwarded message",
+  // "Attached message").
+  bool is_forward = false;
+  // For a forward, the date on the first "Date:" or "Sent:" line of the
+  // forwarded header block (the employer's own date), UTC; nullopt if none
+  // can be read. A reply's quoted history is not a forward and gives none.
+  std::optional<int64_t> forwarded_date;
   // The body as text. In multipart/alternative text/plain wins, else text/html
   // (through HtmlToText); text parts of multipart/mixed follow one another;
   // an attached message (message/rfc822) follows as a line

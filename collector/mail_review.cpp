@@ -41,6 +41,7 @@ ReviewItem ReadItem(const Stmt& s) {
   nlohmann::json evidence = nlohmann::json::parse(s.Text(8), nullptr, false);
   if (evidence.is_discarded()) evidence = nlohmann::json::object();
   item.status = Str(evidence, "match");
+  item.date_source = Str(evidence, "date");
   if (item.status.empty()) item.status = item.probe_ref.empty() ? "unmatched" : "matched";
   if (evidence.contains("candidates") && evidence["candidates"].is_array())
     for (const auto& c : evidence["candidates"])

@@ -20,6 +20,7 @@ struct ReviewItem {
   int64_t message = 0;
   std::string source;       // mbox:FILE, maildir:DIR, or the IMAP URL
   std::string date;         // the message's date (ISO, UTC); "" if it had none
+  std::string date_source;  // header | forwarded (the forwarded message's) | envelope (mbox/Maildir) | none
   std::string status;       // matched | ambiguous | unmatched
   std::string probe_ref;    // matched probe ("" otherwise)
   std::string profile;      // the profile's mailbox ("" if none was found)

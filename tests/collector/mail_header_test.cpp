@@ -78,6 +78,7 @@ TEST_CASE("mail header: RFC 5322 dates, with obsolete forms, as UTC") {
   CHECK(ParseMailDate("Fri, 5 Mar 2027 08:30:00 GMT") == 1804235400);
   CHECK(ParseMailDate("Sun, 7 Mar 99 23:59:59 EST") == 920869199);
   CHECK(ParseMailDate("Mon, 1 Mar 2027 00:30:00 -0130 (invented zone)") == 1803866400);
+  CHECK(ParseMailDate("Fri, 5 Mar 2027 at 11:02") == 1804244520);  // forwarded-header form, read as UTC
   CHECK_FALSE(ParseMailDate("").has_value());
   CHECK_FALSE(ParseMailDate("next Tuesday").has_value());
   CHECK_FALSE(ParseMailDate("31 Feb 2027 10:00:00 +0000").has_value());

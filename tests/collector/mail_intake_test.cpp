@@ -145,6 +145,13 @@ TEST_CASE("mail intake: keys, digests and what the sealed columns hold") {
   CHECK(evidence["match"] == "matched");
   CHECK(evidence["phrases"][0]["phrase"] == "invite you to an interview");
 
+  // A forward carries the forwarded message's date, and says so.
+  Stmt fwd = store->Prepare("SELECT sent_date, evidence FROM mail_message WHERE id = 7");
+  REQUIRE(fwd.Step());
+  CHECK(fwd.Text(0) == "2027-03-09T07:00:00Z");
+  CHECK(nlohmann::json::parse(fwd.Text(1))["date"] == "forwarded");
+  CHECK(evidence["date"] == "header");
+
   Stmt nomid = store->Prepare("SELECT message_id FROM mail_message WHERE id = 8");
   REQUIRE(nomid.Step());
   CHECK(nomid.Text(0) == "raw:" + Sha256Hex(CanonicalRaw(mbox.value()[7].raw)));

@@ -72,6 +72,8 @@ TEST_CASE("mail message: an inline forward names its original sender") {
   CHECK(m.recipient_addresses == std::vector<std::string>{"fieldwork@study.example"});
   CHECK(m.sender_addresses == std::vector<std::string>{"kemi.saralon@postbox.example"});
   CHECK(m.forwarded_sender_addresses == std::vector<std::string>{"jobs@orlinde-bakehouse.example"});
+  CHECK(m.is_forward);
+  CHECK(m.forwarded_date == 1804244520);  // "Fri, 5 Mar 2027 at 11:02", no zone: 2027-03-05T11:02Z
 }
 
 TEST_CASE("mail message: an attached message (message/rfc822) is read with its headers") {
@@ -81,6 +83,17 @@ TEST_CASE("mail message: an attached message (message/rfc822) is read with its h
                          "Subject: Your application (V0105)\nTo: aldo.brenvik@postbox.example"));
   CHECK(Contains(m.text, "we regret to tell you that the position has been filled."));
   CHECK(m.forwarded_sender_addresses == std::vector<std::string>{"office@marrowgate-dental.example"});
+  CHECK(m.is_forward);
+  CHECK(m.forwarded_date == 1804575600);  // Tue, 09 Mar 2027 08:00:00 +0100
+}
+
+TEST_CASE("mail message: a reply quoting a header block is not a forward") {
+  MailMessage m = ParseMailMessage(
+      "Subject: RE: Application\nDate: Wed, 10 Mar 2027 07:45:00 +0100\n\nThanks, see you.\n\n"
+      "From: Aldo Brenvik <aldo.brenvik@postbox.example>\nSent: Mon, 1 Mar 2027 09:00:00 +0000\nSubject: Application\n");
+  CHECK_FALSE(m.is_forward);
+  CHECK_FALSE(m.forwarded_date.has_value());
+  CHECK(m.forwarded_sender_addresses == std::vector<std::string>{"aldo.brenvik@postbox.example"});
 }
 
 TEST_CASE("mail message: no Message-ID, no MIME headers: plain text by default") {
