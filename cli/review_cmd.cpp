@@ -82,7 +82,9 @@ void PrintItem(const ReviewItem& i) {
     row("decision", i.decision + " by " + i.decided_by + " at " + i.decided_at +
                         (i.response_id ? " (response " + std::to_string(i.response_id) + ")" : ""));
   } else if (i.probe_ref.empty()) {
-    row("decide", "twinprobe review " + n + " --probe PROBE --code CODE   (or --dismiss)");
+    row("decide", i.suggested_code.empty()
+                      ? "twinprobe review " + n + " --probe PROBE --code CODE   (or --dismiss)"
+                      : "twinprobe review " + n + " --probe PROBE --confirm   (or --code CODE, --dismiss)");
   } else {
     row("decide", i.suggested_code.empty()
                       ? "twinprobe review " + n + " --code CODE   (or --probe PROBE, --dismiss)"

@@ -129,7 +129,8 @@ TEST_CASE("review cli: lists the queue with evidence, and records decisions as r
                        0) == 0);
   CHECK(Contains(list.out, "  evidence  invitation: \"invite you to an interview\" in the body \u2014 \u2026o Brenvik, "));
   CHECK(Contains(list.out, "  decide    twinprobe review 1 --confirm   (or --code CODE, --probe PROBE, --dismiss)\n"));
-  CHECK(Contains(list.out, "  decide    twinprobe review 10 --probe PROBE --code CODE   (or --dismiss)\n"));
+  CHECK(Contains(list.out, "  decide    twinprobe review 10 --probe PROBE --confirm   (or --code CODE, --dismiss)\n"));
+  CHECK(Contains(list.out, "  date      2027-03-05T11:02:00Z (the forwarded message's date)\n"));
   CHECK(Contains(list.out, "invitation: \"invite you to an interview\" in the body (set aside: negated)"));
 
   auto one = RunCli({"--study", s.study, "--json", "review", "10"});
