@@ -45,10 +45,13 @@ compute <- function(kind, args) {
     r <- binom.test(a[1], a[2], p = a[3], alternative = alt, conf.level = a[5])
     return(kv(p = r$p.value, ci = r$conf.int[1:2]))
   }
-  if (kind == "binom_log10") {  # one-sided tails in log space: pbinom(log.p = TRUE)
+  # Far tails in log space. pbinom(log.p = TRUE) loses up to five digits of
+  # the log beyond 1e-600 (checked against exact big-integer sums), so the
+  # tails are summed from dbinom's / dhyper's accurate log densities instead.
+  if (kind == "binom_log10") {
     a <- num(args)
-    return(kv(less = pbinom(a[1], a[2], a[3], log.p = TRUE) / log(10),
-              greater = pbinom(a[1] - 1, a[2], a[3], lower.tail = FALSE, log.p = TRUE) / log(10)))
+    return(kv(less = logsumexp(dbinom(0:a[1], a[2], a[3], log = TRUE)) / log(10),
+              greater = logsumexp(dbinom(a[1]:a[2], a[2], a[3], log = TRUE)) / log(10)))
   }
   if (kind == "wilson") {
     a <- num(args)
@@ -64,7 +67,7 @@ compute <- function(kind, args) {
     u <- suppressWarnings(mcnemar.test(m, correct = FALSE))
     cc <- suppressWarnings(mcnemar.test(m, correct = TRUE))
     ci <- if (n == 0) c(NaN, NaN) else { p <- binom.test(b, n, conf.level = a[5])$conf.int; p / (1 - p) }
-    log10_exact <- if (n == 0 || b == c) 0 else min(0, log(2) + pbinom(k, n, 0.5, log.p = TRUE)) / log(10)
+    log10_exact <- if (n == 0 || b == c) 0 else min(0, log(2) + logsumexp(dbinom(0:k, n, 0.5, log = TRUE))) / log(10)
     return(kv(exact = exact, mid = mid, chi2 = unname(u$statistic), chi2_p = u$p.value,
               chi2_cc = unname(cc$statistic), chi2_cc_p = cc$p.value, or_ci = ci, log10_exact = log10_exact))
   }
@@ -91,10 +94,11 @@ compute <- function(kind, args) {
     return(kv(p = r$p.value, estimate_r = unname(r$estimate), ci_r = r$conf.int[1:2],
               estimate_tight = tight[1], ci_tight = tight[2:3]))
   }
-  if (kind == "fisher_log10") {  # one-sided tails: phyper(log.p = TRUE)
+  if (kind == "fisher_log10") {
     a <- num(args); M <- a[1] + a[3]; N <- a[2] + a[4]; K <- a[1] + a[2]
-    return(kv(less = phyper(a[1], M, N, K, log.p = TRUE) / log(10),
-              greater = phyper(a[1] - 1, M, N, K, lower.tail = FALSE, log.p = TRUE) / log(10)))
+    lo <- max(0, K - N); hi <- min(K, M)
+    return(kv(less = logsumexp(dhyper(lo:a[1], M, N, K, log = TRUE)) / log(10),
+              greater = logsumexp(dhyper(a[1]:hi, M, N, K, log = TRUE)) / log(10)))
   }
   if (kind %in% c("mh", "mh_exact")) {
     parts <- strsplit(args, "|", fixed = TRUE)[[1]]
