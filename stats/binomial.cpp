@@ -13,7 +13,11 @@ namespace {
 
 constexpr double kRelErr = 1 + 1e-7;  // R's fuzz in binom.test and fisher.test
 
-double Qbeta(double q, double a, double b) { return boost::math::ibeta_inv(a, b, q); }
+// Boost promotes double to long double internally by default; double
+// precision already gives ~1e-15 here and is several times faster.
+using FastPolicy = boost::math::policies::policy<boost::math::policies::promote_double<false>>;
+
+double Qbeta(double q, double a, double b) { return boost::math::ibeta_inv(a, b, q, FastPolicy()); }
 
 }  // namespace
 
@@ -50,7 +54,7 @@ double BinomCdf(int64_t k, int64_t n, double p) {
   if (k < 0) return 0.0;
   if (k >= n) return 1.0;
   // P(X <= k) = I_{1-p}(n-k, k+1)
-  return boost::math::ibetac(static_cast<double>(k + 1), static_cast<double>(n - k), p);
+  return boost::math::ibetac(static_cast<double>(k + 1), static_cast<double>(n - k), p, FastPolicy());
 }
 
 double LogBinomTail(int64_t k, int64_t n, double p, bool upper) {
@@ -64,7 +68,7 @@ double LogBinomTail(int64_t k, int64_t n, double p, bool upper) {
   }
   if (p == 0) return upper ? kNegInf : 0.0;
   if (p == 1) return upper ? 0.0 : kNegInf;
-  double direct = upper ? boost::math::ibeta(static_cast<double>(k), static_cast<double>(n - k + 1), p)
+  double direct = upper ? boost::math::ibeta(static_cast<double>(k), static_cast<double>(n - k + 1), p, FastPolicy())
                         : BinomCdf(k, n, p);
   if (direct > 1e-290) return std::log(direct);
   // The tail underflows, so k is far from the mode and the terms shrink

@@ -46,44 +46,32 @@ struct Sums {
 
 // Finds t with f(t) = 0 for f monotone in t (increasing when `increasing`),
 // by Newton steps kept inside a bracket (bisection when a step leaves it).
-double SolveMonotone(const std::function<std::pair<double, double>(double)>& f_and_slope, bool increasing) {
-  double a = -kMaxLogPsi, b = kMaxLogPsi;  // f(a) < 0 < f(b) in the increasing orientation
+double SolveMonotone(const std::function<std::pair<double, double>(double)>& f_and_slope, bool increasing,
+                     double start) {
+  // Newton steps from `start`; the bracket [a, b] tightens with every
+  // evaluation, and a step that leaves it becomes a bisection (or, before
+  // both ends are known, a bounded step towards the root).
   const double sign = increasing ? 1.0 : -1.0;
-  double t = 0;
-  auto [f, slope] = f_and_slope(t);
-  f *= sign, slope *= sign;
-  // Bracket expansion from 0 keeps evaluations where the family is well scaled.
-  double step = 1;
-  if (f > 0) {
-    b = 0;
-    for (double s = -step; s >= -kMaxLogPsi; s *= 2) {
-      auto [fs, ss] = f_and_slope(s);
-      if (sign * fs <= 0) { a = s; t = s; f = sign * fs; slope = sign * ss; break; }
-      b = s;
-      if (s * 2 < -kMaxLogPsi) return -kMaxLogPsi;
-    }
-  } else if (f < 0) {
-    a = 0;
-    for (double s = step; s <= kMaxLogPsi; s *= 2) {
-      auto [fs, ss] = f_and_slope(s);
-      if (sign * fs >= 0) { b = s; t = s; f = sign * fs; slope = sign * ss; break; }
-      a = s;
-      if (s * 2 > kMaxLogPsi) return kMaxLogPsi;
-    }
-  } else {
-    return 0;
-  }
-  for (int iter = 0; iter < 400; ++iter) {
+  double a = -kMaxLogPsi, b = kMaxLogPsi;
+  bool have_a = false, have_b = false;
+  double t = std::clamp(start, -kMaxLogPsi, kMaxLogPsi);
+  for (int iter = 0; iter < 300; ++iter) {
+    auto [f, slope] = f_and_slope(t);
+    f *= sign, slope *= sign;
     if (f == 0) return t;
-    if (f < 0) a = t;
-    else b = t;
-    double next = slope > 0 ? t - f / slope : kNaN;
-    if (!(next > a && next < b)) next = 0.5 * (a + b);
-    const double tol = 1e-15 * std::max(1.0, std::abs(next));
-    if (std::abs(next - t) <= tol || b - a <= tol) return next;
+    if (f < 0) a = t, have_a = true;
+    else b = t, have_b = true;
+    if ((t >= kMaxLogPsi && f < 0) || (t <= -kMaxLogPsi && f > 0)) return t;  // no root inside the range
+    double next = slope > 0 && std::isfinite(slope) ? t - f / slope : kNaN;
+    if (!(next > a && next < b)) {
+      if (have_a && have_b) next = 0.5 * (a + b);
+      else next = std::clamp(f < 0 ? t + 4 : t - 4, -kMaxLogPsi, kMaxLogPsi);
+    }
+    // 1e-13 in log psi is 1e-13 relative in psi: far inside the 1e-9 target,
+    // and above the rounding noise of the tail sums (so no endless dithering).
+    const double tol = 1e-13 * std::max(1.0, std::abs(t));
+    if (std::abs(next - t) <= tol || (have_a && have_b && b - a <= tol)) return next;
     t = next;
-    auto [fn, sn] = f_and_slope(t);
-    f = sign * fn, slope = sign * sn;
   }
   return t;
 }
@@ -186,23 +174,33 @@ ConditionalEstimate SolveConditional(const ConditionalFamily& family, int64_t x,
   if (lo == hi) return {kNaN, {0, kInf}};
   ConditionalEstimate r;
   const double xd = static_cast<double>(x);
+  // Start where a normal approximation puts the root: the log odds of x's
+  // position in the support (Haldane's +1/2 keeps it finite).
+  const double start = std::log((xd - static_cast<double>(lo) + 0.5) / (static_cast<double>(hi) - xd + 0.5));
+  double t_mle = kNaN;
   auto mle = [&]() -> double {
     if (x == lo) return 0;
     if (x == hi) return kInf;
-    double t = SolveMonotone([&](double lt) {
+    t_mle = SolveMonotone([&](double lt) {
       FamilyAt f = family.At(lt, x);
       return std::make_pair(f.mean - xd, f.var);
-    }, true);
-    return std::exp(t);
+    }, true, start);
+    return std::exp(t_mle);
   };
   // Upper limit: P(S <= x; psi) = alpha, decreasing in psi; solved on the
   // log scale of the tail, which is closer to linear in log psi.
+  // The limits start one normal-approximation step from the MLE.
+  auto step = [&](double alpha) {
+    if (!std::isfinite(t_mle)) return 0.0;
+    FamilyAt f = family.At(t_mle, x);
+    return f.var > 0 ? NormalQuantile(1 - alpha) / std::sqrt(f.var) : 0.0;
+  };
   auto upper_limit = [&](double alpha) -> double {
     if (x == hi) return kInf;
     double t = SolveMonotone([&](double lt) {
       FamilyAt f = family.At(lt, x);
       return std::make_pair(std::log(f.lower) - std::log(alpha), f.dlower / f.lower);
-    }, false);
+    }, false, std::isfinite(t_mle) ? t_mle + step(alpha) : start);
     return std::exp(t);
   };
   auto lower_limit = [&](double alpha) -> double {
@@ -210,7 +208,7 @@ ConditionalEstimate SolveConditional(const ConditionalFamily& family, int64_t x,
     double t = SolveMonotone([&](double lt) {
       FamilyAt f = family.At(lt, x);
       return std::make_pair(std::log(f.upper) - std::log(alpha), f.dupper / f.upper);
-    }, true);
+    }, true, std::isfinite(t_mle) ? t_mle - step(alpha) : start);
     return std::exp(t);
   };
   r.estimate = mle();
