@@ -105,7 +105,7 @@ TEST_CASE("mail cli: bad input is one line, exit 1 or 2, and the store unchanged
   testing::WriteFile(s.study + "/study.toml", typo);
   auto bad_rule = RunCli({"--study", s.study, "mail"});
   CHECK(bad_rule.exit_code == 1);
-  CHECK(bad_rule.err == "twinprobe: " + s.study + "/study.toml:50:8: 'info_reqest' is not a response code of this "
+  CHECK(bad_rule.err == "twinprobe: " + s.study + "/study.toml:56:8: 'info_reqest' is not a response code of this "
                         "study (did you mean 'info_request'?) \u2014 use one of: none, rejection, info_request, "
                         "invitation, offer\n");
   CHECK(Head(s.study) == head);
