@@ -251,11 +251,14 @@ void SourceReader::ReadOne(const toml::table& t, Design& d) {
   s.user_agent = String(t, "user_agent", true, "[[source]]");
   if (!s.user_agent.empty()) {
     std::string token = s.ProductToken();
-    bool ok = !token.empty() && std::all_of(token.begin(), token.end(), [](char c) {
-      return std::isalpha(static_cast<unsigned char>(c)) || c == '-' || c == '_';
-    });
+    std::string version = token.size() < s.user_agent.size() ? s.user_agent.substr(token.size() + 1) : "";
+    bool ok = !token.empty() && s.user_agent[token.size() < s.user_agent.size() ? token.size() : 0] == '/' &&
+              !version.empty() && version.find(' ') == std::string::npos &&
+              std::all_of(token.begin(), token.end(), [](char c) {
+                return std::isalpha(static_cast<unsigned char>(c)) || c == '-' || c == '_';
+              });
     if (!ok)
-      Fail(t.get("user_agent"), "[[source]].user_agent must start with a product token of letters, '-' and '_'",
+      Fail(t.get("user_agent"), "[[source]].user_agent must be a product token of letters, '-' and '_', a '/' and a version",
            "write it as Name/version, e.g. \"VeldmarkListingAudit/1.0\" (robots.txt groups are matched on the name)");
   }
   s.contact = String(t, "contact", true, "[[source]]");
