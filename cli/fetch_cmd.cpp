@@ -123,6 +123,8 @@ int RunFetchCmd(Context& ctx, const FetchCmdOptions& o) {
   if (!design.ok()) return ReportError(design.error());
   const std::string label = DesignPath(ctx.study_dir);
   const std::string snapshot_dir = StudyPath(ctx, "snapshots");
+  // Bad rules fail before the store is opened (or created).
+  if (Status ok = CheckFetchable(design.value(), label, o.source); !ok.ok()) return ReportError(ok.error());
   ProgressBar bar;
   FetchOptions options;
   options.only_source = o.source;

@@ -49,6 +49,11 @@ std::string SummaryLine(const FetchReport& r) {
 
 }  // namespace
 
+Status CheckFetchable(const Design& design, const std::string& label, const std::string& only) {
+  auto selected = SelectSources(design, label, only);
+  return selected.ok() ? Status() : Status(selected.error());
+}
+
 std::vector<PlannedPage> PlanPages(const Source& s) {
   std::vector<std::string> queries = s.queries.empty() ? std::vector<std::string>{""} : s.queries;
   std::vector<std::string> locations = s.locations.empty() ? std::vector<std::string>{""} : s.locations;

@@ -72,6 +72,10 @@ struct FetchOptions {
   const std::atomic<bool>* cancel = nullptr;
 };
 
+// Checks what RunFetch and ReplayListings check before any work: the design
+// has sources, `only_source` names one of them, and every selector parses.
+Status CheckFetchable(const Design& design, const std::string& design_label, const std::string& only_source);
+
 // Fetches every planned page of the selected sources. `design_label` is the
 // design file's name for error positions. With options.dry_run only
 // robots.txt files are fetched and nothing is stored (`store` may be null).
