@@ -129,7 +129,7 @@ Result<FieldSpec> ParseFieldRule(std::string_view rule) {
     if (attr.empty()) return BadInput("", "'@' must be followed by an attribute name");
     for (char c : attr)
       if (!(std::isalnum(static_cast<unsigned char>(c)) || c == '-' || c == '_' || c == ':'))
-        return BadInput("", "'" + std::string(attr) + "' is not an attribute name");
+        return BadInput("", std::string(1, '\'').append(attr).append("' is not an attribute name"));
     f.attribute = std::string(attr);
     for (char& c : f.attribute) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
   }

@@ -52,7 +52,7 @@ std::optional<UrlParts> ParseHttpUrl(std::string_view url) {
   p.host = Lower(*host);
   p.port = std::atoi(port->c_str());
   p.path_and_query = Part(u.get(), CURLUPART_PATH).value_or("/");
-  if (p.path_and_query.empty()) p.path_and_query = "/";
+  if (p.path_and_query.empty()) p.path_and_query.assign(1, '/');
   if (auto q = Part(u.get(), CURLUPART_QUERY)) p.path_and_query += "?" + *q;
   return p;
 }

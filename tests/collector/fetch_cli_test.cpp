@@ -169,7 +169,10 @@ TEST_CASE("fetch cli: --dry-run lists URLs with robots verdicts, fetches only ro
   CHECK(r.exit_code == 0);
   CHECK(r.out.find("robots    -    " + server.base() + "/private?where=Orlinde&page=1  robots.txt disallows it (line 7: "
                    "Disallow: /private)") != std::string::npos);
-  CHECK(r.out.find("allowed   -    " + server.base() + "/search?where=Orlinde&page=1  robots.txt: line 3") == std::string::npos);
+  CHECK(r.out.find("allowed   -    " + server.base() + "/search?where=Orlinde&page=1  robots.txt: line 6: Allow: /\n") !=
+        std::string::npos);
+  CHECK(r.out.find("limit     -    " + server.base() + "/moved?where=Orlinde&page=1  the page limit of 6 per run is "
+                   "reached") != std::string::npos);
   CHECK(r.out.find("Dry run: 8 URLs planned; 1 disallowed by robots.txt") != std::string::npos);
   CHECK_FALSE(std::filesystem::exists(s.study + "/study.db"));
   CHECK_FALSE(std::filesystem::exists(s.study + "/snapshots"));
