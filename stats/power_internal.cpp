@@ -2,6 +2,7 @@
 
 #include <cmath>
 
+#include <boost/math/distributions/binomial.hpp>
 #include <boost/math/distributions/normal.hpp>
 
 namespace twinprobe::stats::internal {
@@ -22,9 +23,11 @@ void FillBinomialWeights(int64_t n, double p, double tail_mass, BinomialWeights&
   int64_t mode = static_cast<int64_t>(std::floor((nd + 1.0) * p));
   if (mode > n) mode = n;
   const double log_odds = std::log(p) - std::log1p(-p);
-  const double md = static_cast<double>(mode);
-  const double log_mode = std::lgamma(nd + 1.0) - std::lgamma(md + 1.0) - std::lgamma(nd - md + 1.0) +
-                          md * std::log(p) + (nd - md) * std::log1p(-p);
+  // The mode's probability from Boost's binomial pdf (through the incomplete
+  // beta derivative): lgamma(n + 1) - lgamma(k + 1) - … loses about
+  // 1e-16 * lgamma(n) relative accuracy, 1e-12 at n = 10,000.
+  const double log_mode = std::log(boost::math::pdf(
+      boost::math::binomial_distribution<double, FastPolicy>(nd, p), static_cast<double>(mode)));
 
   // Upwards from the mode: log w(k+1) = log w(k) + log((n-k)/(k+1)) + log_odds.
   std::vector<double> up;

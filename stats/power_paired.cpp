@@ -4,6 +4,7 @@
 #include <cmath>
 #include <limits>
 
+#include <boost/math/distributions/binomial.hpp>
 #include <boost/math/special_functions/beta.hpp>
 
 #include "stats/mcnemar.h"
@@ -19,22 +20,18 @@ using internal::FastPolicy;
 constexpr double kTailMass = 1e-17;
 
 bool Rejects(int64_t k, int64_t nd, double alpha) {
-  // The very test the analysis runs, so power and analysis cannot drift apart.
+  // For k < nd/2 the exact McNemar p is 2 P(X <= k), X ~ Binomial(nd, 1/2).
+  // Boost's double-precision incomplete beta is about 15 times faster than
+  // the long-double one McNemarExactP uses and accurate to ~1e-14; only when
+  // p lies within 1e-9 of alpha does the analysis's own function decide, so
+  // power and analysis agree on every table.
+  const double p = 2.0 * boost::math::ibetac(static_cast<double>(k + 1), static_cast<double>(nd - k), 0.5, FastPolicy());
+  if (std::fabs(p - alpha) > 1e-9 * alpha) return p <= alpha;
   return McNemarExactP(PairedCounts{0, k, nd - k, 0}) <= alpha;
 }
 
-// k_nd starting from a guess: step up while k+1 still rejects, down while k
-// does not. From nd-1 to nd the bound moves by at most one (a binomial
-// quantile argument), so from the previous bound this takes one or two tests.
-int64_t BoundFrom(int64_t guess, int64_t nd, double alpha) {
-  int64_t k = std::clamp<int64_t>(guess, -1, (nd - 1) / 2);
-  while (k >= 0 && !Rejects(k, nd, alpha)) --k;
-  while (k + 1 <= (nd - 1) / 2 && Rejects(k + 1, nd, alpha)) ++k;
-  return k;
-}
-
-// g(nd) = P(b <= k) + P(b >= nd - k) for b ~ Binomial(nd, pi).
-double ConditionalPower(int64_t nd, int64_t k, double pi) {
+// g(nd) = P(b <= k) + P(b >= nd - k) for b ~ Binomial(nd, pi), directly.
+double ConditionalPowerDirect(int64_t nd, int64_t k, double pi) {
   if (k < 0) return 0.0;
   const double lower_tail = boost::math::ibetac(static_cast<double>(k + 1), static_cast<double>(nd - k), pi,
                                                 FastPolicy());                          // P(b <= k)
@@ -42,6 +39,108 @@ double ConditionalPower(int64_t nd, int64_t k, double pi) {
                                                FastPolicy());                           // P(b >= nd - k)
   return lower_tail + upper_tail;
 }
+
+// Binomial pmf, accurate for large n (Boost: incomplete beta derivative).
+double Pmf(double n, double j, double p) {
+  return boost::math::pdf(boost::math::binomial_distribution<double, FastPolicy>(n, p), j);
+}
+
+// The rejection bound k_nd and the conditional power g(nd) for nd = start,
+// start + 1, … in a few flops per step. Going from nd to nd + 1 adds one
+// Bernoulli trial, so every tail and point probability follows from the
+// previous ones:
+//   P_{n+1}(B <= k)     = P_n(B <= k) - pi P_n(B = k)
+//   P_{n+1}(B >= m + 1) = P_n(B >= m) - (1 - pi) P_n(B = m)
+//   P_{n+1}(B = j)      = P_n(B = j) (n + 1) / (n + 1 - j) (1 - pi)
+// (the same with pi = 1/2 for the null distribution that places k). The bound
+// never falls and rises by at most one per step (P(X_{n+1} <= k) <= P(X_n <=
+// k) <= P(X_{n+1} <= k + 1)), so one comparison per step places it. These
+// updates add absolute errors of about 1e-16 per step and never amplify them;
+// every kAnchorEvery steps all values are recomputed exactly (incomplete beta,
+// log-space pmf) so the error stays below 1e-14. The rejection decision falls
+// back to McNemarExactP within 1e-9 of alpha, as Rejects does.
+class ConditionalWalk {
+ public:
+  ConditionalWalk(double pi, double alpha) : pi_(pi), alpha_(alpha), direct_(!(pi > 0.0 && pi < 1.0)) {}
+
+  void Start(int64_t nd) {
+    nd_ = nd;
+    k_ = McNemarRejectionBound(nd, alpha_);
+    Anchor();
+  }
+
+  void Advance() {
+    if (direct_ || k_ < 0 || steps_ >= kAnchorEvery) {
+      ++nd_;
+      k_ = NextBoundDirect();
+      Anchor();
+      return;
+    }
+    const double n1 = static_cast<double>(nd_ + 1), k = static_cast<double>(k_), m = static_cast<double>(nd_ - k_);
+    null_cdf_ -= 0.5 * null_pk_;
+    null_pk_ *= n1 / (n1 - k) * 0.5;
+    lower_ -= pi_ * pk_;
+    pk_ *= n1 / (n1 - k) * (1.0 - pi_);
+    upper_ -= (1.0 - pi_) * pm_;
+    pm_ *= n1 / (m + 1.0) * pi_;
+    ++nd_;
+    ++steps_;
+    if (k_ + 1 <= (nd_ - 1) / 2) {
+      const double null_next = null_pk_ * (n1 - k) / (k + 1.0);
+      if (RejectsWith(2.0 * (null_cdf_ + null_next), k_ + 1)) {
+        ++k_;
+        null_cdf_ += null_next;
+        null_pk_ = null_next;
+        pk_ *= (n1 - k) / (k + 1.0) * pi_ / (1.0 - pi_);  // P_{n+1}(B = k + 1)
+        lower_ += pk_;
+        pm_ *= (m + 1.0) / (n1 - m) * (1.0 - pi_) / pi_;  // P_{n+1}(B = m): the upper threshold moves down
+        upper_ += pm_;
+      }
+    }
+  }
+
+  int64_t nd() const { return nd_; }
+  int64_t bound() const { return k_; }
+  double g() const { return k_ < 0 ? 0.0 : std::clamp(lower_ + upper_, 0.0, 1.0); }
+
+ private:
+  static constexpr int kAnchorEvery = 64;
+
+  bool RejectsWith(double p, int64_t k) const {
+    if (std::fabs(p - alpha_) > 1e-9 * alpha_) return p <= alpha_;
+    return McNemarExactP(PairedCounts{0, k, nd_ - k, 0}) <= alpha_;
+  }
+
+  int64_t NextBoundDirect() const {
+    int64_t k = k_;
+    while (k + 1 <= (nd_ - 1) / 2 && Rejects(k + 1, nd_, alpha_)) ++k;
+    return k;
+  }
+
+  void Anchor() {
+    steps_ = 0;
+    if (k_ < 0) {
+      null_cdf_ = null_pk_ = lower_ = pk_ = upper_ = pm_ = 0.0;
+      return;
+    }
+    const double n = static_cast<double>(nd_), k = static_cast<double>(k_);
+    lower_ = boost::math::ibetac(k + 1.0, n - k, pi_, FastPolicy());
+    upper_ = boost::math::ibeta(n - k, k + 1.0, pi_, FastPolicy());
+    if (direct_) return;
+    null_cdf_ = boost::math::ibetac(k + 1.0, n - k, 0.5, FastPolicy());
+    null_pk_ = Pmf(n, k, 0.5);
+    pk_ = Pmf(n, k, pi_);
+    pm_ = Pmf(n, n - k, pi_);
+  }
+
+  double pi_, alpha_;
+  bool direct_;  // pi is 0 or 1: no pmf recurrences, every step exact
+  int64_t nd_ = 0, k_ = -1;
+  int steps_ = 0;
+  double null_cdf_ = 0, null_pk_ = 0;  // P(X <= k), P(X = k), X ~ Binomial(nd, 1/2)
+  double lower_ = 0, pk_ = 0;          // P(B <= k), P(B = k)
+  double upper_ = 0, pm_ = 0;          // P(B >= nd - k), P(B = nd - k)
+};
 
 double Pi(const PairedAlternative& alt) { return alt.p10 / alt.discordant(); }
 
@@ -55,7 +154,12 @@ PairedAlternative WithLosses(const PairedAlternative& alt, double lost) {
   return PairedAlternative{alt.p10 * (1.0 - lost), alt.p01 * (1.0 - lost)};
 }
 
+double McNemarConditionalPower(int64_t n_discordant, double pi, double alpha) {
+  return ConditionalPowerDirect(n_discordant, McNemarRejectionBound(n_discordant, alpha), pi);
+}
+
 int64_t McNemarRejectionBound(int64_t n_discordant, double alpha) {
+  if (n_discordant <= 0) return -1;
   // Binary search: rejection at k implies rejection at every smaller k.
   int64_t lo = -1, hi = (n_discordant - 1) / 2;  // answer in [lo, hi]
   while (lo < hi) {
@@ -69,13 +173,12 @@ int64_t McNemarRejectionBound(int64_t n_discordant, double alpha) {
 double McNemarExactPower(int64_t n_sets, const PairedAlternative& alt, double alpha) {
   BinomialWeights w;
   internal::FillBinomialWeights(n_sets, alt.discordant(), kTailMass, w);
-  const double pi = Pi(alt);
-  int64_t k = McNemarRejectionBound(w.lo, alpha);
+  ConditionalWalk walk(Pi(alt), alpha);
+  walk.Start(w.lo);
   double power = 0.0;
   for (size_t i = 0; i < w.weights.size(); ++i) {
-    const int64_t nd = w.lo + static_cast<int64_t>(i);
-    if (i > 0) k = BoundFrom(k, nd, alpha);
-    power += w.weights[i] * ConditionalPower(nd, k, pi);
+    if (i > 0) walk.Advance();
+    power += w.weights[i] * walk.g();
   }
   return std::min(power, 1.0);
 }
@@ -84,10 +187,14 @@ McNemarPowerCalculator::McNemarPowerCalculator(const PairedAlternative& alt, dou
     : alt_(alt), alpha_(alpha), pi_(Pi(alt)) {}
 
 void McNemarPowerCalculator::Extend(int64_t nd_max) {
-  for (int64_t nd = static_cast<int64_t>(g_.size()); nd <= nd_max; ++nd) {
-    const int64_t k = nd == 0 ? -1 : BoundFrom(k_.back(), nd, alpha_);
-    const double g = ConditionalPower(nd, k, pi_);
-    k_.push_back(k);
+  const int64_t first = static_cast<int64_t>(g_.size());
+  if (nd_max < first) return;
+  ConditionalWalk walk(pi_, alpha_);
+  walk.Start(first);
+  for (int64_t nd = first; nd <= nd_max; ++nd) {
+    if (nd > first) walk.Advance();
+    const double g = walk.g();
+    k_.push_back(walk.bound());
     g_.push_back(g);
     g_max_.push_back(g_max_.empty() ? g : std::max(g_max_.back(), g));
   }

@@ -50,6 +50,12 @@ PairedAlternative WithLosses(const PairedAlternative& alt, double lost);
 // 0 < alpha < 1.
 int64_t McNemarRejectionBound(int64_t n_discordant, double alpha);
 
+// g(nd): the probability that the test rejects given nd discordant sets, when
+// each favours the reference arm with probability pi. Computed directly
+// (incomplete beta); the power sums below get the same values from a faster
+// walk over nd, and the tests compare the two.
+double McNemarConditionalPower(int64_t n_discordant, double pi, double alpha);
+
 // Exact power of the two-sided exact McNemar test over n_sets sets.
 // Requires n_sets >= 0, 0 < alpha < 1, a valid alternative.
 double McNemarExactPower(int64_t n_sets, const PairedAlternative& alt, double alpha);
