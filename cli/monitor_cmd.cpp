@@ -269,11 +269,14 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
   } else if (decision == "stop") {
     const Look& l = reached[stopped];
     const bool ref = l.b > l.c;
-    t << "Decision: stop. At look " << stopped + 1 << " (" << l.sets << " completed sets) the "
+    t << (l.final ? "Decision: the final analysis crosses the boundary. At look " : "Decision: stop. At look ")
+      << stopped + 1 << " (" << l.sets << " completed sets) the "
       << (ref ? r.reference_label : r.other_label) << " arm alone was called back in " << std::max(l.b, l.c) << " of "
       << l.b + l.c << " discordant sets, crossing the boundary of " << bounds[stopped].upper() << ".\n"
       << "Adjusted p-value (stage-wise ordering): " << FormatP(adjusted_p)
-      << ". The evidence so far shows a difference at the planned overall alpha " << Fmt("%g", alpha) << ".\n";
+      << (l.final ? ". The study shows a difference at the planned overall alpha "
+                  : ". The evidence so far shows a difference at the planned overall alpha ")
+      << Fmt("%g", alpha) << ".\n";
   } else {
     t << "Decision: final analysis reached without crossing a boundary: the study does not show a difference at\n"
       << "overall alpha " << Fmt("%g", alpha) << ". Adjusted p-value (stage-wise ordering): " << FormatP(adjusted_p)

@@ -8,7 +8,7 @@
 // conditioning, applied look by look). The test stops at the first look with
 // b_k <= l_k or b_k >= n_k - l_k (symmetric two-sided boundaries).
 //
-// Spending (Lan & DeMets 1983, Biometrika 70:659–663): alpha(t) is the
+// Spending (Lan & DeMets 1983, Biometrika 70:659–663; details from memory): alpha(t) is the
 // cumulative two-sided type I error allowed by information fraction t in
 // [0, 1], alpha(1) = alpha. As in rpact (getDesignGroupSequential, sided = 2)
 // and gsDesign, a two-sided design spends a one-sided alpha/2 function on
@@ -63,7 +63,7 @@ std::vector<SequentialBoundary> ExactSequentialBoundaries(const std::vector<Sequ
                                                           Spending spending);
 
 // Stage-wise ordering p-value (Armitage 1957; Fairbanks & Madsen 1982;
-// Jennison & Turnbull 2000, §8.4) after stopping at look `stop` (0-based)
+// Jennison & Turnbull 2000, §8.4; references from memory) after stopping at look `stop` (0-based)
 // with b_observed: the probability under no difference of stopping at an
 // earlier look, plus that of reaching look `stop` and being at least as far
 // from n/2 there. For a look that did not stop, the same formula gives the

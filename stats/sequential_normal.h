@@ -7,7 +7,7 @@
 // rpact, and so the docs can show the familiar z-scale values.
 //
 // Method: the recursive numerical integration of Armitage, McPherson & Rowe
-// (1969, JRSS A 132:235–244), as in Jennison & Turnbull (2000), Group
+// (1969, JRSS A 132:235–244; from memory), as in Jennison & Turnbull (2000), Group
 // Sequential Methods with Applications to Clinical Trials, ch. 19: the
 // density of the score S_k = Z_k sqrt(t_k) on the continuation region is
 // carried from look to look by convolution with the N(0, t_k - t_{k-1})
