@@ -1,7 +1,7 @@
 // `twinprobe power paired|unpaired`: power, sample size and minimum
 // detectable effect before fieldwork. Pure calculation: reads no study and
 // writes nothing except the optional --plot SVG. The numbers come from
-// stats/power_paired.h and stats/power_unpaired.h; this file only checks the
+// stats/power_paired.h, stats/power_unpaired.h and stats/power_fisher.h; this file only checks the
 // inputs, picks what to solve for and words the answer.
 #include <cmath>
 #include <cstdio>
@@ -14,6 +14,7 @@
 
 #include "cli/command.h"
 #include "report/svg_power.h"
+#include "stats/power_fisher.h"
 #include "stats/power_paired.h"
 #include "stats/power_unpaired.h"
 
@@ -455,39 +456,56 @@ struct UnpairedOptions {
   Common common;
   double p1 = 0, p2 = 0;
   int64_t n = 0;
+  bool exact = false;
   CLI::Option *p1_opt, *p2_opt, *n_opt;
 };
 
-json UnpairedTable(const std::vector<int64_t>& sizes, double p1, double p2, double alpha) {
+json UnpairedTable(const std::vector<int64_t>& sizes, double p1, double p2, double alpha, bool exact) {
   json rows = json::array();
-  for (int64_t n : sizes)
-    rows.push_back({{"n_per_arm", n}, {"power", stats::NormalTwoProportionPower(static_cast<double>(n), p1, p2, alpha)}});
+  for (int64_t n : sizes) {
+    json row{{"n_per_arm", n}, {"normal", stats::NormalTwoProportionPower(static_cast<double>(n), p1, p2, alpha)}};
+    row["power"] = exact ? stats::FisherExactPower(n, p1, p2, alpha) : row["normal"].get<double>();
+    rows.push_back(row);
+  }
   return rows;
 }
 
-std::string RenderUnpairedTable(const json& rows) {
+std::string RenderUnpairedTable(const json& rows, bool exact) {
   std::ostringstream o;
-  o << "\n  vacancies per arm   power\n";
+  o << "\n  vacancies per arm   " << (exact ? "Fisher exact   normal approx." : "power") << "\n";
   for (const auto& r : rows) {
     char line[96];
-    std::snprintf(line, sizeof line, "  %17s   %5.3f\n", Count(r["n_per_arm"].get<int64_t>()).c_str(),
-                  r["power"].get<double>());
+    if (exact)
+      std::snprintf(line, sizeof line, "  %17s   %12.3f   %13.3f\n", Count(r["n_per_arm"].get<int64_t>()).c_str(),
+                    r["power"].get<double>(), r["normal"].get<double>());
+    else
+      std::snprintf(line, sizeof line, "  %17s   %5.3f\n", Count(r["n_per_arm"].get<int64_t>()).c_str(),
+                    r["power"].get<double>());
     o << line;
   }
+  if (exact) o << "Fisher exact: the power of the two-sided Fisher test the analysis runs, by enumeration.\n";
   o << "Normal approximation without continuity correction, as R's power.prop.test.\n";
   return o.str();
 }
 
 Status PlotUnpaired(const std::string& path, double p1, double p2, double alpha, int64_t x_max,
-                    std::optional<double> target, int64_t marker) {
+                    std::optional<double> target, int64_t marker, bool exact) {
   PowerCurveChart chart;
   chart.title = "Power for callback rates " + Pct(p1) + " vs " + Pct(p2) + " (alpha " + Short(alpha) + ")";
   chart.x_label = "Vacancies per arm (one probe each)";
-  PowerCurveSeries normal{"normal approx.", {}, false};
+  PowerCurveSeries normal{"normal approx.", {}, exact}, fisher{"Fisher exact", {}, false};
   for (int64_t n : CurveSizes(x_max))
     normal.xy.emplace_back(static_cast<double>(n),
                            stats::NormalTwoProportionPower(static_cast<double>(n), p1, p2, alpha));
-  chart.series = {normal};
+  if (exact) {
+    // Each exact point enumerates the outcomes: 60 points are enough for a curve.
+    const int64_t step = std::max<int64_t>(1, x_max / 60);
+    for (int64_t n = 1; n <= x_max; n += step)
+      fisher.xy.emplace_back(static_cast<double>(n), stats::FisherExactPower(n, p1, p2, alpha));
+    chart.series = {fisher, normal};
+  } else {
+    chart.series = {normal};
+  }
   chart.target_power = target;
   chart.marker_x = static_cast<double>(marker);
   chart.marker_label = "n = " + Count(marker);
@@ -506,17 +524,22 @@ int RunUnpaired(Context& ctx, const UnpairedOptions& o) {
   const bool has_n = o.n_opt->count() > 0, has_power = o.common.power_opt->count() > 0;
   const double alpha = o.common.alpha_each();
   json j{{"design", "unpaired"},
-         {"test", "two proportions, normal approximation (as R's power.prop.test), two-sided"},
+         {"test", o.exact ? "Fisher's exact test, two-sided (exact power by enumeration)"
+                          : "two proportions, normal approximation (as R's power.prop.test), two-sided"},
          {"alpha", o.common.alpha},
          {"comparisons", o.common.comparisons},
          {"alpha_per_comparison", alpha},
          {"p1", o.p1}};
   std::ostringstream text;
-  text << "Unpaired design: one probe per vacancy, two independent arms; two-sided alpha " << Short(alpha) << ".\n"
+  text << "Unpaired design: one probe per vacancy, two independent arms; "
+       << (o.exact ? "Fisher's exact test" : "normal approximation") << ", two-sided alpha " << Short(alpha) << ".\n"
        << CorrectionSentence(o.common);
   if (!o.p2_opt->count()) {
     if (!(has_n && has_power))
       return ReportError(Usage("--p2 missing", "give --p2, or give --n and --power for the smallest detectable p2"));
+    if (o.exact)
+      return ReportError(Usage("--exact is not available for the smallest detectable p2",
+                               "leave out --exact (normal approximation), or try candidate values with --p2 and --n"));
     const double n = static_cast<double>(o.n);
     auto below = stats::NormalTwoProportionDetectable(n, o.p1, alpha, o.common.power, false);
     auto above = stats::NormalTwoProportionDetectable(n, o.p1, alpha, o.common.power, true);
@@ -543,27 +566,58 @@ int RunUnpaired(Context& ctx, const UnpairedOptions& o) {
     text << "Callback rates " << Pct(o.p1) << " (reference arm) and " << Pct(o.p2) << " (other arm).\n";
     int64_t base = o.n;
     if (has_n) {
-      const double power = stats::NormalTwoProportionPower(static_cast<double>(o.n), o.p1, o.p2, alpha);
+      const double normal = stats::NormalTwoProportionPower(static_cast<double>(o.n), o.p1, o.p2, alpha);
+      const double power = o.exact ? stats::FisherExactPower(o.n, o.p1, o.p2, alpha) : normal;
       j["n_per_arm"] = o.n;
       j["power"] = power;
+      j["normal"] = {{"power", normal}};
       text << "\nWith " << Count(o.n) << " vacancies per arm (" << Count(2 * o.n) << " applications), the study has a "
-           << Pct(power) << " chance of showing this gap at the " << Level(alpha) << " level, if it is real.\n";
+           << Pct(power) << " chance of showing this gap at the " << Level(alpha) << " level, if it is real";
+      if (o.exact) text << " (normal approximation: " << Pct(normal) << ")";
+      text << ".\n";
     } else {
-      const double n = stats::NormalTwoProportionSampleSize(o.p1, o.p2, alpha, o.common.power);
-      base = static_cast<int64_t>(std::ceil(n));
+      const double n_normal = stats::NormalTwoProportionSampleSize(o.p1, o.p2, alpha, o.common.power);
       j["target_power"] = o.common.power;
-      j["n"] = base;
-      j["n_unrounded"] = n;
-      j["applications"] = 2 * base;
-      text << "\nTo show this gap with " << Level(o.common.power) << " power at the " << Level(alpha)
-           << " level, test " << Count(base) << " vacancies per arm (" << Count(2 * base)
-           << " applications in all; unrounded " << Fmt("%.2f", n) << ").\n";
+      j["normal"] = {{"n", static_cast<int64_t>(std::ceil(n_normal))}, {"n_unrounded", n_normal}};
+      if (o.exact) {
+        auto size = stats::FisherExactSampleSize(o.p1, o.p2, alpha, o.common.power);
+        if (!size.found)
+          return ReportError(BadInput("--power", "no study of up to 1,000,000 vacancies per arm reaches " +
+                                                     Level(o.common.power) + " power with Fisher's test",
+                                      "look for a larger gap or accept lower power"));
+        base = size.n;
+        j["n"] = size.n;
+        j["n_first"] = size.n_first;
+        j["n_rule"] = "bisection on the exact power, then every n within 1% (at least 5) either side checked";
+        j["checked_from"] = size.checked_from;
+        j["checked_to"] = size.checked_to;
+        j["dips_above"] = size.dips_above;
+        j["power_at_n"] = size.power_at_n;
+        j["applications"] = 2 * size.n;
+        text << "\nTo show this gap with " << Level(o.common.power) << " power at the " << Level(alpha)
+             << " level with Fisher's exact test, test " << Count(size.n) << " vacancies per arm ("
+             << Count(2 * size.n) << " applications in all; the normal approximation says "
+             << Count(static_cast<int64_t>(std::ceil(n_normal))) << ").\n"
+             << "Found by bisection on the exact power; every n from " << Count(size.checked_from) << " to "
+             << Count(size.checked_to) << " was checked one by one";
+        if (size.n_first < size.n) text << ": power already reaches the target at " << Count(size.n_first);
+        if (size.dips_above) text << "; power dips below the target again above " << Count(size.n);
+        text << ".\n";
+      } else {
+        base = static_cast<int64_t>(std::ceil(n_normal));
+        j["n"] = base;
+        j["n_unrounded"] = n_normal;
+        j["applications"] = 2 * base;
+        text << "\nTo show this gap with " << Level(o.common.power) << " power at the " << Level(alpha)
+             << " level, test " << Count(base) << " vacancies per arm (" << Count(2 * base)
+             << " applications in all; unrounded " << Fmt("%.2f", n_normal) << ").\n";
+      }
     }
-    j["table"] = UnpairedTable(TableSizes(base), o.p1, o.p2, alpha);
-    text << RenderUnpairedTable(j["table"]);
+    j["table"] = UnpairedTable(TableSizes(base), o.p1, o.p2, alpha, o.exact);
+    text << RenderUnpairedTable(j["table"], o.exact);
     if (!o.common.plot.empty())
       if (Status s = PlotUnpaired(o.common.plot, o.p1, o.p2, alpha, 2 * base,
-                                  has_power ? std::optional<double>(o.common.power) : std::nullopt, base);
+                                  has_power ? std::optional<double>(o.common.power) : std::nullopt, base, o.exact);
           !s.ok())
         return ReportError(s.error());
   }
@@ -595,10 +649,12 @@ void RegisterPower(CLI::App& app, Context& ctx) {
 
   auto uo = std::make_shared<UnpairedOptions>();
   auto* unpaired =
-      power->add_subcommand("unpaired", "Unpaired design (one probe per vacancy, two arms), normal approximation");
+      power->add_subcommand("unpaired", "Unpaired design (one probe per vacancy, two arms): normal approximation, or "
+                                        "Fisher's exact test with --exact");
   uo->p1_opt = unpaired->add_option("--p1", uo->p1, "Reference arm's expected callback rate");
   uo->p2_opt = unpaired->add_option("--p2", uo->p2, "Other arm's callback rate worth detecting");
   uo->n_opt = unpaired->add_option("--n", uo->n, "Vacancies per arm: solve for power");
+  unpaired->add_flag("--exact", uo->exact, "Exact power of Fisher's test (by enumeration) beside the normal approximation");
   AddCommonOptions(unpaired, uo->common);
   unpaired->callback([&ctx, uo] { ctx.exit_code = RunUnpaired(ctx, *uo); });
 }

@@ -3,6 +3,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "stats/power_fisher.h"
 #include "stats/power_paired.h"
 #include "stats/power_unpaired.h"
 #include "testing/testing.h"
@@ -82,6 +83,29 @@ TEST_CASE("power cli: unpaired as R's power.prop.test, with an SVG power curve")
   REQUIRE(p.exit_code == 0);
   CHECK_THAT(nlohmann::json::parse(p.out)["power"].get<double>(),
              WithinRel(stats::NormalTwoProportionPower(1000, 0.10, 0.07, 0.05), 1e-12));
+}
+
+TEST_CASE("power cli: unpaired --exact gives Fisher's exact power beside the normal approximation") {
+  auto r = RunCli({"--json", "power", "unpaired", "--p1", "0.5", "--p2", "0.2", "--n", "40", "--exact"});
+  INFO(r.err);
+  REQUIRE(r.exit_code == 0);
+  auto j = nlohmann::json::parse(r.out);
+  CHECK_THAT(j["power"].get<double>(), WithinRel(stats::FisherExactPower(40, 0.5, 0.2, 0.05), 1e-12));
+  CHECK_THAT(j["normal"]["power"].get<double>(), WithinRel(stats::NormalTwoProportionPower(40, 0.5, 0.2, 0.05), 1e-12));
+  CHECK(j["power"].get<double>() < j["normal"]["power"].get<double>());  // Fisher is conservative
+
+  auto n = RunCli({"--json", "power", "unpaired", "--p1", "0.5", "--p2", "0.2", "--power", "0.8", "--exact"});
+  REQUIRE(n.exit_code == 0);
+  auto jn = nlohmann::json::parse(n.out);
+  const int64_t size = jn["n"].get<int64_t>();
+  CHECK(stats::FisherExactPower(size, 0.5, 0.2, 0.05) >= 0.8);
+  CHECK(stats::FisherExactPower(size - 1, 0.5, 0.2, 0.05) < 0.8);
+  CHECK(jn["normal"]["n"] == 39);  // R: ceiling(power.prop.test(p1 = .5, p2 = .2, power = .8)$n) = 39
+
+  auto mde = RunCli({"power", "unpaired", "--p1", "0.5", "--n", "40", "--power", "0.8", "--exact"});
+  CHECK(mde.exit_code == 2);
+  CHECK(mde.err == "twinprobe: --exact is not available for the smallest detectable p2 \u2014 leave out --exact "
+                   "(normal approximation), or try candidate values with --p2 and --n\n");
 }
 
 TEST_CASE("power cli: the paired plot has the exact and Connor curves") {
