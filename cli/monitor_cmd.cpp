@@ -128,7 +128,8 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
   if (!analysis.ok()) return ReportError(analysis.error());
   const AnalysisResult& r = analysis.value();
   if (!r.has_paired)
-    return ReportError(BadInput(StorePath(ctx), "monitor needs a paired design (two arms, a set of two probes per vacancy)",
+    return ReportError(BadInput(StorePath(ctx),
+                                "monitor needs a paired design (two arms, a set of two probes per vacancy)",
                                 "for other designs run 'twinprobe analyze' at the end of fieldwork"));
   auto sets = ReadCompletedSets(*store.value(), settings.value().outcomes, r);
   if (!sets.ok()) return ReportError(sets.error());
@@ -241,7 +242,10 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
     << ", other arm " << r.other_label << ".\n"
     << "Looks count completed sets in the order they completed; schedule:";
   for (size_t i = 0; i < schedule.size(); ++i)
-    t << (i ? "," : "") << " " << schedule[i].sets << (schedule[i].final ? " (final)" : schedule[i].planned ? "" : " (unplanned)");
+    t << (i ? "," : "") << " " << schedule[i].sets
+      << (schedule[i].final     ? " (final)"
+          : schedule[i].planned ? ""
+                                : " (unplanned)");
   t << ". Completed so far: " << done << " of " << planned_sets << " planned sets.\n";
   if (!looks.empty()) {
     t << "\n  look    sets  information  discordant  ref only / other only  stop at  alpha spent / allowed  crossed\n";

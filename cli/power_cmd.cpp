@@ -63,7 +63,8 @@ Status CheckCommon(const Common& c) {
   if (c.power_opt->count())
     if (Status s = CheckOpenUnit("--power", c.power, "the target power", "0.8"); !s.ok()) return s;
   if (c.comparisons < 1)
-    return BadInput("--comparisons", "the number of comparisons must be at least 1, got " + std::to_string(c.comparisons),
+    return BadInput("--comparisons",
+                    "the number of comparisons must be at least 1, got " + std::to_string(c.comparisons),
                     "give how many strata or comparisons the analysis plan corrects across");
   return {};
 }
@@ -130,7 +131,8 @@ struct PairedInputs {
 Result<PairedInputs> ReadPairedInputs(const PairedOptions& o) {
   PairedInputs in;
   const bool discordant_form = o.p10_opt->count() || o.p01_opt->count();
-  const bool rates_form = o.rate_opt->count() || o.ratio_opt->count() || o.difference_opt->count() || o.both_opt->count();
+  const bool rates_form =
+      o.rate_opt->count() || o.ratio_opt->count() || o.difference_opt->count() || o.both_opt->count();
   if (discordant_form + rates_form + (o.discordant_opt->count() > 0) > 1)
     return Usage("give the gap one way: --p10 and --p01, or --rate with --ratio (or --difference) and --both, or "
                  "--discordant",
@@ -324,7 +326,8 @@ int RunPaired(Context& ctx, const PairedOptions& o) {
   const double lost = o.lost;
   json j = GapJson(in, o);
   std::ostringstream text;
-  text << "Paired design: exact McNemar test, two-sided, alpha " << Short(alpha) << ".\n" << CorrectionSentence(o.common);
+  text << "Paired design: exact McNemar test, two-sided, alpha " << Short(alpha) << ".\n"
+       << CorrectionSentence(o.common);
   if (lost > 0)
     text << "Expected share of vacancies lost before both probes are sent: " << Pct(lost)
          << "; vacancy counts are planned vacancies.\n";
@@ -408,7 +411,8 @@ int RunPaired(Context& ctx, const PairedOptions& o) {
     const stats::PairedAlternative lost_alt = stats::WithLosses(in.alt, lost);
     auto size = stats::McNemarExactSampleSize(lost_alt, alpha, target);
     if (!size.found)
-      return ReportError(BadInput("--power", "no study of up to 10,000,000 vacancies reaches " + Level(target) + " power",
+      return ReportError(BadInput("--power",
+                                  "no study of up to 10,000,000 vacancies reaches " + Level(target) + " power",
                                   "look for a larger gap or accept lower power"));
     const double connor = stats::ConnorSampleSize(in.alt, alpha, target) / (1.0 - lost);
     const double miettinen = stats::MiettinenSampleSize(in.alt, alpha, target) / (1.0 - lost);
@@ -424,9 +428,10 @@ int RunPaired(Context& ctx, const PairedOptions& o) {
     j["miettinen"] = {{"n", miettinen}, {"n_rounded", static_cast<int64_t>(std::ceil(miettinen))}};
     j["table"] = PairedTable(TableSizes(size.n_stable), in.alt, alpha, lost);
     text << DescribeGap(in) << "\nTo show this gap with " << Level(target) << " power at the " << Level(alpha)
-         << " level, " << (lost > 0 ? "plan " : "test ") << Count(size.n_stable) << " vacancies with a pair of probes each ("
-         << Count(2 * size.n_stable) << " applications)";
-    if (lost > 0) text << "; about " << Count(std::llround(static_cast<double>(size.n_stable) * (1 - lost))) << " will be complete";
+         << " level, " << (lost > 0 ? "plan " : "test ") << Count(size.n_stable)
+         << " vacancies with a pair of probes each (" << Count(2 * size.n_stable) << " applications)";
+    if (lost > 0)
+      text << "; about " << Count(std::llround(static_cast<double>(size.n_stable) * (1 - lost))) << " will be complete";
     text << ".\n";
     if (size.n_first == size.n_stable)
       text << "Exact power first reaches " << Level(target) << " at " << Count(size.n_first)
@@ -640,8 +645,9 @@ void RegisterPower(CLI::App& app, Context& ctx) {
   po->difference_opt = paired->add_option("--difference", po->difference,
                                           "Gap worth detecting: reference rate - other arm's rate (e.g. 0.03)");
   po->both_opt = paired->add_option("--both", po->both, "Share of vacancies expected to call back both probes");
-  po->discordant_opt = paired->add_option(
-      "--discordant", po->discordant, "Share of discordant vacancies (p10 + p01), for the smallest detectable difference");
+  po->discordant_opt =
+      paired->add_option("--discordant", po->discordant,
+                         "Share of discordant vacancies (p10 + p01), for the smallest detectable difference");
   po->pairs_opt = paired->add_option("--pairs", po->pairs, "Number of vacancies (sets of two probes): solve for power");
   paired->add_option("--lost", po->lost, "Expected share of vacancies lost before both probes are sent (default 0)");
   AddCommonOptions(paired, po->common);
@@ -654,7 +660,8 @@ void RegisterPower(CLI::App& app, Context& ctx) {
   uo->p1_opt = unpaired->add_option("--p1", uo->p1, "Reference arm's expected callback rate");
   uo->p2_opt = unpaired->add_option("--p2", uo->p2, "Other arm's callback rate worth detecting");
   uo->n_opt = unpaired->add_option("--n", uo->n, "Vacancies per arm: solve for power");
-  unpaired->add_flag("--exact", uo->exact, "Exact power of Fisher's test (by enumeration) beside the normal approximation");
+  unpaired->add_flag("--exact", uo->exact,
+                     "Exact power of Fisher's test (by enumeration) beside the normal approximation");
   AddCommonOptions(unpaired, uo->common);
   unpaired->callback([&ctx, uo] { ctx.exit_code = RunUnpaired(ctx, *uo); });
 }

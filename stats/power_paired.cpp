@@ -25,7 +25,8 @@ bool Rejects(int64_t k, int64_t nd, double alpha) {
   // the long-double one McNemarExactP uses and accurate to ~1e-14; only when
   // p lies within 1e-9 of alpha does the analysis's own function decide, so
   // power and analysis agree on every table.
-  const double p = 2.0 * boost::math::ibetac(static_cast<double>(k + 1), static_cast<double>(nd - k), 0.5, FastPolicy());
+  const double p =
+      2.0 * boost::math::ibetac(static_cast<double>(k + 1), static_cast<double>(nd - k), 0.5, FastPolicy());
   if (std::fabs(p - alpha) > 1e-9 * alpha) return p <= alpha;
   return McNemarExactP(PairedCounts{0, k, nd - k, 0}) <= alpha;
 }

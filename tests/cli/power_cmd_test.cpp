@@ -54,7 +54,8 @@ TEST_CASE("power cli: paired power for a given number of vacancies, with losses 
 }
 
 TEST_CASE("power cli: smallest detectable ratio for a budget") {
-  auto r = RunCli({"--json", "power", "paired", "--rate", "0.10", "--both", "0.05", "--pairs", "600", "--power", "0.8"});
+  auto r =
+      RunCli({"--json", "power", "paired", "--rate", "0.10", "--both", "0.05", "--pairs", "600", "--power", "0.8"});
   REQUIRE(r.exit_code == 0);
   auto j = nlohmann::json::parse(r.out);
   CHECK_THAT(j["detectable_ratio"].get<double>(),
@@ -70,7 +71,8 @@ TEST_CASE("power cli: unpaired as R's power.prop.test, with an SVG power curve")
   REQUIRE(r.exit_code == 0);
   auto j = nlohmann::json::parse(r.out);
   CHECK(j["n"] == 1356);  // METHODS.md §3: 10% vs 7% needs 1,356 per arm
-  CHECK_THAT(j["n_unrounded"].get<double>(), WithinRel(stats::NormalTwoProportionSampleSize(0.1, 0.07, 0.05, 0.8), 1e-12));
+  CHECK_THAT(j["n_unrounded"].get<double>(),
+             WithinRel(stats::NormalTwoProportionSampleSize(0.1, 0.07, 0.05, 0.8), 1e-12));
   std::string svg = testing::ReadFile(dir / "curve.svg");
   CHECK(svg.rfind("<svg xmlns=\"http://www.w3.org/2000/svg\"", 0) == 0);
   CHECK(svg.find("<title>Power for callback rates 10.0% vs 7.0% (alpha 0.05)</title>") != std::string::npos);
