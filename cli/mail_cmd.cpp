@@ -5,7 +5,6 @@
 
 #include <filesystem>
 #include <iostream>
-
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
@@ -77,8 +76,9 @@ int RunMail(Context& ctx, const MailOptions& o) {
     for (const auto& u : rules.value().imap) sources.push_back({"imap", u});
   }
   if (sources.empty())
-    return ReportError(Error{ErrorKind::kUsage, "", "no mailbox to read",
-                             "give --mbox FILE, --maildir DIR or --imap URL, or list mailboxes under [mail] in study.toml"});
+    return ReportError(
+        Error{ErrorKind::kUsage, "", "no mailbox to read",
+              "give --mbox FILE, --maildir DIR or --imap URL, or list mailboxes under [mail] in study.toml"});
 
   // Read everything before writing, so the store's write lock is not held
   // while a server answers.
@@ -140,7 +140,8 @@ int RunMail(Context& ctx, const MailOptions& o) {
     std::cout << "Nothing new: every message was stored before; the store is unchanged.\n";
     return 0;
   }
-  std::cout << "Stored " << sum.stored << " new; " << sum.duplicates << " stored before (same Message-ID or content).\n";
+  std::cout << "Stored " << sum.stored << " new; " << sum.duplicates
+            << " stored before (same Message-ID or content).\n";
   auto list = [&](bool matched) {
     for (const auto& m : sum.messages) {
       if (m.status == "duplicate" || (m.status == "matched") != matched) continue;

@@ -2,7 +2,6 @@
 // person's decision on one message (confirm, change the code, assign a
 // probe, dismiss). Never prompts: it runs the same in a terminal and a script.
 #include <iostream>
-
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
@@ -58,7 +57,7 @@ void PrintItem(const ReviewItem& i) {
   auto row = [](const char* label, const std::string& value) {
     if (!value.empty()) std::cout << "  " << label << std::string(10 - std::string(label).size(), ' ') << value << "\n";
   };
-  row("date", i.date.empty()                   ? "(none in the message)"
+  row("date", i.date.empty()                 ? "(none in the message)"
               : i.date_source == "forwarded" ? i.date + " (the forwarded message's date)"
               : i.date_source == "envelope"  ? i.date + " (from the mailbox, the message has no Date)"
                                              : i.date);
@@ -117,10 +116,12 @@ int RunList(Context& ctx, Store& store, bool all) {
   }
   size_t matched = 0;
   for (const auto& i : queue) matched += i.probe_ref.empty() ? 0 : 1;
-  if (all) std::cout << queue.size() << " logged messages:\n\n";
+  if (all)
+    std::cout << queue.size() << " logged messages:\n\n";
   else
     std::cout << queue.size() << " message" << (queue.size() == 1 ? "" : "s") << " wait for review (" << matched
-              << " matched to a probe, " << queue.size() - matched << " to assign). Nothing is recorded until you decide.\n\n";
+              << " matched to a probe, " << queue.size() - matched
+              << " to assign). Nothing is recorded until you decide.\n\n";
   for (const auto& i : queue) {
     PrintItem(i);
     std::cout << "\n";
@@ -141,16 +142,18 @@ int RunReview(Context& ctx, const ReviewOptions& o) {
   auto number = MessageNumber(o.message);
   if (!number.ok()) return ReportError(number.error());
   if (actions > 1)
-    return ReportError(Error{ErrorKind::kUsage, "", "--confirm, --code and --dismiss exclude one another",
-                             "give one of them"});
+    return ReportError(
+        Error{ErrorKind::kUsage, "", "--confirm, --code and --dismiss exclude one another", "give one of them"});
   if (actions == 0) {
     if (!o.probe.empty() || !o.at.empty())
       return ReportError(Error{ErrorKind::kUsage, "", "--probe and --at need a decision",
                                "add --confirm (the suggested code) or --code CODE"});
     auto item = LoadReviewItem(*store.value(), number.value());
     if (!item.ok()) return ReportError(item.error());
-    if (ctx.json) std::cout << ItemJson(item.value()).dump(2) << "\n";
-    else PrintItem(item.value());
+    if (ctx.json)
+      std::cout << ItemJson(item.value()).dump(2) << "\n";
+    else
+      PrintItem(item.value());
     return 0;
   }
   auto settings = LoadStudySettings(ctx, *store.value());
@@ -171,7 +174,8 @@ int RunReview(Context& ctx, const ReviewOptions& o) {
   if (ctx.json) {
     std::cout << nlohmann::json{{"message", req.message},
                                 {"decision", r.decision},
-                                {"response_id", r.response_id ? nlohmann::json(r.response_id) : nlohmann::json(nullptr)},
+                                {"response_id",
+                                 r.response_id ? nlohmann::json(r.response_id) : nlohmann::json(nullptr)},
                                 {"probe", NullIfEmpty(r.probe_ref)},
                                 {"code", NullIfEmpty(r.code)},
                                 {"received_at", NullIfEmpty(r.received_at)},

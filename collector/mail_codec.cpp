@@ -59,9 +59,12 @@ std::string Windows1252ToUtf8(std::string_view bytes) {
   std::string out;
   out.reserve(bytes.size());
   for (unsigned char c : bytes) {
-    if (c < 0x80) out += static_cast<char>(c);
-    else if (c < 0xA0) AppendUtf8(out, kHigh[c - 0x80]);
-    else AppendUtf8(out, c);
+    if (c < 0x80)
+      out += static_cast<char>(c);
+    else if (c < 0xA0)
+      AppendUtf8(out, kHigh[c - 0x80]);
+    else
+      AppendUtf8(out, c);
   }
   return out;
 }
@@ -149,11 +152,13 @@ std::string DecodeQEncoding(std::string_view text) {
   std::string out;
   for (size_t k = 0; k < text.size(); ++k) {
     char c = text[k];
-    if (c == '_') out += ' ';
+    if (c == '_')
+      out += ' ';
     else if (c == '=' && k + 2 < text.size() && HexValue(text[k + 1]) >= 0 && HexValue(text[k + 2]) >= 0) {
       out += static_cast<char>(HexValue(text[k + 1]) * 16 + HexValue(text[k + 2]));
       k += 2;
-    } else out += c;
+    } else
+      out += c;
   }
   return out;
 }
@@ -164,18 +169,29 @@ bool IsUtf8(std::string_view s) {
     unsigned char c = static_cast<unsigned char>(s[i]);
     int extra;
     uint32_t cp;
-    if (c < 0x80) { ++i; continue; }
-    if (c >= 0xC2 && c <= 0xDF) { extra = 1; cp = c & 0x1F; }
-    else if (c >= 0xE0 && c <= 0xEF) { extra = 2; cp = c & 0x0F; }
-    else if (c >= 0xF0 && c <= 0xF4) { extra = 3; cp = c & 0x07; }
-    else return false;
+    if (c < 0x80) {
+      ++i;
+      continue;
+    }
+    if (c >= 0xC2 && c <= 0xDF) {
+      extra = 1;
+      cp = c & 0x1F;
+    } else if (c >= 0xE0 && c <= 0xEF) {
+      extra = 2;
+      cp = c & 0x0F;
+    } else if (c >= 0xF0 && c <= 0xF4) {
+      extra = 3;
+      cp = c & 0x07;
+    } else
+      return false;
     if (i + extra >= s.size()) return false;
     for (int k = 1; k <= extra; ++k) {
       unsigned char cc = static_cast<unsigned char>(s[i + k]);
       if ((cc & 0xC0) != 0x80) return false;
       cp = (cp << 6) | (cc & 0x3F);
     }
-    if ((extra == 2 && (cp < 0x800 || (cp >= 0xD800 && cp <= 0xDFFF))) || (extra == 3 && (cp < 0x10000 || cp > 0x10FFFF)))
+    if ((extra == 2 && (cp < 0x800 || (cp >= 0xD800 && cp <= 0xDFFF))) ||
+        (extra == 3 && (cp < 0x10000 || cp > 0x10FFFF)))
       return false;
     i += extra + 1;
   }
@@ -193,8 +209,8 @@ std::string ToUtf8(std::string_view bytes, std::string_view charset) {
     if (IsUtf8(bytes)) return std::string(bytes);
     return Windows1252ToUtf8(bytes);
   }
-  if (cs.empty() || cs == "us-ascii" || cs == "ascii" || cs == "iso-8859-1" || cs == "latin1" ||
-      cs == "iso_8859-1" || cs == "l1" || cs == "windows-1252" || cs == "cp1252") {
+  if (cs.empty() || cs == "us-ascii" || cs == "ascii" || cs == "iso-8859-1" || cs == "latin1" || cs == "iso_8859-1" ||
+      cs == "l1" || cs == "windows-1252" || cs == "cp1252") {
     // Undeclared 8-bit text is most often UTF-8 these days.
     if ((cs.empty() || cs == "us-ascii" || cs == "ascii") && IsUtf8(bytes)) return std::string(bytes);
     return Windows1252ToUtf8(bytes);

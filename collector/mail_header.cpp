@@ -56,8 +56,10 @@ std::vector<std::string_view> SplitParams(std::string_view s) {
   bool quoted = false;
   size_t start = 0;
   for (size_t i = 0; i < s.size(); ++i) {
-    if (s[i] == '\\' && quoted) ++i;
-    else if (s[i] == '"') quoted = !quoted;
+    if (s[i] == '\\' && quoted)
+      ++i;
+    else if (s[i] == '"')
+      quoted = !quoted;
     else if (s[i] == ';' && !quoted) {
       out.push_back(s.substr(start, i - start));
       start = i + 1;
@@ -94,7 +96,8 @@ std::string PercentDecode(std::string_view s) {
 }
 
 bool IsLocalChar(char c) {
-  return std::isalnum(static_cast<unsigned char>(c)) || std::string_view("!#$%&'*+/=?^_`{|}~.-").find(c) != std::string_view::npos;
+  return std::isalnum(static_cast<unsigned char>(c)) ||
+         std::string_view("!#$%&'*+/=?^_`{|}~.-").find(c) != std::string_view::npos;
 }
 bool IsDomainChar(char c) { return std::isalnum(static_cast<unsigned char>(c)) || c == '.' || c == '-'; }
 
@@ -119,7 +122,8 @@ std::vector<std::string_view> Words(std::string_view s) {
 }
 
 bool AllDigits(std::string_view s) {
-  return !s.empty() && std::all_of(s.begin(), s.end(), [](char c) { return std::isdigit(static_cast<unsigned char>(c)); });
+  return !s.empty() &&
+         std::all_of(s.begin(), s.end(), [](char c) { return std::isdigit(static_cast<unsigned char>(c)); });
 }
 
 // "HH:MM[:SS]" → seconds of the day; -1 if malformed.
@@ -149,9 +153,9 @@ int ZoneOffset(std::string_view z) {
     int off = hh * 3600 + mm * 60;
     return z[0] == '-' ? -off : off;
   }
-  static const std::pair<const char*, int> kNames[] = {{"ut", 0},   {"gmt", 0},  {"z", 0},    {"est", -5}, {"edt", -4},
-                                                       {"cst", -6}, {"cdt", -5}, {"mst", -7}, {"mdt", -6}, {"pst", -8},
-                                                       {"pdt", -7}};
+  static const std::pair<const char*, int> kNames[] = {{"ut", 0},   {"gmt", 0},  {"z", 0},    {"est", -5},
+                                                       {"edt", -4}, {"cst", -6}, {"cdt", -5}, {"mst", -7},
+                                                       {"mdt", -6}, {"pst", -8}, {"pdt", -7}};
   std::string n = Lower(z);
   for (const auto& [name, hours] : kNames)
     if (n == name) return hours * 3600;
@@ -351,9 +355,12 @@ std::optional<int64_t> ParseMailDate(std::string_view value) {
   std::string text;
   int depth = 0;
   for (char c : value) {
-    if (c == '(') ++depth;
-    else if (c == ')' && depth > 0) --depth;
-    else if (depth == 0) text += c;
+    if (c == '(')
+      ++depth;
+    else if (c == ')' && depth > 0)
+      --depth;
+    else if (depth == 0)
+      text += c;
   }
   auto w = Words(text);
   // Mail clients write forwarded dates as "Fri, 5 Mar 2027 at 11:02".
@@ -366,8 +373,10 @@ std::optional<int64_t> ParseMailDate(std::string_view value) {
   int month = MonthNumber(w[k + 1]);
   if (!month || !AllDigits(w[k + 2])) return std::nullopt;
   int year = std::stoi(std::string(w[k + 2]));
-  if (w[k + 2].size() <= 2) year += year < 50 ? 2000 : 1900;      // RFC 5322 section 4.3
-  else if (w[k + 2].size() == 3) year += 1900;
+  if (w[k + 2].size() <= 2)
+    year += year < 50 ? 2000 : 1900;  // RFC 5322 section 4.3
+  else if (w[k + 2].size() == 3)
+    year += 1900;
   int clock = 0;
   if (k + 3 < w.size()) {
     clock = ParseClock(w[k + 3]);

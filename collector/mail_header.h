@@ -45,7 +45,7 @@ std::string DecodeHeaderText(std::string_view value);
 // Names and type are lowercased; quoted values unquoted; RFC 2231 parameters
 // (name*=charset''%XX, name*0=, name*1*=) joined and decoded to UTF-8.
 struct MimeValue {
-  std::string type;     // "text/plain", "multipart/mixed", "attachment" … ("" when empty)
+  std::string type;  // "text/plain", "multipart/mixed", "attachment" … ("" when empty)
   std::map<std::string, std::string> params;
   std::string Param(const std::string& name) const;  // "" when absent
 };

@@ -76,10 +76,12 @@ Error CurlFailure(const std::string& label, CURLcode rc, const char* errbuf, con
     case CURLE_COULDNT_CONNECT:
     case CURLE_COULDNT_RESOLVE_HOST:
     case CURLE_OPERATION_TIMEDOUT:
-      return BadInput(label, "cannot reach the IMAP server: " + detail, "check the host and port in the URL and the network");
+      return BadInput(label, "cannot reach the IMAP server: " + detail,
+                      "check the host and port in the URL and the network");
     case CURLE_SSL_CONNECT_ERROR:
     case CURLE_PEER_FAILED_VERIFICATION:
-      return BadInput(label, "the TLS connection failed: " + detail, "check the host name and the server's certificate");
+      return BadInput(label, "the TLS connection failed: " + detail,
+                      "check the host name and the server's certificate");
     default:
       return BadInput(label, "the IMAP server answered with an error: " + detail,
                       "check the folder name in the URL and the account's credentials");

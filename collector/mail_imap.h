@@ -19,10 +19,10 @@
 namespace twinprobe {
 
 struct ImapOptions {
-  std::string url;       // imap://HOST[:PORT]/FOLDER or imaps://…; no password in it
-  std::string user;      // "" : the netrc file (or a user name in the URL)
-  std::string password;  // "" : the netrc file
-  std::string netrc_file;  // "" : libcurl's default (~/.netrc)
+  std::string url;            // imap://HOST[:PORT]/FOLDER or imaps://…; no password in it
+  std::string user;           // "" : the netrc file (or a user name in the URL)
+  std::string password;       // "" : the netrc file
+  std::string netrc_file;     // "" : libcurl's default (~/.netrc)
   long timeout_seconds = 60;  // per request (connect and each message)
   std::function<void(size_t done, size_t total)> progress;  // after each message; may be empty
 };

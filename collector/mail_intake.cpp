@@ -1,7 +1,6 @@
 #include "collector/mail_intake.h"
 
 #include <nlohmann/json.hpp>
-
 #include <set>
 
 #include "collector/mail_match.h"
@@ -74,7 +73,10 @@ Result<IntakeSummary> IngestMail(Store& store, const MailRules& rules, const std
       // A forward's own date is when the fieldworker passed it on; the
       // employer's date is in the forwarded header block.
       std::optional<int64_t> date = m.forwarded_date ? m.forwarded_date : m.date ? m.date : raw.envelope_time;
-      const char* date_source = m.forwarded_date ? "forwarded" : m.date ? "header" : raw.envelope_time ? "envelope" : "none";
+      const char* date_source = m.forwarded_date    ? "forwarded"
+                                : m.date            ? "header"
+                                : raw.envelope_time ? "envelope"
+                                                    : "none";
 
       nlohmann::json phrases = nlohmann::json::array(), contexts = nlohmann::json::array();
       for (const auto& e : suggestion.evidence) {
@@ -85,30 +87,40 @@ Result<IntakeSummary> IngestMail(Store& store, const MailRules& rules, const std
                                  {"date", date_source},
                                  {"candidates", match.candidates},
                                  {"phrases", phrases}};
-      nlohmann::json excerpt = {{"from", m.from},
-                                {"to", m.to},
-                                {"subject", m.subject},
-                                {"message_id", m.message_id},
-                                {"where", raw.where},
-                                {"text", Clip(MakeSearchText(fresh).plain, rules.excerpt_chars)},
-                                {"contexts", contexts}};
+      nlohmann::json excerpt = {
+          {"from", m.from},       {"to", m.to},
+          {"subject", m.subject}, {"message_id", m.message_id},
+          {"where", raw.where},   {"text", Clip(MakeSearchText(fresh).plain, rules.excerpt_chars)},
+          {"contexts", contexts}};
       std::string sender = m.sender_addresses.empty() ? "" : m.sender_addresses.front();
 
       ins.Bind(1, key).Bind(2, SourceName(batch));
-      if (sender.empty()) ins.BindNull(3);
-      else ins.Bind(3, DigestOrNull(sender));
-      if (match.profile_mailbox.empty()) ins.BindNull(4);
-      else ins.Bind(4, match.profile_mailbox);
-      if (m.subject.empty()) ins.BindNull(5);
-      else ins.Bind(5, DigestOrNull(m.subject));
-      if (date) ins.Bind(6, FormatIsoTime(*date));
-      else ins.BindNull(6);
+      if (sender.empty())
+        ins.BindNull(3);
+      else
+        ins.Bind(3, DigestOrNull(sender));
+      if (match.profile_mailbox.empty())
+        ins.BindNull(4);
+      else
+        ins.Bind(4, match.profile_mailbox);
+      if (m.subject.empty())
+        ins.BindNull(5);
+      else
+        ins.Bind(5, DigestOrNull(m.subject));
+      if (date)
+        ins.Bind(6, FormatIsoTime(*date));
+      else
+        ins.BindNull(6);
       ins.Bind(7, Sha256Hex(CanonicalRaw(raw.raw))).Bind(8, excerpt.dump());
-      if (match.status == MatchStatus::kMatched) ins.Bind(9, match.probe_id);
-      else ins.BindNull(9);
+      if (match.status == MatchStatus::kMatched)
+        ins.Bind(9, match.probe_id);
+      else
+        ins.BindNull(9);
       ins.Bind(10, std::string(MatchStatusName(match.status)) + ": " + match.reason);
-      if (suggestion.code.empty()) ins.BindNull(11);
-      else ins.Bind(11, suggestion.code);
+      if (suggestion.code.empty())
+        ins.BindNull(11);
+      else
+        ins.Bind(11, suggestion.code);
       ins.Bind(12, evidence.dump()).Bind(13, write.seq()).Run();
 
       out.message = store.LastInsertId();
@@ -119,18 +131,20 @@ Result<IntakeSummary> IngestMail(Store& store, const MailRules& rules, const std
       out.suggested_code = suggestion.code;
       out.reason = match.reason;
       ++summary.stored;
-      if (match.status == MatchStatus::kMatched) ++summary.matched;
-      else ++summary.queued;
+      if (match.status == MatchStatus::kMatched)
+        ++summary.matched;
+      else
+        ++summary.queued;
       summary.messages.push_back(out);
     }
   }
   if (summary.stored == 0) return summary;  // nothing new: the transaction rolls back, the chain is unchanged
   std::string sources;
   for (const auto& b : batches) sources += (sources.empty() ? "" : ", ") + SourceName(b);
-  summary.audit_hash = write.Commit(
-      "mail from " + sources + ": " + std::to_string(summary.read) + " read, " + std::to_string(summary.stored) +
-      " stored (" + std::to_string(summary.matched) + " matched to a probe, " + std::to_string(summary.queued) +
-      " to assign), " + std::to_string(summary.duplicates) + " stored before; all wait for review");
+  summary.audit_hash = write.Commit("mail from " + sources + ": " + std::to_string(summary.read) + " read, " +
+                                    std::to_string(summary.stored) + " stored (" + std::to_string(summary.matched) +
+                                    " matched to a probe, " + std::to_string(summary.queued) + " to assign), " +
+                                    std::to_string(summary.duplicates) + " stored before; all wait for review");
   return summary;
 }
 

@@ -27,7 +27,8 @@ bool DomainFits(const std::string& sender_domain, const std::string& employer_do
   if (employer_domain.empty() || sender_domain.empty()) return false;
   if (sender_domain == employer_domain) return true;
   return sender_domain.size() > employer_domain.size() &&
-         sender_domain.compare(sender_domain.size() - employer_domain.size(), employer_domain.size(), employer_domain) == 0 &&
+         sender_domain.compare(sender_domain.size() - employer_domain.size(), employer_domain.size(),
+                               employer_domain) == 0 &&
          sender_domain[sender_domain.size() - employer_domain.size() - 1] == '.';
 }
 
@@ -41,9 +42,12 @@ std::string JoinAnd(const std::vector<std::string>& parts) {
 
 const char* MatchStatusName(MatchStatus s) {
   switch (s) {
-    case MatchStatus::kMatched: return "matched";
-    case MatchStatus::kAmbiguous: return "ambiguous";
-    default: return "unmatched";
+    case MatchStatus::kMatched:
+      return "matched";
+    case MatchStatus::kAmbiguous:
+      return "ambiguous";
+    default:
+      return "unmatched";
   }
 }
 
@@ -51,9 +55,12 @@ std::string EmployerMatchName(const std::string& name) {
   std::string out;
   int depth = 0;
   for (char c : name) {
-    if (c == '(') ++depth;
-    else if (c == ')' && depth > 0) --depth;
-    else if (depth == 0) out += c;
+    if (c == '(')
+      ++depth;
+    else if (c == ')' && depth > 0)
+      --depth;
+    else if (depth == 0)
+      out += c;
   }
   return FoldPhrase(out);
 }
@@ -128,10 +135,12 @@ MatchResult MatchMessage(const MatchIndex& index, const MailMessage& m, const Ma
                      rules.generic_domains.end();
       for (const auto& sender : senders) {
         std::string d = AddressDomain(sender);
-        bool sender_generic = std::find(rules.generic_domains.begin(), rules.generic_domains.end(), d) !=
-                              rules.generic_domains.end();
-        if (generic || sender_generic) e.domain = e.domain || (!p.employer_contact.empty() && sender == p.employer_contact);
-        else e.domain = e.domain || DomainFits(d, employer_domain);
+        bool sender_generic =
+            std::find(rules.generic_domains.begin(), rules.generic_domains.end(), d) != rules.generic_domains.end();
+        if (generic || sender_generic)
+          e.domain = e.domain || (!p.employer_contact.empty() && sender == p.employer_contact);
+        else
+          e.domain = e.domain || DomainFits(d, employer_domain);
       }
       e.name = p.employer_name.size() >= 4 && mentions(p.employer_name);
       if (e.any()) with_evidence.emplace_back(i, e);

@@ -37,9 +37,9 @@ struct MatchProbe {
   std::string profile_mailbox;  // lowercased
   std::string vacancy_ref;
   std::string vacancy_ref_folded;  // as FoldPhrase() gives it (filled by LoadMatchIndex)
-  std::string employer_key;     // pseudonym
-  std::string employer_name;    // folded, parenthesised parts removed; "" after purge
-  std::string employer_contact;  // lowercased address; "" if none (or purged)
+  std::string employer_key;        // pseudonym
+  std::string employer_name;       // folded, parenthesised parts removed; "" after purge
+  std::string employer_contact;    // lowercased address; "" if none (or purged)
 };
 
 struct MatchIndex {

@@ -178,7 +178,8 @@ std::vector<std::string> ForwardedSenders(const std::string& text) {
     pos = eol == std::string::npos ? text.size() : eol + 1;
     size_t k = 0;
     while (k < line.size() && (line[k] == '>' || line[k] == ' ' || line[k] == '*' || line[k] == '\t')) ++k;
-    if (line.size() - k >= 5 && Lower(line.substr(k, 5)) == "from:") AppendAddresses(out, ExtractAddresses(line.substr(k + 5)));
+    if (line.size() - k >= 5 && Lower(line.substr(k, 5)) == "from:")
+      AppendAddresses(out, ExtractAddresses(line.substr(k + 5)));
   }
   return out;
 }
@@ -219,8 +220,10 @@ void ReadForward(MailMessage& m) {
     if (!armed || !StartsNoCase(l, "from:")) continue;
     for (size_t k = i + 1; k < lines.size() && k <= i + 5 && !m.forwarded_date; ++k) {
       std::string_view t = StripLead(lines[k]);
-      if (StartsNoCase(t, "date:")) m.forwarded_date = ParseMailDate(t.substr(5));
-      else if (StartsNoCase(t, "sent:")) m.forwarded_date = ParseMailDate(t.substr(5));
+      if (StartsNoCase(t, "date:"))
+        m.forwarded_date = ParseMailDate(t.substr(5));
+      else if (StartsNoCase(t, "sent:"))
+        m.forwarded_date = ParseMailDate(t.substr(5));
     }
     break;  // only the first forwarded header block
   }
@@ -243,7 +246,8 @@ MailMessage ParseMailMessage(std::string_view raw) {
   m.to = DecodeHeaderText(m.headers.Get("To"));
   m.date = ParseMailDate(m.headers.Get("Date"));
   for (const char* name : {"From", "Reply-To", "Sender"})
-    for (const auto& v : m.headers.GetAll(name)) AppendAddresses(m.sender_addresses, ExtractAddresses(DecodeHeaderText(v)));
+    for (const auto& v : m.headers.GetAll(name))
+      AppendAddresses(m.sender_addresses, ExtractAddresses(DecodeHeaderText(v)));
   for (const char* name : {"To", "Cc", "Delivered-To", "X-Original-To", "Envelope-To", "Resent-To"})
     for (const auto& v : m.headers.GetAll(name))
       AppendAddresses(m.recipient_addresses, ExtractAddresses(DecodeHeaderText(v)));

@@ -16,10 +16,10 @@ namespace twinprobe {
 
 struct MailMessage {
   HeaderBlock headers;
-  std::string message_id;  // Message-ID without angle brackets; "" when absent
-  std::string subject;     // decoded to UTF-8
-  std::string from;        // From, decoded (display name and address)
-  std::string to;          // To, decoded
+  std::string message_id;       // Message-ID without angle brackets; "" when absent
+  std::string subject;          // decoded to UTF-8
+  std::string from;             // From, decoded (display name and address)
+  std::string to;               // To, decoded
   std::optional<int64_t> date;  // Date, UTC seconds; nullopt when absent or unreadable
   // Lowercased addresses: who wrote (From, Reply-To, Sender) and who it was
   // for (To, Cc, Delivered-To, X-Original-To, Envelope-To, Resent-To).

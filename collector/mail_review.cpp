@@ -103,8 +103,9 @@ Result<ReviewOutcome> DecideReview(Store& store, const OutcomeScheme& scheme, co
   const ReviewItem& item = out.item;
   const std::string n = Number(req.message);
   if (!item.decision.empty())
-    return BadInput("", "message " + n + " was reviewed before (" + item.decision + " by " + item.decided_by + " at " +
-                            item.decided_at + ")",
+    return BadInput("",
+                    "message " + n + " was reviewed before (" + item.decision + " by " + item.decided_by + " at " +
+                        item.decided_at + ")",
                     "to correct the response, record a new one with 'twinprobe record PROBE CODE'; it supersedes the "
                     "old one and both are kept");
   Stmt ins = store.Prepare(
@@ -161,8 +162,9 @@ Result<ReviewOutcome> DecideReview(Store& store, const OutcomeScheme& scheme, co
   }
   ins.Bind(1, req.message).Bind(2, out.decision).Bind(3, out.response_id).Bind(4, write.actor()).Bind(5, write.at());
   ins.Bind(6, write.seq()).Run();
-  out.audit_hash = write.Commit("review message " + n + ": " + out.decision + " " + out.code + " for " + out.probe_ref +
-                                (out.superseded ? " (supersedes response " + std::to_string(out.superseded) + ")" : ""));
+  out.audit_hash =
+      write.Commit("review message " + n + ": " + out.decision + " " + out.code + " for " + out.probe_ref +
+                   (out.superseded ? " (supersedes response " + std::to_string(out.superseded) + ")" : ""));
   return out;
 }
 

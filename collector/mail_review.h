@@ -18,14 +18,14 @@ namespace twinprobe {
 
 struct ReviewItem {
   int64_t message = 0;
-  std::string source;       // mbox:FILE, maildir:DIR, or the IMAP URL
-  std::string date;         // the message's date (ISO, UTC); "" if it had none
-  std::string date_source;  // header | forwarded (the forwarded message's) | envelope (mbox/Maildir) | none
-  std::string status;       // matched | ambiguous | unmatched
-  std::string probe_ref;    // matched probe ("" otherwise)
-  std::string profile;      // the profile's mailbox ("" if none was found)
-  std::string employer_key; // of the matched probe's vacancy
-  std::string reason;       // why it matched or not
+  std::string source;                   // mbox:FILE, maildir:DIR, or the IMAP URL
+  std::string date;                     // the message's date (ISO, UTC); "" if it had none
+  std::string date_source;              // header | forwarded (the forwarded message's) | envelope (mbox/Maildir) | none
+  std::string status;                   // matched | ambiguous | unmatched
+  std::string probe_ref;                // matched probe ("" otherwise)
+  std::string profile;                  // the profile's mailbox ("" if none was found)
+  std::string employer_key;             // of the matched probe's vacancy
+  std::string reason;                   // why it matched or not
   std::vector<std::string> candidates;  // ambiguous: "P00003 (domain)", …
   std::string suggested_code;           // "" : no rule applied
   std::vector<PhraseEvidence> evidence;  // with contexts while not purged
@@ -56,9 +56,9 @@ struct ReviewRequest {
 };
 
 struct ReviewOutcome {
-  ReviewItem item;            // as it was before the decision
-  std::string decision;       // confirmed | changed | dismissed
-  int64_t response_id = 0;    // 0 when dismissed
+  ReviewItem item;          // as it was before the decision
+  std::string decision;     // confirmed | changed | dismissed
+  int64_t response_id = 0;  // 0 when dismissed
   std::string probe_ref, code, received_at;
   bool positive = false, late = false;
   int64_t superseded = 0;

@@ -29,8 +29,10 @@ bool IsEscapedFrom(std::string_view line) {
 // The empty line before a separator (or at the end of the file) belongs to
 // the mbox, not to the message: removes it when `raw` ends with one.
 void DropSeparatorLine(std::string& raw) {
-  if (raw.size() >= 2 && raw.compare(raw.size() - 2, 2, "\n\n") == 0) raw.pop_back();
-  else if (raw.size() >= 4 && raw.compare(raw.size() - 4, 4, "\r\n\r\n") == 0) raw.resize(raw.size() - 2);
+  if (raw.size() >= 2 && raw.compare(raw.size() - 2, 2, "\n\n") == 0)
+    raw.pop_back();
+  else if (raw.size() >= 4 && raw.compare(raw.size() - 4, 4, "\r\n\r\n") == 0)
+    raw.resize(raw.size() - 2);
 }
 
 }  // namespace
@@ -75,8 +77,10 @@ Result<std::vector<RawMail>> ReadMbox(const std::string& path) {
       out.push_back({"", path + ":" + std::to_string(line_no), ParseMboxFromLineDate(bare)});
       current = &out.back();
     } else if (current) {
-      if (IsEscapedFrom(bare)) current->raw.append(line.substr(1));
-      else current->raw.append(line);
+      if (IsEscapedFrom(bare))
+        current->raw.append(line.substr(1));
+      else
+        current->raw.append(line);
     }
     previous_empty = bare.empty();
     pos = next;
@@ -98,7 +102,8 @@ Result<std::vector<RawMail>> ReadMaildir(const std::string& dir) {
     std::sort(files.begin(), files.end());
     for (const auto& f : files) {
       RawMail m;
-      if (!ReadWhole(f.string(), m.raw)) return BadInput(f.string(), "cannot read this message file", "check its permissions");
+      if (!ReadWhole(f.string(), m.raw))
+        return BadInput(f.string(), "cannot read this message file", "check its permissions");
       m.where = f.string();
       std::string name = f.filename().string();
       size_t digits = 0;

@@ -12,8 +12,8 @@
 namespace twinprobe {
 
 struct RawMail {
-  std::string raw;    // the message as stored (an mbox's "From " line removed, ">From" unescaped)
-  std::string where;  // where it was found: "FILE:LINE", a Maildir file, or "URL;UID=N"
+  std::string raw;                       // the message as stored (an mbox's "From " line removed, ">From" unescaped)
+  std::string where;                     // where it was found: "FILE:LINE", a Maildir file, or "URL;UID=N"
   std::optional<int64_t> envelope_time;  // mbox "From " line date or Maildir delivery time (UTC)
 };
 

@@ -33,7 +33,8 @@ Suggestion Suggester::Suggest(std::string_view subject, std::string_view fresh_b
     if (found_text < 0) continue;
     const SearchText& st = texts[found_text];
     size_t begin = st.origin[found_at], end = st.origin[found_at + p.folded.size()];
-    s.evidence.push_back({p.code, p.phrase, names[found_text], negated, ContextAround(st.plain, begin, end, context_chars)});
+    s.evidence.push_back(
+        {p.code, p.phrase, names[found_text], negated, ContextAround(st.plain, begin, end, context_chars)});
     if (!negated && s.code.empty()) s.code = p.code;
   }
   return s;

@@ -19,15 +19,15 @@
 namespace twinprobe {
 
 struct PhraseEvidence {
-  std::string code;     // the rule's code
-  std::string phrase;   // the phrase as the rule writes it
-  std::string where;    // "subject" or "body"
+  std::string code;      // the rule's code
+  std::string phrase;    // the phrase as the rule writes it
+  std::string where;     // "subject" or "body"
   bool negated = false;  // set aside: a negation stands before it
-  std::string context;  // the words around it, as written in the message
+  std::string context;   // the words around it, as written in the message
 };
 
 struct Suggestion {
-  std::string code;  // "" : no rule applies
+  std::string code;                      // "" : no rule applies
   std::vector<PhraseEvidence> evidence;  // at most one entry per phrase (its first hit), rules in order
 };
 

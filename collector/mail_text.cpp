@@ -32,7 +32,8 @@ uint32_t DecodeAt(std::string_view s, size_t i, size_t& len) {
 }
 
 void Encode(std::string& out, uint32_t cp) {
-  if (cp < 0x80) out += static_cast<char>(cp);
+  if (cp < 0x80)
+    out += static_cast<char>(cp);
   else if (cp < 0x800) {
     out += static_cast<char>(0xC0 | (cp >> 6));
     out += static_cast<char>(0x80 | (cp & 0x3F));
@@ -149,7 +150,8 @@ bool IsHeaderBlockAt(const std::vector<std::string_view>& lines, size_t i) {
 bool IsReplyBoundary(const std::vector<std::string_view>& lines, size_t i) {
   std::string_view t = TrimView(lines[i]);
   std::string l = LowerAscii(t);
-  if (l.size() >= 6 && (l.compare(l.size() - 6, 6, "wrote:") == 0 || (l.size() >= 7 && l.compare(l.size() - 7, 7, "wrote :") == 0)))
+  if (l.size() >= 6 &&
+      (l.compare(l.size() - 6, 6, "wrote:") == 0 || (l.size() >= 7 && l.compare(l.size() - 7, 7, "wrote :") == 0)))
     return true;
   return IsOriginalMessageLine(t) || IsHeaderBlockAt(lines, i);
 }
@@ -211,8 +213,10 @@ SearchText MakeSearchText(std::string_view text) {
     size_t len;
     uint32_t cp = DecodeAt(st.plain, i, len);
     size_t before = st.folded.size();
-    if (cp == 0xFFFD && len == 1) st.folded += st.plain[i];
-    else Encode(st.folded, Lower(Plain(cp)));
+    if (cp == 0xFFFD && len == 1)
+      st.folded += st.plain[i];
+    else
+      Encode(st.folded, Lower(Plain(cp)));
     for (size_t k = before; k < st.folded.size(); ++k) st.origin.push_back(static_cast<uint32_t>(i));
     i += len;
   }

@@ -9,8 +9,8 @@
 namespace twinprobe {
 namespace {
 
-const std::vector<std::string> kMailKeys = {"mbox", "maildir", "imap", "generic_domains", "excerpt_chars",
-                                            "negations", "suggest"};
+const std::vector<std::string> kMailKeys = {"mbox",          "maildir",   "imap",   "generic_domains",
+                                            "excerpt_chars", "negations", "suggest"};
 
 std::string Lower(std::string s) {
   for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
@@ -49,8 +49,8 @@ class MailReader {
   std::optional<Error> error_;
 };
 
-std::vector<std::string> MailReader::Strings(const toml::table& t, const std::string& section,
-                                             const std::string& key, std::vector<std::string> fallback) {
+std::vector<std::string> MailReader::Strings(const toml::table& t, const std::string& section, const std::string& key,
+                                             std::vector<std::string> fallback) {
   const toml::node* n = t.get(key);
   if (!n) return fallback;
   if (!n->is_array()) {
@@ -95,8 +95,9 @@ void MailReader::ReadImap(const toml::table& mail, MailRules& rules) {
     authority = authority.substr(0, authority.find('/'));
     size_t at = authority.rfind('@');
     if (at != std::string::npos && authority.substr(0, at).find(':') != std::string::npos) {
-      Fail(el, "[mail].imap entry carries a password", "remove it from study.toml; put it in "
-               "TWINPROBE_IMAP_PASSWORD or a netrc file (see docs/mail.md)");
+      Fail(el, "[mail].imap entry carries a password",
+           "remove it from study.toml; put it in "
+           "TWINPROBE_IMAP_PASSWORD or a netrc file (see docs/mail.md)");
       return;
     }
   }
@@ -176,11 +177,13 @@ MailRules DefaultMailRules(const OutcomeScheme& scheme) {
   // Plain English wording seen in employers' replies; studies in another
   // language write their own lists in [[mail.suggest]].
   const std::vector<MailPhraseRule> builtin = {
-      {"offer", {"offer you the position", "offer you the job", "pleased to offer", "job offer", "offer of employment"}, {}},
+      {"offer",
+       {"offer you the position", "offer you the job", "pleased to offer", "job offer", "offer of employment"},
+       {}},
       {"invitation",
-       {"invite you to an interview", "invite you for an interview", "invite you to interview", "invitation to an interview",
-        "invitation to interview", "interview invitation", "like to meet you", "come in for an interview",
-        "schedule an interview", "arrange an interview", "available for an interview"},
+       {"invite you to an interview", "invite you for an interview", "invite you to interview",
+        "invitation to an interview", "invitation to interview", "interview invitation", "like to meet you",
+        "come in for an interview", "schedule an interview", "arrange an interview", "available for an interview"},
        {}},
       {"info_request",
        {"could you send", "could you please send", "please send us", "please provide", "could you tell us",

@@ -15,9 +15,9 @@
 //
 // Without a [mail] section (or without [[mail.suggest]] / negations) the
 // built-in English rules of DefaultMailRules apply.
-#include <string>
-
 #include <toml++/toml.h>
+
+#include <string>
 
 #include "core/design.h"
 #include "core/status.h"

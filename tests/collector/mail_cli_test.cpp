@@ -1,7 +1,6 @@
 // `twinprobe mail` and `twinprobe review` end to end: the real binary on the
 // planned fixture study, with standard input at /dev/null (no prompts).
 #include <catch2/catch.hpp>
-
 #include <nlohmann/json.hpp>
 
 #include "core/audit.h"
@@ -32,7 +31,8 @@ TEST_CASE("mail cli: reads the design's mailboxes, logs, and records no response
                         "Matched to a probe (9); each suggestion waits for a person to confirm it:\n",
                     0) == 0);
   CHECK(Contains(r.out, "To assign by hand (3), no single probe fits:\n"));
-  CHECK(Contains(r.out, "  message 9  unmatched  no profile's mailbox is among the recipients, the senders or the text\n"));
+  CHECK(Contains(r.out,
+                 "  message 9  unmatched  no profile's mailbox is among the recipients, the senders or the text\n"));
   CHECK(Contains(r.out, "No response was recorded. Next: 'twinprobe review' shows the queue with the evidence.\n"));
   auto store = s.Open();
   CHECK(store->QueryInt("SELECT count(*) FROM response") == 0);
@@ -46,8 +46,9 @@ TEST_CASE("mail cli: reads the design's mailboxes, logs, and records no response
   CHECK(j["audit_hash"].is_null());
   CHECK(j["messages"][0]["status"] == "duplicate");
   auto text = RunCli({"--study", s.study, "mail", "--maildir", s.study + "/mail/Maildir"});
-  CHECK(text.out == "Read 5 messages from 1 mailbox: " + s.study + "/mail/Maildir (5).\n"
-                    "Nothing new: every message was stored before; the store is unchanged.\n");
+  CHECK(text.out == "Read 5 messages from 1 mailbox: " + s.study +
+                        "/mail/Maildir (5).\n"
+                        "Nothing new: every message was stored before; the store is unchanged.\n");
 }
 
 TEST_CASE("mail cli: --json lists every message with its match") {
@@ -60,8 +61,8 @@ TEST_CASE("mail cli: --json lists every message with its match") {
   CHECK(j["duplicates"] == 1);
   CHECK(j["matched"] == 8);
   CHECK(j["queued"] == 2);
-  CHECK(j["sources"] == nlohmann::json::parse(R"([{"kind":"mbox","source":")" + s.study +
-                                              R"(/mail/inbox.mbox","messages":11}])"));
+  CHECK(j["sources"] ==
+        nlohmann::json::parse(R"([{"kind":"mbox","source":")" + s.study + R"(/mail/inbox.mbox","messages":11}])"));
   const auto& first = j["messages"][0];
   auto store = s.Open();
   CHECK(first["message"] == 1);
@@ -83,10 +84,13 @@ TEST_CASE("mail cli: bad input is one line, exit 1 or 2, and the store unchanged
   CHECK(missing.err == "twinprobe: " + s.study + "/nothing.mbox: cannot read the mbox file \u2014 check the path\n");
   auto not_mbox = RunCli({"--study", s.study, "mail", "--mbox", s.study + "/vacancies.csv"});
   CHECK(not_mbox.exit_code == 1);
-  CHECK(not_mbox.err == "twinprobe: " + s.study + "/vacancies.csv:1:1: this is not an mbox file: it does not start "
-                        "with a 'From ' line \u2014 pass a Maildir folder with --maildir, or export the mailbox in mbox format\n");
+  CHECK(not_mbox.err ==
+        "twinprobe: " + s.study +
+            "/vacancies.csv:1:1: this is not an mbox file: it does not start "
+            "with a 'From ' line \u2014 pass a Maildir folder with --maildir, or export the mailbox in mbox format\n");
   // One bad mailbox among good ones: nothing is stored.
-  auto mixed = RunCli({"--study", s.study, "mail", "--maildir", s.study + "/mail/Maildir", "--maildir", s.study + "/names"});
+  auto mixed =
+      RunCli({"--study", s.study, "mail", "--maildir", s.study + "/mail/Maildir", "--maildir", s.study + "/names"});
   CHECK(mixed.exit_code == 1);
   CHECK(Head(s.study) == head);
 
@@ -97,17 +101,19 @@ TEST_CASE("mail cli: bad input is one line, exit 1 or 2, and the store unchanged
   testing::WriteFile(s.study + "/study.toml", no_boxes);
   auto none = RunCli({"--study", s.study, "mail"});
   CHECK(none.exit_code == 2);
-  CHECK(none.err == "twinprobe: no mailbox to read \u2014 give --mbox FILE, --maildir DIR or --imap URL, or list "
-                    "mailboxes under [mail] in study.toml\n");
+  CHECK(none.err ==
+        "twinprobe: no mailbox to read \u2014 give --mbox FILE, --maildir DIR or --imap URL, or list "
+        "mailboxes under [mail] in study.toml\n");
 
   std::string typo = toml;
   typo.replace(typo.find("code = \"info_request\""), 21, "code = \"info_reqest\"");
   testing::WriteFile(s.study + "/study.toml", typo);
   auto bad_rule = RunCli({"--study", s.study, "mail"});
   CHECK(bad_rule.exit_code == 1);
-  CHECK(bad_rule.err == "twinprobe: " + s.study + "/study.toml:56:8: 'info_reqest' is not a response code of this "
-                        "study (did you mean 'info_request'?) \u2014 use one of: none, rejection, info_request, "
-                        "invitation, offer\n");
+  CHECK(bad_rule.err == "twinprobe: " + s.study +
+                            "/study.toml:56:8: 'info_reqest' is not a response code of this "
+                            "study (did you mean 'info_request'?) \u2014 use one of: none, rejection, info_request, "
+                            "invitation, offer\n");
   CHECK(Head(s.study) == head);
 }
 
@@ -122,12 +128,17 @@ TEST_CASE("review cli: lists the queue with evidence, and records decisions as r
   auto list = RunCli({"--study", s.study, "review"});
   REQUIRE(list.exit_code == 0);
   CHECK(list.out.rfind("12 messages wait for review (9 matched to a probe, 3 to assign). Nothing is recorded until "
-                       "you decide.\n\nmessage 1  matched -> " + p1 + ", suggested: invitation\n"
-                       "  date      2027-03-04T09:15:00Z\n"
-                       "  source    " + s.study + "/mail/inbox.mbox:1\n"
-                       "  profile   aldo.brenvik@postbox.example\n",
+                       "you decide.\n\nmessage 1  matched -> " +
+                           p1 +
+                           ", suggested: invitation\n"
+                           "  date      2027-03-04T09:15:00Z\n"
+                           "  source    " +
+                           s.study +
+                           "/mail/inbox.mbox:1\n"
+                           "  profile   aldo.brenvik@postbox.example\n",
                        0) == 0);
-  CHECK(Contains(list.out, "  evidence  invitation: \"invite you to an interview\" in the body \u2014 \u2026o Brenvik, "));
+  CHECK(Contains(list.out,
+                 "  evidence  invitation: \"invite you to an interview\" in the body \u2014 \u2026o Brenvik, "));
   CHECK(Contains(list.out, "  decide    twinprobe review 1 --confirm   (or --code CODE, --probe PROBE, --dismiss)\n"));
   CHECK(Contains(list.out, "  decide    twinprobe review 10 --probe PROBE --confirm   (or --code CODE, --dismiss)\n"));
   CHECK(Contains(list.out, "  date      2027-03-05T11:02:00Z (the forwarded message's date)\n"));
@@ -143,8 +154,9 @@ TEST_CASE("review cli: lists the queue with evidence, and records decisions as r
   auto confirm = RunCli({"--study", s.study, "review", "1", "--confirm"});
   INFO(confirm.err);
   REQUIRE(confirm.exit_code == 0);
-  CHECK(confirm.out == "Recorded invitation for " + p1 + " at 2027-03-04T09:15:00Z from message 1 (confirmed as "
-                       "suggested), a positive callback.\n");
+  CHECK(confirm.out == "Recorded invitation for " + p1 +
+                           " at 2027-03-04T09:15:00Z from message 1 (confirmed as "
+                           "suggested), a positive callback.\n");
   auto assign = RunCli({"--study", s.study, "--json", "review", "10", "--probe", p11, "--code", "info_request"});
   REQUIRE(assign.exit_code == 0);
   auto a = nlohmann::json::parse(assign.out);
@@ -178,19 +190,22 @@ TEST_CASE("review cli: usage mistakes exit 2, bad decisions exit 1, nothing writ
   const std::string head = Head(s.study);
   auto word = RunCli({"--study", s.study, "review", "first", "--confirm"});
   CHECK(word.exit_code == 2);
-  CHECK(word.err == "twinprobe: 'first' is not a message number \u2014 use the number 'twinprobe review' lists, e.g. "
-                    "'twinprobe review 3 --confirm'\n");
+  CHECK(word.err ==
+        "twinprobe: 'first' is not a message number \u2014 use the number 'twinprobe review' lists, e.g. "
+        "'twinprobe review 3 --confirm'\n");
   auto no_number = RunCli({"--study", s.study, "review", "--confirm"});
   CHECK(no_number.exit_code == 2);
-  CHECK(no_number.err == "twinprobe: a decision needs the message number \u2014 write 'twinprobe review MESSAGE "
-                         "--confirm' (the numbers are in 'twinprobe review')\n");
+  CHECK(no_number.err ==
+        "twinprobe: a decision needs the message number \u2014 write 'twinprobe review MESSAGE "
+        "--confirm' (the numbers are in 'twinprobe review')\n");
   auto two = RunCli({"--study", s.study, "review", "1", "--confirm", "--dismiss"});
   CHECK(two.exit_code == 2);
   CHECK(two.err == "twinprobe: --confirm, --code and --dismiss exclude one another \u2014 give one of them\n");
   auto probe_only = RunCli({"--study", s.study, "review", "1", "--probe", "P00001"});
   CHECK(probe_only.exit_code == 2);
-  CHECK(probe_only.err == "twinprobe: --probe and --at need a decision \u2014 add --confirm (the suggested code) or "
-                          "--code CODE\n");
+  CHECK(probe_only.err ==
+        "twinprobe: --probe and --at need a decision \u2014 add --confirm (the suggested code) or "
+        "--code CODE\n");
   auto unknown = RunCli({"--study", s.study, "review", "99", "--confirm"});
   CHECK(unknown.exit_code == 1);
   CHECK(unknown.err == "twinprobe: there is no mail message 99 \u2014 run 'twinprobe review' to list the queue\n");

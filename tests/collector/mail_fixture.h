@@ -1,12 +1,11 @@
 #pragma once
 // Shared by the mail tests: the fixture study planned in a temp folder, and
 // the fixture IMAP server (tests/fixtures/mail/imap_server.py) on 127.0.0.1.
-#include <catch2/catch.hpp>
-
 #include <signal.h>
 #include <sys/types.h>
 #include <unistd.h>
 
+#include <catch2/catch.hpp>
 #include <chrono>
 #include <filesystem>
 #include <string>
@@ -17,9 +16,7 @@
 
 namespace twinprobe::mailtest {
 
-inline std::string FixturePath(const std::string& rel) {
-  return testing::SourceDir() + "/tests/fixtures/mail/" + rel;
-}
+inline std::string FixturePath(const std::string& rel) { return testing::SourceDir() + "/tests/fixtures/mail/" + rel; }
 
 // tests/fixtures/mail/study copied to a temp folder and planned with the
 // real binary (10 probes: 5 vacancies x 2 profiles).
@@ -58,8 +55,8 @@ class ImapServer {
     std::string port_file = dir_ / "port", pid_file = dir_ / "pid";
     log_ = dir_ / "commands.log";
     std::string cmd = "python3 '" + FixturePath("imap_server.py") + "' --messages '" + messages_dir + "' --user '" +
-                      user + "' --password '" + password + "' --port-file '" + port_file + "' --log '" + log_ +
-                      "' >'" + (dir_ / "server.out") + "' 2>&1 </dev/null & echo $! > '" + pid_file + "'";
+                      user + "' --password '" + password + "' --port-file '" + port_file + "' --log '" + log_ + "' >'" +
+                      (dir_ / "server.out") + "' 2>&1 </dev/null & echo $! > '" + pid_file + "'";
     REQUIRE(std::system(cmd.c_str()) == 0);
     pid_ = std::stoi(testing::ReadFile(pid_file));
     for (int i = 0; i < 200 && !std::filesystem::exists(port_file); ++i)

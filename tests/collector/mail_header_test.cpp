@@ -1,16 +1,17 @@
 // Headers: unfolding, encoded words, MIME parameters, addresses, dates.
 // Decoded values and epoch seconds were computed with Python's email
 // package (email.header.decode_header, email.utils.parsedate_to_datetime).
-#include <catch2/catch.hpp>
-
 #include "collector/mail_header.h"
+
+#include <catch2/catch.hpp>
 
 using namespace twinprobe;
 
 TEST_CASE("mail header: folded lines unfold and names match in any case") {
   std::string_view header, body;
-  SplitHeaderBody("Subject: Your application:\r\n baker's assistant\r\n\t(V0101)\r\nX-Empty:\r\nnot a field\r\n\r\nBody\r\n",
-                  header, body);
+  SplitHeaderBody(
+      "Subject: Your application:\r\n baker's assistant\r\n\t(V0101)\r\nX-Empty:\r\nnot a field\r\n\r\nBody\r\n",
+      header, body);
   CHECK(body == "Body\r\n");
   HeaderBlock h = ParseHeaderBlock(header);
   REQUIRE(h.fields.size() == 2);
@@ -33,7 +34,8 @@ TEST_CASE("mail header: a message without an empty line is all header") {
 TEST_CASE("mail header: encoded words B and Q, adjacent words joined") {
   // str(make_header(decode_header(...))) == "Öyvind Marsk and Renée"
   CHECK(DecodeHeaderText("=?UTF-8?B?w5Z5dmluZA==?= =?UTF-8?Q?_Marsk?= and =?iso-8859-1?q?Ren=E9e?=") ==
-        "\xc3\x96yvind Marsk and Ren\xc3\xa9" "e");
+        "\xc3\x96yvind Marsk and Ren\xc3\xa9"
+        "e");
   // A UTF-8 character split across two words ("€" = E2 82 AC).
   CHECK(DecodeHeaderText("=?UTF-8?B?4oI=?=\r\n =?UTF-8?B?rHVybw==?=") == "\xe2\x82\xacuro");
   CHECK(DecodeHeaderText("=?iso-8859-1?q?Re:_Application_=96_warehouse_clerk?=") ==
@@ -56,13 +58,16 @@ TEST_CASE("mail header: MIME values with quoted and RFC 2231 parameters") {
   CHECK(ct.Param("missing") == "");
   MimeValue cd = ParseMimeValue("attachment; filename*0*=iso-8859-1''Lebenslauf%20Ren%E9; filename*1=\"e.pdf\"");
   CHECK(cd.type == "attachment");
-  CHECK(cd.Param("filename") == "Lebenslauf Ren\xc3\xa9" "e.pdf");
+  CHECK(cd.Param("filename") ==
+        "Lebenslauf Ren\xc3\xa9"
+        "e.pdf");
   CHECK(ParseMimeValue("").type == "");
 }
 
 TEST_CASE("mail header: addresses are found in display forms, lowercased, once") {
-  auto a = ExtractAddresses("\"Ostrel, Hanne\" <Hanne.Ostrel@Orlinde-Bakehouse.example>, aldo.brenvik@postbox.example, "
-                            "<aldo.brenvik@POSTBOX.example>; not-an-address@localhost");
+  auto a = ExtractAddresses(
+      "\"Ostrel, Hanne\" <Hanne.Ostrel@Orlinde-Bakehouse.example>, aldo.brenvik@postbox.example, "
+      "<aldo.brenvik@POSTBOX.example>; not-an-address@localhost");
   REQUIRE(a.size() == 2);
   CHECK(a[0] == "hanne.ostrel@orlinde-bakehouse.example");
   CHECK(a[1] == "aldo.brenvik@postbox.example");

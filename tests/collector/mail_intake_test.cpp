@@ -1,15 +1,15 @@
 // `mail` at the store level: the fixture study planned for real, the fixture
 // mbox and Maildir read, every message logged once, nothing else written.
-#include <catch2/catch.hpp>
+#include "collector/mail_intake.h"
 
+#include <catch2/catch.hpp>
 #include <nlohmann/json.hpp>
 
-#include "collector/mail_intake.h"
 #include "collector/mail_source.h"
 #include "core/audit.h"
 #include "core/sha256.h"
-#include "planner/design_file.h"
 #include "mail_fixture.h"
+#include "planner/design_file.h"
 
 using namespace twinprobe;
 using mailtest::PlannedMailStudy;
@@ -78,8 +78,10 @@ TEST_CASE("mail intake: every fixture message lands once, matched as the scenari
     if (e.status == "duplicate") continue;
     CHECK(m.profile == e.profile);
     CHECK(m.suggested_code == e.code);
-    if (e.status == "matched") CHECK(m.probe_ref == mailtest::ProbeFor(*store, e.vacancy, e.profile));
-    else CHECK(m.probe_ref.empty());
+    if (e.status == "matched")
+      CHECK(m.probe_ref == mailtest::ProbeFor(*store, e.vacancy, e.profile));
+    else
+      CHECK(m.probe_ref.empty());
   }
   CHECK(sum.messages[10].message == sum.messages[0].message);
   CHECK(sum.messages[11].message == sum.messages[7].message);
@@ -157,7 +159,9 @@ TEST_CASE("mail intake: keys, digests and what the sealed columns hold") {
   CHECK(nomid.Text(0) == "raw:" + Sha256Hex(CanonicalRaw(mbox.value()[7].raw)));
   // Sealed columns hold no sender address or subject in clear text, and no
   // employer name: those live in the purgeable excerpt only.
-  CHECK(store->QueryInt("SELECT count(*) FROM mail_message WHERE from_addr NOT LIKE 'sha256:%' OR subject NOT LIKE 'sha256:%'") == 0);
+  CHECK(store->QueryInt(
+            "SELECT count(*) FROM mail_message WHERE from_addr NOT LIKE 'sha256:%' OR subject NOT LIKE 'sha256:%'") ==
+        0);
   CHECK(store->QueryInt("SELECT count(*) FROM mail_message WHERE match_reason LIKE '%bakehouse%' OR "
                         "match_reason LIKE '%@kestrel%' OR evidence LIKE '%Hanne%'") == 0);
 }

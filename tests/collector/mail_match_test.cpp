@@ -1,8 +1,8 @@
 // Matching on a hand-built index (LoadMatchIndex is covered by the intake
 // tests on a real planned study).
-#include <catch2/catch.hpp>
-
 #include "collector/mail_match.h"
+
+#include <catch2/catch.hpp>
 
 using namespace twinprobe;
 
@@ -63,8 +63,9 @@ TEST_CASE("mail match: a subdomain counts, a look-alike domain does not") {
   CHECK(Match("From: a@mail.kestrel-print.example\nTo: kemi.saralon@postbox.example\n\nx").probe_ref == "P00006");
   MatchResult r = Match("From: a@notkestrel-print.example\nTo: kemi.saralon@postbox.example\n\nx");
   CHECK(r.status == MatchStatus::kUnmatched);
-  CHECK(r.reason == "for profile kemi.saralon@postbox.example, but none of its 3 probes' employers or vacancy "
-                    "references appears in the message");
+  CHECK(r.reason ==
+        "for profile kemi.saralon@postbox.example, but none of its 3 probes' employers or vacancy "
+        "references appears in the message");
 }
 
 TEST_CASE("mail match: two vacancies of one employer are told apart by the reference, else ambiguous") {
@@ -72,13 +73,16 @@ TEST_CASE("mail match: two vacancies of one employer are told apart by the refer
   CHECK(both.status == MatchStatus::kAmbiguous);
   CHECK(both.probe_ref.empty());
   CHECK(both.candidates == std::vector<std::string>{"P00001 (domain)", "P00005 (domain)"});
-  CHECK(both.reason == "for profile aldo.brenvik@postbox.example; several probes fit: P00001 (domain) and P00005 (domain)");
+  CHECK(both.reason ==
+        "for profile aldo.brenvik@postbox.example; several probes fit: P00001 (domain) and P00005 (domain)");
 
-  MatchResult one = Match("From: jobs@orlinde-bakehouse.example\nTo: aldo.brenvik@postbox.example\nSubject: Re: v0106\n\nx");
+  MatchResult one =
+      Match("From: jobs@orlinde-bakehouse.example\nTo: aldo.brenvik@postbox.example\nSubject: Re: v0106\n\nx");
   CHECK(one.status == MatchStatus::kMatched);
   CHECK(one.probe_ref == "P00005");
-  CHECK(one.reason == "for profile aldo.brenvik@postbox.example; vacancy reference V0106 in the message and the "
-                      "sender's address belongs to employer E-aaaa (the only candidate with its vacancy reference)");
+  CHECK(one.reason ==
+        "for profile aldo.brenvik@postbox.example; vacancy reference V0106 in the message and the "
+        "sender's address belongs to employer E-aaaa (the only candidate with its vacancy reference)");
 }
 
 TEST_CASE("mail match: on a shared mail host only the exact contact address counts") {
@@ -87,8 +91,9 @@ TEST_CASE("mail match: on a shared mail host only the exact contact address coun
   MatchResult contact = Match("From: Tessvale.Care.Hiring@freemail.example\nTo: aldo.brenvik@postbox.example\n\nHi");
   CHECK(contact.probe_ref == "P00004");
   // A generic sender writing about an employer by name.
-  MatchResult named = Match("From: desk@freemail.example\nTo: kemi.saralon@postbox.example\n\n"
-                            "I write for Kestrel   Print\nWorks about your application.");
+  MatchResult named = Match(
+      "From: desk@freemail.example\nTo: kemi.saralon@postbox.example\n\n"
+      "I write for Kestrel   Print\nWorks about your application.");
   CHECK(named.probe_ref == "P00006");
   CHECK(named.reason == "for profile kemi.saralon@postbox.example; employer E-dddd's name in the message");
 }
@@ -99,11 +104,13 @@ TEST_CASE("mail match: names shorter than four letters are not evidence") {
 }
 
 TEST_CASE("mail match: with no profile among the recipients, the sender or the text may name it") {
-  MatchResult fwd = Match("From: Kemi <kemi.saralon@postbox.example>\nTo: desk@study.example\nSubject: Fwd: x\n\n"
-                          "---------- Forwarded message ---------\nFrom: hr@kestrel-print.example\n\nCome in.");
+  MatchResult fwd = Match(
+      "From: Kemi <kemi.saralon@postbox.example>\nTo: desk@study.example\nSubject: Fwd: x\n\n"
+      "---------- Forwarded message ---------\nFrom: hr@kestrel-print.example\n\nCome in.");
   CHECK(fwd.probe_ref == "P00006");
-  MatchResult text = Match("From: desk@study.example\nTo: archive@study.example\n\nTo: aldo.brenvik@postbox.example\n"
-                           "From: people@brakkeport-freight.example\n");
+  MatchResult text = Match(
+      "From: desk@study.example\nTo: archive@study.example\n\nTo: aldo.brenvik@postbox.example\n"
+      "From: people@brakkeport-freight.example\n");
   CHECK(text.probe_ref == "P00003");
 }
 

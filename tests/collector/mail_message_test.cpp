@@ -1,8 +1,9 @@
 // Parsing whole messages: the fixtures of make_fixtures.py (encoded there
 // with Python's base64, quopri and email.header) and small cases written here.
+#include "collector/mail_message.h"
+
 #include <catch2/catch.hpp>
 
-#include "collector/mail_message.h"
 #include "collector/mail_source.h"
 #include "testing/testing.h"
 
@@ -45,8 +46,9 @@ TEST_CASE("mail message: multipart/alternative prefers text/plain; B-encoded UTF
   MailMessage m = ParseMailMessage(FixtureMbox()[2].raw);
   CHECK(m.subject == "Print operator \u2013 a question about your certificate \u2713");
   CHECK(m.from == "\u00d6yvind Marsk <oyvind.marsk@kestrel-print.example>");
-  CHECK(m.text == "Hello Aldo,\n\nthanks for applying. Could you send us a copy of your vocational certificate before "
-                  "Friday?\n\nKind regards \u2014 \u00d6yvind Marsk\nKestrel Print Works");
+  CHECK(m.text ==
+        "Hello Aldo,\n\nthanks for applying. Could you send us a copy of your vocational certificate before "
+        "Friday?\n\nKind regards \u2014 \u00d6yvind Marsk\nKestrel Print Works");
   CHECK(m.attachments == 1);  // the HTML alternative
 }
 
@@ -54,7 +56,7 @@ TEST_CASE("mail message: an HTML-only message is read as text, quoted part marke
   MailMessage m = ParseMailMessage(FixtureMbox()[3].raw);
   CHECK(Contains(m.text, "Thank you for applying to Marrowgate Dental & Hygiene.\nPlease call us on 0555 0199"));
   CHECK(Contains(m.text, "> I would welcome an interview invitation."));
-  CHECK_FALSE(Contains(m.text, "color"));      // the style sheet
+  CHECK_FALSE(Contains(m.text, "color"));  // the style sheet
   CHECK_FALSE(Contains(m.text, "<p>"));
 }
 
@@ -78,9 +80,10 @@ TEST_CASE("mail message: an inline forward names its original sender") {
 
 TEST_CASE("mail message: an attached message (message/rfc822) is read with its headers") {
   MailMessage m = ParseMailMessage(FixtureMbox()[6].raw);
-  CHECK(Contains(m.text, "See attached.\n\n-------- Attached message --------\nFrom: Marrowgate Dental "
-                         "<office@marrowgate-dental.example>\nDate: Tue, 09 Mar 2027 08:00:00 +0100\n"
-                         "Subject: Your application (V0105)\nTo: aldo.brenvik@postbox.example"));
+  CHECK(Contains(m.text,
+                 "See attached.\n\n-------- Attached message --------\nFrom: Marrowgate Dental "
+                 "<office@marrowgate-dental.example>\nDate: Tue, 09 Mar 2027 08:00:00 +0100\n"
+                 "Subject: Your application (V0105)\nTo: aldo.brenvik@postbox.example"));
   CHECK(Contains(m.text, "we regret to tell you that the position has been filled."));
   CHECK(m.forwarded_sender_addresses == std::vector<std::string>{"office@marrowgate-dental.example"});
   CHECK(m.is_forward);
@@ -90,7 +93,8 @@ TEST_CASE("mail message: an attached message (message/rfc822) is read with its h
 TEST_CASE("mail message: a reply quoting a header block is not a forward") {
   MailMessage m = ParseMailMessage(
       "Subject: RE: Application\nDate: Wed, 10 Mar 2027 07:45:00 +0100\n\nThanks, see you.\n\n"
-      "From: Aldo Brenvik <aldo.brenvik@postbox.example>\nSent: Mon, 1 Mar 2027 09:00:00 +0000\nSubject: Application\n");
+      "From: Aldo Brenvik <aldo.brenvik@postbox.example>\nSent: Mon, 1 Mar 2027 09:00:00 +0000\nSubject: "
+      "Application\n");
   CHECK_FALSE(m.is_forward);
   CHECK_FALSE(m.forwarded_date.has_value());
   CHECK(m.forwarded_sender_addresses == std::vector<std::string>{"aldo.brenvik@postbox.example"});

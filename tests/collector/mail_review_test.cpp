@@ -1,13 +1,14 @@
 // `review` at the store level: decisions become normal responses (through
 // AddResponse) plus a review_decision row, one audited write each.
+#include "collector/mail_review.h"
+
 #include <catch2/catch.hpp>
 
 #include "collector/mail_intake.h"
-#include "collector/mail_review.h"
 #include "collector/responses.h"
 #include "core/audit.h"
-#include "planner/design_file.h"
 #include "mail_fixture.h"
+#include "planner/design_file.h"
 
 using namespace twinprobe;
 using mailtest::PlannedMailStudy;
@@ -29,8 +30,9 @@ struct ReadStudy : PlannedMailStudy {
     design = d.value();
     auto mbox = ReadMbox(study + "/mail/inbox.mbox");
     auto maildir = ReadMaildir(study + "/mail/Maildir");
-    REQUIRE(IngestMail(*store, design.mail, {{"mbox", "inbox.mbox", mbox.value()}, {"maildir", "Maildir", maildir.value()}})
-                .ok());
+    REQUIRE(
+        IngestMail(*store, design.mail, {{"mbox", "inbox.mbox", mbox.value()}, {"maildir", "Maildir", maildir.value()}})
+            .ok());
   }
   Result<ReviewOutcome> Decide(int64_t message, ReviewAction action, std::string code = "", std::string probe = "",
                                std::string at = "") {
@@ -93,7 +95,8 @@ TEST_CASE("mail review: confirming records the suggestion as a normal response, 
   CHECK(r.value().warnings.empty());
 
   Stmt resp = s.store->Prepare(
-      "SELECT p.ref, r.code, r.received_at, r.channel, r.origin, r.note FROM response r JOIN probe p ON p.id = r.probe_id");
+      "SELECT p.ref, r.code, r.received_at, r.channel, r.origin, r.note FROM response r JOIN probe p ON p.id = "
+      "r.probe_id");
   REQUIRE(resp.Step());
   CHECK(resp.Text(0) == probe);
   CHECK(resp.Text(1) == "invitation");
@@ -139,7 +142,8 @@ TEST_CASE("mail review: a changed code, an assigned probe and a dismissal") {
   CHECK(dismissed.value().decision == "dismissed");
   CHECK(dismissed.value().response_id == 0);
   CHECK(s.store->QueryInt("SELECT count(*) FROM response") == 2);
-  CHECK(s.store->QueryInt("SELECT count(*) FROM review_decision WHERE decision = 'dismissed' AND response_id IS NULL") == 1);
+  CHECK(s.store->QueryInt(
+            "SELECT count(*) FROM review_decision WHERE decision = 'dismissed' AND response_id IS NULL") == 1);
   CHECK(VerifyAudit(*s.store).ok());
 }
 
@@ -159,8 +163,9 @@ TEST_CASE("mail review: refusals name the fix and leave the store unchanged") {
   const std::string head = AuditHead(*s.store);
   auto unmatched = s.Decide(10, ReviewAction::kConfirm);
   REQUIRE_FALSE(unmatched.ok());
-  CHECK(unmatched.error().Message() == "message 10 is not matched to one probe (ambiguous) \u2014 assign it: "
-                                       "'twinprobe review 10 --probe P00012 --code CODE' (or --confirm)");
+  CHECK(unmatched.error().Message() ==
+        "message 10 is not matched to one probe (ambiguous) \u2014 assign it: "
+        "'twinprobe review 10 --probe P00012 --code CODE' (or --confirm)");
   auto missing = s.Decide(99, ReviewAction::kConfirm);
   REQUIRE_FALSE(missing.ok());
   CHECK(missing.error().Message() == "there is no mail message 99 \u2014 run 'twinprobe review' to list the queue");
@@ -197,24 +202,28 @@ TEST_CASE("mail review: a probe of another profile is allowed with a warning") {
   auto r = s.Decide(1, ReviewAction::kConfirm, "", other);
   REQUIRE(r.ok());
   REQUIRE(r.value().warnings.size() == 1);
-  CHECK(r.value().warnings[0] == other + " belongs to profile kemi.saralon@postbox.example, but the message was for " + kAldo);
+  CHECK(r.value().warnings[0] ==
+        other + " belongs to profile kemi.saralon@postbox.example, but the message was for " + kAldo);
 }
 
 TEST_CASE("mail review: a message without a date needs --at; without a suggestion needs --code") {
   PlannedMailStudy s;
   auto store = s.Open();
   MailRules rules;
-  RawMail raw{"Message-ID: <nodate@orlinde-bakehouse.example>\nFrom: jobs@orlinde-bakehouse.example\n"
-              "To: aldo.brenvik@postbox.example\n\nPlease phone us.\n",
-              "x:1", std::nullopt};
+  RawMail raw{
+      "Message-ID: <nodate@orlinde-bakehouse.example>\nFrom: jobs@orlinde-bakehouse.example\n"
+      "To: aldo.brenvik@postbox.example\n\nPlease phone us.\n",
+      "x:1", std::nullopt};
   REQUIRE(IngestMail(*store, rules, {{"mbox", "x", {raw}}}).ok());
   OutcomeScheme scheme;
   auto no_code = DecideReview(*store, scheme, {1, ReviewAction::kConfirm, "", "", ""});
   REQUIRE_FALSE(no_code.ok());
-  CHECK(no_code.error().Message() == "no code was suggested for message 1 \u2014 give one: 'twinprobe review 1 --code CODE'");
+  CHECK(no_code.error().Message() ==
+        "no code was suggested for message 1 \u2014 give one: 'twinprobe review 1 --code CODE'");
   auto no_date = DecideReview(*store, scheme, {1, ReviewAction::kCode, "info_request", "", ""});
   REQUIRE_FALSE(no_date.ok());
-  CHECK(no_date.error().Message() == "message 1 carries no date \u2014 give the time it arrived: --at YYYY-MM-DDTHH:MM");
+  CHECK(no_date.error().Message() ==
+        "message 1 carries no date \u2014 give the time it arrived: --at YYYY-MM-DDTHH:MM");
   auto ok = DecideReview(*store, scheme, {1, ReviewAction::kCode, "info_request", "", "2027-03-06"});
   REQUIRE(ok.ok());
   CHECK(ok.value().decision == "changed");

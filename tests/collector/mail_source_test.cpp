@@ -1,8 +1,9 @@
 // Reading mbox files and Maildir folders, on the fixtures made by
 // tests/fixtures/mail/make_fixtures.py and on small files written here.
+#include "collector/mail_source.h"
+
 #include <catch2/catch.hpp>
 
-#include "collector/mail_source.h"
 #include "testing/testing.h"
 
 using namespace twinprobe;
@@ -57,9 +58,10 @@ TEST_CASE("mail source: an empty mbox holds no messages; a wrong file is refused
   testing::WriteFile(dir / "notes.txt", "Subject: hello\n\nnot an mbox\n");
   auto wrong = ReadMbox(dir / "notes.txt");
   REQUIRE_FALSE(wrong.ok());
-  CHECK(wrong.error().Message() == dir / "notes.txt" + ":1:1: this is not an mbox file: it does not start with a "
-                                                       "'From ' line \u2014 pass a Maildir folder with --maildir, or "
-                                                       "export the mailbox in mbox format");
+  CHECK(wrong.error().Message() == dir / "notes.txt" +
+                                       ":1:1: this is not an mbox file: it does not start with a "
+                                       "'From ' line \u2014 pass a Maildir folder with --maildir, or "
+                                       "export the mailbox in mbox format");
   auto missing = ReadMbox(dir / "nothing.mbox");
   REQUIRE_FALSE(missing.ok());
   CHECK(missing.error().Message() == dir / "nothing.mbox" + ": cannot read the mbox file \u2014 check the path");
@@ -84,8 +86,9 @@ TEST_CASE("mail source: a folder without cur/ and new/ is not a Maildir") {
   testing::WriteFile(dir / "box/new/1.x", "Subject: a\n\nb\n");
   auto r = ReadMaildir(dir / "box");
   REQUIRE_FALSE(r.ok());
-  CHECK(r.error().Message() == dir / "box" + ": this is not a Maildir folder: it has no cur/ and new/ folders \u2014 "
-                                             "pass the folder that holds cur/ and new/, or an mbox file with --mbox");
+  CHECK(r.error().Message() == dir / "box" +
+                                   ": this is not a Maildir folder: it has no cur/ and new/ folders \u2014 "
+                                   "pass the folder that holds cur/ and new/, or an mbox file with --mbox");
   auto missing = ReadMaildir(dir / "nothing");
   REQUIRE_FALSE(missing.ok());
   CHECK(missing.error().what == "no such folder");

@@ -1,6 +1,6 @@
-#include <catch2/catch.hpp>
-
 #include "collector/mail_suggest.h"
+
+#include <catch2/catch.hpp>
 
 using namespace twinprobe;
 
@@ -18,21 +18,21 @@ MailRules Rules() {
 }  // namespace
 
 TEST_CASE("mail suggest: the first rule in the design's order with a hit wins") {
-  Suggestion s = SuggestCode("Your application", "Unfortunately Friday is full, so we invite you to an interview on Monday.",
-                             Rules());
+  Suggestion s = SuggestCode("Your application",
+                             "Unfortunately Friday is full, so we invite you to an interview on Monday.", Rules());
   CHECK(s.code == "invitation");
   REQUIRE(s.evidence.size() == 2);
   CHECK(s.evidence[0].code == "invitation");
   CHECK(s.evidence[0].phrase == "invite you to an interview");
   CHECK(s.evidence[0].where == "body");
   CHECK_FALSE(s.evidence[0].negated);
-  CHECK(s.evidence[0].context ==
-        "Unfortunately Friday is full, so we invite you to an interview on Monday.");
+  CHECK(s.evidence[0].context == "Unfortunately Friday is full, so we invite you to an interview on Monday.");
   CHECK(s.evidence[1].code == "rejection");
 }
 
 TEST_CASE("mail suggest: a negated phrase is set aside but shown") {
-  Suggestion s = SuggestCode("Print operator", "We cannot invite you to an interview; the position has been filled.", Rules());
+  Suggestion s =
+      SuggestCode("Print operator", "We cannot invite you to an interview; the position has been filled.", Rules());
   CHECK(s.code == "rejection");
   REQUIRE(s.evidence.size() == 2);
   CHECK(s.evidence[0].negated);

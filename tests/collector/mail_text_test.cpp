@@ -1,6 +1,6 @@
-#include <catch2/catch.hpp>
-
 #include "collector/mail_text.h"
+
+#include <catch2/catch.hpp>
 
 using namespace twinprobe;
 
@@ -84,7 +84,9 @@ TEST_CASE("mail text: a negation among the four words before a phrase, in the sa
 TEST_CASE("mail text: contexts and clips cut at code points and mark the cut") {
   std::string plain = "\xc3\x96yvind says: please call us today";
   size_t at = plain.find("please");
-  CHECK(ContextAround(plain, at, at + 6, 6) == "\xe2\x80\xa6" "says: please call \xe2\x80\xa6");
+  CHECK(ContextAround(plain, at, at + 6, 6) ==
+        "\xe2\x80\xa6"
+        "says: please call \xe2\x80\xa6");
   CHECK(ContextAround(plain, 0, 2, 3) == "\xc3\x96yvi\xe2\x80\xa6");
   CHECK(Clip(plain, 6) == "\xc3\x96yvind\xe2\x80\xa6");
   CHECK(Clip("short", 10) == "short");
