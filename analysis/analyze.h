@@ -14,6 +14,9 @@
 #include "core/design.h"
 #include "core/status.h"
 #include "core/store.h"
+#include "analysis/design_summary.h"
+#include "analysis/employer_outcomes.h"
+#include "analysis/response_times.h"
 #include "stats/binomial.h"
 #include "stats/mcnemar.h"
 
@@ -61,6 +64,10 @@ struct AnalysisResult {
   stats::PairedCounts paired;
   double mcnemar_exact_p = 1;
   std::vector<StratumTable> strata;  // the paired table within each stratum value
+
+  DesignSummary design;              // analysis/design_summary.h
+  ResponseTimes response_times;      // analysis/response_times.h
+  EmployerOutcomes employers;        // analysis/employer_outcomes.h (pseudonyms only)
 };
 
 // Requires a plan in the store. `plan` supplies alpha and the correction.
