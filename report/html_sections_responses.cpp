@@ -123,9 +123,9 @@ std::string ResponseTimesChart(const AnalysisResult& r, const ReportContext&) {
   std::string o = html::Heading("Time to first response");
   std::string medians;
   for (const auto& a : rt.arms) {
-    if (!medians.empty()) medians += "; ";
+    medians += medians.empty() ? "Within the window, " : "; ";
     medians += ArmName(a.label) + ": " + std::to_string(a.responded) + " of " + std::to_string(a.probes_sent) +
-               " answered within the window" +
+               " answered" +
                (a.median_days >= 0 ? ", half of them within " + Days(a.median_days) + " days" : "") +
                (a.late ? ", " + std::to_string(a.late) + " answered only after the window (counted as none)" : "");
   }

@@ -26,7 +26,8 @@ std::string KeyFigure(const std::string& big, const std::string& label_html, con
 
 std::string CodesText(const std::vector<std::string>& codes) {
   std::string s;
-  for (size_t i = 0; i < codes.size(); ++i) s += (i ? (i + 1 == codes.size() ? " or " : ", ") : "") + codes[i];
+  for (size_t i = 0; i < codes.size(); ++i)
+    s += (i ? (i + 1 == codes.size() ? " or " : ", ") : "") + CodeName(codes[i]);
   return s;
 }
 

@@ -28,7 +28,9 @@ nlohmann::json DesignJson(const DesignSummary& d) {
   nlohmann::json j;
   j["design_sha256"] = d.design_sha256;
   j["seed"] = d.has_seed ? nlohmann::json(d.seed) : nlohmann::json(nullptr);
-  j["plan_created_at"] = d.plan_created_at;
+  // plan_created_at stays out: the plain document must repeat byte for byte
+  // for the same data (the demo's reproducibility check); the audit chain
+  // keeps the time.
   j["window_days"] = d.window_days;
   j["factors"] = nlohmann::json::array();
   for (const auto& f : d.factors) j["factors"].push_back({{"name", f.name}, {"levels", f.levels}, {"reference", f.reference}});

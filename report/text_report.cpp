@@ -68,24 +68,28 @@ void ResponseTimesBlock(std::ostringstream& o, const AnalysisResult& r) {
   o << "\nTime to first response (share of sent applications answered by day; window " << rt.window_days
     << " days):\n";
   char line[256];
+  auto row = [&o](std::string text) {  // columns padded, trailing blanks trimmed
+    while (!text.empty() && text.back() == ' ') text.pop_back();
+    o << text << "\n";
+  };
   std::snprintf(line, sizeof line, "  %-8s", "day");
-  o << line;
+  std::string head = line;
   for (const auto& a : rt.arms) {
     std::snprintf(line, sizeof line, " %-34s", (ArmName(a.label) + " any / positive").c_str());
-    o << line;
+    head += line;
   }
-  o << "\n";
+  row(head);
   for (size_t m = 0; m < rt.arms.front().milestones.size(); ++m) {
     std::snprintf(line, sizeof line, "  %-8d", rt.arms.front().milestones[m].day);
-    o << line;
+    std::string text = line;
     for (const auto& a : rt.arms) {
       const auto& ms = a.milestones[m];
       std::string cell = std::to_string(ms.any) + " (" + FormatPercent(ms.any_share) + ") / " +
                          std::to_string(ms.positive) + " (" + FormatPercent(ms.positive_share) + ")";
       std::snprintf(line, sizeof line, " %-34s", cell.c_str());
-      o << line;
+      text += line;
     }
-    o << "\n";
+    row(text);
   }
   for (const auto& a : rt.arms) {
     o << "  " << ArmName(a.label) << ": " << a.responded << " of " << a.probes_sent << " answered within the window";
