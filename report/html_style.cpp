@@ -22,7 +22,7 @@ p { margin: 6px 0 10px; max-width: 78ch; }
 .toc a { color: var(--accent); }
 .keyfigs { display: flex; flex-wrap: wrap; gap: 12px; margin: 12px 0 18px; }
 .keyfig { flex: 1 1 200px; border: 1px solid var(--rule); border-top: 4px solid var(--accent); padding: 10px 14px; background: var(--soft); }
-.keyfig .big { display: block; font-size: 30px; font-weight: bold; line-height: 1.1; font-variant-numeric: tabular-nums; }
+.keyfig .big { display: block; font-size: 30px; font-weight: bold; line-height: 1.1; font-variant-numeric: tabular-nums; white-space: nowrap; }
 .keyfig .what { display: block; font-size: 14px; margin-top: 4px; }
 .keyfig .small { display: block; font-size: 12.5px; color: var(--muted); }
 .plain h3 { margin-top: 14px; }
@@ -78,7 +78,8 @@ bdi { unicode-bidi: isolate; }
   .figure-body .figure-table { margin-top: 6pt; }
   figure, table.data, .keyfigs, dl.facts { break-inside: avoid; page-break-inside: avoid; }
   .plain p { orphans: 3; widows: 3; }
-  .keyfig { flex-basis: 120px; }
+  .keyfig { flex-basis: 120px; padding: 6pt 8pt; }
+  .keyfig .big { font-size: 17pt; }
   #methods { break-before: page; page-break-before: always; }
   a { color: inherit; text-decoration: none; }
   .keyfig, table.cross td.hl { background: #fff; }
