@@ -11,6 +11,7 @@
 #include <string>
 #include <vector>
 
+#include "analysis/effects.h"
 #include "core/design.h"
 #include "core/status.h"
 #include "core/store.h"
@@ -65,6 +66,9 @@ struct AnalysisResult {
   double mcnemar_exact_p = 1;
   std::vector<StratumTable> strata;  // the paired table within each stratum value
 
+  // Every comparison with the reference arm, per-stratum tests corrected for
+  // multiplicity, Mantel–Haenszel and Breslow–Day (analysis/effects.h).
+  Effects effects;
   DesignSummary design;              // analysis/design_summary.h
   ResponseTimes response_times;      // analysis/response_times.h
   EmployerOutcomes employers;        // analysis/employer_outcomes.h (pseudonyms only)

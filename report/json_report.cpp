@@ -4,6 +4,8 @@
 
 #include <nlohmann/json.hpp>
 
+#include "report/effects_report.h"
+
 namespace twinprobe {
 namespace {
 
@@ -126,6 +128,7 @@ std::string RenderJsonReport(const AnalysisResult& r) {
       p["strata"].push_back({{"name", s.name}, {"value", s.value}, {"table", Table(s.table)}});
     j["paired"] = p;
   }
+  j["effects"] = EffectsJson(r);
   j["design"] = DesignJson(r.design);
   j["response_times"] = ResponseTimesJson(r.response_times);
   j["employers"] = EmployersJson(r.employers);

@@ -4,6 +4,7 @@
 #include <cstdio>
 #include <sstream>
 
+#include "report/effects_report.h"
 #include "report/plain_summary.h"
 
 namespace twinprobe {
@@ -184,6 +185,7 @@ std::string RenderTextReport(const AnalysisResult& r) {
     else
       o << "At alpha = " << r.alpha << " the test does not show a difference; this is not evidence that there is none.\n";
   }
+  o << RenderEffectsText(r);
   DesignBlock(o, r);
   ResponseTimesBlock(o, r);
   EmployersBlock(o, r);
