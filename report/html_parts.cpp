@@ -19,8 +19,9 @@ std::string Facts(const std::vector<std::pair<std::string, std::string>>& rows) 
 }
 
 std::string Figure(const std::string& id, const std::string& caption, const std::string& svg,
-                   const std::string& table_html) {
-  return "<figure id=\"" + EscapeHtml(id) + "\"><div class=\"figure-body\"><div class=\"plot\">" + svg +
+                   const std::string& table_html, bool wide) {
+  return "<figure id=\"" + EscapeHtml(id) + "\"><div class=\"figure-body" + (wide ? " wide" : "") +
+         "\"><div class=\"plot\">" + svg +
          "</div><div class=\"figure-table\">" + table_html + "</div></div><figcaption>" + EscapeHtml(caption) +
          "</figcaption></figure>";
 }

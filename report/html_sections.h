@@ -42,6 +42,11 @@ std::string DesignIntegrity(const AnalysisResult&, const ReportContext&);
 std::string ResponseCodes(const AnalysisResult&, const ReportContext&);
 std::string ResponseTimesChart(const AnalysisResult&, const ReportContext&);
 std::string EmployerTable(const AnalysisResult&, const ReportContext&);
+// html_sections_effects.cpp (analysis/effects.h)
+std::string PairedEffects(const AnalysisResult&, const ReportContext&);
+std::string ComparisonsForest(const AnalysisResult&, const ReportContext&);
+std::string StrataForest(const AnalysisResult&, const ReportContext&);
+std::string AcrossStrataTable(const AnalysisResult&, const ReportContext&);
 // html_sections_about.cpp
 std::string MethodsText(const AnalysisResult&, const ReportContext&);
 std::string CautionsText(const AnalysisResult&, const ReportContext&);

@@ -15,6 +15,17 @@ std::string Item(const std::string& name, const std::string& text, const std::st
          (source.empty() ? "" : " <span class=\"source\">Source: " + EscapeHtml(source) + ".</span>") + "</li>";
 }
 
+// The published source of each p.adjust method (docs/methods.md).
+std::string CorrectionSource(const std::string& method) {
+  if (method == "holm") return "Holm, S. (1979), Scandinavian Journal of Statistics 6:65\u201370; ";
+  if (method == "hochberg") return "Hochberg, Y. (1988), Biometrika 75:800\u2013803; ";
+  if (method == "hommel") return "Hommel, G. (1988), Biometrika 75:383\u2013386; ";
+  if (method == "bh") return "Benjamini, Y. & Hochberg, Y. (1995), JRSS B 57:289\u2013300; ";
+  if (method == "by") return "Benjamini, Y. & Yekutieli, D. (2001), Annals of Statistics 29:1165\u20131188; ";
+  if (method == "bonferroni") return "Bonferroni correction as R's p.adjust; ";
+  return "";
+}
+
 }  // namespace
 
 std::string MethodsText(const AnalysisResult& r, const ReportContext&) {
@@ -36,6 +47,32 @@ std::string MethodsText(const AnalysisResult& r, const ReportContext&) {
               "p-value is min(1, 2·P(X ≤ min(b, c))).",
               "McNemar, Q. (1947), Psychometrika 12:153–157; exact form as in Fagerland, M. W., Lydersen, S. & Laake, "
               "P. (2013), BMC Medical Research Methodology 13:91");
+  if (!r.effects.comparisons.empty() && r.effects.comparisons.front().paired)
+    o += Item("Effect measures for pairs",
+              "Net discrimination (b \u2212 c)/(a + b + c), the ILO measure, and the difference of rates (b \u2212 c)/n, "
+              "each with Newcombe's score interval for paired proportions (method 10); the conditional odds ratio "
+              "b/c with the exact interval from the Clopper\u2013Pearson interval of b/(b + c); the mid-p and the "
+              "asymptotic McNemar test beside the exact one.",
+              "Bovenkerk, F. (1992), Testing discrimination in natural experiments, ILO; Riach, P. A. & Rich, J. "
+              "(2002), Economic Journal 112:F480\u2013F518; Newcombe, R. G. (1998), Statistics in Medicine "
+              "17:2635\u20132650; Breslow, N. E. & Day, N. E. (1980), Statistical Methods in Cancer Research I, eq. 5.2; "
+              "Fagerland, Lydersen & Laake (2013)");
+  if (!r.effects.comparisons.empty() && !r.effects.comparisons.front().paired)
+    o += Item("Unpaired comparisons",
+              "Each application counts on its own: Fisher's exact test (two-sided, as R's fisher.test) with the "
+              "conditional maximum-likelihood odds ratio and its exact interval.",
+              "Fisher, R. A. (1935), Journal of the Royal Statistical Society 98:39\u201382");
+  if (!r.effects.strata.empty())
+    o += Item("Strata and multiple comparisons",
+              "Within each value of each stratum column the same test is run; the p-values of one column form a "
+              "family and are adjusted with the design's method (" + r.effects.correction +
+                  ", as R's p.adjust). Across the values of a column the Mantel\u2013Haenszel odds ratio (with the "
+                  "Robins\u2013Breslow\u2013Greenland interval), the Cochran\u2013Mantel\u2013Haenszel test and "
+                  "the Breslow\u2013Day test of equal odds ratios (with Tarone's correction) are reported.",
+              CorrectionSource(r.effects.correction) + "Mantel, N. & Haenszel, W. (1959), "
+              "Journal of the National Cancer Institute 22:719\u2013748; Robins, Breslow & Greenland (1986), "
+              "Biometrics 42:311\u2013323; Breslow & Day (1980), section 4.4; Tarone, R. E. (1985), Biometrika "
+              "72:91\u201395");
   if (!r.strata.empty())
     o += Item("Strata",
               "The paired table is repeated within each value of each stratum column; these tables describe where the "

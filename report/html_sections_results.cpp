@@ -43,6 +43,13 @@ std::string SummaryKeyFigures(const AnalysisResult& r, const ReportContext&) {
                    "unequal pairs favouring " + UserText(ArmName(r.reference_label)) + " : " +
                        UserText(ArmName(r.other_label)),
                    std::to_string(r.paired.discordant()) + " of " + std::to_string(r.paired.n()) + " pairs");
+    if (!r.effects.comparisons.empty() && r.effects.comparisons.front().paired &&
+        !std::isnan(r.effects.comparisons.front().net.among_positive.estimate)) {
+      const auto& net = r.effects.comparisons.front().net.among_positive;
+      o += KeyFigure(FormatPercent(net.estimate), "net discrimination: " + UserText(ArmName(r.reference_label)) + " over " + UserText(ArmName(r.other_label)),
+                     ConfPercent(r.confidence) + " interval " + FormatPercent(net.ci.low) + " to " +
+                         FormatPercent(net.ci.high));
+    }
     o += KeyFigure(PlainP(r.mcnemar_exact_p), "chance of a split this uneven if employers had no preference",
                    "exact McNemar test, two-sided: p = " + FormatP(r.mcnemar_exact_p));
   }
@@ -137,8 +144,9 @@ std::string PairedTest(const AnalysisResult& r, const ReportContext&) {
 }
 
 std::string StrataTables(const AnalysisResult& r, const ReportContext&) {
+  if (!r.has_paired || r.strata.empty()) return "";
   const std::string ref = ArmName(r.reference_label), other = ArmName(r.other_label);
-  std::string o = html::Para(
+  std::string o = html::Heading("Unequal pairs by stratum") + html::Para(
       "The same pairs, split by the vacancy's strata. The chart shows, within each stratum, how many unequal pairs "
       "favoured each applicant; the tables count every pair. Small strata give wide uncertainty; differences between "
       "strata are a reason for a closer look, not findings on their own.");

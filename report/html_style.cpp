@@ -48,6 +48,7 @@ figure { margin: 14px 0 22px; }
 .figure-body { display: flex; flex-wrap: wrap; gap: 10px 24px; align-items: flex-start; }
 .figure-body .plot { flex: 0 1 640px; min-width: 0; }
 .figure-body .figure-table { flex: 1 1 280px; }
+.figure-body.wide .plot { flex: 0 1 780px; }
 .figure-table table.data { margin-top: 0; }
 figcaption { font-size: 13.5px; color: var(--muted); margin-top: 6px; }
 svg.chart { width: 100%; height: auto; display: block; }

@@ -77,6 +77,15 @@ std::string WhatWasFound(const AnalysisResult& r) {
       << t.d << ". In the " << t.discordant() << " pairs where the employer treated the two differently, only the "
       << ArmName(r.reference_label) << " applicant was answered positively " << Count(t.b, "time", "times")
       << " and only the " << ArmName(r.other_label) << " applicant " << Count(t.c, "time", "times") << ".";
+    if (!r.effects.comparisons.empty() && r.effects.comparisons.front().paired) {
+      const auto& c = r.effects.comparisons.front();
+      const auto& net = c.net.among_positive;
+      if (!std::isnan(net.estimate))
+        o << " Net discrimination, the share of vacancies with at least one positive answer that favoured "
+          << ArmName(r.reference_label) << " minus the share that favoured " << ArmName(r.other_label) << ", was "
+          << FormatPercent(net.estimate) << " (" << std::lround(r.confidence * 100) << "% interval "
+          << FormatPercent(net.ci.low) << " to " << FormatPercent(net.ci.high) << ").";
+    }
   }
   return o.str();
 }

@@ -6,6 +6,9 @@
 #include "report/html_inspect.h"
 #include "report/html_report.h"
 
+#include <cmath>
+#include <limits>
+
 using namespace twinprobe;
 using testing::ParsedHtml;
 
@@ -188,6 +191,82 @@ TEST_CASE("html report: employers appear by pseudonym unless revealed") {
   const std::string shown = ParsedHtml(RenderHtmlReport(r, Context(true))).AllText();
   CHECK(shown.find(kEmployerName + " (E-<hostile>)") != std::string::npos);
   CHECK(shown.find("This copy names employers") != std::string::npos);
+}
+
+namespace {
+
+ArmComparison PairedComparison(const std::string& other, stats::PairedCounts t, double est, double lo, double hi,
+                               double p, double p_adj) {
+  ArmComparison c;
+  c.other_label = other;
+  c.paired = true;
+  c.pairs = t;
+  c.conditional_or = {est, {lo, hi}};
+  c.net.among_positive = {0.238, {0.104, 0.361}};
+  c.net.over_all = {0.085, {0.037, 0.133}};
+  c.mcnemar.exact = stats::PValue::FromValue(p);
+  c.mcnemar.mid_p = stats::PValue::FromValue(p / 2);
+  c.p = c.mcnemar.exact;
+  c.p_adjusted = p_adj;
+  return c;
+}
+
+}  // namespace
+
+TEST_CASE("html report: per-stratum odds ratios feed the forest chart, edge cases included") {
+  AnalysisResult r = HostileResult();
+  const double inf = std::numeric_limits<double>::infinity();
+  r.effects.correction = "holm";
+  r.effects.comparisons = {PairedComparison(kOther, {2, 4, 1, 3}, 4.0, 0.395, 196.0, 0.375, 0.375)};
+  r.effects.strata = {{"occupation<br>", kStratum, PairedComparison(kOther, {1, 2, 0, 1}, inf, 0.18, inf, 0.5, 0.5)},
+                      {"occupation<br>", "clerk", PairedComparison(kOther, {1, 0, 0, 2}, NAN, NAN, NAN, 1.0, 1.0)}};
+  AcrossStrata across;
+  across.column = "occupation<br>";
+  across.other_label = kOther;
+  across.values = 2;
+  across.mh.estimate = 2.5;
+  across.mh.ci = {0.6, 10.4};
+  r.effects.across = {across};
+  ParsedHtml page(RenderHtmlReport(r, Context(false)));
+  const auto* forest = page.ElementById("chart-forest-0");
+  REQUIRE(forest != nullptr);
+  CHECK(ParsedHtml::Attribute(forest, "role") == "img");
+  const std::string forest_text = ParsedHtml::TextOf(forest);
+  CHECK(forest_text.find("not estimable") != std::string::npos);
+  CHECK(forest_text.find("\u221E (0.18 to \u221E)") != std::string::npos);
+  CHECK(forest_text.find("4 (0.395 to 196)") != std::string::npos);  // the all-pairs summary
+  CHECK(forest_text.find("occupation<br>: " + kStratum) != std::string::npos);
+  size_t arrows = 0;
+  page.ForEachElement([&](const GumboNode* e) { arrows += ParsedHtml::Attribute(e, "class") == "arrow"; });
+  CHECK(arrows >= 2);
+  const std::string text = page.AllText();
+  CHECK(text.find("23.8% (10.4% to 36.1%)") != std::string::npos);  // net discrimination
+  CHECK(text.find("2.5 (0.6 to 10.4)") != std::string::npos);       // Mantel-Haenszel
+  CHECK(page.ElementsByTag("script").empty());
+  CHECK(testing::ExternalReferences(page).empty());
+}
+
+TEST_CASE("html report: an unpaired study compares each group with the reference in a forest chart") {
+  AnalysisResult r = HostileResult();
+  r.kind = "unpaired";
+  r.has_paired = false;
+  r.strata.clear();
+  ArmComparison c;
+  c.other_label = kOther;
+  c.paired = false;
+  c.table = {6, 4, 3, 7};
+  c.fisher.estimate = 3.26;
+  c.fisher.ci = {0.43, 30.1};
+  c.p = stats::PValue::FromValue(0.37);
+  c.p_adjusted = 0.37;
+  r.effects.correction = "holm";
+  r.effects.comparisons = {c};
+  const auto ids = HtmlSectionIds(r);
+  CHECK(std::find(ids.begin(), ids.end(), "comparisons") != ids.end());
+  CHECK(std::find(ids.begin(), ids.end(), "paired") == ids.end());
+  ParsedHtml page(RenderHtmlReport(r, Context(false)));
+  REQUIRE(page.ElementById("chart-comparisons") != nullptr);
+  CHECK(ParsedHtml::TextOf(page.ElementById("chart-comparisons")).find("3.26 (0.43 to 30.1)") != std::string::npos);
 }
 
 TEST_CASE("html report: a broken audit chain is announced at the top") {

@@ -70,6 +70,18 @@ TEST_CASE("report: HTML, text and JSON carry the same key numbers") {
   for (const char* cell : {"a", "b", "c", "d"}) numbers.push_back(std::to_string(j["paired"]["table"][cell].get<int>()));
   numbers.push_back(FormatP(j["paired"]["mcnemar_exact_p"].get<double>()));
   numbers.push_back(j["design"]["design_sha256"].get<std::string>());
+  // Effect estimates (analysis/effects.h): conditional odds ratio and its interval, adjusted stratum p-values.
+  char buf[32];
+  for (const auto& v : {j["effects"]["comparisons"][0]["conditional_odds_ratio"]["estimate"],
+                        j["effects"]["comparisons"][0]["conditional_odds_ratio"]["conf_int"][0],
+                        j["effects"]["comparisons"][0]["conditional_odds_ratio"]["conf_int"][1]}) {
+    std::snprintf(buf, sizeof buf, "%.3g", v.get<double>());
+    numbers.push_back(buf);
+  }
+  for (const auto& s : j["effects"]["strata"]) {
+    std::snprintf(buf, sizeof buf, "%.3g", s["p_adjusted"].get<double>());
+    numbers.push_back(buf);
+  }
   for (const auto& a : j["response_times"]["arms"]) {
     const auto& last = a["milestones"].back();
     numbers.push_back(std::to_string(last["any"].get<int>()) + " (" + FormatPercent(last["any_share"].get<double>()) + ")");
