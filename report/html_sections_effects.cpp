@@ -150,7 +150,7 @@ std::string StrataForest(const AnalysisResult& r, const ReportContext&) {
     // ratio (Mantel–Haenszel over vacancies reduces to it); for unpaired
     // data the Mantel–Haenszel odds ratio of the first stratum column.
     if (overall.paired) {
-      svg::ForestRow all = Row("all pairs", overall, overall.p.p);
+      svg::ForestRow all = Row("all pairs", overall, overall.p_adjusted);
       all.summary = true;
       desc += " All pairs: " + svg::FormatRatioInterval(all.estimate, all.low, all.high) + ".";
       chart.rows.push_back(all);
