@@ -5,6 +5,7 @@
 #include <charconv>
 #include <cstdio>
 #include <cstdlib>
+#include <algorithm>
 #include <map>
 
 #include "core/clock.h"
@@ -214,13 +215,36 @@ AuditReport VerifyAudit(Store& store) {
     for (auto& [seq, hasher] : hashers) parts[seq].emplace_back(t.name, hasher.HexDigest());
   }
 
+  // A free-text column outside the digest must still match its sealed hash.
+  for (const SealedTable& t : SealedTables()) {
+    for (const std::string& col : t.unsealed_columns) {
+      Stmt has = store.Prepare("SELECT count(*) FROM pragma_table_info(?1) WHERE name = ?2");
+      has.Bind(1, t.name).Bind(2, col + "_sha256");
+      if (!has.Step() || has.Int(0) == 0) continue;
+      RawQuery rows(store, "SELECT rowid, audit_seq, \"" + col + "\", \"" + col + "_sha256\" FROM \"" + t.name +
+                               "\" WHERE \"" + col + "\" IS NOT NULL ORDER BY rowid");
+      while (rows.Step()) {
+        sqlite3_stmt* r = rows.get();
+        const char* text = reinterpret_cast<const char*>(sqlite3_column_text(r, 2));
+        std::string value(text ? text : "", static_cast<size_t>(sqlite3_column_bytes(r, 2)));
+        const char* sealed = reinterpret_cast<const char*>(sqlite3_column_text(r, 3));
+        if (sealed && Sha256Hex(value) == sealed) continue;
+        report.problems.push_back({sqlite3_column_int64(r, 1),
+                                   "the " + col + " of " + t.name + " row " + std::to_string(sqlite3_column_int64(r, 0)) +
+                                       " was changed after it was written (it no longer matches " + col + "_sha256)"});
+      }
+    }
+  }
+
   Stmt audit = store.Prepare(
       "SELECT seq, at, actor, command, summary, content_sha256, prev_hash, hash FROM audit ORDER BY seq");
+  std::map<int64_t, std::vector<std::string>> entry_of;  // seq -> command, actor, at, summary
   std::string prev;
   int64_t expected_seq = 1;
   while (audit.Step()) {
     int64_t seq = audit.Int(0);
     ++report.entries;
+    entry_of[seq] = {audit.Text(3), audit.Text(2), audit.Text(1), audit.Text(4)};
     if (seq != expected_seq)
       report.problems.push_back({seq, "audit entries " + std::to_string(expected_seq) + " to " +
                                           std::to_string(seq - 1) + " are missing"});
@@ -248,6 +272,16 @@ AuditReport VerifyAudit(Store& store) {
   for (const auto& [seq, p] : parts)
     report.problems.push_back({seq, "rows carry audit seq " + std::to_string(seq) + " but no audit entry has it"});
   report.head_hash = prev;
+  std::stable_sort(report.problems.begin(), report.problems.end(),
+                   [](const AuditProblem& a, const AuditProblem& b) { return a.seq < b.seq; });
+  for (AuditProblem& p : report.problems) {
+    auto it = entry_of.find(p.seq);
+    if (it == entry_of.end()) continue;
+    p.command = it->second[0];
+    p.actor = it->second[1];
+    p.at = it->second[2];
+    p.summary = it->second[3];
+  }
   return report;
 }
 

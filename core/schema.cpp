@@ -260,12 +260,19 @@ CREATE INDEX decline_probe ON decline(probe_id);
 CREATE INDEX decline_seq ON decline(audit_seq);
 )SQL";
 
+// Version 3: current_response asks, for every response, whether another
+// supersedes it; without an index that is a scan of the table per response,
+// and analysis of a 40,000-probe import took minutes instead of a second.
+constexpr const char* kMigration3 = R"SQL(
+CREATE INDEX response_supersedes ON response(supersedes);
+)SQL";
+
 struct Migration {
   int version;
   const char* sql;
 };
 
-const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}};
+const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigration3}};
 
 }  // namespace
 
