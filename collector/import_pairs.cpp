@@ -253,7 +253,8 @@ std::optional<Error> CheckRow(const CsvRecord& r, const Columns& c, const Target
   if (outcome.empty()) return bad("the outcome is empty", OutcomeFix(t));
   if (!t.scheme.has_code(outcome))
     return bad("outcome '" + outcome + "' is not " + (t.has_design ? "a code of this study's scheme" : "1, 0 or a response code") +
-                   DidYouMean(outcome, t.scheme.codes),
+                   // A one-letter value is one edit from "0" and "1": no useful guess.
+                   (outcome.size() < 3 ? std::string() : DidYouMean(outcome, t.scheme.codes)),
                OutcomeFix(t));
   out.sent.reset();
   out.responded.reset();
