@@ -11,6 +11,7 @@
 #include <string>
 #include <vector>
 
+#include "analysis/effects.h"
 #include "core/design.h"
 #include "core/status.h"
 #include "core/store.h"
@@ -61,6 +62,10 @@ struct AnalysisResult {
   stats::PairedCounts paired;
   double mcnemar_exact_p = 1;
   std::vector<StratumTable> strata;  // the paired table within each stratum value
+
+  // Every comparison with the reference arm, per-stratum tests corrected for
+  // multiplicity, Mantel–Haenszel and Breslow–Day (analysis/effects.h).
+  Effects effects;
 };
 
 // Requires a plan in the store. `plan` supplies alpha and the correction.

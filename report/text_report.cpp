@@ -4,6 +4,8 @@
 #include <cstdio>
 #include <sstream>
 
+#include "report/effects_report.h"
+
 namespace twinprobe {
 
 std::string FormatP(double p) {
@@ -63,6 +65,7 @@ std::string RenderTextReport(const AnalysisResult& r) {
     else
       o << "At alpha = " << r.alpha << " the test does not show a difference; this is not evidence that there is none.\n";
   }
+  o << RenderEffectsText(r);
   return o.str();
 }
 
