@@ -35,7 +35,9 @@ int RunVerify(Context& ctx) {
   AuditReport rep = VerifyAudit(*store.value());
   if (ctx.json) {
     nlohmann::json problems = nlohmann::json::array();
-    for (const auto& p : rep.problems) problems.push_back({{"seq", p.seq}, {"what", p.what}});
+    for (const auto& p : rep.problems)
+      problems.push_back({{"seq", p.seq}, {"what", p.what}, {"command", p.command}, {"actor", p.actor},
+                          {"at", p.at}, {"summary", p.summary}});
     std::cout << nlohmann::json{{"ok", rep.ok()},
                                 {"entries", rep.entries},
                                 {"sealed_rows", rep.sealed_rows},
@@ -49,6 +51,9 @@ int RunVerify(Context& ctx) {
   } else {
     std::cout << "The audit chain is BROKEN. First broken link: entry " << rep.problems.front().seq << ": "
               << rep.problems.front().what << ".\n";
+    if (!rep.problems.front().actor.empty())
+      std::cout << "  entry " << rep.problems.front().seq << " was written by " << rep.problems.front().actor << " at "
+                << rep.problems.front().at << ": " << rep.problems.front().summary << "\n";
     for (size_t i = 1; i < rep.problems.size(); ++i)
       std::cout << "  also entry " << rep.problems[i].seq << ": " << rep.problems[i].what << "\n";
   }
