@@ -11,6 +11,7 @@
 #include <string>
 #include <vector>
 
+#include "analysis/listing_analysis.h"
 #include "core/design.h"
 #include "core/status.h"
 #include "core/store.h"
@@ -61,9 +62,12 @@ struct AnalysisResult {
   stats::PairedCounts paired;
   double mcnemar_exact_p = 1;
   std::vector<StratumTable> strata;  // the paired table within each stratum value
+
+  ListingAudit listings;  // ranked lists (import ranks, fetch); present = false when there are none
 };
 
-// Requires a plan in the store. `plan` supplies alpha and the correction.
+// Requires a plan in the store, or listings (a listing-only store gives kind
+// "listing" and only `listings`). `plan` supplies alpha and the correction.
 Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan);
 
 }  // namespace twinprobe
