@@ -158,21 +158,30 @@ ListingGroup SummariseGroup(const std::vector<int64_t>& positions, const Listing
 // Reference level 0 against `other` of factor f, over the given listings.
 std::optional<ListingComparison> Compare(const Data& d, size_t f, int32_t other, const std::vector<int32_t>& listings,
                                          const ListingOptions& o, uint64_t seed, ProgressTracker& progress) {
+  // Units are items within a stratum: an item shown in several lists of one
+  // query x location keeps one label across them when labels are shuffled.
   stats::TwoGroupPositions s;
+  std::map<std::pair<int32_t, int32_t>, int32_t> unit_of;  // (stratum, item) -> unit
+  std::map<int32_t, size_t> block_of;                      // stratum -> block
   for (int32_t li : listings) {
-    std::vector<int32_t> block;
+    const int32_t stratum = d.listings[static_cast<size_t>(li)].stratum;
     for (int32_t ai : d.listings[static_cast<size_t>(li)].appearances) {
       const Appearance& a = d.appearances[static_cast<size_t>(ai)];
       int32_t level = d.item_level[static_cast<size_t>(a.item)][f];
       if (level != 0 && level != other) continue;
-      block.push_back(static_cast<int32_t>(s.position.size()));
+      auto [uit, new_unit] = unit_of.emplace(std::make_pair(stratum, a.item), static_cast<int32_t>(s.label.size()));
+      if (new_unit) {
+        s.label.push_back(level == 0 ? 0 : 1);
+        auto [bit, new_block] = block_of.emplace(stratum, s.blocks.size());
+        if (new_block) s.blocks.emplace_back();
+        s.blocks[bit->second].push_back(uit->second);
+      }
       s.position.push_back(a.position);
-      s.label.push_back(level == 0 ? 0 : 1);
+      s.unit.push_back(uit->second);
     }
-    if (!block.empty()) s.blocks.push_back(std::move(block));
   }
-  int64_t n_ref = std::count(s.label.begin(), s.label.end(), 0);
-  if (n_ref == 0 || n_ref == static_cast<int64_t>(s.label.size())) {
+  const int64_t ref_units = std::count(s.label.begin(), s.label.end(), 0);
+  if (ref_units == 0 || ref_units == static_cast<int64_t>(s.label.size())) {
     progress.Finish(2 * o.resamples);  // the tests counted in the total do not run
     return std::nullopt;
   }
@@ -421,20 +430,22 @@ Result<ListingAudit> AnalyzeListings(Store& store, const ListingOptions& o) {
   {
     stats::SplitSample sample;
     sample.cells = cells;
-    std::vector<std::vector<int32_t>> blocks;
-    for (const auto& l : d.listings) {
-      std::vector<int32_t> block;
+    std::vector<std::vector<int32_t>> blocks(d.strata.size());
+    std::map<std::pair<int32_t, int32_t>, int32_t> unit_of;  // (stratum, item) -> unit
+    for (const auto& l : d.listings)
       for (int32_t ai : l.appearances) {
         const Appearance& a = d.appearances[static_cast<size_t>(ai)];
         int32_t c = cell_of_item(a.item);
         if (c < 0) continue;
-        block.push_back(static_cast<int32_t>(sample.position.size()));
+        auto [uit, new_unit] = unit_of.emplace(std::make_pair(l.stratum, a.item), static_cast<int32_t>(sample.cell.size()));
+        if (new_unit) {
+          sample.cell.push_back(c);
+          blocks[static_cast<size_t>(l.stratum)].push_back(uit->second);
+        }
         sample.position.push_back(a.position);
-        sample.cell.push_back(c);
+        sample.unit.push_back(uit->second);
         sample.grid = std::max(sample.grid, a.position);
       }
-      if (!block.empty()) blocks.push_back(std::move(block));
-    }
     std::vector<int32_t> levels_per_factor;
     bool splittable = !sample.position.empty();
     for (const auto& lv : d.levels) {

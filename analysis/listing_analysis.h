@@ -5,9 +5,10 @@
 // Reads every listing whose extraction is 'ok' with its items, and the
 // newest label of each item per factor (item_label). A group is a level of
 // one factor ("origin=coastal") or, with several factors, a cell
-// ("gender=f,origin=coastal"). A stratum is a query x location. Listings are
-// the blocks of every permutation test: labels are exchanged only within a
-// list. The reference level of a factor is the plan's reference level when
+// ("gender=f,origin=coastal"). A stratum is a query x location. Permutation
+// tests exchange labels between the items of one stratum (an item keeps one
+// label in every list of its stratum, so repeated fetches of the same query
+// are not counted as independent evidence). The reference level of a factor is the plan's reference level when
 // the store holds a plan with that factor, else the level with the most
 // appearances (ties: alphabetical). See docs/ranks.md and docs/methods.md,
 // "Listing audits".

@@ -14,6 +14,8 @@
 
 #include <nlohmann/json.hpp>
 
+#include "cli/import_ranks_cmd.h"
+
 #include "analysis/listing_analysis.h"
 #include "cli/command.h"
 #include "core/audit.h"
@@ -158,12 +160,6 @@ Result<ParsedFile> Parse(const CsvTable& t, const std::string& path) {
   return out;
 }
 
-struct RankImportSummary {
-  int64_t listings = 0, positions = 0, labels_added = 0, strata = 0;
-  std::vector<std::string> factors;
-  bool already_imported = false;
-};
-
 struct RanksFile {
   std::string path;
   std::string content;  // hashed so that a second import of the same bytes adds nothing
@@ -267,6 +263,16 @@ Result<RankImportSummary> ImportRanks(Store& store, const RanksFile& file) {
                " item labels");
   return summary;
 }
+
+}  // namespace
+
+Result<RankImportSummary> ImportRanksFile(Store& store, const std::string& path) {
+  auto ranks = ReadRanksFile(path);
+  if (!ranks.ok()) return ranks.error();
+  return ImportRanks(store, ranks.value());
+}
+
+namespace {
 
 int RunImportRanks(Context& ctx, const std::string& file) {
   auto ranks = ReadRanksFile(file);

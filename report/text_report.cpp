@@ -61,8 +61,8 @@ std::string RenderListingText(const ListingAudit& a, double alpha) {
                   FormatPercent(g.top_k_share).c_str(), g.mean_position, g.median_position);
     o << line;
   }
-  o << "\nReference level against each other level over all lists (permutation tests exchange labels only\n"
-    << "within a list; " << a.resamples << " resamples, seed " << a.seed << "):\n";
+  o << "\nReference level against each other level over all lists (permutation tests exchange the groups of\n"
+    << "items within each query x location; " << a.resamples << " resamples, seed " << a.seed << "):\n";
   for (const auto& c : a.overall) {
     o << "  " << c.factor << ": " << c.reference << " vs " << c.other << " (" << c.n_reference << " and " << c.n_other
       << " places)\n";

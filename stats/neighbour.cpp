@@ -12,31 +12,40 @@ namespace {
 
 using Histograms = std::vector<std::vector<double>>;
 
-// Position counts per cell (index 0 = position 1).
-Histograms CellHistograms(const SplitSample& sample, const std::vector<int32_t>& cell_of) {
-  Histograms h(sample.cells.size(), std::vector<double>(static_cast<size_t>(sample.grid), 0.0));
-  for (size_t i = 0; i < cell_of.size(); ++i)
-    h[static_cast<size_t>(cell_of[i])][static_cast<size_t>(sample.position[i] - 1)] += 1;
-  return h;
+// Position counts per cell (index 0 = position 1), into `h` (reused).
+void CellHistograms(const SplitSample& sample, const std::vector<int32_t>& cell_of, Histograms& h) {
+  h.resize(sample.cells.size());
+  for (auto& row : h) row.assign(static_cast<size_t>(sample.grid), 0.0);
+  for (size_t i = 0; i < sample.position.size(); ++i) {
+    const size_t unit = sample.unit.empty() ? i : static_cast<size_t>(sample.unit[i]);
+    h[static_cast<size_t>(cell_of[unit])][static_cast<size_t>(sample.position[i] - 1)] += 1;
+  }
 }
 
+// Working space for DistanceFromHistograms, reused across resamples.
+struct PartBuffers {
+  Histograms part;
+  std::vector<double> total;
+};
+
 double DistanceFromHistograms(const Split& split, const std::vector<Cell>& cells, const Histograms& cell_hist,
-                              int32_t grid) {
-  Histograms part(static_cast<size_t>(split.parts), std::vector<double>(static_cast<size_t>(grid), 0.0));
-  std::vector<double> total(static_cast<size_t>(split.parts), 0.0);
+                              int32_t grid, PartBuffers& buf) {
+  buf.part.resize(static_cast<size_t>(split.parts));
+  for (auto& row : buf.part) row.assign(static_cast<size_t>(grid), 0.0);
+  buf.total.assign(static_cast<size_t>(split.parts), 0.0);
   for (size_t c = 0; c < cells.size(); ++c) {
     const size_t p = static_cast<size_t>(split.PartOf(cells[c]));
     for (size_t k = 0; k < cell_hist[c].size(); ++k) {
-      part[p][k] += cell_hist[c][k];
-      total[p] += cell_hist[c][k];
+      buf.part[p][k] += cell_hist[c][k];
+      buf.total[p] += cell_hist[c][k];
     }
   }
   double sum = 0;
   int64_t pairs = 0;
-  for (size_t a = 0; a < part.size(); ++a)
-    for (size_t b = a + 1; b < part.size(); ++b) {
-      if (total[a] == 0 || total[b] == 0) continue;
-      sum += Wasserstein1OnGrid(part[a], part[b]);
+  for (size_t a = 0; a < buf.part.size(); ++a)
+    for (size_t b = a + 1; b < buf.part.size(); ++b) {
+      if (buf.total[a] == 0 || buf.total[b] == 0) continue;
+      sum += Wasserstein1OnGrid(buf.part[a], buf.part[b]);
       ++pairs;
     }
   return pairs ? sum / static_cast<double>(pairs) : 0.0;
@@ -187,7 +196,10 @@ SplitCandidates CandidateSplits(const std::vector<int32_t>& levels_per_factor, s
 }
 
 double SplitDistance(const Split& split, const SplitSample& sample, const std::vector<int32_t>& cell_of) {
-  return DistanceFromHistograms(split, sample.cells, CellHistograms(sample, cell_of), sample.grid);
+  Histograms h;
+  PartBuffers buf;
+  CellHistograms(sample, cell_of, h);
+  return DistanceFromHistograms(split, sample.cells, h, sample.grid, buf);
 }
 
 WidestSplit FindWidestSplit(const SplitSample& sample, const std::vector<int32_t>& levels_per_factor,
@@ -196,21 +208,21 @@ WidestSplit FindWidestSplit(const SplitSample& sample, const std::vector<int32_t
   WidestSplit w;
   w.candidates = CandidateSplits(levels_per_factor, max_candidates);
   const auto& splits = w.candidates.splits;
-  {
-    Histograms h = CellHistograms(sample, sample.cell);
-    w.distance = -1;
-    for (size_t s = 0; s < splits.size(); ++s) {
-      double d = DistanceFromHistograms(splits[s], sample.cells, h, sample.grid);
-      if (d > w.distance) {
-        w.distance = d;
-        w.best = s;
-      }
+  Histograms h;
+  PartBuffers buf;
+  CellHistograms(sample, sample.cell, h);
+  w.distance = -1;
+  for (size_t s = 0; s < splits.size(); ++s) {
+    double d = DistanceFromHistograms(splits[s], sample.cells, h, sample.grid, buf);
+    if (d > w.distance) {
+      w.distance = d;
+      w.best = s;
     }
   }
   auto max_distance = [&](const std::vector<int32_t>& cell_of) {
-    Histograms h = CellHistograms(sample, cell_of);
+    CellHistograms(sample, cell_of, h);
     double best = 0;
-    for (const auto& s : splits) best = std::max(best, DistanceFromHistograms(s, sample.cells, h, sample.grid));
+    for (const auto& s : splits) best = std::max(best, DistanceFromHistograms(s, sample.cells, h, sample.grid, buf));
     return best;
   };
   w.test = PermutationTest(sample.cell, blocks, max_distance, Tail::kGreater, options);

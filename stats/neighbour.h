@@ -68,18 +68,20 @@ struct SplitCandidates {
 // `max_candidates` in enumeration order. Requires every factor >= 2 levels.
 SplitCandidates CandidateSplits(const std::vector<int32_t>& levels_per_factor, size_t max_candidates);
 
-// Items in one pooled sample: the position (1..grid) and cell of each item.
-// The distance between two sets of items is the 1-Wasserstein distance
-// between their position distributions (Wasserstein1OnGrid).
+// Places in one pooled sample: the position (1..grid) of each place and its
+// unit (an item within a stratum, as in stats/rank_compare.h); each unit has
+// a cell. The distance between two sets of places is the 1-Wasserstein
+// distance between their position distributions (Wasserstein1OnGrid).
 struct SplitSample {
-  std::vector<int32_t> position;  // 1-based, <= grid
-  std::vector<int32_t> cell;      // index into `cells`
+  std::vector<int32_t> position;  // per place, 1-based, <= grid
+  std::vector<int32_t> unit;      // per place: its unit (empty: place i is unit i)
+  std::vector<int32_t> cell;      // per unit: index into `cells`
   std::vector<Cell> cells;
   int32_t grid = 0;               // largest position
 };
 
 // Mean, over pairs of non-empty parts, of the distance between the parts
-// (0 when fewer than two parts hold items), for the cell labelling `cell_of`.
+// (0 when fewer than two parts hold places), for the cells `cell_of` of the units.
 double SplitDistance(const Split& split, const SplitSample& sample, const std::vector<int32_t>& cell_of);
 
 struct WidestSplit {
@@ -90,8 +92,8 @@ struct WidestSplit {
 };
 
 // Searches the candidates for the widest split and tests the maximum by
-// shuffling cell labels within `blocks` (listings). Requires a non-empty
-// candidate list.
+// shuffling the units' cells within `blocks` (lists of units, one per
+// stratum). Requires at least one candidate.
 WidestSplit FindWidestSplit(const SplitSample& sample, const std::vector<int32_t>& levels_per_factor,
                             const std::vector<std::vector<int32_t>>& blocks, size_t max_candidates,
                             const PermutationOptions& options);

@@ -3,15 +3,21 @@
 // earth mover's distance between their positions, the Mann-Whitney test on
 // positions, and stratified permutation tests of the gap and the distance.
 //
-// Input: items of the two groups with their 1-based positions; label 0 is
-// group a, label 1 group b; `blocks` lists the items of each listing (labels
-// are exchanged only within a listing under the null hypothesis).
-//   exposure_gap = mean v(position) over a - mean v(position) over b
+// Input: the places (appearances) held by items of the two groups, with
+// their 1-based positions. Labels belong to units: a unit is an item within
+// a stratum, so an item shown in several lists of one query x location (a
+// repeated fetch, another profile's view) keeps one label in every list.
+// Label 0 is group a, 1 group b; `blocks` lists the units of each stratum,
+// and labels are exchanged only within a block under the null hypothesis.
+// Without units, every place is its own unit.
+//   exposure_gap = mean v(position) over a's places - the same over b's
 //                  (Singh & Joachims 2018; v from stats/exposure.h)
 //   emd          = W1 between the position distributions of a and b,
-//                  pooled over listings (stats/wasserstein.h)
+//                  pooled over lists (stats/wasserstein.h)
 // Permutation p-values: two-sided (|gap|) for the gap, upper tail for the
 // distance, each with its own stream of the seed (stats/permutation.h).
+// The Mann-Whitney test treats places as independent observations, which
+// repeated lists are not; it is reported for reference only.
 #include <cstdint>
 #include <vector>
 
@@ -22,9 +28,10 @@
 namespace twinprobe::stats {
 
 struct TwoGroupPositions {
-  std::vector<int32_t> position;  // >= 1
-  std::vector<int32_t> label;     // 0 = a, 1 = b
-  std::vector<std::vector<int32_t>> blocks;
+  std::vector<int32_t> position;  // per place, >= 1
+  std::vector<int32_t> unit;      // per place: its unit (empty: place i is unit i)
+  std::vector<int32_t> label;     // per unit: 0 = a, 1 = b
+  std::vector<std::vector<int32_t>> blocks;  // units exchangeable with each other
 };
 
 struct GroupComparison {
@@ -36,10 +43,13 @@ struct GroupComparison {
   PermutationResult emd_test;
 };
 
-// Mean exposure difference a - b for a labelling (NaN if a group is empty).
-double ExposureGap(const std::vector<double>& weight, const std::vector<int32_t>& label);
-// W1 between the positions labelled 0 and 1 (positions 1..grid).
-double PositionEmd(const std::vector<int32_t>& position, const std::vector<int32_t>& label, int32_t grid);
+// Mean exposure difference a - b of the places, for a labelling of units
+// (`unit` empty: place i is unit i). NaN if a group holds no place.
+double ExposureGap(const std::vector<double>& weight, const std::vector<int32_t>& unit,
+                   const std::vector<int32_t>& label);
+// W1 between the positions of the places labelled 0 and 1 (positions 1..grid).
+double PositionEmd(const std::vector<int32_t>& position, const std::vector<int32_t>& unit,
+                   const std::vector<int32_t>& label, int32_t grid);
 
 // All measures for two groups; permutation tests only when
 // options.resamples > 0. Requires both groups non-empty.
