@@ -420,7 +420,7 @@ Result<ListingAudit> AnalyzeListings(Store& store, const ListingOptions& o) {
         names.push_back(name);
         values.push_back(sum_n.first / sum_n.second);
       }
-      if (names.size() == 1 && names[0].empty()) continue;  // the lists name no query (or location)
+      if (names.size() < 2) continue;  // one query (or location, or none named): nothing to rank
       r.disparity.push_back(
             {dimension, Entries(names, values, o.top_n, true), Entries(names, values, o.top_n, false)});
     }

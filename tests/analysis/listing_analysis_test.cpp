@@ -1,0 +1,173 @@
+#include <catch2/catch.hpp>
+
+#include <cmath>
+
+#include "analysis/analyze.h"
+#include "analysis/listing_analysis.h"
+#include "core/audit.h"
+#include "core/store.h"
+
+using namespace twinprobe;
+using Catch::Matchers::WithinAbs;
+using Catch::Matchers::WithinRel;
+
+namespace {
+
+struct Row {
+  std::string query, location, seen_by;
+  std::vector<std::string> items;  // in order of position
+};
+
+// An in-memory store holding the given lists and labels.
+std::unique_ptr<Store> StoreWith(const std::vector<Row>& lists,
+                                 const std::vector<std::tuple<std::string, std::string, std::string>>& labels) {
+  auto opened = Store::Open(":memory:", true);
+  REQUIRE(opened.ok());
+  auto store = std::move(opened.value());
+  AuditedWrite w(*store, "test");
+  for (const auto& l : lists) {
+    Stmt ins = store->Prepare(
+        "INSERT INTO listing(source, query, location, seen_by, fetched_at, audit_seq) VALUES ('test', ?1, ?2, ?3, "
+        "'2027-03-01T00:00:00Z', ?4)");
+    ins.Bind(1, l.query).Bind(2, l.location);
+    if (l.seen_by.empty()) ins.BindNull(3);
+    else ins.Bind(3, l.seen_by);
+    ins.Bind(4, w.seq()).Run();
+    int64_t id = store->LastInsertId();
+    for (size_t p = 0; p < l.items.size(); ++p)
+      store->Prepare("INSERT INTO listing_item(listing_id, position, item_key, audit_seq) VALUES (?1, ?2, ?3, ?4)")
+          .Bind(1, id)
+          .Bind(2, static_cast<int64_t>(p + 1))
+          .Bind(3, l.items[p])
+          .Bind(4, w.seq())
+          .Run();
+  }
+  for (const auto& [item, factor, level] : labels)
+    store->Prepare("INSERT INTO item_label(item_key, factor, level, audit_seq) VALUES (?1, ?2, ?3, ?4)")
+        .Bind(1, item)
+        .Bind(2, factor)
+        .Bind(3, level)
+        .Bind(4, w.seq())
+        .Run();
+  w.Commit("test lists");
+  return store;
+}
+
+const ListingGroup& Group(const ListingAudit& a, const std::string& label) {
+  for (const auto& g : a.groups)
+    if (g.label == label) return g;
+  FAIL("no group " << label);
+  throw;
+}
+
+}  // namespace
+
+TEST_CASE("listing analysis: group summaries of two small lists, worked by hand") {
+  // Two lists of 4 in one stratum; a, b coastal; c, d inland; e unlabelled.
+  auto store = StoreWith({{"clerk", "Orlinde", "", {"c", "a", "d", "b"}}, {"clerk", "Orlinde", "", {"d", "c", "e", "a"}}},
+                         {{"a", "origin", "coastal"}, {"b", "origin", "coastal"}, {"c", "origin", "inland"},
+                          {"d", "origin", "inland"}});
+  ListingOptions o;
+  o.discount = stats::DiscountSpec{stats::Discount::kReciprocal};
+  o.top_k = 2;
+  o.resamples = 99;
+  auto r = AnalyzeListings(*store, o);
+  REQUIRE(r.ok());
+  const ListingAudit& a = r.value();
+  CHECK(a.present);
+  CHECK(a.listings == 2);
+  CHECK(a.appearances == 8);
+  CHECK(a.labelled_appearances == 7);
+  CHECK(a.strata == 1);
+  REQUIRE(a.factors == std::vector<std::string>{"origin"});
+  // No plan: the reference is the level with the most places (inland 4, coastal 3).
+  CHECK(a.levels[0] == std::vector<std::string>{"inland", "coastal"});
+  const ListingGroup& inland = Group(a, "origin=inland");
+  // inland at 1, 3 (list 1) and 1, 2 (list 2): exposure (1 + 1/3 + 1 + 1/2)/4.
+  CHECK(inland.appearances == 4);
+  CHECK_THAT(inland.exposure, WithinRel((1 + 1.0 / 3 + 1 + 0.5) / 4, 1e-15));
+  // Top 2 holds 4 places, 3 of them inland.
+  CHECK_THAT(inland.top_k_share, WithinRel(0.75, 1e-15));
+  CHECK(inland.mean_position == 1.75);
+  CHECK(inland.median_position == 1.5);
+  // Exposure share: inland's total over every place's (including e's).
+  const double all = 2 * (1 + 0.5 + 1.0 / 3 + 0.25);
+  CHECK_THAT(inland.exposure_share, WithinRel((1 + 1.0 / 3 + 1 + 0.5) / all, 1e-15));
+  REQUIRE(a.overall.size() == 1);
+  CHECK(a.overall[0].reference == "inland");
+  CHECK_THAT(a.overall[0].exposure_gap, WithinAbs(inland.exposure - Group(a, "origin=coastal").exposure, 1e-15));
+  CHECK(a.by_stratum.empty());  // one stratum: the overall comparison is the stratum's
+  REQUIRE(a.widest.has_value());
+  CHECK(a.widest->description == "origin: inland | coastal");
+}
+
+TEST_CASE("listing analysis: the plan's reference level wins over the most frequent level") {
+  auto store = StoreWith({{"q", "l", "", {"x1", "y1", "y2"}}},  // coastal has more places
+                         {{"x1", "origin", "inland"}, {"y1", "origin", "coastal"}, {"y2", "origin", "coastal"}});
+  ListingOptions o;
+  o.resamples = 9;
+  CHECK(AnalyzeListings(*store, o).value().levels[0].front() == "coastal");  // most places
+  AuditedWrite w(*store, "plan");
+  store->Exec("INSERT INTO plan(origin, kind, created_at, audit_seq) VALUES ('plan', 'paired', 'x', " +
+              std::to_string(w.seq()) + ")");
+  store->Exec("INSERT INTO factor(plan_id, name, audit_seq) VALUES (1, 'origin', " + std::to_string(w.seq()) + ")");
+  store->Exec("INSERT INTO level(factor_id, name, is_reference, audit_seq) VALUES (1, 'inland', 1, " +
+              std::to_string(w.seq()) + ")");
+  w.Commit("plan");
+  CHECK(AnalyzeListings(*store, o).value().levels[0].front() == "inland");
+}
+
+TEST_CASE("listing analysis: strata, neighbour disparity, paired tests and profile overlap") {
+  // Two factors, two queries x one location, lists seen by two profiles.
+  std::vector<std::tuple<std::string, std::string, std::string>> labels;
+  const char* genders = "fmfmfmfm";
+  for (int i = 0; i < 8; ++i) {
+    std::string item = "i" + std::to_string(i);
+    labels.emplace_back(item, "gender", std::string(1, genders[i]));
+    labels.emplace_back(item, "origin", i < 4 ? "inland" : "coastal");
+  }
+  auto store = StoreWith({{"clerk", "Orlinde", "p1", {"i0", "i1", "i2", "i3", "i4", "i5", "i6", "i7"}},
+                          {"clerk", "Orlinde", "p2", {"i0", "i2", "i1", "i3", "i5", "i4", "i7", "i6"}},
+                          {"cook", "Orlinde", "p1", {"i4", "i0", "i5", "i1", "i6", "i2", "i7", "i3"}},
+                          {"cook", "Orlinde", "p2", {"i0", "i4", "i1", "i5", "i2", "i6", "i3", "i7"}}},
+                         labels);
+  ListingOptions o;
+  o.resamples = 199;
+  auto r = AnalyzeListings(*store, o);
+  REQUIRE(r.ok());
+  const ListingAudit& a = r.value();
+  CHECK(a.strata == 2);
+  CHECK(a.by_stratum.size() == 4);  // 2 factors x 2 strata
+  CHECK(a.paired.size() == 2);
+  CHECK(a.paired[0].strata == 2);
+  // Cells: 4 (gender x origin) on top of 4 levels.
+  CHECK(a.groups.size() == 8);
+  REQUIRE(a.disparity.size() == 2);  // groups and queries; one location is no ranking
+  CHECK(a.disparity[0].dimension == "group");
+  CHECK(a.disparity[1].dimension == "query");
+  // "clerk" lists put inland on top (disparity high), "cook" interleaves.
+  CHECK(a.disparity[1].most.front().value == "clerk");
+  REQUIRE(a.overlap.size() == 1);
+  CHECK(a.overlap[0].profile_a == "p1");
+  CHECK(a.overlap[0].profile_b == "p2");
+  CHECK(a.overlap[0].mean_jaccard_distance == 0.0);  // same items, other order
+  CHECK(a.overlap[0].comparisons == 2);
+}
+
+TEST_CASE("listing analysis: a store with lists but no plan analyses as kind 'listing'") {
+  auto store = StoreWith({{"q", "l", "", {"a", "b"}}}, {{"a", "g", "x"}, {"b", "g", "y"}});
+  auto r = Analyze(*store, OutcomeScheme{}, AnalysisPlan{});
+  REQUIRE(r.ok());
+  CHECK(r.value().kind == "listing");
+  CHECK(r.value().listings.present);
+  CHECK(r.value().listings.listing_only);
+}
+
+TEST_CASE("listing analysis: an empty store still says that it holds no plan") {
+  auto opened = Store::Open(":memory:", true);
+  REQUIRE(opened.ok());
+  auto r = Analyze(*opened.value(), OutcomeScheme{}, AnalysisPlan{});
+  REQUIRE_FALSE(r.ok());
+  CHECK(r.error().Message() ==
+        ":memory:: the store holds no plan yet \u2014 run 'twinprobe plan' or 'twinprobe import pairs' first");
+}
