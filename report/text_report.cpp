@@ -37,9 +37,9 @@ std::string Stratum(const ListingComparison& c) {
 }
 
 // The listing audit as text (docs/ranks.md explains every figure).
-std::string RenderListingText(const ListingAudit& a, double alpha) {
+std::string RenderListingText(const ListingAudit& a, double alpha, bool heading) {
   std::ostringstream o;
-  o << "Listing audit\n-------------\n";
+  if (heading) o << "Listing audit\n-------------\n";
   std::string factors;
   for (const auto& f : a.factors) factors += (factors.empty() ? "" : ", ") + f;
   o << a.listings << " ranked lists in " << a.strata << " query x location strata; " << a.appearances << " places, "
@@ -112,10 +112,11 @@ std::string RenderListingText(const ListingAudit& a, double alpha) {
         for (const auto& e : v) s += (s.empty() ? "" : "; ") + e.value + " " + Fixed(e.disparity, 2);
         return s;
       };
-      o << "  " << d.dimension << (d.dimension == "query" ? "  " : d.dimension == "group" ? "  " : "")
-        << "  most: " << list(d.most) << "\n";
-      o << "  " << std::string(d.dimension.size(), ' ') << (d.dimension == "location" ? "" : "  ")
-        << " least: " << list(d.least) << "\n";
+      char head[64];
+      std::snprintf(head, sizeof head, "  %-9s most:  ", d.dimension.c_str());
+      o << head << list(d.most) << "\n";
+      std::snprintf(head, sizeof head, "  %-9s least: ", "");
+      o << head << list(d.least) << "\n";
     }
   }
   if (a.widest) {
@@ -140,7 +141,7 @@ std::string RenderListingText(const ListingAudit& a, double alpha) {
 std::string RenderTextReport(const AnalysisResult& r) {
   if (r.listings.listing_only)  // a store with lists only: no callbacks to report
     return r.title + "\n" + std::string(std::min<size_t>(r.title.size(), 78), '=') + "\n\n" +
-           RenderListingText(r.listings, r.alpha);
+           RenderListingText(r.listings, r.alpha, false);
   std::ostringstream o;
   o << r.title << "\n" << std::string(std::min<size_t>(r.title.size(), 78), '=') << "\n\n";
   o << "Study " << r.study_id << " (" << r.kind << " design, plan from " << r.plan_origin << ").\n";
@@ -183,7 +184,7 @@ std::string RenderTextReport(const AnalysisResult& r) {
     else
       o << "At alpha = " << r.alpha << " the test does not show a difference; this is not evidence that there is none.\n";
   }
-  if (r.listings.present) o << "\n" << RenderListingText(r.listings, r.alpha);
+  if (r.listings.present) o << "\n" << RenderListingText(r.listings, r.alpha, true);
   return o.str();
 }
 

@@ -75,7 +75,7 @@ TEST_CASE("import ranks: a folder without a design gets a store, and analyze sho
   CHECK(audit["widest_split"]["split"] == "origin: inland | coastal");
   auto text = RunCli({"--study", study, "analyze"});
   CHECK(text.exit_code == 0);
-  CHECK(text.out.rfind("Listing audit\n=============\n", 0) == 0);
+  CHECK(text.out.rfind("Listing audit\n=============\n\n36 ranked lists", 0) == 0);
   CHECK(text.out.find("Widest split of the listed population: origin: inland | coastal") != std::string::npos);
   auto verify = RunCli({"--study", study, "verify"});
   CHECK(verify.exit_code == 0);
