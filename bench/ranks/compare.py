@@ -45,7 +45,7 @@ def same(a, b, m):
     return "same" if ok else "DIFFERENT (%.12g vs %.12g)" % (a["check"], b["check"])
 
 
-print("bench/ranks: %d listings x 50 positions, inland vs coastal (times in seconds)" % n)
+print("bench/ranks: %d listings x 50 positions, inland vs coastal (CPU seconds)" % n)
 print("%-16s %12s %12s %9s %12s %9s  %s" % ("measure", "twinprobe", "scipy", "ratio", "R", "ratio", "check"))
 for m in ["exposure", "emd", "mann_whitney", "signed_rank", "perm_gap", "perm_emd", "neighbour", "widest_split"]:
     if m not in cpp:
