@@ -12,6 +12,7 @@
 #include <vector>
 
 #include "analysis/listing_analysis.h"
+#include "analysis/effects.h"
 #include "core/design.h"
 #include "core/status.h"
 #include "core/store.h"
@@ -64,6 +65,9 @@ struct AnalysisResult {
   std::vector<StratumTable> strata;  // the paired table within each stratum value
 
   ListingAudit listings;  // ranked lists (import ranks, fetch); present = false when there are none
+  // Every comparison with the reference arm, per-stratum tests corrected for
+  // multiplicity, Mantel–Haenszel and Breslow–Day (analysis/effects.h).
+  Effects effects;
 };
 
 // Requires a plan in the store, or listings (a listing-only store gives kind

@@ -48,6 +48,7 @@ Result<std::unique_ptr<Store>> OpenStudyStore(const Context& ctx, bool create);
 struct StudySettings {
   OutcomeScheme outcomes;
   AnalysisPlan analysis;
+  EthicsBlock ethics;
   bool has_design = false;
 };
 Result<StudySettings> LoadStudySettings(const Context& ctx, Store& store);

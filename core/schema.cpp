@@ -246,12 +246,26 @@ CREATE VIEW current_response AS
   WHERE NOT EXISTS (SELECT 1 FROM response s WHERE s.supersedes = r.id);
 )SQL";
 
+// Version 2: declines of invitations (ethics safeguard) as an append-only event.
+constexpr const char* kMigration2 = R"SQL(
+CREATE TABLE decline(                     -- the invitation/offer to a probe was declined
+  id INTEGER PRIMARY KEY,
+  probe_id INTEGER NOT NULL REFERENCES probe(id),
+  declined_at TEXT NOT NULL,
+  channel TEXT,
+  entered_by TEXT NOT NULL,
+  entered_at TEXT NOT NULL,
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX decline_probe ON decline(probe_id);
+CREATE INDEX decline_seq ON decline(audit_seq);
+)SQL";
+
 struct Migration {
   int version;
   const char* sql;
 };
 
-const Migration kMigrations[] = {{1, kMigration1}};
+const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}};
 
 }  // namespace
 
@@ -273,6 +287,7 @@ const std::vector<SealedTable>& SealedTables() {
       {"profile", {}},       {"probe", {}},          {"sending", {}},      {"response", {"note"}},
       {"import_file", {}},   {"listing", {}},        {"listing_item", {}}, {"item_label", {}},
       {"fetch_log", {}},     {"mail_message", {"excerpt"}}, {"review_decision", {}},
+      {"decline", {}},
   };
   return tables;
 }

@@ -4,6 +4,8 @@
 
 #include <nlohmann/json.hpp>
 
+#include "report/effects_report.h"
+
 namespace twinprobe {
 namespace {
 
@@ -135,6 +137,7 @@ std::string RenderJsonReport(const AnalysisResult& r) {
       p["strata"].push_back({{"name", s.name}, {"value", s.value}, {"table", Table(s.table)}});
     j["paired"] = p;
   }
+  j["effects"] = EffectsJson(r);
   if (r.listings.present) j["listing_audit"] = ListingAuditJson(r.listings);
   return j.dump(2) + "\n";
 }

@@ -5,6 +5,8 @@
 #include <cstdio>
 #include <sstream>
 
+#include "report/effects_report.h"
+
 namespace twinprobe {
 
 std::string FormatP(double p) {
@@ -184,6 +186,7 @@ std::string RenderTextReport(const AnalysisResult& r) {
     else
       o << "At alpha = " << r.alpha << " the test does not show a difference; this is not evidence that there is none.\n";
   }
+  o << RenderEffectsText(r);
   if (r.listings.present) o << "\n" << RenderListingText(r.listings, r.alpha, true);
   return o.str();
 }
