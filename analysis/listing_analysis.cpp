@@ -11,10 +11,7 @@
 #include <cstdio>
 #include <memory>
 
-#if __has_include("stats/adjust.h")
-#include "stats/adjust.h"  // R's p.adjust port (stats helper); absent until it lands
-#define TWINPROBE_HAS_ADJUST 1
-#endif
+#include "stats/adjust.h"
 #include "stats/neighbour.h"
 #include "stats/rank_compare.h"
 #include "stats/rank_overlap.h"
@@ -207,9 +204,8 @@ std::optional<ListingComparison> Compare(const Data& d, size_t f, int32_t other,
 
 // Adjusts the permutation p-values of one comparison across its strata with
 // the study's method (R's p.adjust semantics). Leaves them empty when the
-// method is unknown or the port is not built in.
+// method is unknown (the design file rejects such a method before this).
 void AdjustAcrossStrata(std::vector<ListingComparison>& family, const std::string& method) {
-#ifdef TWINPROBE_HAS_ADJUST
   auto m = stats::ParseAdjustment(method);
   if (!m || family.empty()) return;
   std::vector<double> gap, emd;
@@ -223,10 +219,6 @@ void AdjustAcrossStrata(std::vector<ListingComparison>& family, const std::strin
     family[i].gap_p_adjusted = gap[i];
     family[i].emd_p_adjusted = emd[i];
   }
-#else
-  (void)family;
-  (void)method;
-#endif
 }
 
 std::vector<DisparityEntry> Entries(const std::vector<std::string>& names, const std::vector<double>& values,

@@ -1,5 +1,6 @@
 // Calculators for rank statistics on numbers typed at the command line:
 //   twinprobe calc wilcoxon --x 1.5,2,... [--y 3,1,...] [--paired] [--exact|--normal]
+//                           [--alternative two-sided|less|greater]
 //   twinprobe calc emd --u 1,2,3 --v 2,3 [--u-weights ...] [--v-weights ...]
 // The `calc` command itself belongs to cli/calc_cmd.cpp (order 80); this file
 // adds to it, and creates it only when it is not there.
@@ -52,7 +53,7 @@ std::string Fmt(double v) {
 }
 
 struct WilcoxonOptions {
-  std::string x, y;
+  std::string x, y, alternative = "two-sided";
   bool paired = false, exact = false, normal = false;
 };
 
@@ -71,16 +72,22 @@ int RunWilcoxon(Context& ctx, const WilcoxonOptions& o) {
     return ReportError(BadInput("--y", "--x has " + std::to_string(x.value().size()) + " values but --y has " +
                                            std::to_string(y.size()),
                                 "paired data need one y for each x"));
+  stats::Alternative alternative = stats::Alternative::kTwoSided;
+  if (o.alternative == "less") alternative = stats::Alternative::kLess;
+  else if (o.alternative == "greater") alternative = stats::Alternative::kGreater;
+  else if (o.alternative != "two-sided")
+    return ReportError(BadInput("--alternative", "unknown alternative '" + o.alternative + "'",
+                                "use two-sided, less or greater"));
   stats::RankMethod method = o.exact ? stats::RankMethod::kExact : o.normal ? stats::RankMethod::kNormal : stats::RankMethod::kAuto;
   stats::RankTestResult r;
   std::string test;
   if (y.empty() || o.paired) {
     std::vector<double> d = x.value();
     for (size_t i = 0; i < y.size(); ++i) d[i] = x.value()[i] - y[i];
-    r = stats::WilcoxonSignedRank(d, stats::Alternative::kTwoSided, method);
+    r = stats::WilcoxonSignedRank(d, alternative, method);
     test = o.paired ? "Wilcoxon signed-rank test (paired)" : "Wilcoxon signed-rank test (one sample, location 0)";
   } else {
-    r = stats::MannWhitney(x.value(), y, stats::Alternative::kTwoSided, method);
+    r = stats::MannWhitney(x.value(), y, alternative, method);
     test = "Wilcoxon-Mann-Whitney rank-sum test";
   }
   if (r.exact_refused)
@@ -90,6 +97,8 @@ int RunWilcoxon(Context& ctx, const WilcoxonOptions& o) {
     nlohmann::json j{{"test", test},
                      {"statistic", r.statistic},
                      {"statistic_name", (y.empty() || o.paired) ? "V" : "W"},
+                     {"alternative", o.alternative},
+                     {"estimate_name", (y.empty() || o.paired) ? "Hodges-Lehmann (pseudo)median" : "Hodges-Lehmann location shift"},
                      {"p_value", Num(r.p_value)},
                      {"estimate", Num(r.estimate)},
                      {"exact", r.exact},
@@ -98,7 +107,7 @@ int RunWilcoxon(Context& ctx, const WilcoxonOptions& o) {
                      {"ties", r.ties}};
     std::cout << j.dump(2) << "\n";
   } else {
-    std::cout << test << ", two-sided, " << (r.exact ? "exact" : "normal approximation with continuity correction")
+    std::cout << test << ", " << o.alternative << ", " << (r.exact ? "exact" : "normal approximation with continuity correction")
               << ":\n  " << ((y.empty() || o.paired) ? "V" : "W") << " = " << Fmt(r.statistic) << ", p = "
               << (std::isnan(r.p_value) ? std::string("not defined (every difference is zero)") : FormatP(r.p_value))
               << "\n  Hodges-Lehmann estimate of the " << ((y.empty() || o.paired) ? "(pseudo)median difference" : "location shift")
@@ -159,6 +168,7 @@ void RegisterCalcRanks(CLI::App& app, Context& ctx) {
   w->add_option("--x", wo->x, "Values, comma-separated")->required();
   w->add_option("--y", wo->y, "Second sample (rank-sum) or second measurement of each pair (--paired)");
   w->add_flag("--paired", wo->paired, "Signed-rank test of the differences x - y");
+  w->add_option("--alternative", wo->alternative, "two-sided (default), less or greater: x shifted below or above y");
   auto* exact = w->add_flag("--exact", wo->exact, "Exact null distribution (refused with ties or zeros, as R)");
   auto* normal = w->add_flag("--normal", wo->normal, "Normal approximation with continuity correction");
   exact->excludes(normal);

@@ -90,7 +90,7 @@ std::string RenderListingText(const ListingAudit& a, double alpha, bool heading)
     for (auto* c : rows) significant += key(c) < alpha;
     o << "\nQuery x location strata with the strongest evidence of an exposure gap ("
       << (adjusted ? "p adjusted by " + a.correction + " across the strata of each comparison"
-                   : std::string("p NOT adjusted for multiple comparisons: the adjustment is not built in"))
+                   : "p NOT adjusted for multiple comparisons: unknown correction '" + a.correction + "'")
       << "):\n";
     std::snprintf(line, sizeof line, "  %-36s %-24s %9s %9s %9s %7s\n", "stratum", "comparison", "gap", "p",
                   adjusted ? "p adj" : "", "EMD");

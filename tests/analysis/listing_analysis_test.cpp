@@ -1,5 +1,6 @@
 #include <catch2/catch.hpp>
 
+#include <algorithm>
 #include <cmath>
 
 #include "analysis/analyze.h"
@@ -138,6 +139,19 @@ TEST_CASE("listing analysis: strata, neighbour disparity, paired tests and profi
   const ListingAudit& a = r.value();
   CHECK(a.strata == 2);
   CHECK(a.by_stratum.size() == 4);  // 2 factors x 2 strata
+  // Holm (the default correction) across the 2 strata of each comparison,
+  // by hand: the smaller p doubled, the larger kept (never below the first).
+  for (size_t k = 0; k < 4; k += 2) {
+    const auto& x = a.by_stratum[k];
+    const auto& y = a.by_stratum[k + 1];
+    REQUIRE(x.factor == y.factor);
+    REQUIRE(x.gap_p_adjusted.has_value());
+    const double lo = std::min(x.gap_p, y.gap_p), hi = std::max(x.gap_p, y.gap_p);
+    const double lo_adj = std::min(1.0, 2 * lo), hi_adj = std::max(lo_adj, hi);
+    CHECK(*x.gap_p_adjusted == (x.gap_p <= y.gap_p ? lo_adj : hi_adj));
+    CHECK(*y.gap_p_adjusted == (x.gap_p <= y.gap_p ? hi_adj : lo_adj));
+    CHECK(*x.emd_p_adjusted >= x.emd_p);
+  }
   CHECK(a.paired.size() == 2);
   CHECK(a.paired[0].strata == 2);
   // Cells: 4 (gender x origin) on top of 4 levels.

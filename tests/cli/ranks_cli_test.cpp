@@ -174,6 +174,10 @@ TEST_CASE("calc wilcoxon: paired and two-sample forms, text output") {
   auto j = nlohmann::json::parse(paired.out);
   CHECK(j["statistic"] == 40.0);
   CHECK_THAT(j["p_value"].get<double>(), WithinRel(20.0 / 512.0, 1e-12));
+  auto greater = RunCli({"--json", "calc", "wilcoxon", "--x", "1.83,0.50,1.62,2.48,1.68,1.88,1.55,3.06,1.30", "--y",
+                         "0.878,0.647,0.598,2.05,1.06,1.29,1.06,3.14,1.29", "--paired", "--alternative", "greater"});
+  REQUIRE(greater.exit_code == 0);
+  CHECK_THAT(nlohmann::json::parse(greater.out)["p_value"].get<double>(), WithinRel(10.0 / 512.0, 1e-12));  // R: 0.01953
   auto text = RunCli({"calc", "wilcoxon", "--x", "0.80,0.83,1.89,1.04,1.45,1.38,1.91,1.64,0.73,1.46", "--y",
                       "1.15,0.88,0.90,0.74,1.21", "--normal"});
   REQUIRE(text.exit_code == 0);
@@ -186,6 +190,9 @@ TEST_CASE("calc wilcoxon: bad input and usage errors") {
   auto bad = RunCli({"calc", "wilcoxon", "--x", "1,two,3"});
   CHECK(bad.exit_code == 1);
   CHECK(bad.err == "twinprobe: --x: 'two' is not a number \u2014 write numbers separated by commas, e.g. --x 1.5,2,3\n");
+  auto alt = RunCli({"calc", "wilcoxon", "--x", "1,2", "--alternative", "bigger"});
+  CHECK(alt.exit_code == 1);
+  CHECK(alt.err == "twinprobe: --alternative: unknown alternative 'bigger' \u2014 use two-sided, less or greater\n");
   auto both = RunCli({"calc", "wilcoxon", "--x", "1,2", "--exact", "--normal"});
   CHECK(both.exit_code == 2);
   auto lengths = RunCli({"calc", "wilcoxon", "--x", "1,2", "--y", "1", "--paired"});
