@@ -260,12 +260,26 @@ CREATE INDEX decline_probe ON decline(probe_id);
 CREATE INDEX decline_seq ON decline(audit_seq);
 )SQL";
 
+// fetch --replay re-extracts a listing from its stored snapshot with the
+// current rules. The result is a new listing row; listing_replay links it to
+// the row it replaces (a new table, so rows sealed earlier keep their digest)
+// and current_listing shows only rows not replaced.
+constexpr const char* kMigration3 = R"SQL(
+CREATE TABLE listing_replay(
+  listing_id INTEGER PRIMARY KEY REFERENCES listing(id),      -- the new row
+  replaces INTEGER NOT NULL UNIQUE REFERENCES listing(id),   -- the row it replaces
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX listing_replay_seq ON listing_replay(audit_seq);
+CREATE VIEW current_listing AS
+  SELECT l.* FROM listing l WHERE NOT EXISTS (SELECT 1 FROM listing_replay r WHERE r.replaces = l.id);
+)SQL";
+
 struct Migration {
   int version;
   const char* sql;
 };
 
-const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}};
+const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigration3}};
 
 }  // namespace
 
@@ -288,6 +302,7 @@ const std::vector<SealedTable>& SealedTables() {
       {"import_file", {}},   {"listing", {}},        {"listing_item", {}}, {"item_label", {}},
       {"fetch_log", {}},     {"mail_message", {"excerpt"}}, {"review_decision", {}},
       {"decline", {}},
+      {"listing_replay", {}},
   };
   return tables;
 }
