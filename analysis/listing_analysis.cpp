@@ -5,6 +5,7 @@
 #include <map>
 #include <numeric>
 #include <set>
+#include <tuple>
 
 #include <unistd.h>
 
@@ -46,24 +47,81 @@ Data Load(Store& store) {
   Data d;
   std::map<std::string, int32_t> item_index;
   std::map<std::pair<std::string, std::string>, int32_t> stratum_index;
-  std::map<int64_t, int32_t> listing_index;
-  Stmt q = store.Prepare(
-      "SELECT l.id, coalesce(l.query, ''), coalesce(l.location, ''), coalesce(l.seen_by, ''), i.position, i.item_key "
-      "FROM listing l JOIN listing_item i ON i.listing_id = l.id WHERE l.extraction = 'ok' "
-      "ORDER BY l.id, i.position, i.id");
-  while (q.Step()) {
-    auto [lit, new_listing] = listing_index.emplace(q.Int(0), static_cast<int32_t>(d.listings.size()));
-    if (new_listing) {
-      auto key = std::make_pair(q.Text(1), q.Text(2));
-      auto [sit, new_stratum] = stratum_index.emplace(key, static_cast<int32_t>(d.strata.size()));
-      if (new_stratum) d.strata.push_back(key);
-      d.listings.push_back({sit->second, q.Text(3), {}});
+  // Which stored rows make up a list, and where each starts. A fetched list
+  // of several pages is stored as one row per page, positions counting from
+  // 1 on each page; its pages (same source, query, location, profile and
+  // fetch command) are joined in page order, each offset by the places
+  // before it. A list stops at its first missing or failed page: places
+  // after a gap are unknown. Rows without a page number (import ranks) are
+  // whole lists. Replaced rows (fetch --replay) are left out.
+  struct Part {
+    int32_t list = -1;
+    int64_t offset = 0;
+  };
+  std::map<int64_t, Part> part_of;  // listing row id -> list and offset
+  {
+    struct Meta {
+      int64_t id, page, max_position;
+      bool ok;
+    };
+    std::map<std::tuple<std::string, std::string, std::string, std::string, int64_t>, std::vector<Meta>> paged;
+    std::vector<std::tuple<int64_t, std::string, std::string, std::string>> whole;  // id, query, location, seen_by
+    Stmt m = store.Prepare(
+        "SELECT l.id, l.source, coalesce(l.query, ''), coalesce(l.location, ''), coalesce(l.seen_by, ''), l.page, "
+        "  l.audit_seq, l.extraction = 'ok', (SELECT max(position) FROM listing_item i WHERE i.listing_id = l.id) "
+        "FROM current_listing l ORDER BY l.id");
+    while (m.Step()) {
+      if (m.IsNull(5)) {
+        if (m.Int(7) != 0) whole.emplace_back(m.Int(0), m.Text(2), m.Text(3), m.Text(4));
+        continue;
+      }
+      paged[{m.Text(1) + "\n" + m.Text(2), m.Text(3), m.Text(4), "", m.Int(6)}].push_back(
+          {m.Int(0), m.Int(5), m.IsNull(8) ? 0 : m.Int(8), m.Int(7) != 0});
     }
-    std::string key = q.Text(5);
+    auto add_list = [&](const std::string& query, const std::string& location, const std::string& seen_by) {
+      auto [sit, new_stratum] = stratum_index.emplace(std::make_pair(query, location), static_cast<int32_t>(d.strata.size()));
+      if (new_stratum) d.strata.push_back({query, location});
+      d.listings.push_back({sit->second, seen_by, {}});
+      return static_cast<int32_t>(d.listings.size() - 1);
+    };
+    for (const auto& [id, query, location, seen_by] : whole) part_of[id] = {add_list(query, location, seen_by), 0};
+    for (auto& [key, pages] : paged) {
+      std::sort(pages.begin(), pages.end(), [](const Meta& a, const Meta& b) { return a.page < b.page; });
+      const std::string& source_query = std::get<0>(key);
+      const std::string query = source_query.substr(source_query.find('\n') + 1);
+      int32_t list = -1;
+      int64_t offset = 0, expected = 1;
+      for (const auto& pg : pages) {
+        if (pg.page != expected || !pg.ok) break;
+        if (list < 0) list = add_list(query, std::get<1>(key), std::get<2>(key));
+        part_of[pg.id] = {list, offset};
+        offset += pg.max_position;
+        ++expected;
+      }
+    }
+  }
+  Stmt q = store.Prepare("SELECT listing_id, position, item_key FROM listing_item ORDER BY listing_id, position, id");
+  while (q.Step()) {
+    auto pit = part_of.find(q.Int(0));
+    if (pit == part_of.end()) continue;
+    std::string key = q.Text(2);
     auto [iit, new_item] = item_index.emplace(key, static_cast<int32_t>(d.item_keys.size()));
     if (new_item) d.item_keys.push_back(key);
-    d.listings[static_cast<size_t>(lit->second)].appearances.push_back(static_cast<int32_t>(d.appearances.size()));
-    d.appearances.push_back({lit->second, static_cast<int32_t>(q.Int(4)), iit->second});
+    const int32_t list = pit->second.list;
+    d.listings[static_cast<size_t>(list)].appearances.push_back(static_cast<int32_t>(d.appearances.size()));
+    d.appearances.push_back({list, static_cast<int32_t>(pit->second.offset + q.Int(1)), iit->second});
+  }
+  // Lists whose every page held no item are dropped.
+  {
+    std::vector<ListingRow> kept;
+    std::vector<int32_t> new_index(d.listings.size(), -1);
+    for (size_t i = 0; i < d.listings.size(); ++i)
+      if (!d.listings[i].appearances.empty()) {
+        new_index[i] = static_cast<int32_t>(kept.size());
+        kept.push_back(std::move(d.listings[i]));
+      }
+    for (auto& a : d.appearances) a.listing = new_index[static_cast<size_t>(a.listing)];
+    d.listings = std::move(kept);
   }
 
   // Newest label of each item per factor (labels are append-only; a later

@@ -28,9 +28,9 @@ namespace {
 
 // Columns with a fixed meaning; every other column is a protected factor
 // whose values are the items' levels (e.g. gender, origin).
-const std::set<std::string> kListingColumns = {"query", "location", "seen_by", "source", "fetched_at", "page"};
-const std::set<std::string> kReserved = {"listing", "position", "item", "score", "query",      "location",
-                                         "seen_by", "source",   "fetched_at", "page"};
+const std::set<std::string> kListingColumns = {"query", "location", "seen_by", "source", "fetched_at"};
+const std::set<std::string> kReserved = {"listing", "position", "item",   "score",
+                                         "query",   "location", "seen_by", "source", "fetched_at"};
 
 struct ParsedListing {
   std::string ref;
@@ -59,6 +59,9 @@ Result<ParsedFile> Parse(const CsvTable& t, const std::string& path) {
       return BadInput(path + ":1", std::string("a ranks file needs the column '") + required + "'",
                       "name the columns listing,position,item, then one column per protected attribute "
                       "(e.g. gender,origin) and optionally query,location,seen_by,score");
+  if (t.Column("page") >= 0)
+    return BadInput(path + ":1", "a ranks file has no page column: a position counts from the top of the whole list",
+                    "number the places across pages (page 2 of 20 starts at 21) and drop the page column");
   ParsedFile out;
   std::vector<int> factor_cols;
   for (size_t c = 0; c < t.header.size(); ++c)
@@ -70,7 +73,7 @@ Result<ParsedFile> Parse(const CsvTable& t, const std::string& path) {
     return BadInput(path + ":1", "the file has no group column",
                     "add one column per protected attribute (e.g. gender, origin) holding each item's level");
   const int c_listing = t.Column("listing"), c_position = t.Column("position"), c_item = t.Column("item"),
-            c_score = t.Column("score"), c_fetched = t.Column("fetched_at"), c_page = t.Column("page");
+            c_score = t.Column("score"), c_fetched = t.Column("fetched_at");
   std::map<std::string, size_t> listing_index;
   std::map<std::pair<std::string, int64_t>, int64_t> place_line;
   std::map<std::pair<std::string, std::string>, int64_t> item_line;
@@ -100,14 +103,6 @@ Result<ParsedFile> Parse(const CsvTable& t, const std::string& path) {
         !ParseIsoTime(row.fields[static_cast<size_t>(c_fetched)]))
       return BadInput(where, "fetched_at '" + row.fields[static_cast<size_t>(c_fetched)] + "' is not a time",
                       "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM (UTC)");
-    if (c_page >= 0 && !row.fields[static_cast<size_t>(c_page)].empty()) {
-      const std::string& pg = row.fields[static_cast<size_t>(c_page)];
-      char* pend = nullptr;
-      long long page = std::strtoll(pg.c_str(), &pend, 10);
-      if (*pend != '\0' || page < 1)
-        return BadInput(where, "page '" + pg + "' is not a whole number of at least 1", "write the page number, or leave it empty");
-    }
-
     auto [lit, is_new] = listing_index.emplace(ref, out.listings.size());
     if (is_new) {
       ParsedListing l;
@@ -213,7 +208,7 @@ Result<RankImportSummary> ImportRanks(Store& store, const RanksFile& file) {
       if (has)
         return BadInput(path, "item " + item + " is " + factor + "=" + old + " in the store (audit entry " +
                                   std::to_string(old_seq) + ") but " + factor + "=" + level + " in this file",
-                        "an item keeps its group; use a new item key or correct the file");
+                        "an item keeps its group here; use a new item key, or correct the label with 'twinprobe import labels'");
       ins_label.Bind(1, item).Bind(2, factor).Bind(3, level).Bind(4, write.seq()).Run();
       ++summary.labels_added;
     }
@@ -237,8 +232,7 @@ Result<RankImportSummary> ImportRanks(Store& store, const RanksFile& file) {
     ins_listing.Bind(1, opt(l.attrs, "source").value_or("import"))
         .Bind(2, opt(l.attrs, "query"))
         .Bind(3, opt(l.attrs, "location"));
-    if (auto page = opt(l.attrs, "page")) ins_listing.Bind(4, static_cast<int64_t>(std::stoll(*page)));
-    else ins_listing.BindNull(4);
+    ins_listing.BindNull(4);  // positions are places in the whole list (no pages)
     ins_listing.Bind(5, opt(l.attrs, "seen_by"))
         .Bind(6, fetched ? FormatIsoTime(*ParseIsoTime(*fetched)) : write.at())
         .Bind(7, "file:" + name + "#" + l.ref)  // where the list came from

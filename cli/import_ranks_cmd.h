@@ -18,7 +18,7 @@ struct RankImportSummary {
 
 // Reads and checks the CSV at `path` (columns listing, position, item, one
 // column per protected factor, optionally query, location, seen_by, source,
-// fetched_at, page, score), then writes it in one AuditedWrite. Errors name
+// fetched_at, score; no page column: positions count from the top of the whole list), then writes it in one AuditedWrite. Errors name
 // FILE:LINE; on any error nothing is written.
 Result<RankImportSummary> ImportRanksFile(Store& store, const std::string& path);
 

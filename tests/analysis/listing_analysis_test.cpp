@@ -185,3 +185,52 @@ TEST_CASE("listing analysis: an empty store still says that it holds no plan") {
   CHECK(r.error().Message() ==
         ":memory:: the store holds no plan yet \u2014 run 'twinprobe plan' or 'twinprobe import pairs' first");
 }
+
+TEST_CASE("listing analysis: pages of a fetched list join in order; a gap ends the list; replays replace") {
+  auto opened = Store::Open(":memory:", true);
+  REQUIRE(opened.ok());
+  Store& store = *opened.value();
+  AuditedWrite w(store, "fetch");
+  auto listing = [&](int page, const std::vector<std::string>& items, const char* extraction = "ok") {
+    store.Prepare("INSERT INTO listing(source, query, location, page, fetched_at, extraction, audit_seq) "
+                  "VALUES ('board', 'clerk', 'Orlinde', ?1, 'x', ?2, ?3)")
+        .Bind(1, static_cast<int64_t>(page))
+        .Bind(2, extraction)
+        .Bind(3, w.seq())
+        .Run();
+    int64_t id = store.LastInsertId();
+    for (size_t p = 0; p < items.size(); ++p)
+      store.Prepare("INSERT INTO listing_item(listing_id, position, item_key, audit_seq) VALUES (?1, ?2, ?3, ?4)")
+          .Bind(1, id)
+          .Bind(2, static_cast<int64_t>(p + 1))
+          .Bind(3, items[p])
+          .Bind(4, w.seq())
+          .Run();
+    return id;
+  };
+  listing(2, {"c", "d"});                     // page 2 stored first: order comes from the page number
+  int64_t old_page1 = listing(1, {"x", "y"});  // replaced below
+  int64_t new_page1 = listing(1, {"a", "b"});
+  store.Prepare("INSERT INTO listing_replay(listing_id, replaces, audit_seq) VALUES (?1, ?2, ?3)")
+      .Bind(1, new_page1)
+      .Bind(2, old_page1)
+      .Bind(3, w.seq())
+      .Run();
+  listing(4, {"e"});  // page 3 is missing: e's place is unknown
+  for (const char* item : {"a", "b", "c", "d", "e", "x", "y"})
+    store.Prepare("INSERT INTO item_label(item_key, factor, level, audit_seq) VALUES (?1, 'origin', ?2, ?3)")
+        .Bind(1, item)
+        .Bind(2, std::string(item) < "c" ? "inland" : "coastal")
+        .Bind(3, w.seq())
+        .Run();
+  w.Commit("fetched");
+  ListingOptions o;
+  o.resamples = 9;
+  auto r = AnalyzeListings(store, o);
+  REQUIRE(r.ok());
+  const ListingAudit& a = r.value();
+  CHECK(a.listings == 1);
+  CHECK(a.appearances == 4);  // a b (page 1), c d (page 2 at places 3 and 4)
+  CHECK(Group(a, "origin=inland").mean_position == 1.5);
+  CHECK(Group(a, "origin=coastal").mean_position == 3.5);
+}

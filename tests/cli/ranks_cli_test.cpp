@@ -124,6 +124,9 @@ TEST_CASE("import ranks: bad rows are named by FILE:LINE and nothing is written"
       {"listing,query,position,item,gender\nL1,clerk,1,a,f\nL1,cook,2,b,m\n",
        f + ":3: listing L1 has query 'clerk' on line 2 but 'cook' here \u2014 one listing is one list: give all its "
            "rows the same query, or a new listing name"},
+      {"listing,position,item,page,gender\nL1,1,a,1,f\n",
+       f + ":1: a ranks file has no page column: a position counts from the top of the whole list \u2014 number the "
+           "places across pages (page 2 of 20 starts at 21) and drop the page column"},
       {"listing,position,item,gender\n,1,a,f\n",
        f + ":2: the listing is empty \u2014 give every row the listing it belongs to"},
       {"listing,position,item,gender,score\nL1,1,a,f,high\n",
@@ -150,7 +153,7 @@ TEST_CASE("import ranks: an item's group in the store cannot be changed by a lat
   CHECK(r.exit_code == 1);
   CHECK(r.err == "twinprobe: " + (dir / "r2.csv") +
                      ": item a is gender=f in the store (audit entry 1) but gender=m in this file \u2014 an item keeps "
-                     "its group; use a new item key or correct the file\n");
+                     "its group here; use a new item key, or correct the label with 'twinprobe import labels'\n");
   auto a = RunCli({"--study", dir / "s", "--json", "analyze"});
   CHECK(nlohmann::json::parse(a.out)["listing_audit"]["listings"] == 2);  // the store is unchanged
 }
