@@ -163,9 +163,20 @@ fixtures = {
     "psignrank": psignrank_cases,
     "pwilcox": pwilcox_cases,
 }
+# One case per line keeps the file small and its diffs readable.
 with open(os.path.join(HERE, "fixtures.json"), "w") as fh:
-    json.dump(fixtures, fh, indent=1)
-    fh.write("\n")
+    fh.write("{\n")
+    keys = list(fixtures)
+    for i, k in enumerate(keys):
+        v = fixtures[k]
+        if isinstance(v, list):
+            fh.write(" %s: [\n" % json.dumps(k))
+            fh.write(",\n".join("  " + json.dumps(c) for c in v))
+            fh.write("\n ]")
+        else:
+            fh.write(" %s: %s" % (json.dumps(k), json.dumps(v)))
+        fh.write(",\n" if i + 1 < len(keys) else "\n")
+    fh.write("}\n")
 print("wrote %s: %d emd, %d signed-rank, %d rank-sum cases (scipy %s, R %s)" % (
     os.path.join(HERE, "fixtures.json"), len(emd_cases), len(signed_cases), len(ranksum_cases), scipy.__version__,
     r_version), file=sys.stderr)
