@@ -8,6 +8,7 @@
 
 #include "analysis/analyze.h"
 #include "cli/command.h"
+#include "cli/import_ranks_cmd.h"
 #include "collector/responses.h"
 #include "core/audit.h"
 #include "core/clock.h"
@@ -139,6 +140,10 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
   if (!planned.ok()) return ReportError(planned.error());
   DemoModel model;
   int64_t responses = SimulateFieldwork(*store.value(), s.design.outcomes, model);
+  // The listing-audit part: invented candidate rankings of an invented job
+  // board (templates/demo/listings/generate_ranks.py states the model).
+  auto ranks = ImportRanksFile(*store.value(), (fs::path(out_dir) / "listings" / "ranks.csv").string());
+  if (!ranks.ok()) return ReportError(ranks.error());
   auto result = Analyze(*store.value(), s.design.outcomes, s.design.analysis);
   if (!result.ok()) return ReportError(result.error());
 
@@ -159,6 +164,7 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
             << "  planned   " << planned.value().probes << " probes to " << planned.value().vacancies
             << " vacancies (4 occupations x 3 regions)\n"
             << "  simulated " << responses << " employer responses; true callback rates 27.8% (inland) vs 19.4% (coastal)\n"
+            << "  imported  " << ranks.value().listings << " invented candidate rankings of Kestrel Board (invented) for the listing audit\n"
             << "  audit     " << (audit.ok() ? "chain intact, " : "CHAIN BROKEN, ") << audit.entries << " entries\n\n"
             << RenderTextReport(result.value()) << "\n"
             << "Study folder: " << out_dir << "\n"

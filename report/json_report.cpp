@@ -90,6 +90,85 @@ nlohmann::json EmployersJson(const EmployerOutcomes& e) {
     j["discordant"].push_back(
         {{"pseudonym", x.pseudonym}, {"pairs", x.vacancies}, {"discordant", x.discordant}, {"table", Table(x.table)}});
   }
+nlohmann::json OptNum(const std::optional<double>& v) { return v ? Num(*v) : nlohmann::json(nullptr); }
+
+nlohmann::json ListingComparisonJson(const ListingComparison& c) {
+  return {{"factor", c.factor},
+          {"reference", c.reference},
+          {"other", c.other},
+          {"query", c.query},
+          {"location", c.location},
+          {"n_reference", c.n_reference},
+          {"n_other", c.n_other},
+          {"exposure_gap", Num(c.exposure_gap)},
+          {"emd", Num(c.emd)},
+          {"mann_whitney_p", Num(c.mann_whitney_p)},
+          {"exposure_gap_p", Num(c.gap_p)},
+          {"emd_p", Num(c.emd_p)},
+          {"exposure_gap_p_adjusted", OptNum(c.gap_p_adjusted)},
+          {"emd_p_adjusted", OptNum(c.emd_p_adjusted)}};
+}
+
+// The listing audit (docs/ranks.md lists the keys).
+nlohmann::json ListingAuditJson(const ListingAudit& a) {
+  nlohmann::json j;
+  j["listings"] = a.listings;
+  j["appearances"] = a.appearances;
+  j["labelled_appearances"] = a.labelled_appearances;
+  j["items"] = a.items;
+  j["strata"] = a.strata;
+  j["factors"] = nlohmann::json::array();
+  for (size_t f = 0; f < a.factors.size(); ++f)
+    j["factors"].push_back({{"name", a.factors[f]}, {"levels", a.levels[f]}, {"reference", a.levels[f].front()}});
+  j["discount"] = a.discount;
+  j["top_k"] = a.top_k;
+  j["resamples"] = a.resamples;
+  j["seed"] = a.seed;
+  j["correction"] = a.correction;
+  j["groups"] = nlohmann::json::array();
+  for (const auto& g : a.groups)
+    j["groups"].push_back({{"factor", g.factor},
+                           {"group", g.label},
+                           {"appearances", g.appearances},
+                           {"exposure", Num(g.exposure)},
+                           {"exposure_share", Num(g.exposure_share)},
+                           {"top_k_share", Num(g.top_k_share)},
+                           {"mean_position", Num(g.mean_position)},
+                           {"median_position", Num(g.median_position)}});
+  j["comparisons"] = nlohmann::json::array();
+  for (const auto& c : a.overall) j["comparisons"].push_back(ListingComparisonJson(c));
+  j["by_stratum"] = nlohmann::json::array();
+  for (const auto& c : a.by_stratum) j["by_stratum"].push_back(ListingComparisonJson(c));
+  j["paired_across_strata"] = nlohmann::json::array();
+  for (const auto& p : a.paired)
+    j["paired_across_strata"].push_back(
+        {{"factor", p.factor},
+         {"reference", p.reference},
+         {"other", p.other},
+         {"strata", p.strata},
+         {"wilcoxon",
+          {{"statistic", p.wilcoxon.statistic}, {"p_value", Num(p.wilcoxon.p_value)}, {"estimate", Num(p.wilcoxon.estimate)},
+           {"exact", p.wilcoxon.exact}}},
+         {"sign_test",
+          {{"positive", p.sign.positive}, {"negative", p.sign.negative}, {"zeros", p.sign.zeros}, {"p_value", Num(p.sign.p_value)}}}});
+  j["disparity"] = nlohmann::json::array();
+  for (const auto& d : a.disparity) {
+    nlohmann::json most = nlohmann::json::array(), least = nlohmann::json::array();
+    for (const auto& e : d.most) most.push_back({{"value", e.value}, {"disparity", Num(e.disparity)}});
+    for (const auto& e : d.least) least.push_back({{"value", e.value}, {"disparity", Num(e.disparity)}});
+    j["disparity"].push_back({{"dimension", d.dimension}, {"most", most}, {"least", least}});
+  }
+  if (a.widest)
+    j["widest_split"] = {{"split", a.widest->description}, {"parts", a.widest->parts},
+                         {"distance", Num(a.widest->distance)}, {"p_value", Num(a.widest->p_value)},
+                         {"resamples", a.widest->resamples}, {"candidates", a.widest->candidates},
+                         {"exhaustive", a.widest->exhaustive}};
+  else
+    j["widest_split"] = nullptr;
+  j["overlap"] = nlohmann::json::array();
+  for (const auto& o : a.overlap)
+    j["overlap"].push_back({{"profile_a", o.profile_a}, {"profile_b", o.profile_b}, {"comparisons", o.comparisons},
+                            {"mean_jaccard_distance", Num(o.mean_jaccard_distance)}});
   return j;
 }
 
@@ -150,6 +229,7 @@ std::string RenderJsonReport(const AnalysisResult& r, const ReportContext& ctx) 
       auto it = ctx.employer_names.find(row["pseudonym"].get<std::string>());
       row["name"] = it == ctx.employer_names.end() ? nlohmann::json(nullptr) : nlohmann::json(it->second);
     }
+  if (r.listings.present) j["listing_audit"] = ListingAuditJson(r.listings);
   return j.dump(2) + "\n";
 }
 
