@@ -120,6 +120,8 @@ void EmployersBlock(std::ostringstream& o, const AnalysisResult& r) {
       << x.table.b << ", only " << ArmName(r.other_label) << " " << x.table.c << "\n";
   }
   if (!any) o << " None had more than one.\n";
+}
+
 std::string Fixed(double v, int digits) {
   char buf[64];
   std::snprintf(buf, sizeof buf, "%.*f", digits, v);
