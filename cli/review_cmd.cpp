@@ -6,6 +6,8 @@
 
 #include "cli/command.h"
 #include "collector/mail_review.h"
+#include "core/clock.h"
+#include "core/ethics_gate.h"
 
 namespace twinprobe {
 namespace {
@@ -167,10 +169,21 @@ int RunReview(Context& ctx, const ReviewOptions& o) {
   auto out = DecideReview(*store.value(), settings.value().outcomes, req);
   if (!out.ok()) return ReportError(out.error());
   const ReviewOutcome& r = out.value();
+  // The same warnings and the same decline reminder as `record` gives.
   for (const auto& w : r.warnings) Warn(w);
   if (r.late)
-    Warn("the response arrived after the observation window of " +
-         std::to_string(settings.value().outcomes.window_days) + " days; it is stored with the flag 'late'");
+    Warn("the response came " + std::to_string(r.days_after_sending) + " days after " + r.probe_ref +
+         " was sent, outside the observation window of " + std::to_string(settings.value().outcomes.window_days) +
+         " days; it is stored with the flag 'late'");
+  if (r.unsent)
+    Warn(r.probe_ref +
+         " has no sending recorded, so the observation window cannot be checked \u2014 record it with "
+         "'twinprobe sent " +
+         r.probe_ref + " --at TIME'");
+  const EthicsBlock& ethics = settings.value().ethics;
+  std::string decline_by;
+  if (r.positive && ethics.decline_within_hours > 0)
+    decline_by = FormatIsoTime(DeclineDeadline(ethics, ParseIsoTime(r.received_at).value_or(0)));
   if (ctx.json) {
     std::cout << nlohmann::json{{"message", req.message},
                                 {"decision", r.decision},
@@ -181,6 +194,7 @@ int RunReview(Context& ctx, const ReviewOptions& o) {
                                 {"received_at", NullIfEmpty(r.received_at)},
                                 {"positive", r.positive},
                                 {"late", r.late},
+                                {"decline_by", NullIfEmpty(decline_by)},
                                 {"supersedes", r.superseded ? nlohmann::json(r.superseded) : nlohmann::json(nullptr)},
                                 {"warnings", r.warnings},
                                 {"audit_hash", r.audit_hash}}
@@ -197,6 +211,11 @@ int RunReview(Context& ctx, const ReviewOptions& o) {
             << (r.positive ? ", a positive callback" : "");
   if (r.superseded) std::cout << "; it supersedes response " << r.superseded << ", which is kept";
   std::cout << ".\n";
+  if (!decline_by.empty())
+    std::cout << "Decline it by " << decline_by << " (within " << ethics.decline_within_hours
+              << " hours of receipt) with the letter in ethics/letters/decline-invitation.md, then run 'twinprobe "
+                 "decline "
+              << r.probe_ref << "'.\n";
   return 0;
 }
 

@@ -146,6 +146,8 @@ Result<ReviewOutcome> DecideReview(Store& store, const OutcomeScheme& scheme, co
   out.received_at = recorded.value().received_at;
   out.positive = recorded.value().positive;
   out.late = recorded.value().late;
+  out.unsent = recorded.value().unsent;
+  out.days_after_sending = recorded.value().days_after_sending;
   out.superseded = recorded.value().superseded;
   out.decision = out.probe_ref == item.probe_ref && out.code == item.suggested_code ? "confirmed" : "changed";
 

@@ -61,6 +61,8 @@ struct ReviewOutcome {
   int64_t response_id = 0;  // 0 when dismissed
   std::string probe_ref, code, received_at;
   bool positive = false, late = false;
+  bool unsent = false;  // the probe has no sending: the window could not be checked
+  int64_t days_after_sending = 0;
   int64_t superseded = 0;
   std::vector<std::string> warnings;  // e.g. the probe belongs to another profile
   std::string audit_hash;

@@ -154,15 +154,23 @@ TEST_CASE("review cli: lists the queue with evidence, and records decisions as r
   auto confirm = RunCli({"--study", s.study, "review", "1", "--confirm"});
   INFO(confirm.err);
   REQUIRE(confirm.exit_code == 0);
+  // The same reminders as `record`: no sending recorded, and the decline deadline.
   CHECK(confirm.out == "Recorded invitation for " + p1 +
-                           " at 2027-03-04T09:15:00Z from message 1 (confirmed as "
-                           "suggested), a positive callback.\n");
+                           " at 2027-03-04T09:15:00Z from message 1 (confirmed as suggested), a positive callback.\n"
+                           "Decline it by 2027-03-05T09:15:00Z (within 24 hours of receipt) with the letter in "
+                           "ethics/letters/decline-invitation.md, then run 'twinprobe decline " +
+                           p1 + "'.\n");
+  CHECK(confirm.err == "twinprobe: warning: " + p1 +
+                           " has no sending recorded, so the observation window cannot be "
+                           "checked \u2014 record it with 'twinprobe sent " +
+                           p1 + " --at TIME'\n");
   auto assign = RunCli({"--study", s.study, "--json", "review", "10", "--probe", p11, "--code", "info_request"});
   REQUIRE(assign.exit_code == 0);
   auto a = nlohmann::json::parse(assign.out);
   CHECK(a["decision"] == "changed");
   CHECK(a["probe"] == p11);
   CHECK(a["positive"] == true);
+  CHECK(a["decline_by"] == "2027-03-12T09:00:00Z");
   auto dismiss = RunCli({"--study", s.study, "review", "9", "--dismiss"});
   CHECK(dismiss.out == "Dismissed message 9; no response was recorded.\n");
 
@@ -222,4 +230,26 @@ TEST_CASE("review cli: an empty queue says so") {
   CHECK(r.out == "Nothing waits for review. ('twinprobe review --all' lists decided messages too.)\n");
   auto all = RunCli({"--study", s.study, "review", "--all"});
   CHECK(all.out == "No mail has been logged; run 'twinprobe mail' first.\n");
+}
+
+TEST_CASE("review cli: a response after the observation window is recorded with the flag 'late' and a warning") {
+  PlannedMailStudy s;
+  REQUIRE(RunCli({"--study", s.study, "mail"}).exit_code == 0);
+  auto store = s.Open();
+  const std::string probe = mailtest::ProbeFor(*store, "V0104", "kemi.saralon@postbox.example");
+  store.reset();
+  REQUIRE(RunCli({"--study", s.study, "sent", probe, "--at", "2027-02-01T09:00"}).exit_code == 0);
+  auto r = RunCli({"--study", s.study, "--json", "review", "12", "--confirm"});  // dated 2027-03-12
+  INFO(r.err);
+  REQUIRE(r.exit_code == 0);
+  auto j = nlohmann::json::parse(r.out);
+  CHECK(j["late"] == true);
+  CHECK(j["code"] == "rejection");
+  CHECK(j["decline_by"].is_null());
+  CHECK(r.err.rfind("twinprobe: warning: the response came ", 0) == 0);
+  CHECK(Contains(r.err, " days after " + probe +
+                            " was sent, outside the observation window of 28 days; it is stored "
+                            "with the flag 'late'\n"));
+  store = s.Open();
+  CHECK(store->QueryInt("SELECT count(*) FROM response WHERE flags LIKE '%late%'") == 1);
 }
