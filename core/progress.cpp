@@ -3,14 +3,23 @@
 #include <unistd.h>
 
 #include <cstdio>
+#include <cstdlib>
 #include <iostream>
 
 namespace twinprobe {
 namespace {
 
 constexpr int kBarWidth = 24;
-// A bar for work shorter than this would only flicker.
-constexpr auto kFirstDrawAfter = std::chrono::milliseconds(300);
+// A bar for work shorter than this would only flicker. TWINPROBE_PROGRESS_DELAY_MS
+// overrides it (0 = draw at once), so a test on a fast machine still sees a bar.
+std::chrono::milliseconds FirstDrawAfter() {
+  if (const char* v = std::getenv("TWINPROBE_PROGRESS_DELAY_MS"); v && *v) {
+    char* end = nullptr;
+    long ms = std::strtol(v, &end, 10);
+    if (*end == '\0' && ms >= 0) return std::chrono::milliseconds(ms);
+  }
+  return std::chrono::milliseconds(300);
+}
 constexpr auto kRedrawEvery = std::chrono::milliseconds(100);
 
 std::string Amount(int64_t n, Progress::Unit unit) {
@@ -30,7 +39,7 @@ Progress::Progress(std::string label, int64_t total, Unit unit)
 
 Progress::Progress(std::string label, int64_t total, Unit unit, std::ostream* out)
     : label_(std::move(label)), total_(total), unit_(unit), out_(out),
-      started_(std::chrono::steady_clock::now()), last_draw_(started_) {}
+      first_draw_after_(FirstDrawAfter()), started_(std::chrono::steady_clock::now()), last_draw_(started_) {}
 
 Progress::~Progress() { Finish(); }
 
@@ -49,7 +58,8 @@ void Progress::Update(int64_t done) {
   if (!out_ || finished_) return;
   done_ = done;
   auto now = std::chrono::steady_clock::now();
-  if (now - started_ < kFirstDrawAfter || now - last_draw_ < kRedrawEvery) return;
+  bool first = !drawn_;
+  if (now - started_ < first_draw_after_ || (!first && now - last_draw_ < kRedrawEvery)) return;
   last_draw_ = now;
   Draw();
 }

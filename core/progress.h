@@ -50,6 +50,7 @@ class Progress {
   bool drawn_ = false;
   bool finished_ = false;
   size_t last_width_ = 0;
+  std::chrono::milliseconds first_draw_after_;
   std::chrono::steady_clock::time_point started_, last_draw_;
 };
 
