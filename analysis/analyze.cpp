@@ -18,7 +18,8 @@ struct ProbeRow {
 
 }  // namespace
 
-Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan) {
+Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan,
+                               const Design* current_design) {
   AnalysisResult r;
   Stmt p = store.Prepare("SELECT id, kind, origin FROM current_plan");
   if (!p.Step())
@@ -116,6 +117,8 @@ Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const 
     r.mcnemar_exact_p = stats::McNemarExactP(r.paired);
     for (const auto& [key, table] : by_stratum) r.strata.push_back({key.first, key.second, table});
   }
+  r.balance = ComputeBalance(store);
+  r.preregistration = CheckPreregistration(store, current_design, plan);
   return r;
 }
 

@@ -11,6 +11,8 @@
 #include <string>
 #include <vector>
 
+#include "analysis/balance.h"
+#include "analysis/deviations.h"
 #include "core/design.h"
 #include "core/status.h"
 #include "core/store.h"
@@ -61,9 +63,15 @@ struct AnalysisResult {
   stats::PairedCounts paired;
   double mcnemar_exact_p = 1;
   std::vector<StratumTable> strata;  // the paired table within each stratum value
+
+  BalanceReport balance;                   // arm x template / send order / stratum / weekday (analysis/balance.h)
+  PreregistrationStatus preregistration;  // freeze and deviations from it (analysis/deviations.h)
 };
 
 // Requires a plan in the store. `plan` supplies alpha and the correction.
-Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan);
+// `current_design` (the study.toml in use, nullptr if none) is compared with
+// the frozen design to list deviations.
+Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan,
+                               const Design* current_design = nullptr);
 
 }  // namespace twinprobe

@@ -55,6 +55,7 @@ Result<StudySettings> LoadStudySettings(const Context& ctx, Store& store) {
     s.outcomes = d.value().outcomes;
     s.analysis = d.value().analysis;
     s.has_design = true;
+    s.design = d.value();
   } else {
     s.outcomes = StoredOutcomeScheme(store);
   }

@@ -18,4 +18,21 @@ Result<CheckedStudy> CheckStudy(const std::string& study_dir) {
   return s;
 }
 
+Result<StudyProof> ProveStudy(const std::string& study_dir, const CheckedStudy& s) {
+  StudyProof proof;
+  auto plan = AssignProbes(s.design, s.vacancies, s.pools);
+  if (!plan.ok()) return plan.error();
+  proof.plan = std::move(plan).value();
+  auto templates = LoadTemplates(study_dir, s.design);
+  if (!templates.ok()) return templates.error();
+  proof.templates = std::move(templates).value();
+  auto materials = PlannedMaterials(s.design, s.vacancies, s.pools, proof.plan);
+  if (!materials.ok()) return materials.error();
+  proof.materials = std::move(materials).value();
+  auto report = ProveOneDifference(s.design, proof.templates, proof.materials);
+  if (!report.ok()) return report.error();
+  proof.report = std::move(report).value();
+  return proof;
+}
+
 }  // namespace twinprobe

@@ -4,6 +4,8 @@
 
 #include <nlohmann/json.hpp>
 
+#include "report/design_report.h"
+
 namespace twinprobe {
 namespace {
 
@@ -50,9 +52,12 @@ std::string RenderJsonReport(const AnalysisResult& r) {
     p["mcnemar_exact_p"] = Num(r.mcnemar_exact_p);
     p["strata"] = nlohmann::json::array();
     for (const auto& s : r.strata)
-      p["strata"].push_back({{"name", s.name}, {"value", s.value}, {"table", Table(s.table)}});
+      p["strata"].push_back({{"name", s.name}, {"value", s.value}, {"table", Table(s.table)},
+                             {"exploratory", r.preregistration.IsExploratoryStratum(s.name)}});
     j["paired"] = p;
   }
+  j["balance"] = BalanceJson(r.balance);
+  j["preregistration"] = PreregistrationJson(r.preregistration);
   return j.dump(2) + "\n";
 }
 

@@ -4,6 +4,8 @@
 #include <cstdio>
 #include <sstream>
 
+#include "report/design_report.h"
+
 namespace twinprobe {
 
 std::string FormatP(double p) {
@@ -63,6 +65,9 @@ std::string RenderTextReport(const AnalysisResult& r) {
     else
       o << "At alpha = " << r.alpha << " the test does not show a difference; this is not evidence that there is none.\n";
   }
+  // Design integrity: balance of the plan and the pre-registration.
+  if (std::string balance = RenderBalanceText(r.balance); !balance.empty()) o << "\n" << balance;
+  o << "\n" << RenderPreregistrationText(r.preregistration);
   return o.str();
 }
 

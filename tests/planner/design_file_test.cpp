@@ -62,8 +62,8 @@ TEST_CASE("design: an arm naming an unknown factor is refused") {
 }
 
 TEST_CASE("design: a level without a name pool is refused") {
-  std::string text = Replace(DemoDesign(), "level = \"coastal\"\nfile = \"names/coastal.csv\"",
-                             "level = \"inland\"\nfile = \"names/coastal.csv\"");
+  std::string text = Replace(DemoDesign(), "[[profiles.pool]]\nfactor = \"origin\"\nlevel = \"coastal\"\nfile = \"names/coastal.csv\"",
+                             "");
   auto d = ParseDesign(text, "study.toml", "");
   REQUIRE_FALSE(d.ok());
   CHECK(d.error().what == "level 'coastal' of factor 'origin' has no name pool");
