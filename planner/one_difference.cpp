@@ -139,18 +139,16 @@ Result<OneDifferenceReport> ProveOneDifference(const Design& d, const std::map<s
   } else {
     // Per arm, the values each uncontrolled profile field takes, with a probe showing each.
     std::map<std::string, std::map<std::string, std::map<std::optional<std::string>, std::string>>> by_field;
-    std::vector<std::string> arms;
     for (const auto& p : probes) {
       ++report.sets_checked;
       ++report.renderings;
-      if (std::find(arms.begin(), arms.end(), p.arm_label) == arms.end()) arms.push_back(p.arm_label);
-      for (const auto& [path, fields] : uncontrolled) {
-        (void)path;
-        for (const auto& [field, seg] : fields) {
-          if (p.vacancy.count(field) && !p.profile.count(field)) continue;  // a vacancy field is not arm-dependent
-          const std::string* v = p.Lookup(field);
-          by_field[field][p.arm_label].emplace(v ? std::optional<std::string>(*v) : std::nullopt, p.probe_ref);
-        }
+      // Only what this probe's own template shows can differ in its materials.
+      auto it = uncontrolled.find(p.template_path);
+      if (it == uncontrolled.end()) continue;
+      for (const auto& [field, seg] : it->second) {
+        if (p.vacancy.count(field) && !p.profile.count(field)) continue;  // a vacancy field is not arm-dependent
+        const std::string* v = p.Lookup(field);
+        by_field[field][p.arm_label].emplace(v ? std::optional<std::string>(*v) : std::nullopt, p.probe_ref);
       }
     }
     for (const auto& [path, fields] : uncontrolled)
