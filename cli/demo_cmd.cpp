@@ -125,7 +125,7 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
   if (!planned.ok()) return ReportError(planned.error());
   DemoModel model;
   int64_t responses = SimulateFieldwork(*store.value(), s.design.outcomes, model);
-  auto result = Analyze(*store.value(), s.design.outcomes, s.design.analysis);
+  auto result = Analyze(*store.value(), s.design.outcomes, s.design.analysis, &s.design);
   if (!result.ok()) return ReportError(result.error());
 
   fs::create_directories(fs::path(out_dir) / "reports");
