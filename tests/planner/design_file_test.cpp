@@ -162,11 +162,11 @@ TEST_CASE("design: contact patterns accept only known placeholders") {
 }
 
 TEST_CASE("design: sending hours, sets per day and a gap range that cannot be kept") {
-  auto hours = ParseDesign(Replace(DemoDesign(), "gap_hours = [24, 72]", "gap_hours = [24, 72]\nhours = [17, 9]"),
-                           "study.toml", "");
+  auto hours = ParseDesign(Replace(DemoDesign(), "hours = [9, 17]", "hours = [17, 9]"), "study.toml", "");
   REQUIRE_FALSE(hours.ok());
   CHECK(hours.error().what == "[schedule].hours must satisfy 0 <= open < close <= 24, got [17, 9]");
-  auto ok = ParseDesign(Replace(DemoDesign(), "gap_hours = [24, 72]", "gap_hours = [24, 72]\nhours = [8, 18]\nsets_per_day = 7"),
+  auto ok = ParseDesign(Replace(Replace(DemoDesign(), "hours = [9, 17]", "hours = [8, 18]"), "sets_per_day = 20",
+                                "sets_per_day = 7"),
                         "study.toml", "");
   REQUIRE(ok.ok());
   CHECK(ok.value().schedule.hour_open == 8);
