@@ -27,6 +27,11 @@ struct SetDesign {
   int order_row = 0;  // paired/sets: row of the send-order square; unpaired: template
 };
 
+// FILE:LINE of a vacancy for messages.
+std::string Where(const Design& d, const Vacancy& v) {
+  return (v.file.empty() ? d.vacancies_file : v.file) + ":" + std::to_string(v.line);
+}
+
 }  // namespace
 
 std::vector<std::vector<int>> SendOrderSquare(int k) {
@@ -66,18 +71,35 @@ Result<Plan> AssignProbes(const Design& d, const std::vector<Vacancy>& vacancies
   std::vector<std::vector<int>> arm_profiles(n_arms);
   for (size_t i = 0; i < plan.profiles.size(); ++i) arm_profiles[plan.profiles[i].arm].push_back(static_cast<int>(i));
 
-  // Employers by normalised name (the same rule as their pseudonymous key).
-  std::vector<std::string> employer(vacancies.size());
-  std::unordered_map<std::string, int> per_employer;
-  for (size_t v = 0; v < vacancies.size(); ++v) {
-    employer[v] = NormaliseName(vacancies[v].employer);
-    int& count = per_employer[employer[v]];
-    count += per_set;
-    if (d.ethics.cap_per_employer > 0 && count > d.ethics.cap_per_employer)
-      return BadInput(d.vacancies_file + ":" + std::to_string(vacancies[v].line),
-                      "employer '" + vacancies[v].employer + "' would receive " + std::to_string(count) +
-                          " probes, above the cap of " + std::to_string(d.ethics.cap_per_employer),
-                      "drop a vacancy of this employer or raise [ethics].cap_per_employer with your board's consent");
+  // Employers by normalised name (the same rule as their pseudonymous key),
+  // numbered once so the loops below index vectors instead of hashing names.
+  std::vector<int> employer(vacancies.size());
+  std::vector<int> probes_at;  // per employer
+  {
+    std::unordered_map<std::string, int> ids;
+    ids.reserve(vacancies.size());
+    for (size_t v = 0; v < vacancies.size(); ++v) {
+      auto [it, fresh] = ids.emplace(NormaliseName(vacancies[v].employer), static_cast<int>(ids.size()));
+      if (fresh) probes_at.push_back(0);
+      employer[v] = it->second;
+      int& count = probes_at[it->second];
+      count += per_set;
+      if (d.ethics.cap_per_employer > 0 && count > d.ethics.cap_per_employer)
+        return BadInput(Where(d, vacancies[v]),
+                        "employer '" + vacancies[v].employer + "' would receive " + std::to_string(count) +
+                            " probes, above the cap of " + std::to_string(d.ethics.cap_per_employer),
+                        "drop a vacancy of this employer or raise [ethics].cap_per_employer with your board's consent");
+    }
+  }
+
+  // A name is one identity whichever arm uses it: number the distinct names.
+  std::vector<int> name_of_profile(plan.profiles.size());
+  {
+    std::map<std::pair<std::string, std::string>, int> ids;
+    for (size_t i = 0; i < plan.profiles.size(); ++i)
+      name_of_profile[i] =
+          ids.emplace(std::make_pair(plan.profiles[i].given_name, plan.profiles[i].family_name), static_cast<int>(ids.size()))
+              .first->second;
   }
 
   // Stratum blocks, in sorted key order; members in file order.
@@ -105,7 +127,7 @@ Result<Plan> AssignProbes(const Design& d, const std::vector<Vacancy>& vacancies
     rng.Shuffle(arm_profiles[a]);
     next_name[a] = 0;
   }
-  std::unordered_map<std::string, std::vector<int>> names_at_employer;  // employer -> profiles used
+  std::vector<std::vector<int>> names_at_employer(probes_at.size());  // employer -> names used there
 
   SendCalendar calendar(d.schedule);
   int64_t start = d.schedule.start.empty() ? NowEpoch() : *ParseIsoTime(d.schedule.start);
@@ -129,21 +151,18 @@ Result<Plan> AssignProbes(const Design& d, const std::vector<Vacancy>& vacancies
       const auto& candidates = arm_profiles[a];
       for (size_t tries = 0; tries < candidates.size(); ++tries) {
         int cand = candidates[next_name[a]++ % candidates.size()];
-        bool clash = std::any_of(used.begin(), used.end(), [&](int u) {
-          return plan.profiles[u].given_name == plan.profiles[cand].given_name &&
-                 plan.profiles[u].family_name == plan.profiles[cand].family_name;
-        });
+        bool clash = std::find(used.begin(), used.end(), name_of_profile[cand]) != used.end();
         if (!clash) {
           profile = cand;
           break;
         }
       }
       if (profile < 0)
-        return BadInput(d.vacancies_file + ":" + std::to_string(vacancies[v].line),
+        return BadInput(Where(d, vacancies[v]),
                         "the name pool of arm " + d.arms[a].label + " is too small to avoid reusing a name at '" +
                             vacancies[v].employer + "'",
                         "add names to the pool");
-      used.push_back(profile);
+      used.push_back(name_of_profile[profile]);
       if (k > 0) {
         auto next = calendar.DrawAfterGap(minute, d.schedule.gap_min_hours, d.schedule.gap_max_hours, rng);
         if (!next) return Internal("no sending time lies in the gap range; the design check should have refused it");

@@ -26,7 +26,7 @@ std::map<std::string, std::string> VacancyFields(const Vacancy& v) {
 Status CheckNoClash(const Design& d, const std::vector<Vacancy>& vacancies, const std::string& field,
                     const std::string& source) {
   if (!vacancies.empty() && vacancies.front().fields.count(field))
-    return BadInput(d.vacancies_file + ":1",
+    return BadInput((vacancies.front().file.empty() ? d.vacancies_file : vacancies.front().file) + ":1",
                     "the column '" + field + "' has the name of a profile field (from " + source + ")",
                     "rename the column or the profile field");
   return {};
@@ -102,7 +102,8 @@ Result<std::vector<ProbeMaterial>> StoredMaterials(Store& store, const Design& d
     m.source = "study.db";
     auto it = by_ref.find(m.vacancy_ref);
     if (it == by_ref.end())
-      return BadInput(d.vacancies_file, "vacancy '" + m.vacancy_ref + "' of the stored plan is not in the file any more",
+      return BadInput(vacancies.empty() || vacancies.front().file.empty() ? d.vacancies_file : vacancies.front().file,
+                      "vacancy '" + m.vacancy_ref + "' of the stored plan is not in the file any more",
                       "restore its row; the materials take the vacancy's fields from this file");
     auto& vf = vacancy_fields[m.vacancy_ref];
     if (vf.empty()) vf = VacancyFields(*it->second);

@@ -31,6 +31,7 @@ Result<std::vector<Vacancy>> ReadVacancies(const std::string& study_dir, const D
     std::string where = path + ":" + std::to_string(row.line);
     Vacancy v;
     v.line = row.line;
+    v.file = path;
     v.ref = row.fields[c_ref];
     v.employer = row.fields[c_emp];
     if (c_contact >= 0) v.contact = row.fields[c_contact];

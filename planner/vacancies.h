@@ -21,6 +21,7 @@ struct Vacancy {
   // fields ({{vacancy}}, {{employer}}, {{occupation}} …).
   std::map<std::string, std::string> fields;
   int64_t line = 0;  // line in the file, for messages
+  std::string file;  // the file as opened (for messages); "" for vacancies made in memory
 };
 
 // Reads and validates the design's vacancies file under `study_dir`.
