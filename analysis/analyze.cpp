@@ -117,6 +117,28 @@ Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const 
     r.mcnemar_exact_p = stats::McNemarExactP(r.paired);
     for (const auto& [key, table] : by_stratum) r.strata.push_back({key.first, key.second, table});
   }
+  // Effects of every arm against the reference, on the complete sets.
+  EffectsInput effects_in;
+  effects_in.kind = r.kind;
+  effects_in.confidence = r.confidence;
+  effects_in.correction = r.correction;
+  std::map<int64_t, int> arm_index;
+  for (const auto& [id, ar] : arms) {
+    arm_index[id] = static_cast<int>(effects_in.arm_labels.size());
+    effects_in.arm_labels.push_back(ar.label);
+  }
+  for (const auto& [vacancy, probes] : sets) {
+    SetOutcome so;
+    bool complete = true;
+    for (const auto& pr : probes) {
+      complete = complete && (pr.sent || pr.has_response);
+      so.probes.emplace_back(arm_index[pr.arm_id], pr.positive);
+    }
+    if (!complete) continue;
+    so.strata = strata_of[vacancy];
+    effects_in.sets.push_back(std::move(so));
+  }
+  r.effects = ComputeEffects(effects_in);
   r.balance = ComputeBalance(store);
   r.preregistration = CheckPreregistration(store, current_design, plan);
   return r;

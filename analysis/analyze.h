@@ -13,6 +13,7 @@
 
 #include "analysis/balance.h"
 #include "analysis/deviations.h"
+#include "analysis/effects.h"
 #include "core/design.h"
 #include "core/status.h"
 #include "core/store.h"
@@ -64,6 +65,9 @@ struct AnalysisResult {
   double mcnemar_exact_p = 1;
   std::vector<StratumTable> strata;  // the paired table within each stratum value
 
+  // Every comparison with the reference arm, per-stratum tests corrected for
+  // multiplicity, Mantel–Haenszel and Breslow–Day (analysis/effects.h).
+  Effects effects;
   BalanceReport balance;                   // arm x template / send order / stratum / weekday (analysis/balance.h)
   PreregistrationStatus preregistration;  // freeze and deviations from it (analysis/deviations.h)
 };

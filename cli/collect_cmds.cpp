@@ -5,6 +5,8 @@
 
 #include "cli/command.h"
 #include "collector/responses.h"
+#include "core/clock.h"
+#include "core/ethics_gate.h"
 
 namespace twinprobe {
 namespace {
@@ -25,8 +27,15 @@ int RunRecord(Context& ctx, const RecordOptions& o) {
   if (v.late)
     Warn("the response arrived after the observation window of " + std::to_string(settings.value().outcomes.window_days) +
          " days; it is stored with the flag 'late'");
+  // An invitation holds a real vacancy for a fictitious applicant: say when
+  // and how it must be declined, every time one is recorded.
+  const EthicsBlock& ethics = settings.value().ethics;
+  std::string decline_by;
+  if (v.positive && ethics.decline_within_hours > 0)
+    decline_by = FormatIsoTime(DeclineDeadline(ethics, ParseIsoTime(v.received_at).value_or(0)));
   if (ctx.json) {
     std::cout << nlohmann::json{{"response_id", v.response_id}, {"probe", v.probe_ref},     {"code", v.code},
+                                {"decline_by", decline_by.empty() ? nlohmann::json(nullptr) : nlohmann::json(decline_by)},
                                 {"received_at", v.received_at}, {"positive", v.positive},   {"late", v.late},
                                 {"supersedes", v.superseded ? nlohmann::json(v.superseded) : nlohmann::json(nullptr)}}
                      .dump(2)
@@ -36,6 +45,11 @@ int RunRecord(Context& ctx, const RecordOptions& o) {
               << (v.positive ? " (positive callback)" : "");
     if (v.superseded) std::cout << "; it supersedes response " << v.superseded << ", which is kept";
     std::cout << ".\n";
+    if (!decline_by.empty())
+      std::cout << "Decline it by " << decline_by << " (within " << ethics.decline_within_hours
+                << " hours of receipt) with the letter in ethics/letters/decline-invitation.md, then run 'twinprobe "
+                   "decline "
+                << v.probe_ref << "'.\n";
   }
   return 0;
 }

@@ -54,10 +54,13 @@ Result<StudySettings> LoadStudySettings(const Context& ctx, Store& store) {
     if (!d.ok()) return d.error();
     s.outcomes = d.value().outcomes;
     s.analysis = d.value().analysis;
+    s.ethics = d.value().ethics;
     s.has_design = true;
     s.design = d.value();
   } else {
     s.outcomes = StoredOutcomeScheme(store);
+    if (auto r = MetaValue(store, "ethics.retention_days")) s.ethics.retention_days = std::stoi(*r);
+    if (auto h = MetaValue(store, "ethics.decline_within_hours")) s.ethics.decline_within_hours = std::stoi(*h);
   }
   return s;
 }

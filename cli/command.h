@@ -49,6 +49,7 @@ Result<std::unique_ptr<Store>> OpenStudyStore(const Context& ctx, bool create);
 struct StudySettings {
   OutcomeScheme outcomes;
   AnalysisPlan analysis;
+  EthicsBlock ethics;
   bool has_design = false;
   std::optional<Design> design;  // the parsed study.toml, when there is one
 };

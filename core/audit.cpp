@@ -37,16 +37,18 @@ void SerializeRow(const Stmt& row, int first_col, Sha256& h) {
   for (int c = first_col; c < row.ColumnCount(); ++c) {
     switch (row.ColumnType(c)) {
       case SQLITE_NULL: out += "N"; break;
-      case SQLITE_INTEGER: out += "I" + std::to_string(row.Int(c)) + ";"; break;
+      // Appends piece by piece: g++ 12 at -O2 reports a false -Wrestrict on
+      // chained temporaries here.
+      case SQLITE_INTEGER: out.append("I").append(std::to_string(row.Int(c))).append(";"); break;
       case SQLITE_FLOAT: {
         char buf[40];
         std::snprintf(buf, sizeof buf, "%.17g", row.Double(c));
-        out += std::string("F") + buf + ";";
+        out.append("F").append(buf).append(";");
         break;
       }
       default: {
         std::string t = row.Text(c);
-        out += "T" + std::to_string(t.size()) + ":" + t;
+        out.append("T").append(std::to_string(t.size())).append(":").append(t);
       }
     }
   }

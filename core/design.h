@@ -80,27 +80,55 @@ struct EthicsBlock {
   bool present = false;
 };
 
+// One extraction rule of a [[source]]: a field of each list item, written
+// "SELECTOR" (the text of the first match) or "SELECTOR @ATTR" (an
+// attribute); an empty selector means the item itself. The selector syntax
+// is in docs/fetch.md; collector/extract.h compiles and checks it.
+struct FieldRule {
+  std::string name;
+  std::string rule;
+  bool optional = false;  // a missing optional field is left out, not a failure
+  SourcePos pos;
+};
+
+// A permitted web source for a listing audit (DESIGN.md: [[source]]; read by
+// planner/source_section.h, fetched by collector/fetch_run.h).
 struct Source {
   std::string name;
-  std::vector<std::string> allow_hosts;
+  std::vector<std::string> allow_hosts;  // "host" or "host:port", lower case
   std::string url;  // pattern with {query} {location} {page}
   std::vector<std::string> queries;
   std::vector<std::string> locations;
-  int pages = 1;
-  double min_interval_seconds = 5.0;
-  std::string user_agent;
-  int page_limit = 100;
+  int pages = 1;                       // pages 1..pages of every query x location
+  int page_limit = 100;                // list pages fetched per run, at most
+  double min_interval_seconds = 5.0;   // between two requests to one host
+  std::string user_agent;              // product/version, e.g. "VeldmarkListingAudit/1.0"
+  std::string contact;                 // e-mail or https URL, sent in the User-Agent
+  double connect_timeout_seconds = 10;
+  double timeout_seconds = 30;         // whole exchange
+  int64_t max_body_bytes = 5 << 20;
+  int retries = 3;                     // extra attempts after a 429 or 503
+  double backoff_seconds = 2;          // first wait; doubles per attempt
+  double retry_after_cap_seconds = 120;  // a longer Retry-After gives up instead of waiting
+  int max_redirects = 5;
+  // Extraction rules ([source.extract]).
+  std::string list_selector;  // optional: the list element; items are searched inside it
   std::string item_selector;
-  std::map<std::string, std::string> fields;  // field name -> "selector@attr" or "selector" (text)
-  std::string item_key;                       // field that identifies an item
-  SourcePos pos;
+  std::string item_key;       // name of the field that identifies an item
+  std::vector<FieldRule> fields;
+  SourcePos pos, url_pos, list_pos, item_pos;
+
+  // "user_agent (+contact)", the header sent with every request.
+  std::string UserAgentHeader() const { return user_agent + " (+" + contact + ")"; }
+  // The robots.txt product token: user_agent up to the first '/' or space.
+  std::string ProductToken() const { return user_agent.substr(0, user_agent.find_first_of("/ ")); }
 };
 
 struct Design {
   std::string study_id;
   std::string title;
   uint64_t seed = 1;
-  std::string kind = "paired";  // paired | sets | unpaired
+  std::string kind = "paired";  // paired | sets | unpaired | listing (a listing audit: no probes)
   std::vector<Factor> factors;
   std::vector<Arm> arms;  // arms[reference_arm] is the reference
   int reference_arm = 0;

@@ -33,7 +33,9 @@ int64_t StorePlanHeader(Store& store, int64_t seq, const std::string& origin, co
            {"outcomes.codes", join(design.outcomes.codes)},
            {"outcomes.positive", join(design.outcomes.positive)},
            {"outcomes.window_days", std::to_string(design.outcomes.window_days)},
-           {"strata", join(design.strata)}})
+           {"strata", join(design.strata)},
+           {"ethics.retention_days", std::to_string(design.ethics.retention_days)},
+           {"ethics.decline_within_hours", std::to_string(design.ethics.decline_within_hours)}})
     ins_meta.Bind(1, k).Bind(2, v).Bind(3, seq).Run();
 
   std::map<std::pair<std::string, std::string>, int64_t> level_ids;

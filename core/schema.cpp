@@ -246,12 +246,40 @@ CREATE VIEW current_response AS
   WHERE NOT EXISTS (SELECT 1 FROM response s WHERE s.supersedes = r.id);
 )SQL";
 
+// Version 2: declines of invitations (ethics safeguard) as an append-only event.
+constexpr const char* kMigration2 = R"SQL(
+CREATE TABLE decline(                     -- the invitation/offer to a probe was declined
+  id INTEGER PRIMARY KEY,
+  probe_id INTEGER NOT NULL REFERENCES probe(id),
+  declined_at TEXT NOT NULL,
+  channel TEXT,
+  entered_by TEXT NOT NULL,
+  entered_at TEXT NOT NULL,
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX decline_probe ON decline(probe_id);
+CREATE INDEX decline_seq ON decline(audit_seq);
+)SQL";
+
+// fetch --replay re-extracts a listing from its stored snapshot with the
+// current rules. The result is a new listing row; listing_replay links it to
+// the row it replaces (a new table, so rows sealed earlier keep their digest)
+// and current_listing shows only rows not replaced.
+constexpr const char* kMigration3 = R"SQL(
+CREATE TABLE listing_replay(
+  listing_id INTEGER PRIMARY KEY REFERENCES listing(id),      -- the new row
+  replaces INTEGER NOT NULL UNIQUE REFERENCES listing(id),   -- the row it replaces
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX listing_replay_seq ON listing_replay(audit_seq);
+CREATE VIEW current_listing AS
+  SELECT l.* FROM listing l WHERE NOT EXISTS (SELECT 1 FROM listing_replay r WHERE r.replaces = l.id);
+)SQL";
+
 struct Migration {
   int version;
   const char* sql;
 };
 
-const Migration kMigrations[] = {{1, kMigration1}};
+const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigration3}};
 
 }  // namespace
 
@@ -273,6 +301,8 @@ const std::vector<SealedTable>& SealedTables() {
       {"profile", {}},       {"probe", {}},          {"sending", {}},      {"response", {"note"}},
       {"import_file", {}},   {"listing", {}},        {"listing_item", {}}, {"item_label", {}},
       {"fetch_log", {}},     {"mail_message", {"excerpt"}}, {"review_decision", {}},
+      {"decline", {}},
+      {"listing_replay", {}},
   };
   return tables;
 }

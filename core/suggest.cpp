@@ -5,18 +5,19 @@
 namespace twinprobe {
 
 int EditDistance(const std::string& a, const std::string& b) {
-  std::vector<int> row(b.size() + 1);
-  for (size_t j = 0; j <= b.size(); ++j) row[j] = static_cast<int>(j);
-  for (size_t i = 1; i <= a.size(); ++i) {
-    int diag = row[0];
-    row[0] = static_cast<int>(i);
-    for (size_t j = 1; j <= b.size(); ++j) {
-      int up = row[j];
-      row[j] = std::min({row[j] + 1, row[j - 1] + 1, diag + (a[i - 1] == b[j - 1] ? 0 : 1)});
-      diag = up;
+  // Optimal string alignment: Levenshtein plus adjacent transpositions, the
+  // commonest typing slip ("sede" for "seed" is one edit, not two).
+  const size_t n = a.size(), m = b.size();
+  std::vector<std::vector<int>> d(n + 1, std::vector<int>(m + 1));
+  for (size_t i = 0; i <= n; ++i) d[i][0] = static_cast<int>(i);
+  for (size_t j = 0; j <= m; ++j) d[0][j] = static_cast<int>(j);
+  for (size_t i = 1; i <= n; ++i)
+    for (size_t j = 1; j <= m; ++j) {
+      int cost = a[i - 1] == b[j - 1] ? 0 : 1;
+      d[i][j] = std::min({d[i - 1][j] + 1, d[i][j - 1] + 1, d[i - 1][j - 1] + cost});
+      if (i > 1 && j > 1 && a[i - 1] == b[j - 2] && a[i - 2] == b[j - 1]) d[i][j] = std::min(d[i][j], d[i - 2][j - 2] + 1);
     }
-  }
-  return row[b.size()];
+  return d[n][m];
 }
 
 std::string NearestName(const std::string& word, const std::vector<std::string>& candidates) {

@@ -5,7 +5,8 @@
 
 namespace twinprobe {
 
-// Levenshtein distance between two byte strings.
+// Edit distance between two byte strings (insertions, deletions,
+// substitutions and adjacent transpositions each cost 1).
 int EditDistance(const std::string& a, const std::string& b);
 
 // The candidate closest to `word` when it is close enough to be a likely

@@ -13,6 +13,7 @@
 #include "planner/name_pools.h"
 #include "planner/profiles.h"
 #include "planner/send_calendar.h"
+#include "planner/source_section.h"
 
 namespace twinprobe {
 namespace fs = std::filesystem;
@@ -195,10 +196,10 @@ void DesignReader::ReadStudy(Design& d) {
   d.title = String(*s, "[study]", "title", false, d.study_id);
   d.seed = static_cast<uint64_t>(Integer(*s, "[study]", "seed", 1, 0, INT64_MAX));
   d.kind = String(*s, "[study]", "kind", false, "paired");
-  if (d.kind != "paired" && d.kind != "sets" && d.kind != "unpaired")
-    Fail(s->get("kind"), "[study].kind must be paired, sets or unpaired, got '" + d.kind + "'" +
-                             DidYouMean(d.kind, {"paired", "sets", "unpaired"}),
-         "pick one of the three");
+  if (d.kind != "paired" && d.kind != "sets" && d.kind != "unpaired" && d.kind != "listing")
+    Fail(s->get("kind"), "[study].kind must be paired, sets, unpaired or listing, got '" + d.kind + "'" +
+                             DidYouMean(d.kind, {"paired", "sets", "unpaired", "listing"}),
+         "pick one of the four");
 }
 
 void DesignReader::ReadFactors(Design& d) {
@@ -580,7 +581,8 @@ void DesignReader::ReadSchedule(Design& d) {
     if (d.schedule.weekdays.empty() && !error_)
       Fail(s->get("weekdays"), "[schedule].weekdays is empty", "list at least one sending day");
   }
-  if (!error_ && d.kind != "unpaired") {
+  // Gaps matter only between the probes of a set.
+  if (!error_ && (d.kind == "paired" || d.kind == "sets")) {
     Status keepable = CheckGapsKeepable(d.schedule, Where(s->get("gap_hours") ? s->get("gap_hours") : s));
     if (!keepable.ok()) error_ = keepable.error();
   }
@@ -650,13 +652,18 @@ Result<Design> DesignReader::Read() {
              "analysis", "ethics", "source", "mail"});
   Design d;
   ReadStudy(d);
-  if (!error_) ReadFactors(d);
-  if (!error_) ReadArms(d);
-  if (!error_) ReadProfiles(d);
-  if (!error_) ReadTemplates(d);
+  // A listing audit (kind = "listing") sends no probes: its factors, profiles
+  // and templates are optional (planner/source_section.h).
+  auto wanted = [&](const char* section) { return d.kind != "listing" || root_.get(section); };
+  if (!error_ && wanted("factor")) ReadFactors(d);
+  if (!error_ && wanted("factor")) ReadArms(d);
+  if (!error_ && wanted("profiles")) ReadProfiles(d);
+  if (!error_ && wanted("templates")) ReadTemplates(d);
   if (!error_) ReadSchedule(d);
   if (!error_) ReadOutcomes(d);
   if (!error_) ReadRest(d);
+  if (!error_)
+    if (Status s = ReadSources(root_, label_, d); !s.ok()) error_ = s.error();
   if (error_) return *error_;
   // Canonical form: the parsed tables as JSON with keys in sorted order
   // (toml++ keeps tables ordered), so comments and layout do not change it.

@@ -1,5 +1,6 @@
 #include "planner/study_check.h"
 
+#include "core/ethics_gate.h"
 #include "planner/design_file.h"
 
 namespace twinprobe {
@@ -9,6 +10,7 @@ Result<CheckedStudy> CheckStudy(const std::string& study_dir) {
   auto design = LoadDesign(study_dir);
   if (!design.ok()) return design.error();
   s.design = std::move(design).value();
+  if (Status gate = CheckEthicsGate(s.design, DesignPath(study_dir)); !gate.ok()) return gate.error();
   auto vacancies = ReadVacancies(study_dir, s.design);
   if (!vacancies.ok()) return vacancies.error();
   s.vacancies = std::move(vacancies).value();

@@ -5,6 +5,7 @@
 #include <nlohmann/json.hpp>
 
 #include "report/design_report.h"
+#include "report/effects_report.h"
 
 namespace twinprobe {
 namespace {
@@ -56,6 +57,7 @@ std::string RenderJsonReport(const AnalysisResult& r) {
                              {"exploratory", r.preregistration.IsExploratoryStratum(s.name)}});
     j["paired"] = p;
   }
+  j["effects"] = EffectsJson(r);
   j["balance"] = BalanceJson(r.balance);
   j["preregistration"] = PreregistrationJson(r.preregistration);
   return j.dump(2) + "\n";

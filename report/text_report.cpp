@@ -5,6 +5,7 @@
 #include <sstream>
 
 #include "report/design_report.h"
+#include "report/effects_report.h"
 
 namespace twinprobe {
 
@@ -65,6 +66,7 @@ std::string RenderTextReport(const AnalysisResult& r) {
     else
       o << "At alpha = " << r.alpha << " the test does not show a difference; this is not evidence that there is none.\n";
   }
+  o << RenderEffectsText(r);
   // Design integrity: balance of the plan and the pre-registration.
   if (std::string balance = RenderBalanceText(r.balance); !balance.empty()) o << "\n" << balance;
   o << "\n" << RenderPreregistrationText(r.preregistration);

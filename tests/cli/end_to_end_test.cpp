@@ -72,8 +72,8 @@ TEST_CASE("cli: a bad study.toml gives one error line with its position and exit
   testing::WriteFile(s.study + "/study.toml", toml);
   auto r = RunCli({"--study", s.study, "check"});
   CHECK(r.exit_code == 1);
-  CHECK(r.err == "twinprobe: " + s.study + "/study.toml:10:8: [study].kind must be paired, sets or unpaired, got 'pared' "
-                 "(did you mean 'paired'?) \u2014 pick one of the three\n");
+  CHECK(r.err == "twinprobe: " + s.study + "/study.toml:10:8: [study].kind must be paired, sets, unpaired or listing, got "
+                 "'pared' (did you mean 'paired'?) \u2014 pick one of the four\n");
 }
 
 TEST_CASE("cli: an unknown probe gives one error line and exit 1, and the store is unchanged") {

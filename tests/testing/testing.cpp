@@ -1,5 +1,7 @@
 #include "testing/testing.h"
 
+#include <fcntl.h>
+#include <signal.h>
 #include <unistd.h>
 #include <sys/wait.h>
 
@@ -63,6 +65,34 @@ CliRun RunCli(const std::vector<std::string>& args, const std::vector<std::strin
   r.out = ReadFile(io / "out");
   r.err = ReadFile(io / "err");
   return r;
+}
+
+int SpawnCli(const std::vector<std::string>& args, const std::vector<std::string>& env) {
+  std::vector<std::string> argv_s = {BinaryPath()};
+  argv_s.insert(argv_s.end(), args.begin(), args.end());
+  pid_t pid = fork();
+  if (pid < 0) throw std::runtime_error("fork failed");
+  if (pid == 0) {
+    int devnull = open("/dev/null", O_RDWR);
+    dup2(devnull, 0);
+    dup2(devnull, 1);
+    dup2(devnull, 2);
+    for (const auto& e : env) putenv(const_cast<char*>(e.c_str()));
+    std::vector<char*> argv;
+    for (auto& a : argv_s) argv.push_back(a.data());
+    argv.push_back(nullptr);
+    execv(argv[0], argv.data());
+    _exit(127);
+  }
+  return pid;
+}
+
+int WaitCli(int pid) {
+  int status = 0;
+  waitpid(pid, &status, 0);
+  if (WIFEXITED(status)) return WEXITSTATUS(status);
+  if (WIFSIGNALED(status)) return -WTERMSIG(status);
+  return -1;
 }
 
 }  // namespace twinprobe::testing

@@ -30,6 +30,12 @@ struct CliRun {
 // ("NAME=value") prepended. Standard input is /dev/null.
 CliRun RunCli(const std::vector<std::string>& args, const std::vector<std::string>& env = {});
 
+// Starts `twinprobe ARGS...` in the background (stdout/stderr to /dev/null,
+// `env` entries "NAME=value" added to the environment); returns its pid.
+int SpawnCli(const std::vector<std::string>& args, const std::vector<std::string>& env = {});
+// Waits for a spawned process; returns its exit code, or -signal if killed.
+int WaitCli(int pid);
+
 std::string ReadFile(const std::string& path);
 void WriteFile(const std::string& path, const std::string& content);
 

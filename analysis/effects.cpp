@@ -1,0 +1,100 @@
+#include "analysis/effects.h"
+
+#include <map>
+
+namespace twinprobe {
+namespace {
+
+ArmComparison Compare(const std::vector<const SetOutcome*>& sets, int other, const EffectsInput& in) {
+  ArmComparison c;
+  c.other_label = in.arm_labels[static_cast<size_t>(other)];
+  c.paired = in.kind != "unpaired";
+  if (c.paired) {
+    for (const SetOutcome* s : sets) {
+      // The first probe of each of the two arms in the set (a set has one per arm).
+      int ref = -1, oth = -1;
+      for (const auto& [arm, positive] : s->probes) {
+        if (arm == 0 && ref < 0) ref = positive;
+        if (arm == other && oth < 0) oth = positive;
+      }
+      if (ref < 0 || oth < 0) continue;
+      (ref ? (oth ? c.pairs.a : c.pairs.b) : (oth ? c.pairs.c : c.pairs.d)) += 1;
+    }
+    c.mcnemar = stats::McNemar(c.pairs);
+    c.conditional_or = stats::ConditionalOddsRatio(c.pairs, in.confidence);
+    c.net = stats::NetDiscriminationRates(c.pairs, in.confidence);
+    c.p = c.mcnemar.exact;
+  } else {
+    for (const SetOutcome* s : sets)
+      for (const auto& [arm, positive] : s->probes) {
+        if (arm == 0) (positive ? c.table.a : c.table.b) += 1;
+        if (arm == other) (positive ? c.table.c : c.table.d) += 1;
+      }
+    c.fisher = stats::FisherTest(c.table, stats::Alternative::kTwoSided, in.confidence);
+    c.woolf = stats::WoolfOddsRatio(c.table, in.confidence);
+    if (c.table.a + c.table.b > 0) c.reference_wilson = stats::Wilson(c.table.a, c.table.a + c.table.b, in.confidence);
+    if (c.table.c + c.table.d > 0) c.other_wilson = stats::Wilson(c.table.c, c.table.c + c.table.d, in.confidence);
+    c.p = c.fisher.p;
+  }
+  c.p_adjusted = c.p.p;
+  return c;
+}
+
+// The arm x outcome table of a comparison (pairing ignored; see effects.h).
+stats::Table2x2 ArmByOutcome(const ArmComparison& c) {
+  if (!c.paired) return c.table;
+  const auto& t = c.pairs;
+  return {t.a + t.b, t.c + t.d, t.a + t.c, t.b + t.d};
+}
+
+template <typename T>
+void Adjust(std::vector<T*>& family, stats::Adjustment method) {
+  std::vector<double> p;
+  for (T* x : family) p.push_back(x->p.p);
+  auto adjusted = stats::AdjustP(p, method);
+  for (size_t i = 0; i < family.size(); ++i) family[i]->p_adjusted = adjusted[i];
+}
+
+}  // namespace
+
+Effects ComputeEffects(const EffectsInput& in) {
+  Effects e;
+  auto method = stats::ParseAdjustment(in.correction).value_or(stats::Adjustment::kNone);
+  e.correction = stats::AdjustmentName(method);
+  if (in.arm_labels.size() < 2) return e;
+  std::vector<const SetOutcome*> all;
+  for (const auto& s : in.sets) all.push_back(&s);
+  const int arms = static_cast<int>(in.arm_labels.size());
+  for (int other = 1; other < arms; ++other) e.comparisons.push_back(Compare(all, other, in));
+  std::vector<ArmComparison*> family;
+  for (auto& c : e.comparisons) family.push_back(&c);
+  Adjust(family, method);
+
+  // Sets by stratum column and value (std::map: stable, sorted output).
+  std::map<std::string, std::map<std::string, std::vector<const SetOutcome*>>> by_column;
+  for (const auto& s : in.sets)
+    for (const auto& [column, value] : s.strata) by_column[column][value].push_back(&s);
+  for (const auto& [column, values] : by_column) {
+    for (int other = 1; other < arms; ++other) {
+      AcrossStrata across;
+      across.column = column;
+      across.other_label = in.arm_labels[static_cast<size_t>(other)];
+      const size_t first = e.strata.size();
+      for (const auto& [value, sets] : values) {
+        StratumComparison sc{column, value, Compare(sets, other, in)};
+        across.tables.push_back(ArmByOutcome(sc.result));
+        e.strata.push_back(std::move(sc));
+      }
+      std::vector<ArmComparison*> stratum_family;
+      for (size_t i = first; i < e.strata.size(); ++i) stratum_family.push_back(&e.strata[i].result);
+      Adjust(stratum_family, method);
+      across.values = static_cast<int>(across.tables.size());
+      across.mh = stats::MantelHaenszel(across.tables, in.confidence);
+      across.breslow_day = stats::BreslowDay(across.tables);
+      e.across.push_back(std::move(across));
+    }
+  }
+  return e;
+}
+
+}  // namespace twinprobe

@@ -1,0 +1,92 @@
+// Commands that keep the ethics safeguards: decline, purge.
+#include <iostream>
+
+#include <nlohmann/json.hpp>
+
+#include "cli/command.h"
+#include "collector/declines.h"
+#include "collector/purge.h"
+#include "core/clock.h"
+
+namespace twinprobe {
+namespace {
+
+struct DeclineOptions {
+  std::string probe, at, channel;
+};
+
+int RunDecline(Context& ctx, const DeclineOptions& o) {
+  auto store = OpenStudyStore(ctx, false);
+  if (!store.ok()) return ReportError(store.error());
+  auto settings = LoadStudySettings(ctx, *store.value());
+  if (!settings.ok()) return ReportError(settings.error());
+  auto r = RecordDecline(*store.value(), settings.value().outcomes, o.probe, o.at, o.channel);
+  if (!r.ok()) return ReportError(r.error());
+  if (ctx.json) std::cout << nlohmann::json{{"probe", o.probe}, {"declined_at", r.value()}}.dump(2) << "\n";
+  else std::cout << "Recorded that the invitation to " << o.probe << " was declined at " << r.value() << ".\n";
+  return 0;
+}
+
+int RunPurge(Context& ctx, bool dry_run) {
+  auto store = OpenStudyStore(ctx, false);
+  if (!store.ok()) return ReportError(store.error());
+  auto settings = LoadStudySettings(ctx, *store.value());
+  if (!settings.ok()) return ReportError(settings.error());
+  int retention = settings.value().ethics.retention_days;
+  if (retention <= 0)
+    return ReportError(BadInput(StorePath(ctx), "the study states no retention period",
+                                "set [ethics].retention_days in study.toml (see ethics/README.md)"));
+  PurgeCounts c;
+  if (dry_run) {
+    c = PlanPurge(*store.value(), ctx.study_dir, retention);
+  } else {
+    auto done = Purge(*store.value(), ctx.study_dir, retention, NowEpoch());
+    if (!done.ok()) return ReportError(done.error());
+    c = done.value();
+  }
+  if (ctx.json) {
+    std::cout << nlohmann::json{{"dry_run", dry_run},
+                                {"fieldwork_end", c.fieldwork_end},
+                                {"retention_ends", c.retention_ends},
+                                {"employers", c.employers},
+                                {"secrets", c.secrets},
+                                {"notes", c.notes},
+                                {"mail_excerpts", c.mail_excerpts},
+                                {"snapshot_files", c.snapshot_files},
+                                {"material_files", c.material_files}}
+                     .dump(2)
+              << "\n";
+    return 0;
+  }
+  std::cout << (dry_run ? "Purge would delete: " : "Purged: ") << c.employers << " employer identities, "
+            << c.notes << " free-text notes, " << c.mail_excerpts << " mail excerpts, " << c.snapshot_files
+            << " raw snapshots, " << c.material_files << " rendered material files.\n"
+            << "Fieldwork ended " << (c.fieldwork_end.empty() ? "(nothing recorded)" : c.fieldwork_end)
+            << "; the retention period " << (NowEpoch() >= ParseIsoTime(c.retention_ends).value_or(0) ? "ended " : "ends ")
+            << c.retention_ends << ".\n"
+            << "Pseudonymised outcomes are kept; 'twinprobe analyze' gives the same numbers afterwards.\n";
+  return 0;
+}
+
+void RegisterEthicsCommands(CLI::App& app, Context& ctx) {
+  auto d = std::make_shared<DeclineOptions>();
+  auto* decline = app.add_subcommand(
+      "decline", "Record that an invitation or offer was declined (do it within the study's decline deadline)");
+  decline->add_option("probe", d->probe, "Probe reference, e.g. P00001")->required();
+  decline->add_option("--at", d->at, "When the decline was sent (YYYY-MM-DD[THH:MM], UTC); default now");
+  decline->add_option("--channel", d->channel, "mail, phone, letter or other");
+  decline->callback([&ctx, d] { ctx.exit_code = RunDecline(ctx, *d); });
+
+  auto dry = std::make_shared<bool>(false);
+  auto* purge = app.add_subcommand(
+      "purge",
+      "After the retention period: delete employer identities, snapshots, materials and notes; keep pseudonymised "
+      "outcomes");
+  purge->add_flag("--dry-run", *dry, "Only show what would be deleted and when purge is allowed");
+  purge->callback([&ctx, dry] { ctx.exit_code = RunPurge(ctx, *dry); });
+}
+
+const bool kRegistered = RegisterCommand(95, &RegisterEthicsCommands);
+
+}  // namespace
+}  // namespace twinprobe

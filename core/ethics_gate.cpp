@@ -1,0 +1,49 @@
+#include "core/ethics_gate.h"
+
+namespace twinprobe {
+namespace {
+
+constexpr const char* kSee = " (see ethics/README.md)";
+
+bool HasContact(const std::string& user_agent) {
+  return user_agent.find('@') != std::string::npos || user_agent.find("://") != std::string::npos;
+}
+
+}  // namespace
+
+Status CheckEthicsGate(const Design& d, const std::string& label) {
+  const EthicsBlock& e = d.ethics;
+  if (!e.present)
+    return BadInput(label, "the design has no [ethics] section",
+                    std::string("add [ethics] with approval, retention_days, decline_within_hours and "
+                                "cap_per_employer") + kSee);
+  if (e.approval.empty())
+    return BadInput(label, "[ethics].approval is missing",
+                    std::string("enter the reference of your ethics review board's approval") + kSee);
+  if (e.retention_days <= 0)
+    return BadInput(label, "[ethics].retention_days is missing",
+                    std::string("state how many days identifying data is kept after fieldwork") + kSee);
+  if (e.decline_within_hours <= 0)
+    return BadInput(label, "[ethics].decline_within_hours is missing",
+                    std::string("state within how many hours every invitation is declined") + kSee);
+  if (e.cap_per_employer <= 0)
+    return BadInput(label, "[ethics].cap_per_employer is missing",
+                    std::string("state the most probes any one employer may receive") + kSee);
+  for (const Source& s : d.sources) {
+    std::string name = s.name.empty() ? "a [[source]]" : "source '" + s.name + "'";
+    if (s.allow_hosts.empty())
+      return BadInput(label, name + " has no host allowlist",
+                      std::string("list the hosts you are permitted to collect from") + kSee);
+    if (s.user_agent.empty() || !HasContact(s.user_agent))
+      return BadInput(label, name + " does not identify the collector",
+                      std::string("give a User-Agent with a contact address, e.g. \"study-bot (research@org.example)\"") +
+                          kSee);
+  }
+  return {};
+}
+
+int64_t DeclineDeadline(const EthicsBlock& ethics, int64_t received_at) {
+  return received_at + static_cast<int64_t>(ethics.decline_within_hours) * 3600;
+}
+
+}  // namespace twinprobe

@@ -1,0 +1,23 @@
+#pragma once
+// The ethics policy gate (DESIGN.md; ethics/README.md). Safeguards written in
+// a protocol and not enforced are forgotten in week three of fieldwork, so
+// `check` and `plan` refuse a design that does not state them.
+#include <string>
+
+#include "core/design.h"
+#include "core/status.h"
+
+namespace twinprobe {
+
+// Returns the first missing safeguard as a bad-input error located at
+// `label` (the design file's path): no [ethics] section; no approval
+// reference; no retention period; no decline deadline; no cap per employer;
+// and for each declared web source, no host allowlist or no identifying
+// User-Agent with a contact (an e-mail address or a URL).
+Status CheckEthicsGate(const Design& design, const std::string& label);
+
+// The decline deadline (UTC seconds) for an invitation received at
+// `received_at`: received_at + decline_within_hours.
+int64_t DeclineDeadline(const EthicsBlock& ethics, int64_t received_at);
+
+}  // namespace twinprobe

@@ -1,0 +1,17 @@
+#pragma once
+// Rendering of analysis/effects.h results: the text section (called by
+// text_report.cpp) and the JSON object (called by json_report.cpp). Every
+// number of Effects appears in the JSON; the text reads as a methods and
+// results section.
+#include <string>
+
+#include <nlohmann/json.hpp>
+
+#include "analysis/analyze.h"
+
+namespace twinprobe {
+
+std::string RenderEffectsText(const AnalysisResult& result);
+nlohmann::json EffectsJson(const AnalysisResult& result);
+
+}  // namespace twinprobe

@@ -1,0 +1,94 @@
+// End-to-end tests of `twinprobe calc` on the real binary.
+#include <catch2/catch.hpp>
+
+#include <cmath>
+
+#include <nlohmann/json.hpp>
+
+#include "testing/testing.h"
+
+using twinprobe::testing::RunCli;
+using Catch::Matchers::WithinRel;
+
+TEST_CASE("calc: mcnemar --json after the subcommand gives the documented keys") {
+  // Agresti's approval table (METHODS.md 7.1): exact p 3.7159e-05, mid-p 2.8934e-05.
+  auto r = RunCli({"calc", "mcnemar", "--table", "794,150,86,570", "--json"});
+  INFO(r.err);
+  REQUIRE(r.exit_code == 0);
+  auto j = nlohmann::json::parse(r.out);
+  CHECK_THAT(j["p_value"].get<double>(), WithinRel(3.7159e-05, 1e-4));
+  CHECK_THAT(j["mid_p_value"].get<double>(), WithinRel(2.8934e-05, 1e-4));
+  CHECK_THAT(j["estimate"].get<double>(), WithinRel(150.0 / 86.0, 1e-12));
+  CHECK(j["conf_int"].size() == 2);
+  CHECK(j["statistic"] == 150);
+}
+
+TEST_CASE("calc: --json before the command works too, and infinity is written \"Inf\"") {
+  auto r = RunCli({"--json", "calc", "mcnemar", "--table", "5,12,0,40"});
+  REQUIRE(r.exit_code == 0);
+  auto j = nlohmann::json::parse(r.out);
+  CHECK(j["estimate"] == "Inf");
+  CHECK(j["conf_int"][1] == "Inf");
+}
+
+TEST_CASE("calc: fisher on the tea-tasting table prints one sentence and the numbers") {
+  auto r = RunCli({"calc", "fisher", "--table", "3,1,1,3", "--alternative", "greater"});
+  REQUIRE(r.exit_code == 0);
+  CHECK(r.out.find("does not show a difference between the arms (p = 0.2429)") != std::string::npos);
+  CHECK(r.out.find("conditional MLE odds ratio") != std::string::npos);
+}
+
+TEST_CASE("calc: mh --exact reports the exact conditional test as p_value") {
+  auto r = RunCli({"calc", "mh", "--tables", "0,6,0,5;3,3,0,6;6,0,2,4;5,1,6,0;2,0,5,0", "--exact", "--json"});
+  REQUIRE(r.exit_code == 0);
+  auto j = nlohmann::json::parse(r.out);
+  CHECK_THAT(j["p_value"].get<double>(), WithinRel(0.03994490358126723, 1e-9));  // R: mantelhaen.test(exact = TRUE)
+  CHECK_THAT(j["mantel_haenszel_estimate"].get<double>(), WithinRel(7.0, 1e-12));
+  auto cmh = RunCli({"calc", "mh", "--tables", "0,6,0,5;3,3,0,6;6,0,2,4;5,1,6,0;2,0,5,0", "--json"});
+  auto k = nlohmann::json::parse(cmh.out);
+  CHECK_THAT(k["p_value"].get<double>(), WithinRel(0.047472255142918106, 1e-9));  // R: mantelhaen.test (corrected)
+  CHECK(k["p_value_method"] == "Cochran-Mantel-Haenszel chi-squared with continuity correction");
+}
+
+TEST_CASE("calc: adjust keeps input order, from --p and from a file") {
+  auto r = RunCli({"calc", "adjust", "--method", "holm", "--p", "0.04,0.01,0.03", "--json"});
+  REQUIRE(r.exit_code == 0);
+  auto j = nlohmann::json::parse(r.out);
+  // R: p.adjust(c(0.04, 0.01, 0.03), "holm") = 0.06 0.03 0.06
+  CHECK_THAT(j["adjusted"][0].get<double>(), WithinRel(0.06, 1e-12));
+  CHECK_THAT(j["adjusted"][1].get<double>(), WithinRel(0.03, 1e-12));
+  twinprobe::testing::TempDir dir;
+  twinprobe::testing::WriteFile(dir / "p.txt", "0.04\n0.01, 0.03\n");
+  auto f = RunCli({"calc", "adjust", "--method", "holm", "--file", dir / "p.txt", "--json"});
+  CHECK(nlohmann::json::parse(f.out)["adjusted"] == j["adjusted"]);
+  twinprobe::testing::WriteFile(dir / "bad.txt", "0.04\n0.01 abc\n");
+  auto bad = RunCli({"calc", "adjust", "--method", "holm", "--file", dir / "bad.txt"});
+  CHECK(bad.exit_code == 1);
+  CHECK(bad.err == "twinprobe: " + (dir / "bad.txt") + ":2: expected a number, got 'abc' \u2014 the file holds p-values in [0, 1], one or more per line\n");
+}
+
+TEST_CASE("calc: bad input gets one clear line and exit 1") {
+  auto neg = RunCli({"calc", "mcnemar", "--table", "1,2,-3,4"});
+  CHECK(neg.exit_code == 1);
+  CHECK(neg.err == "twinprobe: --table: counts cannot be negative, got -3 \u2014 give the paired table as a,b,c,d (a both "
+                   "positive, b reference only, c other only, d neither), e.g. --table 794,150,86,570\n");
+  auto p = RunCli({"calc", "binom", "--x", "3", "--n", "5", "--p", "1.5"});
+  CHECK(p.exit_code == 1);
+  CHECK(p.err == "twinprobe: --p: a probability must lie in [0, 1], got 1.5 \u2014 give the null probability as a fraction, e.g. --p 0.5\n");
+  auto list = RunCli({"calc", "adjust", "--method", "bh", "--p", "0.1,,0.2"});
+  CHECK(list.exit_code == 1);
+  CHECK(list.err == "twinprobe: --p: expected a number, got '' \u2014 give p-values in [0, 1] separated by commas, e.g. --p 0.01,0.04,0.2\n");
+  auto tables = RunCli({"calc", "mh", "--tables", "1,2,3,4;5,6"});
+  CHECK(tables.exit_code == 1);
+  CHECK(tables.err.rfind("twinprobe: --tables: expected four counts a,b,c,d separated by commas, got '5,6'", 0) == 0);
+  CHECK(tables.out.empty());
+}
+
+TEST_CASE("calc: a p-value below the smallest double is printed with its log10") {
+  auto r = RunCli({"calc", "binom", "--x", "0", "--n", "5000"});
+  REQUIRE(r.exit_code == 0);
+  CHECK(r.out.find("< 1e-300 (log10 p = -1504.8)") != std::string::npos);
+  auto j = nlohmann::json::parse(RunCli({"calc", "binom", "--x", "0", "--n", "5000", "--json"}).out);
+  CHECK(j["p_value"] == 0.0);
+  CHECK_THAT(j["log10_p_value"].get<double>(), WithinRel(std::log10(2.0) * (1 - 5000), 1e-12));
+}

@@ -1,0 +1,106 @@
+// The ethics safeguards as the user meets them: the gate in check/plan, the
+// decline reminder, declines, and purge (issue 10).
+#include <catch2/catch.hpp>
+
+#include <filesystem>
+
+#include <nlohmann/json.hpp>
+
+#include "core/store.h"
+#include "testing/testing.h"
+
+using namespace twinprobe;
+using testing::RunCli;
+
+namespace {
+
+struct Study {
+  testing::TempDir dir;
+  std::string path;
+  Study() : path(dir / "s") { REQUIRE(RunCli({"--study", path, "init"}).exit_code == 0); }
+  void Edit(const std::string& from, const std::string& to) {
+    std::string toml = testing::ReadFile(path + "/study.toml");
+    auto pos = toml.find(from);
+    REQUIRE(pos != std::string::npos);
+    testing::WriteFile(path + "/study.toml", toml.replace(pos, from.size(), to));
+  }
+};
+
+}  // namespace
+
+TEST_CASE("ethics: plan refuses a design without an approval reference and writes nothing") {
+  Study s;
+  s.Edit("approval = \"VREB-2027-014 (Veldmark Research Ethics Board, invented)\"\n", "");
+  auto r = RunCli({"--study", s.path, "plan"});
+  CHECK(r.exit_code == 1);
+  CHECK(r.err == "twinprobe: " + s.path + "/study.toml: [ethics].approval is missing \u2014 enter the reference of "
+                 "your ethics review board's approval (see ethics/README.md)\n");
+  CHECK_FALSE(std::filesystem::exists(s.path + "/study.db"));
+}
+
+TEST_CASE("ethics: check refuses a design without a cap per employer") {
+  Study s;
+  s.Edit("cap_per_employer = 2\n", "");
+  auto r = RunCli({"--study", s.path, "check"});
+  CHECK(r.exit_code == 1);
+  CHECK(r.err.find("[ethics].cap_per_employer is missing") != std::string::npos);
+}
+
+TEST_CASE("ethics: recording an invitation prints the decline deadline and the letter; decline clears it") {
+  Study s;
+  REQUIRE(RunCli({"--study", s.path, "plan"}).exit_code == 0);
+  auto r = RunCli({"--study", s.path, "record", "P00001", "invitation", "--at", "2027-03-04T10:00"});
+  REQUIRE(r.exit_code == 0);
+  CHECK(r.out.find("Decline it by 2027-03-05T10:00:00Z (within 24 hours of receipt) with the letter in "
+                   "ethics/letters/decline-invitation.md, then run 'twinprobe decline P00001'.") != std::string::npos);
+  auto j = nlohmann::json::parse(
+      RunCli({"--study", s.path, "--json", "record", "P00002", "offer", "--at", "2027-03-06T08:00"}).out);
+  CHECK(j["decline_by"] == "2027-03-07T08:00:00Z");
+  auto rejection = RunCli({"--study", s.path, "record", "P00003", "rejection", "--at", "2027-03-06"});
+  CHECK(rejection.out.find("Decline it") == std::string::npos);
+  auto nothing = RunCli({"--study", s.path, "decline", "P00003"});
+  CHECK(nothing.exit_code == 1);
+  CHECK(nothing.err == "twinprobe: probe 'P00003' has no invitation or offer to decline \u2014 record the "
+                       "employer's response first with 'twinprobe record'\n");
+  auto ok = RunCli({"--study", s.path, "decline", "P00001", "--at", "2027-03-04T15:00"});
+  CHECK(ok.exit_code == 0);
+  CHECK(ok.out == "Recorded that the invitation to P00001 was declined at 2027-03-04T15:00:00Z.\n");
+}
+
+TEST_CASE("ethics: purge waits for the retention period, then removes identities and keeps the analysis") {
+  testing::TempDir dir;
+  std::string demo = dir / "demo";
+  REQUIRE(RunCli({"demo", "--out", demo}).exit_code == 0);
+  REQUIRE(RunCli({"--study", demo, "record", "P00001", "invitation", "--at", "2027-06-01", "--note",
+                  "Ms Invented of HR called"})
+              .exit_code == 0);
+  testing::WriteFile(demo + "/materials/P00001.txt", "rendered application");
+  auto analysis_before = RunCli({"--study", demo, "--json", "analyze"}).out;
+
+  auto early = RunCli({"--study", demo, "purge"}, {"TWINPROBE_NOW=2028-05-01"});
+  CHECK(early.exit_code == 1);
+  CHECK(early.err.find("the retention period has not ended") != std::string::npos);
+
+  auto dry = nlohmann::json::parse(RunCli({"--study", demo, "--json", "purge", "--dry-run"}).out);
+  CHECK(dry["employers"] == 400);
+  CHECK(dry["notes"] == 1);
+  CHECK(dry["material_files"] == 1);
+  CHECK(dry["fieldwork_end"] == "2027-06-01T00:00:00Z");
+  CHECK(dry["retention_ends"] == "2028-05-31T00:00:00Z");
+
+  auto done = RunCli({"--study", demo, "purge"}, {"TWINPROBE_NOW=2028-06-01"});
+  INFO(done.err);
+  REQUIRE(done.exit_code == 0);
+  CHECK(done.out.rfind("Purged: 400 employer identities, 1 free-text notes", 0) == 0);
+  auto store = Store::Open(demo + "/study.db", false);
+  REQUIRE(store.ok());
+  CHECK(store.value()->QueryInt("SELECT count(*) FROM employer") == 0);
+  CHECK(store.value()->QueryInt("SELECT count(*) FROM secret") == 0);
+  CHECK(store.value()->QueryInt("SELECT count(*) FROM response WHERE note IS NOT NULL") == 0);
+  CHECK_FALSE(std::filesystem::exists(demo + "/materials"));
+  CHECK(RunCli({"--study", demo, "--json", "analyze"}).out == analysis_before);
+  auto verify = RunCli({"--study", demo, "verify"});
+  CHECK(verify.exit_code == 0);
+  auto audit = nlohmann::json::parse(RunCli({"--study", demo, "--json", "verify"}).out);
+  CHECK(audit["entries"] == 4);
+}
