@@ -86,6 +86,18 @@ int RunCheck(Context& ctx) {
   auto study = CheckStudy(ctx.study_dir);
   if (!study.ok()) return ReportError(study.error());
   const auto& s = study.value();
+  if (s.design.kind == "listing") {
+    if (ctx.json)
+      std::cout << nlohmann::json{{"ok", true}, {"study_id", s.design.study_id}, {"kind", s.design.kind},
+                                  {"sources", s.design.sources.size()}}
+                       .dump(2)
+                << "\n";
+    else
+      std::cout << "Design " << s.design.study_id << " is valid: a listing audit with " << s.design.sources.size()
+                << (s.design.sources.size() == 1 ? " source" : " sources")
+                << " (nothing to plan; collect with 'twinprobe fetch').\n";
+    return 0;
+  }
   auto proof = ProveStudy(ctx.study_dir, s);
   if (!proof.ok()) return ReportError(proof.error());
   const auto& p = proof.value();

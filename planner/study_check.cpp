@@ -11,6 +11,7 @@ Result<CheckedStudy> CheckStudy(const std::string& study_dir) {
   if (!design.ok()) return design.error();
   s.design = std::move(design).value();
   if (Status gate = CheckEthicsGate(s.design, DesignPath(study_dir)); !gate.ok()) return gate.error();
+  if (s.design.kind == "listing") return s;  // a listing audit has no vacancies or name pools to read
   auto vacancies = ReadVacancies(study_dir, s.design);
   if (!vacancies.ok()) return vacancies.error();
   s.vacancies = std::move(vacancies).value();
@@ -22,6 +23,9 @@ Result<CheckedStudy> CheckStudy(const std::string& study_dir) {
 
 Result<StudyProof> ProveStudy(const std::string& study_dir, const CheckedStudy& s) {
   StudyProof proof;
+  if (s.design.kind == "listing")
+    return BadInput(DesignPath(study_dir), "a listing audit (kind = \"listing\") sends no probes, so there is nothing to plan",
+                    "collect its listings with 'twinprobe fetch'");
   auto plan = AssignProbes(s.design, s.vacancies, s.pools);
   if (!plan.ok()) return plan.error();
   proof.plan = std::move(plan).value();

@@ -24,6 +24,7 @@ struct CheckedStudy {
 };
 
 // Reads and validates the study folder; the first problem found is returned.
+// A listing audit (kind = "listing") has only its design read and checked.
 Result<CheckedStudy> CheckStudy(const std::string& study_dir);
 
 struct StudyProof {
@@ -35,7 +36,7 @@ struct StudyProof {
 
 // Assigns the plan in memory and runs the one-difference proof on it. Hard
 // errors (assignment impossible, a template that cannot be read, an unknown
-// field) come back as the error.
+// field, a listing audit, which has nothing to plan) come back as the error.
 Result<StudyProof> ProveStudy(const std::string& study_dir, const CheckedStudy& study);
 
 }  // namespace twinprobe
