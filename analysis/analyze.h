@@ -13,10 +13,14 @@
 
 #include "analysis/balance.h"
 #include "analysis/deviations.h"
+#include "analysis/listing_analysis.h"
 #include "analysis/effects.h"
 #include "core/design.h"
 #include "core/status.h"
 #include "core/store.h"
+#include "analysis/design_summary.h"
+#include "analysis/employer_outcomes.h"
+#include "analysis/response_times.h"
 #include "stats/binomial.h"
 #include "stats/mcnemar.h"
 
@@ -65,14 +69,19 @@ struct AnalysisResult {
   double mcnemar_exact_p = 1;
   std::vector<StratumTable> strata;  // the paired table within each stratum value
 
+  ListingAudit listings;  // ranked lists (import ranks, fetch); present = false when there are none
   // Every comparison with the reference arm, per-stratum tests corrected for
   // multiplicity, Mantel–Haenszel and Breslow–Day (analysis/effects.h).
   Effects effects;
+  DesignSummary design;              // analysis/design_summary.h
+  ResponseTimes response_times;      // analysis/response_times.h
+  EmployerOutcomes employers;        // analysis/employer_outcomes.h (pseudonyms only)
   BalanceReport balance;                   // arm x template / send order / stratum / weekday (analysis/balance.h)
   PreregistrationStatus preregistration;  // freeze and deviations from it (analysis/deviations.h)
 };
 
-// Requires a plan in the store. `plan` supplies alpha and the correction.
+// Requires a plan in the store, or listings (a listing-only store gives kind
+// "listing" and only `listings`). `plan` supplies alpha and the correction.
 // `current_design` (the study.toml in use, nullptr if none) is compared with
 // the frozen design to list deviations.
 Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan,
