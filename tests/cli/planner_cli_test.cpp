@@ -276,6 +276,13 @@ TEST_CASE("cli freeze: hashes stored once; analyze lists deviations and marks ex
   CHECK(j["preregistration"]["deviations"].size() == 3);
   CHECK(j["preregistration"]["deviations"][0]["kind"] == "design_edited");
   CHECK(j["balance"]["tables"].size() == 5);
+  // The HTML report carries the same: balance tables, deviations, exploratory results.
+  auto html = s.Run({"report", "--html"});
+  REQUIRE(html.exit_code == 0);
+  CHECK(html.out.find("Balance of the plan") != std::string::npos);
+  CHECK(html.out.find("Deviations from the frozen plan") != std::string::npos);
+  CHECK(html.out.find("stratum &#39;opened_on&#39; was added after the freeze") != std::string::npos);
+  CHECK(html.out.find("p-values adjusted by bh") != std::string::npos);
 }
 
 TEST_CASE("cli: help lists the planner's commands in workflow order") {
