@@ -18,7 +18,8 @@ struct ProbeRow {
 
 }  // namespace
 
-Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan) {
+Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan,
+                               const Design* current_design) {
   AnalysisResult r;
   Stmt p = store.Prepare("SELECT id, kind, origin FROM current_plan");
   if (!p.Step()) {
@@ -35,6 +36,7 @@ Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const 
     r.correction = plan.correction;
     r.listings = listings.value();
     r.listings.listing_only = true;
+    r.preregistration = CheckPreregistration(store, current_design, plan);
     return r;
   }
   const int64_t plan_id = p.Int(0);
@@ -160,6 +162,8 @@ Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const 
   r.design = SummariseDesign(store);
   r.response_times = ComputeResponseTimes(store, scheme);
   r.employers = SummariseEmployers(store, pair_of_vacancy);
+  r.balance = ComputeBalance(store);
+  r.preregistration = CheckPreregistration(store, current_design, plan);
   return r;
 }
 

@@ -11,6 +11,8 @@
 #include <string>
 #include <vector>
 
+#include "analysis/balance.h"
+#include "analysis/deviations.h"
 #include "analysis/listing_analysis.h"
 #include "analysis/effects.h"
 #include "core/design.h"
@@ -74,10 +76,15 @@ struct AnalysisResult {
   DesignSummary design;              // analysis/design_summary.h
   ResponseTimes response_times;      // analysis/response_times.h
   EmployerOutcomes employers;        // analysis/employer_outcomes.h (pseudonyms only)
+  BalanceReport balance;                   // arm x template / send order / stratum / weekday (analysis/balance.h)
+  PreregistrationStatus preregistration;  // freeze and deviations from it (analysis/deviations.h)
 };
 
 // Requires a plan in the store, or listings (a listing-only store gives kind
 // "listing" and only `listings`). `plan` supplies alpha and the correction.
-Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan);
+// `current_design` (the study.toml in use, nullptr if none) is compared with
+// the frozen design to list deviations.
+Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan,
+                               const Design* current_design = nullptr);
 
 }  // namespace twinprobe

@@ -19,7 +19,8 @@ Result<AnalysisResult> AnalyzeStudy(Context& ctx) {
   if (!store.ok()) return store.error();
   auto settings = LoadStudySettings(ctx, *store.value());
   if (!settings.ok()) return settings.error();
-  return Analyze(*store.value(), settings.value().outcomes, settings.value().analysis);
+  const auto& design = settings.value().design;
+  return Analyze(*store.value(), settings.value().outcomes, settings.value().analysis, design ? &*design : nullptr);
 }
 
 int RunAnalyze(Context& ctx) {

@@ -56,6 +56,7 @@ Result<StudySettings> LoadStudySettings(const Context& ctx, Store& store) {
     s.analysis = d.value().analysis;
     s.ethics = d.value().ethics;
     s.has_design = true;
+    s.design = d.value();
   } else {
     s.outcomes = StoredOutcomeScheme(store);
     if (auto r = MetaValue(store, "ethics.retention_days")) s.ethics.retention_days = std::stoi(*r);

@@ -9,6 +9,7 @@
 #include <CLI/CLI.hpp>
 
 #include <memory>
+#include <optional>
 #include <string>
 
 #include "core/design.h"
@@ -50,6 +51,7 @@ struct StudySettings {
   AnalysisPlan analysis;
   EthicsBlock ethics;
   bool has_design = false;
+  std::optional<Design> design;  // the parsed study.toml, when there is one
 };
 Result<StudySettings> LoadStudySettings(const Context& ctx, Store& store);
 

@@ -77,7 +77,8 @@ int RunReport(Context& ctx, const ReportOptions& o) {
   Store& db = *store.value();
   auto settings = LoadStudySettings(ctx, db);
   if (!settings.ok()) return ReportError(settings.error());
-  auto result = Analyze(db, settings.value().outcomes, settings.value().analysis);
+  const auto& design = settings.value().design;  // compared with the frozen design (deviations)
+  auto result = Analyze(db, settings.value().outcomes, settings.value().analysis, design ? &*design : nullptr);
   if (!result.ok()) return ReportError(result.error());
 
   if (o.reveal_employers) {

@@ -1,13 +1,19 @@
-// Commands that set a study up: init, check, plan.
+// Commands that set a study up: init, check (with the one-attribute proof),
+// plan (with its balance report).
 #include <filesystem>
 #include <fstream>
 #include <iostream>
+#include <set>
 
 #include <nlohmann/json.hpp>
 
+#include "analysis/balance.h"
 #include "cli/command.h"
+#include "core/sha256.h"
+#include "planner/freeze.h"
 #include "planner/plan_store.h"
 #include "planner/study_check.h"
+#include "report/design_report.h"
 #include "templates/embedded.h"
 
 namespace twinprobe {
@@ -45,22 +51,93 @@ int RunInit(Context& ctx) {
   return 0;
 }
 
+// Prints every leak as one error line; returns the exit code for a failed check.
+int ReportLeaks(const OneDifferenceReport& report) {
+  for (const auto& leak : report.leaks) ReportError(leak.AsError());
+  return static_cast<int>(ExitCode::kBadInput);
+}
+
+nlohmann::json LeaksJson(const OneDifferenceReport& report) {
+  nlohmann::json leaks = nlohmann::json::array();
+  for (const auto& l : report.leaks) {
+    nlohmann::json sets = nlohmann::json::array();
+    for (const auto& [vacancy, probes] : l.sets) {
+      nlohmann::json ps = nlohmann::json::array();
+      for (const auto& p : probes)
+        ps.push_back({{"probe", p.probe}, {"arm", p.arm}, {"value", p.value ? nlohmann::json(*p.value) : nlohmann::json()}});
+      sets.push_back({{"vacancy", vacancy.empty() ? nlohmann::json() : nlohmann::json(vacancy)}, {"probes", ps}});
+    }
+    leaks.push_back({{"field", l.field},
+                     {"where", l.where},
+                     {"template", l.template_path},
+                     {"sets_affected", l.sets_affected},
+                     {"sets", sets}});
+  }
+  return leaks;
+}
+
+std::string Join(const std::vector<std::string>& v) {
+  std::string s;
+  for (const auto& x : v) s += (s.empty() ? "" : ", ") + x;
+  return s;
+}
+
 int RunCheck(Context& ctx) {
   auto study = CheckStudy(ctx.study_dir);
   if (!study.ok()) return ReportError(study.error());
   const auto& s = study.value();
+  if (s.design.kind == "listing") {
+    if (ctx.json)
+      std::cout << nlohmann::json{{"ok", true}, {"study_id", s.design.study_id}, {"kind", s.design.kind},
+                                  {"sources", s.design.sources.size()}}
+                       .dump(2)
+                << "\n";
+    else
+      std::cout << "Design " << s.design.study_id << " is valid: a listing audit with " << s.design.sources.size()
+                << (s.design.sources.size() == 1 ? " source" : " sources")
+                << " (nothing to plan; collect with 'twinprobe fetch').\n";
+    return 0;
+  }
+  auto proof = ProveStudy(ctx.study_dir, s);
+  if (!proof.ok()) return ReportError(proof.error());
+  const auto& p = proof.value();
+  const auto& rep = p.report;
+  // The fields the templates use that a factor controls, for the summary.
+  std::set<std::string> used;
+  for (const auto& [path, doc] : p.templates)
+    for (const auto& [field, seg] : doc.FieldUses()) used.insert(field);
+  std::vector<std::string> controlled_used;
+  for (const auto& f : rep.controlled_fields)
+    if (used.count(f)) controlled_used.push_back(f);
   if (ctx.json) {
-    nlohmann::json j{{"ok", true},
+    std::vector<std::string> labels;
+    for (const auto& a : s.design.arms) labels.push_back(a.label);
+    nlohmann::json j{{"ok", rep.ok()},
                      {"study_id", s.design.study_id},
                      {"kind", s.design.kind},
                      {"arms", s.design.arms.size()},
+                     {"arm_labels", labels},
+                     {"reference_arm", s.design.arms[s.design.reference_arm].label},
                      {"vacancies", s.vacancies.size()},
-                     {"templates", s.design.templates.size()}};
+                     {"templates", s.design.templates.size()},
+                     {"profiles", p.plan.profiles.size()},
+                     {"probes", p.plan.probes.size()},
+                     {"sets_checked", rep.sets_checked},
+                     {"renderings", rep.renderings},
+                     {"controlled_fields", rep.controlled_fields},
+                     {"controlled_fields_used", controlled_used},
+                     {"leaks", LeaksJson(rep)}};
     std::cout << j.dump(2) << "\n";
-  } else {
+  }
+  if (!rep.ok()) return ReportLeaks(rep);
+  if (!ctx.json) {
     std::cout << "Design " << s.design.study_id << " is valid: " << s.design.kind << " design, "
               << s.design.arms.size() << " arms, " << s.vacancies.size() << " vacancies, "
               << s.design.templates.size() << " templates.\n";
+    std::cout << "One-attribute proof: " << rep.sets_checked << (s.design.kind == "unpaired" ? " probes" : " sets")
+              << " rendered (" << rep.renderings << " renderings compared); the probes differ only in fields a factor "
+              << "controls (used by the templates: " << (controlled_used.empty() ? "none" : Join(controlled_used))
+              << ").\n";
   }
   return 0;
 }
@@ -69,24 +146,31 @@ int RunPlan(Context& ctx) {
   auto study = CheckStudy(ctx.study_dir);
   if (!study.ok()) return ReportError(study.error());
   const auto& s = study.value();
-  auto plan = AssignProbes(s.design, s.vacancies, s.pools);
-  if (!plan.ok()) return ReportError(plan.error());
+  auto proof = ProveStudy(ctx.study_dir, s);
+  if (!proof.ok()) return ReportError(proof.error());
+  if (!proof.value().report.ok()) return ReportLeaks(proof.value().report);
   auto store = OpenStudyStore(ctx, true);
   if (!store.ok()) return ReportError(store.error());
-  auto summary = StorePlan(*store.value(), s.design, s.vacancies, plan.value());
+  auto summary = StorePlan(*store.value(), s.design, s.vacancies, proof.value().plan);
   if (!summary.ok()) return ReportError(summary.error());
+  if (auto frozen = ReadFreeze(*store.value()); frozen && frozen->design_sha256 != Sha256Hex(s.design.canonical))
+    Warn("the design differs from the one frozen at " + frozen->at +
+         "; reports will list this plan as a deviation from the pre-registration");
   const auto& sum = summary.value();
+  BalanceReport balance = ComputeBalance(*store.value());
   if (ctx.json) {
     std::cout << nlohmann::json{{"plan_id", sum.plan_id},
                                 {"vacancies", sum.vacancies},
                                 {"probes", sum.probes},
                                 {"profiles", sum.profiles},
-                                {"audit_hash", sum.audit_hash}}
+                                {"audit_hash", sum.audit_hash},
+                                {"balance", BalanceJson(balance)}}
                      .dump(2)
               << "\n";
   } else {
     std::cout << "Planned " << sum.probes << " probes to " << sum.vacancies << " vacancies with " << sum.profiles
-              << " profiles (plan " << sum.plan_id << ", store " << StorePath(ctx) << ").\n";
+              << " profiles (plan " << sum.plan_id << ", store " << StorePath(ctx) << ").\n\n"
+              << RenderBalanceText(balance);
   }
   return 0;
 }
@@ -94,10 +178,13 @@ int RunPlan(Context& ctx) {
 void RegisterStudyCommands(CLI::App& app, Context& ctx) {
   app.add_subcommand("init", "Create an example study folder (design, vacancies, name pools, templates) to edit")
       ->callback([&ctx] { ctx.exit_code = RunInit(ctx); });
-  app.add_subcommand("check", "Validate the design file, vacancies and name pools without writing anything")
+  app.add_subcommand("check",
+                     "Validate the design, vacancies, name pools and templates, and prove that the probes of every set "
+                     "differ only in the tested attribute; writes nothing")
       ->callback([&ctx] { ctx.exit_code = RunCheck(ctx); });
   app.add_subcommand("plan",
-                     "Assign profiles, templates, send order and send times to every vacancy and store the plan")
+                     "Assign profiles, templates, send order and send times to every vacancy, store the plan and show "
+                     "its balance; refused once any probe is sent")
       ->callback([&ctx] { ctx.exit_code = RunPlan(ctx); });
 }
 

@@ -21,6 +21,10 @@ struct Factor {
   std::vector<std::string> levels;
   std::string reference;  // one of levels
   SourcePos pos;
+  // Template fields this factor sets, one value per level in `levels` order,
+  // e.g. birth_year = ["2003", "1979"] for levels ["younger", "older"]. The
+  // factor controls these fields: they may differ between the probes of a set.
+  std::map<std::string, std::vector<std::string>> fields;
 };
 
 // One combination of levels, e.g. {origin: "coastal"}. label is
@@ -31,10 +35,15 @@ struct Arm {
   bool is_reference = false;
 };
 
+// A name pool: the names that signal one level of the name factor (or one
+// combination of levels when names signal several factors, e.g. gender and
+// origin). Every pool is keyed by the same factors, Design::name_factors.
 struct NamePool {
-  std::string factor;
-  std::string level;
+  std::string factor;  // the single name factor ("" when keyed by several)
+  std::string level;   // its level ("" when keyed by several)
   std::string file;  // relative to the study folder; CSV with a header (at least given_name,family_name)
+  std::map<std::string, std::string> levels;  // name factor -> level, always filled
+  SourcePos pos;
 };
 
 struct OutcomeScheme {
@@ -50,6 +59,10 @@ struct Schedule {
   int gap_max_hours = 72;
   std::vector<int> weekdays = {0, 1, 2, 3, 4};  // 0 = Monday
   std::string start;                            // YYYY-MM-DD, first sending day
+  int hour_open = 9;     // sending hours [hour_open, hour_close), UTC
+  int hour_close = 17;
+  int sets_per_day = 20;  // sets started per sending day, in vacancy-file order
+  SourcePos gap_pos;      // where gap_hours was written (for messages)
 };
 
 struct AnalysisPlan {
@@ -143,6 +156,8 @@ struct Design {
   std::vector<Factor> factors;
   std::vector<Arm> arms;  // arms[reference_arm] is the reference
   int reference_arm = 0;
+  std::string arms_include = "all";  // all | neighbours | list
+  std::vector<std::string> name_factors;  // factors the name pools are keyed by
   std::vector<NamePool> name_pools;
   std::string mailbox_pattern = "{given}.{family}@mail.example";  // placeholders
   std::string phone_pattern;
@@ -158,5 +173,11 @@ struct Design {
   MailRules mail;
   std::string canonical;  // canonical text of the design (hashed by freeze)
 };
+
+// The analysis plan in canonical form: one "key=value" line per item, keys in
+// a fixed order (kind, arms, reference, outcome codes, positive codes, window,
+// strata, primary, correction, alpha, looks). `freeze` hashes and stores it;
+// analysis compares it item by item to list deviations.
+std::string CanonicalAnalysisPlan(const Design& design);
 
 }  // namespace twinprobe

@@ -1,190 +1,180 @@
 #include "planner/assign.h"
 
 #include <algorithm>
-#include <filesystem>
 #include <map>
-#include <set>
+#include <numeric>
+#include <unordered_map>
 
 #include "core/clock.h"
-#include "core/csv.h"
+#include "core/pseudonym.h"
+#include "planner/balanced_grid.h"
+#include "planner/send_calendar.h"
 #include "stats/random.h"
 
 namespace twinprobe {
 namespace {
 
-std::string FillPattern(std::string pattern, const PlannedProfile& p, int n) {
-  auto replace = [&](const std::string& key, const std::string& value) {
-    for (size_t pos; (pos = pattern.find(key)) != std::string::npos;) pattern.replace(pos, key.size(), value);
-  };
-  auto slug = [](std::string s) {
-    std::string out;
-    for (unsigned char c : s)
-      if (std::isalnum(c)) out += static_cast<char>(std::tolower(c));
-    return out;
-  };
-  replace("{given}", slug(p.given_name));
-  replace("{family}", slug(p.family_name));
-  char buf[16];
-  std::snprintf(buf, sizeof buf, "%03d", n);
-  replace("{n}", buf);
-  return pattern;
+std::vector<int> RandomPermutation(int n, stats::Rng& rng) {
+  std::vector<int> p(n);
+  std::iota(p.begin(), p.end(), 0);
+  rng.Shuffle(p);
+  return p;
 }
 
-// The pool that names an arm: the level of the first factor.
-int PoolOfArm(const Design& d, const Arm& arm) {
-  const Factor& f = d.factors.front();
-  const std::string& level = arm.levels.at(f.name);
-  for (size_t i = 0; i < d.name_pools.size(); ++i)
-    if (d.name_pools[i].factor == f.name && d.name_pools[i].level == level) return static_cast<int>(i);
-  return -1;
-}
+// What the block randomisation decided for one vacancy.
+struct SetDesign {
+  int offset = 0;     // paired/sets: template offset; unpaired: arm
+  int order_row = 0;  // paired/sets: row of the send-order square; unpaired: template
+};
 
-// Next allowed sending moment at or after t (same clock time on a later day).
-int64_t OnSendingDay(int64_t t, const std::vector<int>& weekdays) {
-  for (int k = 0; k < 7; ++k) {
-    if (std::find(weekdays.begin(), weekdays.end(), WeekdayOf(t)) != weekdays.end()) return t;
-    t += 86400;
-  }
-  return t;
+// FILE:LINE of a vacancy for messages.
+std::string Where(const Design& d, const Vacancy& v) {
+  return (v.file.empty() ? d.vacancies_file : v.file) + ":" + std::to_string(v.line);
 }
 
 }  // namespace
 
-Result<std::vector<NameList>> ReadNamePools(const std::string& study_dir, const Design& design) {
-  std::vector<NameList> pools;
-  for (const auto& np : design.name_pools) {
-    std::string path = (std::filesystem::path(study_dir) / np.file).string();
-    auto t = ReadCsvFile(path);
-    if (!t.ok()) return t.error();
-    int g = t.value().Column("given_name"), f = t.value().Column("family_name");
-    if (g < 0 || f < 0)
-      return BadInput(path + ":1", "a name pool needs the columns given_name and family_name", "add them");
-    NameList list;
-    std::set<std::string> seen;
-    for (const auto& row : t.value().rows) {
-      if (row.fields[g].empty() || row.fields[f].empty())
-        return BadInput(path + ":" + std::to_string(row.line), "a name is empty", "fill in both parts or remove the row");
-      std::string full = row.fields[g] + " " + row.fields[f];
-      if (!seen.insert(full).second)
-        return BadInput(path + ":" + std::to_string(row.line), "the name '" + full + "' appears twice", "remove the duplicate");
-      list.names.emplace_back(row.fields[g], row.fields[f]);
-    }
-    if (list.names.empty()) return BadInput(path, "the name pool is empty", "add at least one name");
-    pools.push_back(std::move(list));
+std::vector<std::vector<int>> SendOrderSquare(int k) {
+  // Williams (1949): for even k the sequence 0, 1, k-1, 2, k-2, … shifted by
+  // the row number gives a Latin square in which every ordered pair of
+  // distinct symbols is adjacent exactly once.
+  std::vector<int> base(k);
+  if (k % 2 == 0) {
+    for (int j = 0, lo = 1, hi = k - 1; j < k; ++j)
+      base[j] = j == 0 ? 0 : (j % 2 == 1 ? lo++ : hi--);
+  } else {
+    std::iota(base.begin(), base.end(), 0);
   }
-  return pools;
+  std::vector<std::vector<int>> square(k, std::vector<int>(k));
+  for (int r = 0; r < k; ++r)
+    for (int j = 0; j < k; ++j) square[r][j] = (base[j] + r) % k;
+  return square;
+}
+
+std::string StratumBlockKey(const Design& d, const Vacancy& v) {
+  std::string key;
+  for (const auto& s : d.strata) key += v.strata.at(s) + "\x1f";
+  return key;
 }
 
 Result<Plan> AssignProbes(const Design& d, const std::vector<Vacancy>& vacancies, const std::vector<NameList>& pools) {
   stats::Rng rng(d.seed);
   Plan plan;
+  const bool unpaired = d.kind == "unpaired";
   const int n_arms = static_cast<int>(d.arms.size());
-  const int n_templates = static_cast<int>(d.templates.size());
-  const int per_set = d.kind == "unpaired" ? 1 : n_arms;
+  const int n_templates = std::max<int>(1, static_cast<int>(d.templates.size()));
+  const int per_set = unpaired ? 1 : n_arms;
 
-  // Profiles: one per name of each arm's pool, so a name is a stable identity.
+  auto profiles = BuildProfiles(d, pools);
+  if (!profiles.ok()) return profiles.error();
+  plan.profiles = std::move(profiles).value();
   std::vector<std::vector<int>> arm_profiles(n_arms);
-  int serial = 0;
-  for (int a = 0; a < n_arms; ++a) {
-    int pool = PoolOfArm(d, d.arms[a]);
-    if (pool < 0) return BadInput("", "arm " + d.arms[a].label + " has no name pool", "add one to [profiles]");
-    for (const auto& [given, family] : pools[pool].names) {
-      PlannedProfile p;
-      p.arm = a;
-      p.given_name = given;
-      p.family_name = family;
-      ++serial;
-      p.mailbox = FillPattern(d.mailbox_pattern, p, serial);
-      p.phone = d.phone_pattern.empty() ? "" : FillPattern(d.phone_pattern, p, serial);
-      arm_profiles[a].push_back(static_cast<int>(plan.profiles.size()));
-      plan.profiles.push_back(p);
+  for (size_t i = 0; i < plan.profiles.size(); ++i) arm_profiles[plan.profiles[i].arm].push_back(static_cast<int>(i));
+
+  // Employers by normalised name (the same rule as their pseudonymous key),
+  // numbered once so the loops below index vectors instead of hashing names.
+  std::vector<int> employer(vacancies.size());
+  std::vector<int> probes_at;  // per employer
+  {
+    std::unordered_map<std::string, int> ids;
+    ids.reserve(vacancies.size());
+    for (size_t v = 0; v < vacancies.size(); ++v) {
+      auto [it, fresh] = ids.emplace(NormaliseName(vacancies[v].employer), static_cast<int>(ids.size()));
+      if (fresh) probes_at.push_back(0);
+      employer[v] = it->second;
+      int& count = probes_at[it->second];
+      count += per_set;
+      if (d.ethics.cap_per_employer > 0 && count > d.ethics.cap_per_employer)
+        return BadInput(Where(d, vacancies[v]),
+                        "employer '" + vacancies[v].employer + "' would receive " + std::to_string(count) +
+                            " probes, above the cap of " + std::to_string(d.ethics.cap_per_employer),
+                        "drop a vacancy of this employer or raise [ethics].cap_per_employer with your board's consent");
     }
   }
 
-  // Cap per employer.
-  std::map<std::string, int> per_employer;
-  for (const auto& v : vacancies) {
-    int& count = per_employer[v.employer];
-    count += per_set;
-    if (d.ethics.cap_per_employer > 0 && count > d.ethics.cap_per_employer)
-      return BadInput(d.vacancies_file + ":" + std::to_string(v.line),
-                      "employer '" + v.employer + "' would receive " + std::to_string(count) +
-                          " probes, above the cap of " + std::to_string(d.ethics.cap_per_employer),
-                      "drop a vacancy of this employer or raise [ethics].cap_per_employer with your board's consent");
+  // A name is one identity whichever arm uses it: number the distinct names.
+  std::vector<int> name_of_profile(plan.profiles.size());
+  {
+    std::map<std::pair<std::string, std::string>, int> ids;
+    for (size_t i = 0; i < plan.profiles.size(); ++i)
+      name_of_profile[i] =
+          ids.emplace(std::make_pair(plan.profiles[i].given_name, plan.profiles[i].family_name), static_cast<int>(ids.size()))
+              .first->second;
   }
 
-  // Stratum blocks: vacancies with the same stratum values, in file order.
+  // Stratum blocks, in sorted key order; members in file order.
   std::map<std::string, std::vector<int>> blocks;
-  for (size_t i = 0; i < vacancies.size(); ++i) {
-    std::string key;
-    for (const auto& s : d.strata) key += vacancies[i].strata.at(s) + "\x1f";
-    blocks[key].push_back(static_cast<int>(i));
+  for (size_t v = 0; v < vacancies.size(); ++v) blocks[StratumBlockKey(d, vacancies[v])].push_back(static_cast<int>(v));
+
+  // Global relabellings: which template is template 0 of the rotation, and
+  // which arm each symbol of the send-order square stands for.
+  const std::vector<int> template_of = RandomPermutation(n_templates, rng);
+  const std::vector<int> arm_of_symbol = RandomPermutation(n_arms, rng);
+  const auto square = SendOrderSquare(n_arms);
+
+  std::vector<SetDesign> set_design(vacancies.size());
+  BalancedGrid grid = unpaired ? BalancedGrid(n_arms, n_templates) : BalancedGrid(n_templates, n_arms);
+  for (const auto& [key, members] : blocks) {
+    auto cells = grid.Block(static_cast<int64_t>(members.size()), rng);
+    rng.Shuffle(cells);
+    for (size_t j = 0; j < members.size(); ++j) set_design[members[j]] = {cells[j].first, cells[j].second};
   }
 
-  // Rotation state per block: k-th set of a block uses template offset k, so
-  // arm a gets template (k + a) mod T: each template carries each arm equally
-  // often, up to one, and no two arms of a set share a template.
-  std::vector<int> set_rotation(vacancies.size()), set_first(vacancies.size()), set_unpaired_arm(vacancies.size());
-  for (auto& [key, members] : blocks) {
-    int offset = static_cast<int>(rng.Below(static_cast<uint64_t>(std::max(1, n_templates))));
-    // Balanced "who goes first": cycle through arms, shuffled within the block.
-    std::vector<int> first(members.size());
-    for (size_t k = 0; k < members.size(); ++k) first[k] = static_cast<int>(k % n_arms);
-    rng.Shuffle(first);
-    for (size_t k = 0; k < members.size(); ++k) {
-      set_rotation[members[k]] = static_cast<int>((k + offset) % std::max(1, n_templates));
-      set_first[members[k]] = first[k];
-      set_unpaired_arm[members[k]] = first[k];
-    }
-  }
-
-  int64_t start = d.schedule.start.empty() ? NowEpoch() / 86400 * 86400 : *ParseIsoTime(d.schedule.start);
-  start = OnSendingDay(start + 9 * 3600, d.schedule.weekdays);
-  const int sets_per_day = 20;
-  std::map<std::string, std::set<int>> names_at_employer;
+  // Names: each arm walks its profiles in a shuffled cycle, skipping names
+  // already used at the vacancy's employer.
   std::vector<size_t> next_name(n_arms);
-  for (int a = 0; a < n_arms; ++a) next_name[a] = rng.Below(arm_profiles[a].size());
+  for (int a = 0; a < n_arms; ++a) {
+    rng.Shuffle(arm_profiles[a]);
+    next_name[a] = 0;
+  }
+  std::vector<std::vector<int>> names_at_employer(probes_at.size());  // employer -> names used there
 
+  SendCalendar calendar(d.schedule);
+  int64_t start = d.schedule.start.empty() ? NowEpoch() : *ParseIsoTime(d.schedule.start);
+  int64_t day = calendar.SendingDayOnOrAfter(start);
+  const int sets_per_day = std::max(1, d.schedule.sets_per_day);
+
+  plan.probes.reserve(vacancies.size() * static_cast<size_t>(per_set));
   for (size_t v = 0; v < vacancies.size(); ++v) {
-    // Day of the set: sets_per_day per sending day, in file order.
-    int64_t day_start = start;
-    for (size_t k = 0; k < v / sets_per_day; ++k) day_start = OnSendingDay(day_start + 86400, d.schedule.weekdays);
-    int64_t t = day_start + static_cast<int64_t>(rng.Below(8 * 3600));
+    if (v > 0 && v % static_cast<size_t>(sets_per_day) == 0) day = calendar.NextSendingDay(day);
+    const SetDesign& sd = set_design[v];
     std::vector<int> arms;
-    if (d.kind == "unpaired") {
-      arms.push_back(set_unpaired_arm[v]);
-    } else {
-      for (int a = 0; a < n_arms; ++a) arms.push_back((set_first[v] + a) % n_arms);
-    }
+    if (unpaired) arms.push_back(sd.offset);
+    else
+      for (int pos = 0; pos < n_arms; ++pos) arms.push_back(arm_of_symbol[square[sd.order_row][pos]]);
+
+    auto& used = names_at_employer[employer[v]];
+    int64_t minute = calendar.DrawTimeOnDay(day, rng);
     for (size_t k = 0; k < arms.size(); ++k) {
-      int a = arms[k];
-      auto& used = names_at_employer[vacancies[v].employer];
+      const int a = arms[k];
       int profile = -1;
-      for (size_t tries = 0; tries < arm_profiles[a].size(); ++tries) {
-        int cand = arm_profiles[a][next_name[a] % arm_profiles[a].size()];
-        ++next_name[a];
-        if (!used.count(cand)) {
+      const auto& candidates = arm_profiles[a];
+      for (size_t tries = 0; tries < candidates.size(); ++tries) {
+        int cand = candidates[next_name[a]++ % candidates.size()];
+        bool clash = std::find(used.begin(), used.end(), name_of_profile[cand]) != used.end();
+        if (!clash) {
           profile = cand;
           break;
         }
       }
       if (profile < 0)
-        return BadInput(d.vacancies_file + ":" + std::to_string(vacancies[v].line),
+        return BadInput(Where(d, vacancies[v]),
                         "the name pool of arm " + d.arms[a].label + " is too small to avoid reusing a name at '" +
                             vacancies[v].employer + "'",
                         "add names to the pool");
-      used.insert(profile);
+      used.push_back(name_of_profile[profile]);
+      if (k > 0) {
+        auto next = calendar.DrawAfterGap(minute, d.schedule.gap_min_hours, d.schedule.gap_max_hours, rng);
+        if (!next) return Internal("no sending time lies in the gap range; the design check should have refused it");
+        minute = *next;
+      }
       PlannedProbe p;
       p.vacancy = static_cast<int>(v);
       p.arm = a;
       p.profile = profile;
-      p.template_index = n_templates == 0 ? 0 : (set_rotation[v] + a) % n_templates;
+      p.template_index = unpaired ? template_of[sd.order_row] : template_of[(sd.offset + a) % n_templates];
       p.send_order = static_cast<int>(k) + 1;
-      if (k > 0) {
-        int64_t gap = rng.Between(d.schedule.gap_min_hours, d.schedule.gap_max_hours) * 3600;
-        t = OnSendingDay(t + gap, d.schedule.weekdays);
-      }
-      p.planned_at = t;
+      p.planned_at = minute * 60;
       plan.probes.push_back(p);
     }
   }

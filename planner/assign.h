@@ -1,25 +1,36 @@
 #pragma once
-// Assignment of profiles, templates, send order and send times to vacancies.
-// Deterministic from the design's seed: the same design and vacancies give
-// the same plan, byte for byte.
+// Assignment of profiles, templates, send order and send times to vacancies
+// (DESIGN.md, "planner"). Deterministic from the design's seed through
+// stats::Rng only: the same design, vacancies and pools give the same plan,
+// byte for byte.
+//
+// What it guarantees (tests/planner/assign_test.cpp checks each over many
+// seeds and random designs):
+//   - paired / sets: every vacancy gets one probe per arm; unpaired: one probe,
+//     its arm drawn within the vacancy's stratum block;
+//   - within each stratum block every template carries every arm equally
+//     often, up to one (Latin-square rotation of templates over arms), and
+//     over the whole plan too;
+//   - send order: every arm holds every position equally often within each
+//     block, up to one (rows of a Latin square: Williams' square for an even
+//     number of arms, so each arm also follows each other arm equally often);
+//   - no two probes of one set share a template; no name is used twice at one
+//     employer; no employer gets more probes than [ethics].cap_per_employer;
+//   - the first probe of a set goes at a random open minute of its sending
+//     day ([schedule].sets_per_day sets per day, vacancy-file order); each
+//     further probe at a random open minute gap_hours[0]..gap_hours[1] hours
+//     after the previous one.
 #include <cstdint>
 #include <string>
 #include <vector>
 
 #include "core/design.h"
 #include "core/status.h"
+#include "planner/name_pools.h"
+#include "planner/profiles.h"
 #include "planner/vacancies.h"
 
 namespace twinprobe {
-
-struct PlannedProfile {
-  int arm = 0;
-  std::string given_name;
-  std::string family_name;
-  std::string mailbox;
-  std::string phone;
-  std::string full_name() const { return given_name + " " + family_name; }
-};
 
 struct PlannedProbe {
   int vacancy = 0;   // index into the vacancies
@@ -27,29 +38,27 @@ struct PlannedProbe {
   int profile = 0;   // index into Plan::profiles
   int template_index = 0;
   int send_order = 1;  // 1 = sent first within its set
-  int64_t planned_at = 0;  // UTC seconds
+  int64_t planned_at = 0;  // UTC seconds, a whole minute
 };
 
 struct Plan {
   std::vector<PlannedProfile> profiles;
-  std::vector<PlannedProbe> probes;  // grouped by set, in send order
+  std::vector<PlannedProbe> probes;  // grouped by set (vacancy-file order), in send order
 };
 
-// A name pool: the names one level may use.
-struct NameList {
-  std::vector<std::pair<std::string, std::string>> names;  // given, family
-};
-
-// Reads the design's name pools (CSV with given_name, family_name).
-Result<std::vector<NameList>> ReadNamePools(const std::string& study_dir, const Design& design);
-
-// Builds the plan. Each template carries each arm equally often within each
-// stratum block (rotation, differences of at most one); which arm goes first
-// is balanced within each block and otherwise random; gaps are drawn from the
-// design's range; no two probes of one set share a template or a name, and no
-// name is used twice at one employer. Fails when the cap per employer would
-// be exceeded or a pool is too small to avoid reuse at an employer.
+// Builds the plan. Fails (bad input, naming the vacancies file and line) when
+// the cap per employer would be exceeded or a pool is too small to avoid
+// reusing a name at an employer.
 Result<Plan> AssignProbes(const Design& design, const std::vector<Vacancy>& vacancies,
                           const std::vector<NameList>& pools);
+
+// The send-order square for k arms: row r lists the arm symbols in send
+// order. Williams' design for even k (each symbol follows each other symbol
+// once), the cyclic square for odd k. Every row and column is a permutation.
+std::vector<std::vector<int>> SendOrderSquare(int k);
+
+// The stratum block of a vacancy: its stratum values joined (the design's
+// column order), "" without strata.
+std::string StratumBlockKey(const Design& design, const Vacancy& vacancy);
 
 }  // namespace twinprobe

@@ -8,8 +8,12 @@
 #include <set>
 #include <sstream>
 
+#include "core/clock.h"
 #include "core/suggest.h"
 #include "planner/mail_section.h"
+#include "planner/name_pools.h"
+#include "planner/profiles.h"
+#include "planner/send_calendar.h"
 #include "planner/source_section.h"
 
 namespace twinprobe {
@@ -51,6 +55,9 @@ class DesignReader {
 
   void ReadStudy(Design& d);
   void ReadFactors(Design& d);
+  void ReadFactorFields(const toml::table& t, const Design& d, Factor& f);
+  void ReadPool(const toml::table& t, Design& d);
+  void CheckPattern(const toml::table& p, const std::string& key, const std::string& pattern);
   void ReadArms(Design& d);
   void ReadProfiles(Design& d);
   void ReadTemplates(Design& d);
@@ -208,7 +215,7 @@ void DesignReader::ReadFactors(Design& d) {
   }
   for (const auto& el : *n->as_array()) {
     const toml::table& t = *el.as_table();
-    CheckKeys(t, "[[factor]]", {"name", "levels", "reference"});
+    CheckKeys(t, "[[factor]]", {"name", "levels", "reference", "fields"});
     Factor f;
     f.pos = Pos(&t);
     f.name = String(t, "[[factor]]", "name", true);
@@ -221,7 +228,52 @@ void DesignReader::ReadFactors(Design& d) {
            "use one of its levels");
     for (const auto& g : d.factors)
       if (g.name == f.name) Fail(t.get("name"), "factor '" + f.name + "' is declared twice", "rename or remove one");
+    ReadFactorFields(t, d, f);
     d.factors.push_back(f);
+  }
+}
+
+// fields = { birth_year = ["2003", "1979"] }: one text per level.
+void DesignReader::ReadFactorFields(const toml::table& t, const Design& d, Factor& f) {
+  const toml::node* n = t.get("fields");
+  if (!n) return;
+  if (!n->is_table()) {
+    Fail(n, "[[factor]].fields must be a table of lists, one text per level",
+         "write fields = { birth_year = [\"2003\", \"1979\"] }");
+    return;
+  }
+  for (const auto& [k, v] : *n->as_table()) {
+    std::string field(k.str());
+    if (!IsFieldName(field)) {
+      Fail(&v, "'" + field + "' is not usable as a template field", "use letters, digits and '_', starting with a letter");
+      return;
+    }
+    const auto& identity = IdentityFields();
+    if (std::find(identity.begin(), identity.end(), field) != identity.end()) {
+      Fail(&v, "the field '" + field + "' is reserved: twinprobe derives it from the name pools", "choose another name");
+      return;
+    }
+    for (const auto& g : d.factors)
+      if (g.fields.count(field)) {
+        Fail(&v, "the field '" + field + "' is already set by factor '" + g.name + "'", "let one factor set it");
+        return;
+      }
+    const toml::array* arr = v.as_array();
+    std::vector<std::string> values;
+    if (arr)
+      for (const auto& el : *arr)
+        if (el.is_string()) values.emplace_back(el.as_string()->get());
+    if (!arr || values.size() != arr->size() || values.size() != f.levels.size()) {
+      Fail(&v, "fields." + field + " of factor '" + f.name + "' must list " + std::to_string(f.levels.size()) +
+                   " texts, one per level (" + [&] {
+                     std::string s;
+                     for (const auto& l : f.levels) s += (s.empty() ? "" : ", ") + l;
+                     return s;
+                   }() + ")",
+           "give one text for each level, in the order of levels");
+      return;
+    }
+    f.fields[field] = values;
   }
 }
 
@@ -272,10 +324,14 @@ void DesignReader::ReadArms(Design& d) {
     }
   } else {
     std::string include = a ? String(*a, "[arms]", "include", false, "all") : "all";
-    if (include != "all") {
-      Fail(a->get("include"), "[arms].include must be \"all\"", "or list the arms with list = [...]");
+    if (include != "all" && include != "neighbours") {
+      Fail(a->get("include"),
+           "[arms].include must be \"all\" or \"neighbours\", got '" + include + "'" +
+               DidYouMean(include, {"all", "neighbours"}),
+           "or list the arms with list = [...]");
       return;
     }
+    d.arms_include = include;
     combos.push_back({});
     for (const auto& f : d.factors) {
       std::vector<std::map<std::string, std::string>> next;
@@ -287,7 +343,19 @@ void DesignReader::ReadArms(Design& d) {
         }
       combos = next;
     }
+    // neighbours: the reference arm and every arm that changes exactly one
+    // factor's level, so each arm is compared with the reference on one attribute.
+    if (include == "neighbours") {
+      std::vector<std::map<std::string, std::string>> kept;
+      for (const auto& c : combos) {
+        int changed = 0;
+        for (const auto& f : d.factors) changed += c.at(f.name) != f.reference;
+        if (changed <= 1) kept.push_back(c);
+      }
+      combos = kept;
+    }
   }
+  if (list) d.arms_include = "list";
   for (const auto& c : combos) {
     Arm arm;
     arm.levels = c;
@@ -308,6 +376,88 @@ void DesignReader::ReadArms(Design& d) {
     Fail(a ? static_cast<const toml::node*>(a) : nullptr,
          "a paired study needs exactly two arms, this design has " + std::to_string(d.arms.size()),
          "use kind = \"sets\" for more arms, or list two arms in [arms].list");
+  else if (d.arms.size() < 2)
+    Fail(a ? static_cast<const toml::node*>(a) : nullptr, "the design has only one arm, so nothing is compared",
+         "list at least two arms");
+}
+
+void DesignReader::CheckPattern(const toml::table& p, const std::string& key, const std::string& pattern) {
+  for (size_t open = pattern.find('{'); open != std::string::npos; open = pattern.find('{', open + 1)) {
+    size_t close = pattern.find('}', open);
+    std::string placeholder = pattern.substr(open, close == std::string::npos ? std::string::npos : close - open + 1);
+    const auto& allowed = ContactPlaceholders();
+    if (std::find(allowed.begin(), allowed.end(), placeholder) == allowed.end()) {
+      Fail(p.get(key), "[profiles]." + key + " uses unknown placeholder '" + placeholder + "'" +
+                           DidYouMean(placeholder, allowed),
+           "use {given}, {family} or {n}");
+      return;
+    }
+  }
+}
+
+// One [[profiles.pool]]: factor = "origin", level = "coastal" (names signal one
+// factor) or levels = { gender = "f", origin = "coastal" } (several).
+void DesignReader::ReadPool(const toml::table& t, Design& d) {
+  CheckKeys(t, "[[profiles.pool]]", {"factor", "level", "levels", "file"});
+  NamePool np;
+  np.pos = Pos(&t);
+  np.file = String(t, "[[profiles.pool]]", "file", true);
+  auto check_level = [&](const toml::node* at, const std::string& factor, const std::string& level) {
+    auto fit = std::find_if(d.factors.begin(), d.factors.end(), [&](const Factor& f) { return f.name == factor; });
+    std::vector<std::string> names;
+    for (const auto& f : d.factors) names.push_back(f.name);
+    if (fit == d.factors.end()) {
+      Fail(at, "name pool for unknown factor '" + factor + "'" + DidYouMean(factor, names), "use a declared factor");
+      return;
+    }
+    if (std::find(fit->levels.begin(), fit->levels.end(), level) == fit->levels.end())
+      Fail(at, "name pool for unknown level '" + level + "' of '" + factor + "'" + DidYouMean(level, fit->levels),
+           "use one of its levels");
+    np.levels[factor] = level;
+  };
+  if (const toml::node* lv = t.get("levels")) {
+    if (t.get("factor") || t.get("level")) {
+      Fail(lv, "a name pool gives either factor and level, or levels", "keep one of the two forms");
+      return;
+    }
+    if (!lv->is_table() || lv->as_table()->empty()) {
+      Fail(lv, "[[profiles.pool]].levels must be a table of factor = level", "write levels = { gender = \"f\", origin = \"coastal\" }");
+      return;
+    }
+    for (const auto& [k, v] : *lv->as_table())
+      check_level(&v, std::string(k.str()), v.is_string() ? std::string(v.as_string()->get()) : "");
+  } else {
+    np.factor = String(t, "[[profiles.pool]]", "factor", true);
+    np.level = String(t, "[[profiles.pool]]", "level", true);
+    if (error_) return;
+    if (std::find_if(d.factors.begin(), d.factors.end(), [&](const Factor& f) { return f.name == np.factor; }) ==
+        d.factors.end())
+      check_level(t.get("factor"), np.factor, np.level);
+    else
+      check_level(t.get("level"), np.factor, np.level);
+  }
+  if (error_) return;
+  CheckFile(t.get("file"), np.file, "the name pool");
+  std::vector<std::string> keyed;
+  for (const auto& [f, l] : np.levels) keyed.push_back(f);
+  if (d.name_factors.empty()) {
+    d.name_factors = keyed;
+  } else if (keyed != d.name_factors) {
+    auto join = [](const std::vector<std::string>& v) {
+      std::string s;
+      for (const auto& x : v) s += (s.empty() ? "" : ", ") + x;
+      return s;
+    };
+    Fail(&t, "this name pool is keyed by " + join(keyed) + " but the first pool by " + join(d.name_factors),
+         "key every pool by the same factors");
+    return;
+  }
+  for (const auto& other : d.name_pools)
+    if (other.levels == np.levels) {
+      Fail(&t, "two name pools are given for " + ArmLabel(np.levels), "merge them into one file");
+      return;
+    }
+  d.name_pools.push_back(np);
 }
 
 void DesignReader::ReadProfiles(Design& d) {
@@ -316,39 +466,47 @@ void DesignReader::ReadProfiles(Design& d) {
   CheckKeys(*p, "[profiles]", {"mailbox", "phone", "pool"});
   d.mailbox_pattern = String(*p, "[profiles]", "mailbox", false, d.mailbox_pattern);
   d.phone_pattern = String(*p, "[profiles]", "phone", false, "");
+  CheckPattern(*p, "mailbox", d.mailbox_pattern);
+  CheckPattern(*p, "phone", d.phone_pattern);
   const toml::node* pools = p->get("pool");
   if (pools && !pools->is_array_of_tables()) {
     Fail(pools, "name pools must be written as [[profiles.pool]] sections", "write one [[profiles.pool]] per level");
     return;
   }
-  if (pools) {
-    for (const auto& el : *pools->as_array()) {
-      const toml::table& t = *el.as_table();
-      CheckKeys(t, "[[profiles.pool]]", {"factor", "level", "file"});
-      NamePool np{String(t, "[[profiles.pool]]", "factor", true), String(t, "[[profiles.pool]]", "level", true),
-                  String(t, "[[profiles.pool]]", "file", true)};
-      auto fit = std::find_if(d.factors.begin(), d.factors.end(), [&](const Factor& f) { return f.name == np.factor; });
-      if (fit == d.factors.end()) {
-        Fail(t.get("factor"), "name pool for unknown factor '" + np.factor + "'", "use a declared factor");
-        continue;
-      }
-      if (std::find(fit->levels.begin(), fit->levels.end(), np.level) == fit->levels.end())
-        Fail(t.get("level"), "name pool for unknown level '" + np.level + "' of '" + np.factor + "'" +
-                                 DidYouMean(np.level, fit->levels),
-             "use one of its levels");
-      CheckFile(t.get("file"), np.file, "the name pool");
-      d.name_pools.push_back(np);
-    }
+  if (!pools) {
+    Fail(p, "no name pool is declared", "add one [[profiles.pool]] per level of the factor the names signal");
+    return;
   }
-  // Names signal the first factor; every one of its levels needs a pool.
-  if (!d.factors.empty()) {
-    const Factor& f = d.factors.front();
-    for (const auto& l : f.levels) {
-      bool has = std::any_of(d.name_pools.begin(), d.name_pools.end(),
-                             [&](const NamePool& np) { return np.factor == f.name && np.level == l; });
-      if (!has)
-        Fail(p, "level '" + l + "' of factor '" + f.name + "' has no name pool",
-             "add [[profiles.pool]] with factor = \"" + f.name + "\", level = \"" + l + "\" and a names file");
+  for (const auto& el : *pools->as_array()) {
+    ReadPool(*el.as_table(), d);
+    if (error_) return;
+  }
+  // Every arm needs the pool of its name-factor levels.
+  for (const auto& arm : d.arms) {
+    if (PoolOfArm(d, arm) >= 0) continue;
+    if (d.name_factors.size() == 1) {
+      const std::string& f = d.name_factors.front();
+      const std::string& l = arm.levels.at(f);
+      Fail(p, "level '" + l + "' of factor '" + f + "' has no name pool",
+           "add [[profiles.pool]] with factor = \"" + f + "\", level = \"" + l + "\" and a names file");
+    } else {
+      std::map<std::string, std::string> key;
+      for (const auto& f : d.name_factors) key[f] = arm.levels.at(f);
+      Fail(p, "the levels " + ArmLabel(key) + " have no name pool",
+           "add [[profiles.pool]] with levels = {…} and a names file");
+    }
+    return;
+  }
+  // Every factor must show in the materials: through the names or through
+  // fields of its own; otherwise its arms would send identical applications.
+  for (const auto& f : d.factors) {
+    bool named = std::find(d.name_factors.begin(), d.name_factors.end(), f.name) != d.name_factors.end();
+    if (!named && f.fields.empty()) {
+      if (!error_)
+        error_ = BadInput(label_ + ":" + std::to_string(f.pos.line) + ":" + std::to_string(f.pos.column),
+                        "factor '" + f.name + "' changes nothing in the applications: no name pool is keyed by it and it sets no template field",
+                        "add fields = { … } to its [[factor]], or key the name pools by it");
+      return;
     }
   }
 }
@@ -372,16 +530,38 @@ void DesignReader::ReadTemplates(Design& d) {
 void DesignReader::ReadSchedule(Design& d) {
   const toml::table* s = Table(root_, "schedule", false);
   if (!s) return;
-  CheckKeys(*s, "[schedule]", {"start", "gap_hours", "weekdays"});
+  CheckKeys(*s, "[schedule]", {"start", "gap_hours", "weekdays", "hours", "sets_per_day"});
   d.schedule.start = String(*s, "[schedule]", "start", false, "");
+  if (!d.schedule.start.empty() && !ParseIsoTime(d.schedule.start))
+    Fail(s->get("start"), "[schedule].start '" + d.schedule.start + "' is not a date", "write it as YYYY-MM-DD");
+  d.schedule.sets_per_day = static_cast<int>(Integer(*s, "[schedule]", "sets_per_day", 20, 1, 1000000));
+  if (const toml::node* h = s->get("hours")) {
+    const toml::array* arr = h->as_array();
+    if (!arr || arr->size() != 2 || !arr->get(0)->is_integer() || !arr->get(1)->is_integer()) {
+      Fail(h, "[schedule].hours must be two whole numbers [open, close]", "write hours = [9, 17] (UTC)");
+    } else {
+      int64_t open = arr->get(0)->as_integer()->get(), close = arr->get(1)->as_integer()->get();
+      if (open < 0 || close > 24 || open >= close)
+        Fail(h, "[schedule].hours must satisfy 0 <= open < close <= 24, got [" + std::to_string(open) + ", " +
+                    std::to_string(close) + "]",
+             "write hours = [9, 17] (UTC)");
+      else
+        d.schedule.hour_open = static_cast<int>(open), d.schedule.hour_close = static_cast<int>(close);
+    }
+  }
   if (const toml::node* g = s->get("gap_hours")) {
     const toml::array* arr = g->as_array();
     if (!arr || arr->size() != 2 || !arr->get(0)->is_integer() || !arr->get(1)->is_integer()) {
       Fail(g, "[schedule].gap_hours must be two whole numbers [min, max]", "write gap_hours = [24, 72]");
     } else {
-      d.schedule.gap_min_hours = static_cast<int>(arr->get(0)->as_integer()->get());
-      d.schedule.gap_max_hours = static_cast<int>(arr->get(1)->as_integer()->get());
-      if (d.schedule.gap_min_hours < 0)
+      d.schedule.gap_pos = Pos(g);
+      int64_t lo = arr->get(0)->as_integer()->get(), hi = arr->get(1)->as_integer()->get();
+      d.schedule.gap_min_hours = static_cast<int>(std::clamp<int64_t>(lo, -1, 100000));
+      d.schedule.gap_max_hours = static_cast<int>(std::clamp<int64_t>(hi, -1, 100000));
+      if (hi > 24 * 60)
+        Fail(g, "[schedule].gap_hours above " + std::to_string(24 * 60) + " hours (60 days) is not supported",
+             "use a shorter gap");
+      else if (d.schedule.gap_min_hours < 0)
         Fail(g, "[schedule].gap_hours cannot be negative", "use hours of 0 or more");
       else if (d.schedule.gap_min_hours > d.schedule.gap_max_hours)
         Fail(g, "[schedule].gap_hours is reversed: min " + std::to_string(d.schedule.gap_min_hours) + " > max " +
@@ -401,6 +581,11 @@ void DesignReader::ReadSchedule(Design& d) {
     }
     if (d.schedule.weekdays.empty() && !error_)
       Fail(s->get("weekdays"), "[schedule].weekdays is empty", "list at least one sending day");
+  }
+  // Gaps matter only between the probes of a set.
+  if (!error_ && (d.kind == "paired" || d.kind == "sets")) {
+    Status keepable = CheckGapsKeepable(d.schedule, Where(s->get("gap_hours") ? s->get("gap_hours") : s));
+    if (!keepable.ok()) error_ = keepable.error();
   }
 }
 

@@ -1,28 +1,15 @@
 #include "planner/plan_store.h"
 
+#include <nlohmann/json.hpp>
+
 #include "core/audit.h"
 #include "core/plan_header.h"
 #include "core/clock.h"
 #include "core/pseudonym.h"
 #include "core/sha256.h"
+#include "planner/materials.h"
 
 namespace twinprobe {
-namespace {
-
-std::string JsonEscape(const std::string& s) {
-  std::string out;
-  for (unsigned char c : s) {
-    if (c == '"' || c == '\\') out += '\\', out += static_cast<char>(c);
-    else if (c < 0x20) {
-      char buf[8];
-      std::snprintf(buf, sizeof buf, "\\u%04x", c);
-      out += buf;
-    } else out += static_cast<char>(c);
-  }
-  return out;
-}
-
-}  // namespace
 
 Result<PlanSummary> StorePlan(Store& store, const Design& design, const std::vector<Vacancy>& vacancies,
                               const Plan& plan) {
@@ -58,8 +45,12 @@ Result<PlanSummary> StorePlan(Store& store, const Design& design, const std::vec
       "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7)");
   std::vector<int64_t> profile_ids;
   for (const auto& p : plan.profiles) {
-    std::string fields = "{\"given_name\":\"" + JsonEscape(p.given_name) + "\",\"family_name\":\"" +
-                         JsonEscape(p.family_name) + "\"}";
+    // Every template field of the profile, so `render` needs only the store
+    // and the vacancies file. std::map keeps the keys sorted: stable bytes.
+    nlohmann::json fields_json(nlohmann::json::value_t::object);
+    for (const auto& [k, v] : p.fields) fields_json[k] = v;
+    if (p.fields.empty()) fields_json = {{"given_name", p.given_name}, {"family_name", p.family_name}};
+    std::string fields = fields_json.dump();
     ins_prof.Bind(1, summary.plan_id).Bind(2, arm_ids[p.arm]).Bind(3, p.full_name()).Bind(4, p.mailbox);
     ins_prof.Bind(5, p.phone).Bind(6, fields).Bind(7, seq).Run();
     profile_ids.push_back(store.LastInsertId());
@@ -70,9 +61,7 @@ Result<PlanSummary> StorePlan(Store& store, const Design& design, const std::vec
       "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9)");
   int serial = 0;
   for (const auto& p : plan.probes) {
-    char ref[16];
-    std::snprintf(ref, sizeof ref, "P%05d", ++serial);
-    ins_probe.Bind(1, summary.plan_id).Bind(2, ref).Bind(3, vacancy_ids[p.vacancy]).Bind(4, profile_ids[p.profile]);
+    ins_probe.Bind(1, summary.plan_id).Bind(2, ProbeRef(++serial)).Bind(3, vacancy_ids[p.vacancy]).Bind(4, profile_ids[p.profile]);
     ins_probe.Bind(5, arm_ids[p.arm]);
     if (design.templates.empty()) ins_probe.BindNull(6);
     else ins_probe.Bind(6, design.templates[p.template_index]);

@@ -31,10 +31,12 @@ Result<std::vector<Vacancy>> ReadVacancies(const std::string& study_dir, const D
     std::string where = path + ":" + std::to_string(row.line);
     Vacancy v;
     v.line = row.line;
+    v.file = path;
     v.ref = row.fields[c_ref];
     v.employer = row.fields[c_emp];
     if (c_contact >= 0) v.contact = row.fields[c_contact];
     if (c_open >= 0) v.opened_on = row.fields[c_open];
+    for (size_t c = 0; c < t.header.size(); ++c) v.fields[t.header[c]] = row.fields[c];
     if (v.ref.empty()) return BadInput(where, "the vacancy reference is empty", "give every vacancy a unique reference");
     if (auto it = seen.find(v.ref); it != seen.end())
       return BadInput(where, "vacancy '" + v.ref + "' appears twice (first on line " + std::to_string(it->second) + ")",

@@ -14,7 +14,7 @@ bool HasEmployers(const AnalysisResult& r) { return r.employers.available; }
 const std::vector<HtmlSection>& HtmlSections() {
   static const std::vector<HtmlSection> sections = {
       {"summary", "Summary", nullptr, {&SummaryKeyFigures, &SummaryParagraphs}},
-      {"design", "How the test was designed", nullptr, {&DesignFactors, &DesignCounts, &DesignStrata, &DesignIntegrity}},
+      {"design", "How the test was designed", nullptr, {&DesignFactors, &DesignCounts, &DesignStrata, &DesignIntegrity, &DesignBalance, &DesignPreregistration}},
       {"rates", "Positive callbacks by group", nullptr, {&RatesChart}},
       {"paired", "Pairs: who was treated better", &HasPaired, {&PairedTable, &PairedTest, &PairedEffects}},
       {"comparisons", "Each group against the reference", &HasComparisons, {&ComparisonsForest}},

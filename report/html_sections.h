@@ -38,6 +38,8 @@ std::string DesignFactors(const AnalysisResult&, const ReportContext&);
 std::string DesignCounts(const AnalysisResult&, const ReportContext&);
 std::string DesignStrata(const AnalysisResult&, const ReportContext&);
 std::string DesignIntegrity(const AnalysisResult&, const ReportContext&);
+std::string DesignBalance(const AnalysisResult&, const ReportContext&);          // analysis/balance.h
+std::string DesignPreregistration(const AnalysisResult&, const ReportContext&);  // analysis/deviations.h
 // html_sections_responses.cpp
 std::string ResponseCodes(const AnalysisResult&, const ReportContext&);
 std::string ResponseTimesChart(const AnalysisResult&, const ReportContext&);

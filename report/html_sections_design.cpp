@@ -9,6 +9,7 @@
 #include "report/html_sections.h"
 #include "report/html_table.h"
 #include "report/plain_summary.h"
+#include "report/text_report.h"
 
 namespace twinprobe {
 namespace {
@@ -114,6 +115,63 @@ std::string DesignIntegrity(const AnalysisResult& r, const ReportContext&) {
          html::Para("The design hash identifies the exact design file the plan was made from; anyone holding the "
                     "study folder can recompute it. The seed makes the random assignment repeatable.") +
          html::Facts(rows);
+}
+
+// The plan's balance: one small arm x variable table per variable, with its test.
+std::string DesignBalance(const AnalysisResult& r, const ReportContext&) {
+  if (!r.balance.present || r.balance.tables.empty()) return "";
+  std::string o = "<div class=\"tables\">";
+  for (const auto& t : r.balance.tables) {
+    HtmlTable h;
+    h.caption = t.title;
+    h.headers = {"Group"};
+    for (const auto& c : t.columns) h.headers.push_back(c);
+    h.css_class = "compact";
+    for (size_t i = 0; i < t.arms.size(); ++i) {
+      std::vector<TableCell> row = {HeadCell(ArmName(t.arms[i]))};
+      for (int64_t n : t.counts[i]) row.push_back(NumCell(std::to_string(n)));
+      h.rows.push_back(row);
+    }
+    o += RenderTable(h);
+    char test[160];
+    if (t.test.df == 0) std::snprintf(test, sizeof test, "no test (a single column)");
+    else
+      std::snprintf(test, sizeof test, "X\u00b2 = %.2f, df = %d, p = %s%s", t.test.statistic, t.test.df,
+                    FormatP(t.test.p()).c_str(), t.test.p_monte_carlo ? " (Monte Carlo: small expected counts)" : "");
+    o += html::Para(t.title + ": " + test);
+  }
+  return html::Heading("Balance of the plan") +
+         html::Para("Applications per group by template, position in the sending order, stratum and weekday of "
+                    "sending, each with Pearson's chi-square test of independence. The plan balances templates and "
+                    "sending order by construction, so those tables show X\u00b2 near 0 and p near 1.") +
+         o + "</div>";
+}
+
+// The freeze and every deviation from it.
+std::string DesignPreregistration(const AnalysisResult& r, const ReportContext&) {
+  const auto& s = r.preregistration;
+  if (!s.frozen)
+    return html::Heading("Pre-registration") +
+           html::Para("The analysis plan was not registered with 'twinprobe freeze', so this report cannot show that the "
+                      "analysis was fixed before the data came in.");
+  std::string o = html::Heading("Pre-registration") +
+                  html::Facts({{"Frozen at", s.frozen_at},
+                               {"Design hash at the freeze (SHA-256)", s.design_sha256},
+                               {"Analysis plan hash (SHA-256)", s.analysis_sha256}});
+  if (s.deviations.empty()) return o + html::Para("The analysis follows the frozen plan: no deviation.");
+  HtmlTable d;
+  d.caption = "Deviations from the frozen plan";
+  d.headers = {"Kind", "Deviation"};
+  for (const auto& x : s.deviations) d.rows.push_back({Cell(x.kind), Cell(x.what)});
+  o += RenderTable(d);
+  if (!s.exploratory.empty()) {
+    HtmlTable e;
+    e.caption = "Exploratory, not confirmatory (outside the frozen plan)";
+    e.headers = {"Result", "Why"};
+    for (const auto& x : s.exploratory) e.rows.push_back({Cell(x.what), Cell(x.why)});
+    o += RenderTable(e);
+  }
+  return o;
 }
 
 }  // namespace twinprobe

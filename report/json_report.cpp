@@ -4,6 +4,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "report/design_report.h"
 #include "report/effects_report.h"
 
 namespace twinprobe {
@@ -207,13 +208,16 @@ std::string RenderJsonReport(const AnalysisResult& r) {
     p["mcnemar_exact_p"] = Num(r.mcnemar_exact_p);
     p["strata"] = nlohmann::json::array();
     for (const auto& s : r.strata)
-      p["strata"].push_back({{"name", s.name}, {"value", s.value}, {"table", Table(s.table)}});
+      p["strata"].push_back({{"name", s.name}, {"value", s.value}, {"table", Table(s.table)},
+                             {"exploratory", r.preregistration.IsExploratoryStratum(s.name)}});
     j["paired"] = p;
   }
   j["effects"] = EffectsJson(r);
   j["design"] = DesignJson(r.design);
   j["response_times"] = ResponseTimesJson(r.response_times);
   j["employers"] = EmployersJson(r.employers);
+  j["balance"] = BalanceJson(r.balance);
+  j["preregistration"] = PreregistrationJson(r.preregistration);
   if (r.listings.present) j["listing_audit"] = ListingAuditJson(r.listings);
   return j.dump(2) + "\n";
 }

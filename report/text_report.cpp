@@ -5,6 +5,7 @@
 #include <cstdio>
 #include <sstream>
 
+#include "report/design_report.h"
 #include "report/effects_report.h"
 #include "report/plain_summary.h"
 
@@ -307,6 +308,9 @@ std::string RenderTextReport(const AnalysisResult& r) {
   ResponseTimesBlock(o, r);
   EmployersBlock(o, r);
   if (r.listings.present) o << "\n" << RenderListingText(r.listings, r.alpha, true);
+  // Design integrity: balance of the plan and the pre-registration.
+  if (std::string balance = RenderBalanceText(r.balance); !balance.empty()) o << "\n" << balance;
+  o << "\n" << RenderPreregistrationText(r.preregistration);
   return o.str();
 }
 

@@ -26,6 +26,12 @@ TEST_CASE("demo: runs end to end, writes reports and finds the built-in effect")
   auto verify = RunCli({"--study", dir / "demo", "verify"});
   CHECK(verify.exit_code == 0);
   CHECK(verify.out.rfind("The audit chain is intact", 0) == 0);
+  // The report shows the plan's balance: arm x template, send order, each stratum, weekday.
+  CHECK(r.out.find("Balance of the plan") != std::string::npos);
+  std::vector<std::string> variables;
+  for (const auto& t : json["balance"]["tables"]) variables.push_back(t["variable"]);
+  CHECK(variables == std::vector<std::string>{"template", "send_order", "stratum:occupation", "stratum:region", "weekday"});
+  CHECK(json["balance"]["tables"][0]["max_spread"] == 0);
 }
 
 TEST_CASE("demo: the same seed gives the same numbers twice") {

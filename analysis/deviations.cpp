@@ -1,0 +1,176 @@
+#include "analysis/deviations.h"
+
+#include <algorithm>
+#include <cstdio>
+#include <map>
+
+#include "core/meta.h"
+#include "core/sha256.h"
+
+namespace twinprobe {
+namespace {
+
+// The meta keys planner/freeze.cpp writes (kept in step by tests/analysis/deviations_test.cpp).
+constexpr const char* kAt = "freeze.at";
+constexpr const char* kDesignSha = "freeze.design_sha256";
+constexpr const char* kAnalysisSha = "freeze.analysis_sha256";
+constexpr const char* kAnalysisPlan = "freeze.analysis_plan";
+constexpr const char* kSentBefore = "freeze.sent_before";
+constexpr const char* kResponsesBefore = "freeze.responses_before";
+
+std::map<std::string, std::string> ParsePlanLines(const std::string& text) {
+  std::map<std::string, std::string> out;
+  size_t pos = 0;
+  while (pos < text.size()) {
+    size_t end = text.find('\n', pos);
+    if (end == std::string::npos) end = text.size();
+    std::string line = text.substr(pos, end - pos);
+    size_t eq = line.find('=');
+    if (eq != std::string::npos) out[line.substr(0, eq)] = line.substr(eq + 1);
+    pos = end + 1;
+  }
+  return out;
+}
+
+std::vector<std::string> Split(const std::string& s, char sep) {
+  std::vector<std::string> out;
+  if (s.empty()) return out;
+  size_t start = 0;
+  for (;;) {
+    size_t at = s.find(sep, start);
+    out.push_back(s.substr(start, at - start));
+    if (at == std::string::npos) break;
+    start = at + 1;
+  }
+  return out;
+}
+
+std::string Short(const std::string& sha) { return sha.substr(0, 12) + "…"; }
+
+std::string Shown(const std::string& v) { return v.empty() ? "(none)" : v; }
+
+// The analysis plan items in use now: from the design when there is one,
+// else from what the store remembers; alpha, correction and primary from the
+// plan the analysis runs with.
+std::map<std::string, std::string> CurrentItems(Store& store, const Design* current, const AnalysisPlan& used) {
+  std::map<std::string, std::string> items;
+  if (current) {
+    items = ParsePlanLines(CanonicalAnalysisPlan(*current));
+  } else {
+    auto join = [](const std::vector<std::string>& v, const char* sep) {
+      std::string s;
+      for (size_t i = 0; i < v.size(); ++i) s += (i ? sep : "") + v[i];
+      return s;
+    };
+    OutcomeScheme scheme = StoredOutcomeScheme(store);
+    items["codes"] = join(scheme.codes, ",");
+    items["positive"] = join(scheme.positive, ",");
+    items["window_days"] = std::to_string(scheme.window_days);
+    items["strata"] = join(MetaList(store, "strata"), ",");
+    Stmt p = store.Prepare("SELECT kind FROM current_plan");
+    if (p.Step()) items["kind"] = p.Text(0);
+    std::vector<std::string> arms;
+    std::string reference;
+    Stmt a = store.Prepare("SELECT label, is_reference FROM arm WHERE plan_id = (SELECT max(id) FROM plan) ORDER BY id");
+    while (a.Step()) {
+      arms.push_back(a.Text(0));
+      if (a.Int(1)) reference = a.Text(0);
+    }
+    if (!arms.empty()) items["arms"] = join(arms, "|"), items["reference"] = reference;
+  }
+  char alpha[40];
+  std::snprintf(alpha, sizeof alpha, "%.17g", used.alpha);
+  items["alpha"] = alpha;
+  items["correction"] = used.correction;
+  items["primary"] = used.primary;
+  return items;
+}
+
+}  // namespace
+
+bool PreregistrationStatus::IsExploratoryStratum(const std::string& stratum) const {
+  return frozen && std::find(frozen_strata.begin(), frozen_strata.end(), stratum) == frozen_strata.end();
+}
+
+PreregistrationStatus CheckPreregistration(Store& store, const Design* current, const AnalysisPlan& used) {
+  PreregistrationStatus s;
+  if (current) {
+    s.current_design_sha256 = Sha256Hex(current->canonical);
+    s.current_analysis_sha256 = Sha256Hex(CanonicalAnalysisPlan(*current));
+  }
+  auto at = MetaValue(store, kAt);
+  if (!at) return s;
+  s.frozen = true;
+  s.frozen_at = *at;
+  s.design_sha256 = MetaValue(store, kDesignSha).value_or("");
+  s.analysis_sha256 = MetaValue(store, kAnalysisSha).value_or("");
+  const auto frozen = ParsePlanLines(MetaValue(store, kAnalysisPlan).value_or(""));
+  const auto now = CurrentItems(store, current, used);
+  auto frozen_item = [&](const std::string& key) {
+    auto it = frozen.find(key);
+    return it == frozen.end() ? std::string() : it->second;
+  };
+  s.frozen_strata = Split(frozen_item("strata"), ',');
+
+  if (current && s.current_design_sha256 != s.design_sha256)
+    s.deviations.push_back({"design_edited", "study.toml was edited after the freeze (frozen design sha256 " +
+                                                 Short(s.design_sha256) + ", now " + Short(s.current_design_sha256) + ")"});
+  Stmt plan = store.Prepare("SELECT design_sha256 FROM current_plan");
+  if (plan.Step() && !plan.IsNull(0) && plan.Text(0) != s.design_sha256)
+    s.deviations.push_back({"plan_from_other_design", "the current plan was made from a design other than the frozen one "
+                                                      "(plan design sha256 " + Short(plan.Text(0)) + ")"});
+  int64_t sent_before = std::stoll(MetaValue(store, kSentBefore).value_or("0"));
+  int64_t responses_before = std::stoll(MetaValue(store, kResponsesBefore).value_or("0"));
+  if (sent_before > 0 || responses_before > 0)
+    s.deviations.push_back({"frozen_after_fieldwork", "the design was frozen after " + std::to_string(sent_before) +
+                                                          " probes were sent and " + std::to_string(responses_before) +
+                                                          " responses recorded, so the registration is not prospective"});
+
+  auto differs = [&](const std::string& key) { return now.count(key) && now.at(key) != frozen_item(key); };
+  // Strata, item by item.
+  if (now.count("strata")) {
+    auto current_strata = Split(now.at("strata"), ',');
+    for (const auto& x : current_strata)
+      if (std::find(s.frozen_strata.begin(), s.frozen_strata.end(), x) == s.frozen_strata.end()) {
+        s.deviations.push_back({"stratum_added", "stratum '" + x + "' was added after the freeze"});
+        s.exploratory.push_back({"results by stratum '" + x + "'", "the stratum is not in the frozen plan"});
+      }
+    for (const auto& x : s.frozen_strata)
+      if (std::find(current_strata.begin(), current_strata.end(), x) == current_strata.end())
+        s.deviations.push_back({"stratum_removed", "stratum '" + x + "' of the frozen plan was removed"});
+  }
+  if (differs("correction")) {
+    s.deviations.push_back({"correction_changed", "the multiple-comparison correction is " + Shown(now.at("correction")) +
+                                                      "; the frozen plan names " + Shown(frozen_item("correction"))});
+    s.exploratory.push_back({"p-values adjusted by " + now.at("correction"),
+                             "the frozen plan names " + Shown(frozen_item("correction"))});
+  }
+  if (differs("alpha")) {
+    s.deviations.push_back({"alpha_changed", "alpha is " + now.at("alpha") + "; the frozen plan names " + frozen_item("alpha")});
+    s.exploratory.push_back({"conclusions at alpha = " + now.at("alpha"), "the frozen plan names alpha = " + frozen_item("alpha")});
+  }
+  for (const char* key : {"primary", "positive", "codes", "window_days"})
+    if (differs(key)) {
+      s.deviations.push_back({"primary_outcome_changed", std::string(key) + " is " + Shown(now.at(key)) +
+                                                             "; the frozen plan says " + Shown(frozen_item(key))});
+      s.exploratory.push_back({"the primary outcome as now defined", std::string("its ") + key + " differs from the frozen plan"});
+    }
+  for (const char* key : {"kind", "arms", "reference"})
+    if (differs(key)) {
+      s.deviations.push_back({"arms_changed", std::string(key) + " is " + Shown(now.at(key)) +
+                                                  "; the frozen plan says " + Shown(frozen_item(key))});
+      s.exploratory.push_back({"every comparison between arms", std::string("the ") + key + " differs from the frozen plan"});
+    }
+  if (differs("looks"))
+    s.deviations.push_back({"looks_changed", "the planned interim looks are " + Shown(now.at("looks")) +
+                                                 "; the frozen plan says " + Shown(frozen_item("looks"))});
+  // One exploratory entry per result, however many of its items changed.
+  std::vector<ExploratoryItem> unique;
+  for (auto& e : s.exploratory)
+    if (std::none_of(unique.begin(), unique.end(), [&](const ExploratoryItem& u) { return u.what == e.what; }))
+      unique.push_back(std::move(e));
+  s.exploratory = std::move(unique);
+  return s;
+}
+
+}  // namespace twinprobe

@@ -1,0 +1,53 @@
+#pragma once
+// Pre-registration: what `freeze` stored (planner/freeze.h) compared with the
+// design and analysis plan in use now. Every difference is a deviation; the
+// results it touches are exploratory, not confirmatory.
+//
+// Deviations found:
+//   design_edited            study.toml's canonical form changed after the freeze
+//   plan_from_other_design   the current plan was made from another design
+//   frozen_after_fieldwork   probes were sent or responses recorded before the freeze
+//   stratum_added / stratum_removed
+//   correction_changed       a multiple-comparison method other than the frozen one
+//   alpha_changed
+//   primary_outcome_changed  primary outcome, its positive codes, codes or window
+//   arms_changed             kind, arms or reference arm
+//   looks_changed            planned interim looks
+#include <string>
+#include <vector>
+
+#include "core/design.h"
+#include "core/store.h"
+
+namespace twinprobe {
+
+struct Deviation {
+  std::string kind;  // one of the names above
+  std::string what;  // a sentence for the report
+};
+
+struct ExploratoryItem {
+  std::string what;  // the result, e.g. "tables by stratum 'firm_size'"
+  std::string why;   // e.g. "the stratum is not in the frozen plan"
+};
+
+struct PreregistrationStatus {
+  bool frozen = false;
+  std::string frozen_at;
+  std::string design_sha256;           // as frozen
+  std::string analysis_sha256;         // as frozen
+  std::string current_design_sha256;   // "" when no design file was available
+  std::string current_analysis_sha256;
+  std::vector<std::string> frozen_strata;
+  std::vector<Deviation> deviations;
+  std::vector<ExploratoryItem> exploratory;
+
+  // True when the study is frozen and `stratum` is not among the frozen strata.
+  bool IsExploratoryStratum(const std::string& stratum) const;
+};
+
+// `current` is the design file as it is now (nullptr when the study has none,
+// e.g. imported data); `used` is the analysis plan the analysis runs with.
+PreregistrationStatus CheckPreregistration(Store& store, const Design* current, const AnalysisPlan& used);
+
+}  // namespace twinprobe

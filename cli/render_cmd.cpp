@@ -1,0 +1,103 @@
+// `twinprobe render`: writes every probe's application documents (Markdown,
+// plain text, HTML) from the templates and the stored plan, after proving
+// once more that the probes of each set differ only in the tested attribute.
+#include <unistd.h>
+
+#include <filesystem>
+#include <iostream>
+#include <set>
+
+#include <nlohmann/json.hpp>
+
+#include "cli/command.h"
+#include "planner/materials.h"
+#include "planner/one_difference.h"
+#include "planner/study_check.h"
+
+namespace twinprobe {
+namespace {
+
+struct RenderOptions {
+  std::string out;                  // default: STUDY/materials
+  std::vector<std::string> probes;  // only these (default: all)
+};
+
+// A one-line progress bar on stderr, only when stderr is a terminal.
+class ProgressBar {
+ public:
+  explicit ProgressBar(std::string label) : label_(std::move(label)), enabled_(isatty(STDERR_FILENO) != 0) {}
+  ~ProgressBar() {
+    if (enabled_ && shown_) std::cerr << "\n";
+  }
+  void Update(size_t done, size_t total) {
+    if (!enabled_ || total == 0) return;
+    int filled = static_cast<int>(30 * done / total);
+    if (filled == last_ && done != total) return;  // redraw only when the bar moves
+    last_ = filled;
+    shown_ = true;
+    std::cerr << "\r" << label_ << " [" << std::string(filled, '#') << std::string(30 - filled, '-') << "] " << done
+              << "/" << total << std::flush;
+  }
+
+ private:
+  std::string label_;
+  bool enabled_;
+  bool shown_ = false;
+  int last_ = -1;
+};
+
+int RunRender(Context& ctx, const RenderOptions& o) {
+  auto study = CheckStudy(ctx.study_dir);
+  if (!study.ok()) return ReportError(study.error());
+  const auto& s = study.value();
+  auto store = OpenStudyStore(ctx, false);
+  if (!store.ok()) return ReportError(store.error());
+  auto templates = LoadTemplates(ctx.study_dir, s.design);
+  if (!templates.ok()) return ReportError(templates.error());
+  auto materials = StoredMaterials(*store.value(), s.design, s.vacancies);
+  if (!materials.ok()) return ReportError(materials.error());
+  auto proof = ProveOneDifference(s.design, templates.value(), materials.value());
+  if (!proof.ok()) return ReportError(proof.error());
+  if (!proof.value().ok()) {
+    for (const auto& leak : proof.value().leaks) ReportError(leak.AsError());
+    return static_cast<int>(ExitCode::kBadInput);
+  }
+  std::vector<ProbeMaterial> chosen;
+  if (o.probes.empty()) {
+    chosen = materials.value();
+  } else {
+    std::set<std::string> wanted(o.probes.begin(), o.probes.end());
+    for (const auto& m : materials.value())
+      if (wanted.erase(m.probe_ref)) chosen.push_back(m);
+    if (!wanted.empty())
+      return ReportError(BadInput("", "unknown probe '" + *wanted.begin() + "'",
+                                  "use a probe reference from 'twinprobe schedule' (e.g. P00001)"));
+  }
+  std::string out = o.out.empty() ? StudyPath(ctx, "materials") : o.out;
+  ProgressBar bar("rendering");
+  auto written = WriteMaterials(out, templates.value(), chosen, [&](size_t done, size_t total) { bar.Update(done, total); });
+  if (!written.ok()) return ReportError(written.error());
+  const auto& w = written.value();
+  if (ctx.json) {
+    std::cout << nlohmann::json{{"out", out}, {"probes", w.probes}, {"files", w.files}, {"manifest", w.manifest}}.dump(2)
+              << "\n";
+  } else {
+    std::cout << "Rendered " << w.probes << " probes into " << out << " (" << w.files
+              << " files: PROBE.md, PROBE.txt and PROBE.html each, and manifest.csv with their SHA-256).\n";
+  }
+  return 0;
+}
+
+void RegisterRender(CLI::App& app, Context& ctx) {
+  auto o = std::make_shared<RenderOptions>();
+  auto* render = app.add_subcommand(
+      "render", "Write each probe's application (Markdown, plain text, HTML) from the templates into materials/");
+  render->add_option("--out", o->out, "Folder for the documents (default: materials/ in the study folder)");
+  render->add_option("--probe", o->probes, "Render only this probe (repeatable), e.g. --probe P00001");
+  render->callback([&ctx, o] { ctx.exit_code = RunRender(ctx, *o); });
+}
+
+const bool kRegistered = RegisterCommand(20, &RegisterRender);
+
+}  // namespace
+}  // namespace twinprobe

@@ -1,0 +1,93 @@
+// `twinprobe schedule [--due DATE] [--all]`: what to send and when.
+#include <cstdio>
+#include <iostream>
+
+#include <nlohmann/json.hpp>
+
+#include "cli/command.h"
+#include "core/clock.h"
+#include "planner/schedule.h"
+
+namespace twinprobe {
+namespace {
+
+struct ScheduleOptions {
+  std::string due;
+  bool all = false;
+};
+
+int RunSchedule(Context& ctx, const ScheduleOptions& o) {
+  ScheduleQuery query;
+  query.include_sent = o.all;
+  if (!o.due.empty()) {
+    auto t = ParseIsoTime(o.due);
+    if (!t)
+      return ReportError(BadInput("--due", "'" + o.due + "' is not a date", "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM"));
+    // A date means "by the end of that day"; a time means "before that time".
+    query.due_until = o.due.size() == 10 ? *t + 86400 : *t;
+  }
+  auto store = OpenStudyStore(ctx, false);
+  if (!store.ok()) return ReportError(store.error());
+  auto list = ListSchedule(*store.value(), query);
+  if (!list.ok()) return ReportError(list.error());
+  const auto& probes = list.value();
+  if (ctx.json) {
+    nlohmann::json rows = nlohmann::json::array();
+    for (const auto& p : probes)
+      rows.push_back({{"probe", p.probe},
+                      {"vacancy", p.vacancy},
+                      {"employer", p.employer},
+                      {"arm", p.arm},
+                      {"profile", p.profile},
+                      {"mailbox", p.mailbox},
+                      {"phone", p.phone},
+                      {"template", p.template_path},
+                      {"send_order", p.send_order},
+                      {"planned_at", p.planned_at},
+                      {"sent_at", p.sent_at.empty() ? nlohmann::json() : nlohmann::json(p.sent_at)}});
+    std::cout << nlohmann::json{{"due", o.due.empty() ? nlohmann::json() : nlohmann::json(o.due)},
+                                {"include_sent", o.all},
+                                {"count", probes.size()},
+                                {"probes", rows}}
+                     .dump(2)
+              << "\n";
+    return 0;
+  }
+  std::cout << probes.size() << (probes.size() == 1 ? " probe" : " probes")
+            << (o.all ? " in the plan" : " to send") << (o.due.empty() ? "" : " by " + o.due)
+            << " (times UTC; mark each with 'twinprobe sent PROBE --at TIME'):\n";
+  if (probes.empty()) return 0;
+  size_t w_arm = 3, w_profile = 7, w_vac = 7;
+  for (const auto& p : probes) {
+    w_arm = std::max(w_arm, p.arm.size());
+    w_profile = std::max(w_profile, p.profile.size());
+    w_vac = std::max(w_vac, p.vacancy.size());
+  }
+  auto pad = [](const std::string& s, size_t w) { return s + std::string(w > s.size() ? w - s.size() : 0, ' '); };
+  std::cout << "  " << pad("planned", 17) << "  " << pad("probe", 7) << "  " << pad("vacancy", w_vac) << "  "
+            << pad("employer", 12) << "  #  " << pad("arm", w_arm) << "  " << pad("profile", w_profile)
+            << "  template" << (o.all ? "  sent" : "") << "\n";
+  for (const auto& p : probes) {
+    std::string planned = p.planned_at.size() >= 16 ? p.planned_at.substr(0, 10) + " " + p.planned_at.substr(11, 5) : p.planned_at;
+    std::cout << "  " << pad(planned, 17) << "  " << pad(p.probe, 7) << "  " << pad(p.vacancy, w_vac) << "  "
+              << pad(p.employer, 12) << "  " << p.send_order << "  " << pad(p.arm, w_arm) << "  "
+              << pad(p.profile, w_profile) << "  " << p.template_path;
+    if (o.all) std::cout << "  " << (p.sent_at.empty() ? "-" : p.sent_at);
+    std::cout << "\n";
+  }
+  std::cout << "Contact identities (mailbox, phone) are in 'schedule --json' and in the rendered materials.\n";
+  return 0;
+}
+
+void RegisterSchedule(CLI::App& app, Context& ctx) {
+  auto o = std::make_shared<ScheduleOptions>();
+  auto* schedule = app.add_subcommand("schedule", "List the probes to send and when (probe, vacancy, profile, template, time)");
+  schedule->add_option("--due", o->due, "Only probes planned by the end of this day (YYYY-MM-DD) or before this time");
+  schedule->add_flag("--all", o->all, "Include probes already marked as sent");
+  schedule->callback([&ctx, o] { ctx.exit_code = RunSchedule(ctx, *o); });
+}
+
+const bool kRegistered = RegisterCommand(30, &RegisterSchedule);
+
+}  // namespace
+}  // namespace twinprobe
