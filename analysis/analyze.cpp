@@ -21,8 +21,22 @@ struct ProbeRow {
 Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan) {
   AnalysisResult r;
   Stmt p = store.Prepare("SELECT id, kind, origin FROM current_plan");
-  if (!p.Step())
-    return BadInput(store.path(), "the store holds no plan yet", "run 'twinprobe plan' or 'twinprobe import pairs' first");
+  if (!p.Step()) {
+    // A listing audit needs no plan: `import ranks` alone makes a store.
+    auto listings = AnalyzeStudyListings(store, plan);
+    if (!listings.ok()) return listings.error();
+    if (!listings.value().present)
+      return BadInput(store.path(), "the store holds no plan yet", "run 'twinprobe plan' or 'twinprobe import pairs' first");
+    r.kind = "listing";
+    r.plan_origin = "import";
+    r.title = MetaValue(store, "title").value_or("Listing audit");
+    r.alpha = plan.alpha;
+    r.confidence = 1.0 - plan.alpha;
+    r.correction = plan.correction;
+    r.listings = listings.value();
+    r.listings.listing_only = true;
+    return r;
+  }
   const int64_t plan_id = p.Int(0);
   r.kind = p.Text(1);
   r.plan_origin = p.Text(2);
@@ -78,6 +92,7 @@ Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const 
 
   const bool paired = arms.size() == 2 && r.kind != "unpaired";
   std::map<std::pair<std::string, std::string>, stats::PairedCounts> by_stratum;
+  std::map<int64_t, stats::PairedCounts> pair_of_vacancy;  // for SummariseEmployers
   for (const auto& [vacancy, probes] : sets) {
     bool complete = true;
     for (const auto& pr : probes) complete = complete && (pr.sent || pr.has_response);
@@ -101,6 +116,7 @@ Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const 
         t.a += x.a, t.b += x.b, t.c += x.c, t.d += x.d;
       };
       add(r.paired, one);
+      pair_of_vacancy[vacancy] = one;
       for (const auto& kv : strata_of[vacancy]) add(by_stratum[kv], one);
     }
   }
@@ -116,6 +132,9 @@ Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const 
     r.mcnemar_exact_p = stats::McNemarExactP(r.paired);
     for (const auto& [key, table] : by_stratum) r.strata.push_back({key.first, key.second, table});
   }
+  auto listings = AnalyzeStudyListings(store, plan);
+  if (!listings.ok()) return listings.error();
+  r.listings = listings.value();
   // Effects of every arm against the reference, on the complete sets.
   EffectsInput effects_in;
   effects_in.kind = r.kind;
@@ -138,6 +157,9 @@ Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const 
     effects_in.sets.push_back(std::move(so));
   }
   r.effects = ComputeEffects(effects_in);
+  r.design = SummariseDesign(store);
+  r.response_times = ComputeResponseTimes(store, scheme);
+  r.employers = SummariseEmployers(store, pair_of_vacancy);
   return r;
 }
 

@@ -11,10 +11,14 @@
 #include <string>
 #include <vector>
 
+#include "analysis/listing_analysis.h"
 #include "analysis/effects.h"
 #include "core/design.h"
 #include "core/status.h"
 #include "core/store.h"
+#include "analysis/design_summary.h"
+#include "analysis/employer_outcomes.h"
+#include "analysis/response_times.h"
 #include "stats/binomial.h"
 #include "stats/mcnemar.h"
 
@@ -63,12 +67,17 @@ struct AnalysisResult {
   double mcnemar_exact_p = 1;
   std::vector<StratumTable> strata;  // the paired table within each stratum value
 
+  ListingAudit listings;  // ranked lists (import ranks, fetch); present = false when there are none
   // Every comparison with the reference arm, per-stratum tests corrected for
   // multiplicity, Mantel–Haenszel and Breslow–Day (analysis/effects.h).
   Effects effects;
+  DesignSummary design;              // analysis/design_summary.h
+  ResponseTimes response_times;      // analysis/response_times.h
+  EmployerOutcomes employers;        // analysis/employer_outcomes.h (pseudonyms only)
 };
 
-// Requires a plan in the store. `plan` supplies alpha and the correction.
+// Requires a plan in the store, or listings (a listing-only store gives kind
+// "listing" and only `listings`). `plan` supplies alpha and the correction.
 Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan);
 
 }  // namespace twinprobe

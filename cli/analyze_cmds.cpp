@@ -1,4 +1,4 @@
-// Commands that read the store: analyze, report, verify.
+// Commands that read the store: analyze, verify (report: cli/report_cmd.cpp).
 #include <filesystem>
 #include <fstream>
 #include <iostream>
@@ -26,26 +26,6 @@ int RunAnalyze(Context& ctx) {
   auto r = AnalyzeStudy(ctx);
   if (!r.ok()) return ReportError(r.error());
   std::cout << (ctx.json ? RenderJsonReport(r.value()) : RenderTextReport(r.value()));
-  return 0;
-}
-
-struct ReportOptions {
-  std::string out;
-  bool text = false;
-};
-
-int RunReport(Context& ctx, const ReportOptions& o) {
-  auto r = AnalyzeStudy(ctx);
-  if (!r.ok()) return ReportError(r.error());
-  std::string body = ctx.json ? RenderJsonReport(r.value()) : RenderTextReport(r.value());
-  if (o.out.empty()) {
-    std::cout << body;
-    return 0;
-  }
-  std::ofstream out(o.out, std::ios::binary);
-  out << body;
-  if (!out) return ReportError(BadInput(o.out, "cannot write the report", "check that the folder exists and is writable"));
-  std::cerr << "Report written to " << o.out << "\n";
   return 0;
 }
 
@@ -83,11 +63,7 @@ int RunVerify(Context& ctx) {
 void RegisterAnalyzeCommands(CLI::App& app, Context& ctx) {
   app.add_subcommand("analyze", "Compute callback rates, the paired table and exact tests from the stored data")
       ->callback([&ctx] { ctx.exit_code = RunAnalyze(ctx); });
-  auto ro = std::make_shared<ReportOptions>();
-  auto* report = app.add_subcommand("report", "Write the study report (text, or JSON with --json)");
-  report->add_option("--out", ro->out, "Write to this file instead of standard output");
-  report->add_flag("--text", ro->text, "Plain-text summary (the default until the HTML report lands)");
-  report->callback([&ctx, ro] { ctx.exit_code = RunReport(ctx, *ro); });
+  // `report` lives in cli/report_cmd.cpp.
   app.add_subcommand("verify", "Recompute the audit chain and report the first broken link, if any")
       ->callback([&ctx] { ctx.exit_code = RunVerify(ctx); });
 }

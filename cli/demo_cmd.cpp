@@ -8,9 +8,13 @@
 
 #include "analysis/analyze.h"
 #include "cli/command.h"
+#include "cli/import_ranks_cmd.h"
 #include "collector/responses.h"
 #include "core/audit.h"
 #include "core/clock.h"
+#include "core/sha256.h"
+#include "cli/report_cmd.h"
+#include "report/html_report.h"
 #include "planner/plan_store.h"
 #include "planner/study_check.h"
 #include "report/json_report.h"
@@ -121,10 +125,25 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
   if (!plan.ok()) return ReportError(plan.error());
   auto store = OpenStudyStore(ctx, true);
   if (!store.ok()) return ReportError(store.error());
+  {
+    // The demo's employers are invented; a pseudonym key fixed by the demo's
+    // seed makes its pseudonyms, and so its reports, repeat exactly. Real
+    // studies get a random key on first use (core/pseudonym.cpp).
+    Transaction tx(*store.value());
+    store.value()
+        ->Prepare("INSERT OR IGNORE INTO secret(name, value) VALUES ('employer_key', ?1)")
+        .Bind(1, Sha256Hex("twinprobe demo employer key " + std::to_string(DemoModel{}.seed)))
+        .Run();
+    tx.Commit();
+  }
   auto planned = StorePlan(*store.value(), s.design, s.vacancies, plan.value());
   if (!planned.ok()) return ReportError(planned.error());
   DemoModel model;
   int64_t responses = SimulateFieldwork(*store.value(), s.design.outcomes, model);
+  // The listing-audit part: invented candidate rankings of an invented job
+  // board (templates/demo/listings/generate_ranks.py states the model).
+  auto ranks = ImportRanksFile(*store.value(), (fs::path(out_dir) / "listings" / "ranks.csv").string());
+  if (!ranks.ok()) return ReportError(ranks.error());
   auto result = Analyze(*store.value(), s.design.outcomes, s.design.analysis);
   if (!result.ok()) return ReportError(result.error());
 
@@ -134,6 +153,8 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
   std::ofstream(text_path) << RenderTextReport(result.value());
   std::ofstream(json_path) << RenderJsonReport(result.value());
   AuditReport audit = VerifyAudit(*store.value());
+  std::string html_path = (fs::path(out_dir) / "reports" / "report.html").string();
+  std::ofstream(html_path) << RenderHtmlReport(result.value(), StudyReportContext(ctx, *store.value(), false));
 
   if (ctx.json) {
     std::cout << RenderJsonReport(result.value());
@@ -143,11 +164,13 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
             << "  planned   " << planned.value().probes << " probes to " << planned.value().vacancies
             << " vacancies (4 occupations x 3 regions)\n"
             << "  simulated " << responses << " employer responses; true callback rates 27.8% (inland) vs 19.4% (coastal)\n"
+            << "  imported  " << ranks.value().listings << " invented candidate rankings of Kestrel Board (invented) for the listing audit\n"
             << "  audit     " << (audit.ok() ? "chain intact, " : "CHAIN BROKEN, ") << audit.entries << " entries\n\n"
             << RenderTextReport(result.value()) << "\n"
             << "Study folder: " << out_dir << "\n"
             << "Reports:      " << text_path << "\n"
             << "              " << json_path << "\n"
+            << "              " << html_path << "  (open it in a browser; it prints on A4)\n"
             << "Try: twinprobe --study " << out_dir << " analyze\n";
   return 0;
 }

@@ -20,6 +20,161 @@ nlohmann::json Table(const stats::PairedCounts& t) {
   return {{"a", t.a}, {"b", t.b}, {"c", t.c}, {"d", t.d}, {"n", t.n()}};
 }
 
+nlohmann::json OptNum(const std::optional<double>& v) { return v ? Num(*v) : nlohmann::json(nullptr); }
+
+nlohmann::json ListingComparisonJson(const ListingComparison& c) {
+  return {{"factor", c.factor},
+          {"reference", c.reference},
+          {"other", c.other},
+          {"query", c.query},
+          {"location", c.location},
+          {"n_reference", c.n_reference},
+          {"n_other", c.n_other},
+          {"exposure_gap", Num(c.exposure_gap)},
+          {"emd", Num(c.emd)},
+          {"mann_whitney_p", Num(c.mann_whitney_p)},
+          {"exposure_gap_p", Num(c.gap_p)},
+          {"emd_p", Num(c.emd_p)},
+          {"exposure_gap_p_adjusted", OptNum(c.gap_p_adjusted)},
+          {"emd_p_adjusted", OptNum(c.emd_p_adjusted)}};
+}
+
+// The listing audit (docs/ranks.md lists the keys).
+nlohmann::json ListingAuditJson(const ListingAudit& a) {
+  nlohmann::json j;
+  j["listings"] = a.listings;
+  j["appearances"] = a.appearances;
+  j["labelled_appearances"] = a.labelled_appearances;
+  j["items"] = a.items;
+  j["strata"] = a.strata;
+  j["factors"] = nlohmann::json::array();
+  for (size_t f = 0; f < a.factors.size(); ++f)
+    j["factors"].push_back({{"name", a.factors[f]}, {"levels", a.levels[f]}, {"reference", a.levels[f].front()}});
+  j["discount"] = a.discount;
+  j["top_k"] = a.top_k;
+  j["resamples"] = a.resamples;
+  j["seed"] = a.seed;
+  j["correction"] = a.correction;
+  j["groups"] = nlohmann::json::array();
+  for (const auto& g : a.groups)
+    j["groups"].push_back({{"factor", g.factor},
+                           {"group", g.label},
+                           {"appearances", g.appearances},
+                           {"exposure", Num(g.exposure)},
+                           {"exposure_share", Num(g.exposure_share)},
+                           {"top_k_share", Num(g.top_k_share)},
+                           {"mean_position", Num(g.mean_position)},
+                           {"median_position", Num(g.median_position)}});
+  j["comparisons"] = nlohmann::json::array();
+  for (const auto& c : a.overall) j["comparisons"].push_back(ListingComparisonJson(c));
+  j["by_stratum"] = nlohmann::json::array();
+  for (const auto& c : a.by_stratum) j["by_stratum"].push_back(ListingComparisonJson(c));
+  j["paired_across_strata"] = nlohmann::json::array();
+  for (const auto& p : a.paired)
+    j["paired_across_strata"].push_back(
+        {{"factor", p.factor},
+         {"reference", p.reference},
+         {"other", p.other},
+         {"strata", p.strata},
+         {"wilcoxon",
+          {{"statistic", p.wilcoxon.statistic}, {"p_value", Num(p.wilcoxon.p_value)}, {"estimate", Num(p.wilcoxon.estimate)},
+           {"exact", p.wilcoxon.exact}}},
+         {"sign_test",
+          {{"positive", p.sign.positive}, {"negative", p.sign.negative}, {"zeros", p.sign.zeros}, {"p_value", Num(p.sign.p_value)}}}});
+  j["disparity"] = nlohmann::json::array();
+  for (const auto& d : a.disparity) {
+    nlohmann::json most = nlohmann::json::array(), least = nlohmann::json::array();
+    for (const auto& e : d.most) most.push_back({{"value", e.value}, {"disparity", Num(e.disparity)}});
+    for (const auto& e : d.least) least.push_back({{"value", e.value}, {"disparity", Num(e.disparity)}});
+    j["disparity"].push_back({{"dimension", d.dimension}, {"most", most}, {"least", least}});
+  }
+  if (a.widest)
+    j["widest_split"] = {{"split", a.widest->description}, {"parts", a.widest->parts},
+                         {"distance", Num(a.widest->distance)}, {"p_value", Num(a.widest->p_value)},
+                         {"resamples", a.widest->resamples}, {"candidates", a.widest->candidates},
+                         {"exhaustive", a.widest->exhaustive}};
+  else
+    j["widest_split"] = nullptr;
+  j["overlap"] = nlohmann::json::array();
+  for (const auto& o : a.overlap)
+    j["overlap"].push_back({{"profile_a", o.profile_a}, {"profile_b", o.profile_b}, {"comparisons", o.comparisons},
+                            {"mean_jaccard_distance", Num(o.mean_jaccard_distance)}});
+  return j;
+}
+
+nlohmann::json Steps(const std::vector<CumulativePoint>& points) {
+  nlohmann::json out = nlohmann::json::array();
+  for (const auto& p : points) out.push_back({{"day", Num(p.day)}, {"count", p.count}, {"share", Num(p.share)}});
+  return out;
+}
+
+nlohmann::json DesignJson(const DesignSummary& d) {
+  nlohmann::json j;
+  j["design_sha256"] = d.design_sha256;
+  j["seed"] = d.has_seed ? nlohmann::json(d.seed) : nlohmann::json(nullptr);
+  // plan_created_at stays out: the plain document must repeat byte for byte
+  // for the same data (the demo's reproducibility check); the audit chain
+  // keeps the time.
+  j["window_days"] = d.window_days;
+  j["factors"] = nlohmann::json::array();
+  for (const auto& f : d.factors) j["factors"].push_back({{"name", f.name}, {"levels", f.levels}, {"reference", f.reference}});
+  j["arms"] = nlohmann::json::array();
+  for (const auto& a : d.arms)
+    j["arms"].push_back({{"label", a.label}, {"is_reference", a.is_reference}, {"profiles", a.profiles},
+                         {"probes_planned", a.probes_planned}});
+  j["strata_columns"] = d.strata_columns;
+  j["strata"] = nlohmann::json::array();
+  for (const auto& s : d.strata) j["strata"].push_back({{"name", s.name}, {"value", s.value}, {"vacancies", s.vacancies}});
+  j["templates"] = d.templates;
+  j["employers"] = d.employers;
+  j["first_sent_at"] = d.first_sent_at;
+  j["last_sent_at"] = d.last_sent_at;
+  return j;
+}
+
+nlohmann::json ResponseTimesJson(const ResponseTimes& rt) {
+  nlohmann::json j;
+  j["available"] = rt.available;
+  j["window_days"] = rt.window_days;
+  j["arms"] = nlohmann::json::array();
+  for (const auto& a : rt.arms) {
+    nlohmann::json arm = {{"label", a.label},
+                          {"is_reference", a.is_reference},
+                          {"probes_sent", a.probes_sent},
+                          {"responded", a.responded},
+                          {"responded_positive", a.responded_positive},
+                          {"late", a.late},
+                          {"responses_without_time", a.responses_without_time},
+                          {"median_days", a.median_days >= 0 ? Num(a.median_days) : nlohmann::json(nullptr)},
+                          {"first_response", Steps(a.any)},
+                          {"first_positive", Steps(a.positive)}};
+    arm["milestones"] = nlohmann::json::array();
+    for (const auto& m : a.milestones)
+      arm["milestones"].push_back({{"day", m.day},
+                                   {"any", m.any},
+                                   {"any_share", Num(m.any_share)},
+                                   {"positive", m.positive},
+                                   {"positive_share", Num(m.positive_share)}});
+    arm["codes"] = nlohmann::json::object();
+    for (const auto& c : a.codes) arm["codes"][c.code] = c.probes;
+    j["arms"].push_back(arm);
+  }
+  return j;
+}
+
+nlohmann::json EmployersJson(const EmployerOutcomes& e) {
+  nlohmann::json j;
+  j["available"] = e.available;
+  j["employers"] = e.employers;
+  j["employers_discordant"] = e.employers_discordant;
+  j["discordant"] = nlohmann::json::array();
+  for (const auto& x : e.discordant) {
+    j["discordant"].push_back(
+        {{"pseudonym", x.pseudonym}, {"pairs", x.vacancies}, {"discordant", x.discordant}, {"table", Table(x.table)}});
+  }
+  return j;
+}
+
 }  // namespace
 
 std::string RenderJsonReport(const AnalysisResult& r) {
@@ -56,6 +211,28 @@ std::string RenderJsonReport(const AnalysisResult& r) {
     j["paired"] = p;
   }
   j["effects"] = EffectsJson(r);
+  j["design"] = DesignJson(r.design);
+  j["response_times"] = ResponseTimesJson(r.response_times);
+  j["employers"] = EmployersJson(r.employers);
+  if (r.listings.present) j["listing_audit"] = ListingAuditJson(r.listings);
+  return j.dump(2) + "\n";
+}
+
+std::string RenderJsonReport(const AnalysisResult& r, const ReportContext& ctx) {
+  // The context adds to the plain document; the plain one stays the single
+  // place where result fields become keys.
+  nlohmann::json j = nlohmann::json::parse(RenderJsonReport(r));
+  j["report"] = {{"tool_version", ctx.tool_version},
+                 {"generated_at", ctx.generated_at},
+                 {"audit_head", ctx.audit_head},
+                 {"audit_entries", ctx.audit_entries},
+                 {"audit_intact", ctx.audit_intact},
+                 {"employers_revealed", ctx.reveal_employers}};
+  if (ctx.reveal_employers)
+    for (auto& row : j["employers"]["discordant"]) {
+      auto it = ctx.employer_names.find(row["pseudonym"].get<std::string>());
+      row["name"] = it == ctx.employer_names.end() ? nlohmann::json(nullptr) : nlohmann::json(it->second);
+    }
   return j.dump(2) + "\n";
 }
 

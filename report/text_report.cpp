@@ -1,10 +1,12 @@
 #include "report/text_report.h"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <sstream>
 
 #include "report/effects_report.h"
+#include "report/plain_summary.h"
 
 namespace twinprobe {
 
@@ -22,9 +24,244 @@ std::string FormatPercent(double rate) {
   return buf;
 }
 
+namespace {
+
+// Wraps plain text at 78 columns (words never split).
+std::string Wrap(const std::string& text, const std::string& indent) {
+  std::string out, line;
+  std::istringstream words(text);
+  std::string w;
+  while (words >> w) {
+    if (!line.empty() && line.size() + 1 + w.size() > 78 - indent.size()) {
+      out += indent + line + "\n";
+      line.clear();
+    }
+    line += (line.empty() ? "" : " ") + w;
+  }
+  if (!line.empty()) out += indent + line + "\n";
+  return out;
+}
+
+void PlainWords(std::ostringstream& o, const AnalysisResult& r) {
+  for (const auto& p : PlainSummary(r)) o << p.heading << ".\n" << Wrap(p.text, "  ") << "\n";
+}
+
+void DesignBlock(std::ostringstream& o, const AnalysisResult& r) {
+  const auto& d = r.design;
+  o << "\nDesign: ";
+  for (size_t i = 0; i < d.factors.size(); ++i) {
+    o << (i ? "; " : "") << "factor " << d.factors[i].name << " (";
+    for (size_t k = 0; k < d.factors[i].levels.size(); ++k) o << (k ? ", " : "") << d.factors[i].levels[k];
+    o << "; reference " << d.factors[i].reference << ")";
+  }
+  o << "; " << d.employers << " employers (by pseudonym); observation window " << d.window_days << " days.\n";
+  if (!d.first_sent_at.empty()) o << "Fieldwork: " << d.first_sent_at << " to " << d.last_sent_at << ".\n";
+  o << "Design hash (SHA-256): " << (d.design_sha256.empty() ? "none" : d.design_sha256);
+  if (d.has_seed) o << "; seed " << d.seed;
+  o << ".\n";
+}
+
+void ResponseTimesBlock(std::ostringstream& o, const AnalysisResult& r) {
+  const auto& rt = r.response_times;
+  if (!rt.available || rt.arms.empty()) {
+    o << "\nTime to first response: no send times recorded.\n";
+    return;
+  }
+  o << "\nTime to first response (share of sent applications answered by day; window " << rt.window_days
+    << " days):\n";
+  char line[256];
+  auto row = [&o](std::string text) {  // columns padded, trailing blanks trimmed
+    while (!text.empty() && text.back() == ' ') text.pop_back();
+    o << text << "\n";
+  };
+  std::snprintf(line, sizeof line, "  %-8s", "day");
+  std::string head = line;
+  for (const auto& a : rt.arms) {
+    std::snprintf(line, sizeof line, " %-34s", (ArmName(a.label) + " any / positive").c_str());
+    head += line;
+  }
+  row(head);
+  for (size_t m = 0; m < rt.arms.front().milestones.size(); ++m) {
+    std::snprintf(line, sizeof line, "  %-8d", rt.arms.front().milestones[m].day);
+    std::string text = line;
+    for (const auto& a : rt.arms) {
+      const auto& ms = a.milestones[m];
+      std::string cell = std::to_string(ms.any) + " (" + FormatPercent(ms.any_share) + ") / " +
+                         std::to_string(ms.positive) + " (" + FormatPercent(ms.positive_share) + ")";
+      std::snprintf(line, sizeof line, " %-34s", cell.c_str());
+      text += line;
+    }
+    row(text);
+  }
+  for (const auto& a : rt.arms) {
+    o << "  " << ArmName(a.label) << ": " << a.responded << " of " << a.probes_sent << " answered within the window";
+    if (a.median_days >= 0) {
+      std::snprintf(line, sizeof line, ", median %.1f days", a.median_days);
+      o << line;
+    }
+    if (a.late) o << ", " << a.late << " only after it";
+    o << "; outcomes:";
+    for (const auto& c : a.codes) o << " " << c.code << " " << c.probes;
+    o << ".\n";
+  }
+}
+
+void EmployersBlock(std::ostringstream& o, const AnalysisResult& r) {
+  const auto& e = r.employers;
+  if (!e.available) return;
+  o << "\nEmployers: " << e.employers << " with analysed pairs, " << e.employers_discordant
+    << " with at least one unequal pair.";
+  bool any = false;
+  for (const auto& x : e.discordant) {
+    if (x.discordant < 2) break;  // sorted, most unequal first
+    if (!any) o << " With more than one, by pseudonym:\n";
+    any = true;
+    o << "  " << x.pseudonym << ": " << x.vacancies << " pairs, only " << ArmName(r.reference_label) << " "
+      << x.table.b << ", only " << ArmName(r.other_label) << " " << x.table.c << "\n";
+  }
+  if (!any) o << " None had more than one.\n";
+}
+
+std::string Fixed(double v, int digits) {
+  char buf[64];
+  std::snprintf(buf, sizeof buf, "%.*f", digits, v);
+  return buf;
+}
+
+std::string Signed(double v, int digits) { return (v >= 0 ? "+" : "") + Fixed(v, digits); }
+
+std::string Stratum(const ListingComparison& c) {
+  if (c.query.empty()) return c.location;
+  return c.location.empty() ? c.query : c.query + " / " + c.location;
+}
+
+// The listing audit as text (docs/ranks.md explains every figure).
+std::string RenderListingText(const ListingAudit& a, double alpha, bool heading) {
+  std::ostringstream o;
+  if (heading) o << "Listing audit\n-------------\n";
+  std::string factors;
+  for (const auto& f : a.factors) factors += (factors.empty() ? "" : ", ") + f;
+  o << a.listings << " ranked lists in " << a.strata << " query x location strata; " << a.appearances << " places, "
+    << a.labelled_appearances << " held by items labelled with every factor (" << factors << ").\n";
+  if (a.factors.empty()) {
+    o << "No item carries a group label, so nothing can be compared; import labels with the lists.\n";
+    return o.str();
+  }
+  o << "Exposure is the attention a place gets, " << (a.discount == "log2" ? "1/log2(1 + position)" : a.discount)
+    << " (" << a.discount << " discount); \"top " << a.top_k << "\" is the group's share of places 1-" << a.top_k
+    << ".\n\n";
+  char line[320];
+  std::snprintf(line, sizeof line, "  %-34s %7s %9s %7s %7s %9s %7s\n", "group", "places", "exposure", "share",
+                ("top " + std::to_string(a.top_k)).c_str(), "mean pos", "median");
+  o << line;
+  for (const auto& g : a.groups) {
+    std::snprintf(line, sizeof line, "  %-34s %7lld %9.4f %7s %7s %9.2f %7.1f\n", g.label.c_str(),
+                  static_cast<long long>(g.appearances), g.exposure, FormatPercent(g.exposure_share).c_str(),
+                  FormatPercent(g.top_k_share).c_str(), g.mean_position, g.median_position);
+    o << line;
+  }
+  o << "\nReference level against each other level over all lists (permutation tests exchange the groups of\n"
+    << "items within each query x location; " << a.resamples << " resamples, seed " << a.seed << "):\n";
+  for (const auto& c : a.overall) {
+    o << "  " << c.factor << ": " << c.reference << " vs " << c.other << " (" << c.n_reference << " and " << c.n_other
+      << " places)\n";
+    o << "    exposure gap " << Signed(c.exposure_gap, 4) << " (" << c.reference << " - " << c.other
+      << "), p = " << FormatP(c.gap_p) << "\n";
+    o << "    earth mover's distance " << Fixed(c.emd, 2) << " places, p = " << FormatP(c.emd_p)
+      << "; Mann-Whitney test on positions p = " << FormatP(c.mann_whitney_p) << "\n";
+    for (const auto& p : a.paired)
+      if (p.factor == c.factor && p.other == c.other) {
+        o << "    across " << p.strata << " strata the gap favours " << c.reference << " in " << p.sign.positive
+          << ", " << c.other << " in " << p.sign.negative << " (sign test p = " << FormatP(p.sign.p_value)
+          << "); Wilcoxon signed-rank V = " << p.wilcoxon.statistic << ", p = "
+          << (std::isnan(p.wilcoxon.p_value) ? std::string("not defined") : FormatP(p.wilcoxon.p_value)) << "\n";
+      }
+  }
+  if (!a.by_stratum.empty()) {
+    const bool adjusted = a.by_stratum.front().gap_p_adjusted.has_value();
+    std::vector<const ListingComparison*> rows;
+    for (const auto& c : a.by_stratum) rows.push_back(&c);
+    auto key = [&](const ListingComparison* c) { return adjusted ? *c->gap_p_adjusted : c->gap_p; };
+    std::stable_sort(rows.begin(), rows.end(), [&](auto* x, auto* y) { return key(x) < key(y); });
+    int64_t significant = 0;
+    for (auto* c : rows) significant += key(c) < alpha;
+    o << "\nQuery x location strata with the strongest evidence of an exposure gap ("
+      << (adjusted ? "p adjusted by " + a.correction + " across the strata of each comparison"
+                   : "p NOT adjusted for multiple comparisons: unknown correction '" + a.correction + "'")
+      << "):\n";
+    std::snprintf(line, sizeof line, "  %-36s %-24s %9s %9s %9s %7s\n", "stratum", "comparison", "gap", "p",
+                  adjusted ? "p adj" : "", "EMD");
+    o << line;
+    for (size_t i = 0; i < rows.size() && i < 8; ++i) {
+      const auto& c = *rows[i];
+      std::snprintf(line, sizeof line, "  %-36s %-24s %9s %9s %9s %7.2f\n", Stratum(c).c_str(),
+                    (c.reference + " vs " + c.other).c_str(), Signed(c.exposure_gap, 4).c_str(),
+                    FormatP(c.gap_p).c_str(), adjusted ? FormatP(*c.gap_p_adjusted).c_str() : "", c.emd);
+      o << line;
+    }
+    o << "  " << significant << " of " << rows.size() << " stratum comparisons have " << (adjusted ? "an adjusted " : "a ")
+      << "p below alpha = " << alpha << ".\n";
+  }
+  if (!a.disparity.empty()) {
+    o << "\nNeighbour groups: the disparity of a group is its mean earth mover's distance (in places) to the\n"
+      << "groups that differ from it in exactly one level, within a stratum, then averaged:\n";
+    for (const auto& d : a.disparity) {
+      auto list = [](const std::vector<DisparityEntry>& v) {
+        std::string s;
+        for (const auto& e : v) s += (s.empty() ? "" : "; ") + e.value + " " + Fixed(e.disparity, 2);
+        return s;
+      };
+      char head[64];
+      std::snprintf(head, sizeof head, "  %-9s most:  ", d.dimension.c_str());
+      o << head << list(d.most) << "\n";
+      std::snprintf(head, sizeof head, "  %-9s least: ", "");
+      o << head << list(d.least) << "\n";
+    }
+  }
+  if (a.widest) {
+    const auto& w = *a.widest;
+    o << "\nWidest split of the listed population: " << w.description << " (" << w.parts
+      << " parts), mean distance between parts " << Fixed(w.distance, 2) << " places; permutation p = "
+      << FormatP(w.p_value) << " for the largest of " << w.candidates << " candidate splits ("
+      << (w.exhaustive ? "exhaustive search" : "bounded search") << ").\n";
+  }
+  if (!a.overlap.empty()) {
+    o << "\nPersonalised lists (mean Jaccard distance between the items shown to two profiles; same-profile pairs\n"
+      << "are the noise floor):\n";
+    for (const auto& p : a.overlap)
+      o << "  " << p.profile_a << " vs " << p.profile_b << ": " << Fixed(p.mean_jaccard_distance, 3) << " over "
+        << p.comparisons << " pairs of lists\n";
+  }
+  return o.str();
+}
+
+}  // namespace
+
+std::string RenderTextReport(const AnalysisResult& r, const ReportContext& ctx) {
+  std::ostringstream o;
+  o << RenderTextReport(r);
+  if (ctx.reveal_employers && r.employers.available) {
+    o << "\nEmployer names (shown because of --reveal-employers, recorded in the audit chain):\n";
+    for (const auto& x : r.employers.discordant) {
+      if (x.discordant < 2) break;
+      const std::string& key = x.pseudonym;
+      auto it = ctx.employer_names.find(key);
+      o << "  " << key << " = " << (it == ctx.employer_names.end() ? "(name purged)" : it->second) << "\n";
+    }
+  }
+  o << "\nMade with twinprobe " << ctx.tool_version << " at " << ctx.generated_at << "; audit chain "
+    << ctx.audit_entries << " entries, " << (ctx.audit_intact ? "intact" : "BROKEN") << ", head " << ctx.audit_head
+    << ".\n";
+  return o.str();
+}
+
 std::string RenderTextReport(const AnalysisResult& r) {
+  if (r.listings.listing_only)  // a store with lists only: no callbacks to report
+    return r.title + "\n" + std::string(std::min<size_t>(r.title.size(), 78), '=') + "\n\n" +
+           RenderListingText(r.listings, r.alpha, false);
   std::ostringstream o;
   o << r.title << "\n" << std::string(std::min<size_t>(r.title.size(), 78), '=') << "\n\n";
+  PlainWords(o, r);
   o << "Study " << r.study_id << " (" << r.kind << " design, plan from " << r.plan_origin << ").\n";
   o << r.vacancies << " vacancies, " << r.probes_planned << " probes planned, " << r.probes_sent << " sent, "
     << r.responses << " with a recorded response";
@@ -66,6 +303,10 @@ std::string RenderTextReport(const AnalysisResult& r) {
       o << "At alpha = " << r.alpha << " the test does not show a difference; this is not evidence that there is none.\n";
   }
   o << RenderEffectsText(r);
+  DesignBlock(o, r);
+  ResponseTimesBlock(o, r);
+  EmployersBlock(o, r);
+  if (r.listings.present) o << "\n" << RenderListingText(r.listings, r.alpha, true);
   return o.str();
 }
 
