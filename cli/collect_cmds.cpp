@@ -40,9 +40,6 @@ int RunRecord(Context& ctx, const RecordOptions& o) {
     Warn("the response came " + std::to_string(v.days_after_sending) + " days after " + v.probe_ref +
          " was sent, outside the observation window of " + std::to_string(settings.value().outcomes.window_days) +
          " days; it is stored with the flag 'late'");
-  if (v.unsent)
-    Warn(v.probe_ref + " has no sending recorded, so the observation window cannot be checked \u2014 record it with "
-         "'twinprobe sent " + v.probe_ref + " --at TIME'");
   // An invitation holds a real vacancy for a fictitious applicant: say when
   // and how it must be declined, every time one is recorded.
   const EthicsBlock& ethics = settings.value().ethics;

@@ -372,6 +372,11 @@ std::optional<Error> Checker::Examine(const CsvRecord& r, uint32_t& v) {
   v = book_.Add(ref);
   Row row;
   if (auto err = CheckRow(r, c_, t_, path_, row)) return err;
+  if (t_.kind == "unpaired" && book_.first_good_line[v] != 0)
+    return At(r.line,
+              "vacancy '" + ref + "' has a second row (the first is on line " +
+                  std::to_string(book_.first_good_line[v]) + ")",
+              "an unpaired study sends one application per vacancy; keep one row per vacancy");
   if (row.arm >= 0 && book_.arm_line[row.arm][v] != 0)
     return At(r.line,
               "vacancy '" + ref + "' has a second row for arm '" + t_.arms[row.arm] + "' (the first is on line " +
@@ -395,7 +400,11 @@ std::optional<Error> Checker::Examine(const CsvRecord& r, uint32_t& v) {
                   "' here but '" + (book_.employer[v] == kNone ? "" : book_.employers.Name(book_.employer[v])) +
                   "' on line " + std::to_string(book_.first_good_line[v]),
               "a vacancy has one employer on all its rows");
-  if (c_.probe >= 0) {
+  if (t_.discover && t_.arms.size() == kMaxArms && row.arm < 0)
+    return At(r.line, "a " + std::to_string(kMaxArms + 1) + "th distinct value '" + r.fields[c_.arm] + "' in the arm column",
+              "is 'arm' the right column? it names the group of profiles each row was sent as (at most " +
+                  std::to_string(kMaxArms) + " arms)");
+  if (c_.probe >= 0) {  // the last check: a probe reference is taken only by a good row
     const std::string& probe = r.fields[c_.probe];
     if (t_.existing_probes.count(probe))
       return At(r.line, "probe '" + probe + "' is already in the study (from an earlier import)",
@@ -405,10 +414,6 @@ std::optional<Error> Checker::Examine(const CsvRecord& r, uint32_t& v) {
       return At(r.line, "probe '" + probe + "' appears twice (first on line " + std::to_string(it->second) + ")",
                 "give each probe its own reference");
   }
-  if (t_.discover && t_.arms.size() == kMaxArms && row.arm < 0)
-    return At(r.line, "a " + std::to_string(kMaxArms + 1) + "th distinct value '" + r.fields[c_.arm] + "' in the arm column",
-              "is 'arm' the right column? it names the group of profiles each row was sent as (at most " +
-                  std::to_string(kMaxArms) + " arms)");
   // The row is good: remember it.
   if (row.arm < 0) {
     row.arm = static_cast<int>(t_.arms.size());
@@ -493,8 +498,13 @@ std::optional<Error> Checker::Finish(const PairsImportOptions& o) {
     t_.IndexArms();
     t_.kind = t_.arms.size() == 2 ? "paired" : "sets";
   }
-  // Every remaining vacancy needs one row per arm.
+  // Every remaining vacancy needs one row per arm (an unpaired study has
+  // one row per vacancy, checked row by row).
   book_.missing_arm.assign(book_.bad_line.size(), -1);
+  if (t_.kind == "unpaired") {
+    std::stable_sort(bad_.begin(), bad_.end(), [](const BadRow& a, const BadRow& b) { return a.line < b.line; });
+    return std::nullopt;
+  }
   int64_t first_line = 0;
   uint32_t first_v = kNone;
   for (uint32_t v = 0; v < book_.bad_line.size(); ++v) {

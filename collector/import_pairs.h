@@ -11,8 +11,9 @@
 //   - arm: with a design, an arm label ("origin=coastal") or, for a single
 //     factor, its level ("coastal"); without one, any text, and the arms are
 //     the distinct values (--reference names the reference arm).
-//   - every vacancy has exactly one row per arm; its strata and employer are
-//     the same on all its rows.
+//   - every vacancy has exactly one row per arm (in an unpaired design, from
+//     study.toml, exactly one row); its strata and employer are the same on
+//     all its rows.
 //
 // Where it lands: with no plan in the store, a new plan of origin "import"
 // (creating the store, and taking arms, reference and strata from the design

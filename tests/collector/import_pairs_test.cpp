@@ -394,3 +394,32 @@ TEST_CASE("import pairs: three arms make a 'sets' study") {
   CHECK(r.value().kind == "sets");
   CHECK(r.value().arms == std::vector<std::string>{"b", "a", "c"});
 }
+
+TEST_CASE("import pairs: an unpaired design takes one row per vacancy") {
+  testing::PlannedStudy s(false);
+  std::string toml = testing::ReadFile(s.path + "/study.toml");
+  toml.replace(toml.find("kind = \"paired\""), 15, "kind = \"unpaired\"");
+  testing::WriteFile(s.path + "/study.toml", toml);
+  auto design = LoadDesign(s.path);
+  INFO((design.ok() ? "" : design.error().Message()));
+  REQUIRE(design.ok());
+  std::string csv = s.dir / "u.csv";
+  PairsImportOptions o;
+  o.progress = false;
+  testing::WriteFile(csv, "vacancy,arm,outcome,occupation,region\n"
+                          "V1,inland,invitation,bookkeeper,North Fen\n"
+                          "V2,coastal,rejection,bookkeeper,North Fen\n"
+                          "V2,inland,none,bookkeeper,North Fen\n");
+  auto twice = ImportPairs(s.db(), &design.value(), csv, o);
+  REQUIRE_FALSE(twice.ok());
+  CHECK(twice.error().Message() == csv + ":4: vacancy 'V2' has a second row (the first is on line 3) \u2014 an unpaired "
+                                         "study sends one application per vacancy; keep one row per vacancy");
+  testing::WriteFile(csv, "vacancy,arm,outcome,occupation,region\n"
+                          "V1,inland,invitation,bookkeeper,North Fen\n"
+                          "V2,coastal,rejection,bookkeeper,North Fen\n");
+  auto ok = ImportPairs(s.db(), &design.value(), csv, o);
+  INFO((ok.ok() ? "" : ok.error().Message()));
+  REQUIRE(ok.ok());
+  CHECK(ok.value().kind == "unpaired");
+  CHECK(ok.value().rows_landed == 2);
+}
