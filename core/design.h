@@ -111,6 +111,30 @@ struct Source {
   std::string ProductToken() const { return user_agent.substr(0, user_agent.find_first_of("/ ")); }
 };
 
+// The [mail] section (planner/mail_section.h reads it; docs/mail.md): where
+// responses arrive and the transparent rules that suggest a response code.
+// A suggestion is never a response: a person confirms it with `review`.
+struct MailPhraseRule {
+  std::string code;                  // one of the outcome scheme's codes
+  std::vector<std::string> phrases;  // matched case-insensitively, as whole words, across line breaks
+  SourcePos pos;
+};
+
+struct MailRules {
+  std::vector<std::string> mbox;     // mbox files (relative to the study folder, or absolute)
+  std::vector<std::string> maildir;  // Maildir folders (holding cur/ and new/)
+  std::vector<std::string> imap;     // imap:// or imaps:// URLs of one folder, without credentials
+  // Shared mail hosts: a sender there says nothing about which employer wrote.
+  std::vector<std::string> generic_domains;
+  // In precedence order: when phrases of several codes match, the first rule's code is suggested.
+  std::vector<MailPhraseRule> suggest;
+  // A phrase is set aside (shown, not counted) when one of these words stands
+  // among the four words before it in the same sentence ("we cannot invite you").
+  std::vector<std::string> negations;
+  int excerpt_chars = 400;  // how much of a message the review queue keeps (purge clears it)
+  bool present = false;     // false: the design has no [mail] section and the built-in rules apply
+};
+
 struct Design {
   std::string study_id;
   std::string title;
@@ -131,6 +155,7 @@ struct Design {
   AnalysisPlan analysis;
   EthicsBlock ethics;
   std::vector<Source> sources;
+  MailRules mail;
   std::string canonical;  // canonical text of the design (hashed by freeze)
 };
 

@@ -9,6 +9,7 @@
 #include <sstream>
 
 #include "core/suggest.h"
+#include "planner/mail_section.h"
 #include "planner/source_section.h"
 
 namespace twinprobe {
@@ -479,6 +480,7 @@ Result<Design> DesignReader::Read() {
   if (!error_) ReadRest(d);
   if (!error_)
     if (Status s = ReadSources(root_, label_, d); !s.ok()) error_ = s.error();
+  if (Status mail = error_ ? Status() : ReadMailSection(root_, label_, d); !mail.ok()) error_ = mail.error();
   if (error_) return *error_;
   // Canonical form: the parsed tables as JSON with keys in sorted order
   // (toml++ keeps tables ordered), so comments and layout do not change it.

@@ -1,0 +1,119 @@
+#include "collector/mail_source.h"
+
+#include <algorithm>
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+
+#include "collector/mail_header.h"
+
+namespace twinprobe {
+namespace fs = std::filesystem;
+namespace {
+
+bool ReadWhole(const std::string& path, std::string& out) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) return false;
+  std::stringstream ss;
+  ss << in.rdbuf();
+  out = ss.str();
+  return true;
+}
+
+bool IsEscapedFrom(std::string_view line) {
+  size_t k = 0;
+  while (k < line.size() && line[k] == '>') ++k;
+  return k > 0 && line.substr(k).rfind("From ", 0) == 0;
+}
+
+// The empty line before a separator (or at the end of the file) belongs to
+// the mbox, not to the message: removes it when `raw` ends with one.
+void DropSeparatorLine(std::string& raw) {
+  if (raw.size() >= 2 && raw.compare(raw.size() - 2, 2, "\n\n") == 0)
+    raw.pop_back();
+  else if (raw.size() >= 4 && raw.compare(raw.size() - 4, 4, "\r\n\r\n") == 0)
+    raw.resize(raw.size() - 2);
+}
+
+}  // namespace
+
+std::string CanonicalRaw(const std::string& raw) {
+  std::string out;
+  out.reserve(raw.size());
+  for (size_t i = 0; i < raw.size(); ++i) {
+    if (raw[i] == '\r' && i + 1 < raw.size() && raw[i + 1] == '\n') continue;
+    out += raw[i];
+  }
+  while (!out.empty() && out.back() == '\n') out.pop_back();
+  out += '\n';
+  return out;
+}
+
+Result<std::vector<RawMail>> ReadMbox(const std::string& path) {
+  std::string text;
+  if (fs::is_directory(path))
+    return BadInput(path, "this is a folder, not an mbox file", "pass a Maildir folder with --maildir");
+  if (!ReadWhole(path, text)) return BadInput(path, "cannot read the mbox file", "check the path");
+  std::vector<RawMail> out;
+  if (text.empty()) return out;
+  if (text.rfind("From ", 0) != 0)
+    return BadInput(path + ":1:1", "this is not an mbox file: it does not start with a 'From ' line",
+                    "pass a Maildir folder with --maildir, or export the mailbox in mbox format");
+  RawMail* current = nullptr;
+  bool previous_empty = true;
+  size_t pos = 0;
+  int64_t line_no = 0;
+  while (pos < text.size()) {
+    size_t eol = text.find('\n', pos);
+    size_t next = eol == std::string::npos ? text.size() : eol + 1;
+    std::string_view line(text.data() + pos, next - pos);
+    std::string_view bare = line;
+    while (!bare.empty() && (bare.back() == '\n' || bare.back() == '\r')) bare.remove_suffix(1);
+    ++line_no;
+    bool separator = bare.rfind("From ", 0) == 0 && previous_empty &&
+                     (current == nullptr || ParseMboxFromLineDate(bare).has_value());
+    if (separator) {
+      if (current) DropSeparatorLine(current->raw);
+      out.push_back({"", path + ":" + std::to_string(line_no), ParseMboxFromLineDate(bare)});
+      current = &out.back();
+    } else if (current) {
+      if (IsEscapedFrom(bare))
+        current->raw.append(line.substr(1));
+      else
+        current->raw.append(line);
+    }
+    previous_empty = bare.empty();
+    pos = next;
+  }
+  if (current && previous_empty) DropSeparatorLine(current->raw);  // the file ends with one
+  return out;
+}
+
+Result<std::vector<RawMail>> ReadMaildir(const std::string& dir) {
+  if (!fs::is_directory(dir)) return BadInput(dir, "no such folder", "check the path of the Maildir folder");
+  if (!fs::is_directory(fs::path(dir) / "cur") || !fs::is_directory(fs::path(dir) / "new"))
+    return BadInput(dir, "this is not a Maildir folder: it has no cur/ and new/ folders",
+                    "pass the folder that holds cur/ and new/, or an mbox file with --mbox");
+  std::vector<RawMail> out;
+  for (const char* sub : {"new", "cur"}) {
+    std::vector<fs::path> files;
+    for (const auto& entry : fs::directory_iterator(fs::path(dir) / sub))
+      if (entry.is_regular_file() && entry.path().filename().string().rfind('.', 0) != 0) files.push_back(entry.path());
+    std::sort(files.begin(), files.end());
+    for (const auto& f : files) {
+      RawMail m;
+      if (!ReadWhole(f.string(), m.raw))
+        return BadInput(f.string(), "cannot read this message file", "check its permissions");
+      m.where = f.string();
+      std::string name = f.filename().string();
+      size_t digits = 0;
+      while (digits < name.size() && std::isdigit(static_cast<unsigned char>(name[digits]))) ++digits;
+      if (digits > 0 && digits <= 12 && digits < name.size() && name[digits] == '.')
+        m.envelope_time = std::stoll(name.substr(0, digits));
+      out.push_back(std::move(m));
+    }
+  }
+  return out;
+}
+
+}  // namespace twinprobe

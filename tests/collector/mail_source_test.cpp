@@ -1,0 +1,106 @@
+// Reading mbox files and Maildir folders, on the fixtures made by
+// tests/fixtures/mail/make_fixtures.py and on small files written here.
+#include "collector/mail_source.h"
+
+#include <catch2/catch.hpp>
+
+#include "testing/testing.h"
+
+using namespace twinprobe;
+
+namespace {
+std::string Fixture(const std::string& rel) { return testing::SourceDir() + "/tests/fixtures/mail/" + rel; }
+}  // namespace
+
+TEST_CASE("mail source: the fixture mbox splits into its eleven messages with their places and dates") {
+  auto r = ReadMbox(Fixture("study/mail/inbox.mbox"));
+  REQUIRE(r.ok());
+  const auto& msgs = r.value();
+  REQUIRE(msgs.size() == 11);
+  CHECK(msgs[0].where == Fixture("study/mail/inbox.mbox") + ":1");
+  CHECK(msgs[0].raw.rfind("Return-Path: <hanne.ostrel@orlinde-bakehouse.example>\n", 0) == 0);
+  CHECK(msgs[0].envelope_time == 1804151700);  // Thu Mar  4 09:15:00 2027 UTC
+  for (const auto& m : msgs) CHECK(m.raw.rfind("From ", 0) != 0);
+  // The separator's empty line is not part of the message before it.
+  CHECK(msgs[0].raw.substr(msgs[0].raw.size() - 2) != "\n\n");
+  CHECK(msgs[0].raw == msgs[10].raw);  // the message stored twice
+}
+
+TEST_CASE("mail source: mboxrd unescaping removes one '>' from >From lines") {
+  auto r = ReadMbox(Fixture("study/mail/inbox.mbox"));
+  REQUIRE(r.ok());
+  const std::string& m = r.value()[0].raw;
+  CHECK(m.find("\nFrom the whole team at the bakehouse") != std::string::npos);
+  CHECK(m.find("\n>From the archive") != std::string::npos);
+  CHECK(m.find(">>From") == std::string::npos);
+}
+
+TEST_CASE("mail source: a From line inside a body without a date does not split the message") {
+  testing::TempDir dir;
+  testing::WriteFile(dir / "a.mbox",
+                     "From a@x.example Thu Mar  4 09:15:00 2027\nSubject: one\n\nhello\n\nFrom here on, unescaped.\n\n"
+                     "From b@x.example Fri Mar  5 09:15:00 2027\nSubject: two\n\nbye\n");
+  auto r = ReadMbox(dir / "a.mbox");
+  REQUIRE(r.ok());
+  REQUIRE(r.value().size() == 2);
+  CHECK(r.value()[0].raw == "Subject: one\n\nhello\n\nFrom here on, unescaped.\n");
+  CHECK(r.value()[1].where == dir / "a.mbox:8");
+  CHECK(r.value()[1].raw == "Subject: two\n\nbye\n");
+}
+
+TEST_CASE("mail source: an empty mbox holds no messages; a wrong file is refused with its place") {
+  testing::TempDir dir;
+  testing::WriteFile(dir / "empty.mbox", "");
+  auto empty = ReadMbox(dir / "empty.mbox");
+  REQUIRE(empty.ok());
+  CHECK(empty.value().empty());
+
+  testing::WriteFile(dir / "notes.txt", "Subject: hello\n\nnot an mbox\n");
+  auto wrong = ReadMbox(dir / "notes.txt");
+  REQUIRE_FALSE(wrong.ok());
+  CHECK(wrong.error().Message() == dir / "notes.txt" +
+                                       ":1:1: this is not an mbox file: it does not start with a "
+                                       "'From ' line \u2014 pass a Maildir folder with --maildir, or "
+                                       "export the mailbox in mbox format");
+  auto missing = ReadMbox(dir / "nothing.mbox");
+  REQUIRE_FALSE(missing.ok());
+  CHECK(missing.error().Message() == dir / "nothing.mbox" + ": cannot read the mbox file \u2014 check the path");
+  auto folder = ReadMbox(dir.path());
+  REQUIRE_FALSE(folder.ok());
+  CHECK(folder.error().what == "this is a folder, not an mbox file");
+}
+
+TEST_CASE("mail source: a Maildir is read new/ then cur/, in name order, with delivery times") {
+  auto r = ReadMaildir(Fixture("study/mail/Maildir"));
+  REQUIRE(r.ok());
+  const auto& msgs = r.value();
+  REQUIRE(msgs.size() == 5);
+  CHECK(msgs[0].where == Fixture("study/mail/Maildir/new/1804662300.M1P1.fixture"));
+  CHECK(msgs[0].envelope_time == 1804662300);
+  CHECK(msgs[3].where == Fixture("study/mail/Maildir/cur/1804140900.M4P1.fixture:2,S"));
+  CHECK(msgs[0].raw.find("\r\n") != std::string::npos);  // that file has CRLF line ends
+}
+
+TEST_CASE("mail source: a folder without cur/ and new/ is not a Maildir") {
+  testing::TempDir dir;
+  testing::WriteFile(dir / "box/new/1.x", "Subject: a\n\nb\n");
+  auto r = ReadMaildir(dir / "box");
+  REQUIRE_FALSE(r.ok());
+  CHECK(r.error().Message() == dir / "box" +
+                                   ": this is not a Maildir folder: it has no cur/ and new/ folders \u2014 "
+                                   "pass the folder that holds cur/ and new/, or an mbox file with --mbox");
+  auto missing = ReadMaildir(dir / "nothing");
+  REQUIRE_FALSE(missing.ok());
+  CHECK(missing.error().what == "no such folder");
+}
+
+TEST_CASE("mail source: the canonical form makes CRLF and LF copies of a message equal") {
+  CHECK(CanonicalRaw("Subject: a\r\n\r\nbody\r\n\r\n") == "Subject: a\n\nbody\n");
+  CHECK(CanonicalRaw("Subject: a\n\nbody") == "Subject: a\n\nbody\n");
+  auto mbox = ReadMbox(Fixture("study/mail/inbox.mbox"));
+  auto maildir = ReadMaildir(Fixture("study/mail/Maildir"));
+  REQUIRE(mbox.ok());
+  REQUIRE(maildir.ok());
+  CHECK(CanonicalRaw(mbox.value()[7].raw) == CanonicalRaw(maildir.value()[0].raw));
+  CHECK(mbox.value()[7].raw != maildir.value()[0].raw);
+}
