@@ -8,19 +8,25 @@ bool HasStrata(const AnalysisResult& r) { return (r.has_paired && !r.strata.empt
 // Several groups, or no pairs: every group against the reference.
 bool HasComparisons(const AnalysisResult& r) { return !r.has_paired && !r.effects.comparisons.empty(); }
 bool HasEmployers(const AnalysisResult& r) { return r.employers.available; }
+bool HasListings(const AnalysisResult& r) { return r.listings.present; }
+// A store with ranked lists only has no design, rates or responses.
+bool HasPlan(const AnalysisResult& r) { return !r.listings.listing_only; }
 
 }  // namespace
 
 const std::vector<HtmlSection>& HtmlSections() {
   static const std::vector<HtmlSection> sections = {
       {"summary", "Summary", nullptr, {&SummaryKeyFigures, &SummaryParagraphs}},
-      {"design", "How the test was designed", nullptr, {&DesignFactors, &DesignCounts, &DesignStrata, &DesignIntegrity, &DesignBalance, &DesignPreregistration}},
-      {"rates", "Positive callbacks by group", nullptr, {&RatesChart}},
+      {"design", "How the test was designed", &HasPlan,
+       {&DesignFactors, &DesignCounts, &DesignStrata, &DesignIntegrity, &DesignBalance, &DesignPreregistration}},
+      {"rates", "Positive callbacks by group", &HasPlan, {&RatesChart}},
       {"paired", "Pairs: who was treated better", &HasPaired, {&PairedTable, &PairedTest, &PairedEffects}},
       {"comparisons", "Each group against the reference", &HasComparisons, {&ComparisonsForest}},
       {"strata", "Results within each stratum", &HasStrata, {&StrataForest, &StrataTables, &AcrossStrataTable}},
-      {"responses", "What came back, and how fast", nullptr, {&ResponseCodes, &ResponseTimesChart}},
+      {"responses", "What came back, and how fast", &HasPlan, {&ResponseCodes, &ResponseTimesChart}},
       {"employers", "Employers (by pseudonym)", &HasEmployers, {&EmployerTable}},
+      {"listing-audit", "Ranked listings (listing audit)", &HasListings,
+       {&ListingOverview, &ListingComparisons, &ListingStrata, &ListingStructure}},
       {"methods", "Methods and sources", nullptr, {&MethodsText}},
       {"cautions", "Cautions", nullptr, {&CautionsText}},
       {"stamp", "Reproducibility", nullptr, {&StampTable}},

@@ -36,7 +36,8 @@ std::string MethodsText(const AnalysisResult& r, const ReportContext&) {
             "corrected response supersedes the earlier one and both are kept. A set enters the analysis only when "
             "every application in it was sent. Every change to the study store is sealed in a SHA-256 audit chain.",
             "");
-  o += Item("Positive callback rate",
+  if (!r.listings.listing_only)
+    o += Item("Positive callback rate",
             "The share of a group's applications that received a positive answer, with the exact " + conf +
                 " confidence interval of Clopper and Pearson (the same as R's binom.test).",
             "Clopper, C. J. & Pearson, E. S. (1934), Biometrika 26:404–413");
@@ -78,7 +79,8 @@ std::string MethodsText(const AnalysisResult& r, const ReportContext&) {
               "The paired table is repeated within each value of each stratum column; these tables describe where the "
               "unequal pairs occurred.",
               "");
-  o += Item("Time to first response",
+  if (!r.listings.listing_only)
+    o += Item("Time to first response",
             "Days from sending to the earliest answer other than none, per application; the curves are the cumulative "
             "share of sent applications answered by each day. Answers after the " +
                 std::to_string(r.response_times.window_days) +
@@ -90,6 +92,17 @@ std::string MethodsText(const AnalysisResult& r, const ReportContext&) {
               "the study store; deleting the secret and the employer table (purge) leaves pseudonyms that reveal "
               "nothing.",
               "");
+  if (r.listings.present)
+    o += Item("Listing audit",
+              "A group's exposure is the mean attention of its places (" + r.listings.discount +
+                  " discount); the exposure gap and the earth mover's (1-Wasserstein) distance between the groups' "
+                  "positions are tested by permutation within each query \u00D7 location, p-values across strata "
+                  "adjusted with " + r.listings.correction + "; the Mann\u2013Whitney, Wilcoxon signed-rank and sign "
+                  "tests as R computes them; personalised lists by the Jaccard distance against a same-profile noise "
+                  "floor.",
+              "Singh, A. & Joachims, T. (2018), Fairness of exposure in rankings, KDD '18, pp. 2219\u20132228; "
+              "J\u00E4rvelin, K. & Kek\u00E4l\u00E4inen, J. (2002), ACM TOIS 20(4):422\u2013446; Rubner, Tomasi & "
+              "Guibas (2000), IJCV 40(2); Hann\u00E1k et al. (2013), WWW '13");
   o += Item("Charts",
             "Colours follow the Okabe–Ito palette, chosen to be distinguishable with every common form of colour "
             "blindness; groups also differ by marker shape and line pattern. Every chart has a data table beside it.",

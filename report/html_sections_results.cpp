@@ -35,6 +35,12 @@ std::string CodesText(const std::vector<std::string>& codes) {
 
 std::string SummaryKeyFigures(const AnalysisResult& r, const ReportContext&) {
   std::string o = html::Para(Headline(r), "headline") + "<div class=\"keyfigs\">";
+  if (r.listings.listing_only) {
+    for (const auto& g : r.listings.groups)
+      o += KeyFigure(FormatPercent(g.exposure_share), "of the attention went to " + UserText(g.label) + " items",
+                     std::to_string(g.appearances) + " places");
+    return o + "</div>";
+  }
   for (const auto& a : r.arms)
     o += KeyFigure(FormatPercent(a.rate), "positive answers to " + UserText(ArmName(a.label)) + " applicants",
                    std::to_string(a.positive) + " of " + std::to_string(a.probes) + " applications");

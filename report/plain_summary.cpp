@@ -1,6 +1,7 @@
 #include "report/plain_summary.h"
 
 #include <cmath>
+#include <cstdio>
 #include <sstream>
 
 #include "report/text_report.h"
@@ -139,6 +140,13 @@ std::string CodeName(const std::string& code) {
 }
 
 std::string Headline(const AnalysisResult& r) {
+  if (r.listings.listing_only) {
+    if (r.listings.overall.empty()) return "Listing audit of " + std::to_string(r.listings.listings) + " ranked lists.";
+    const auto& c = r.listings.overall.front();
+    return "In " + std::to_string(r.listings.listings) + " ranked lists, " + c.reference + " items " +
+           (c.exposure_gap >= 0 ? "received more" : "received less") + " attention than " + c.other +
+           " items (permutation test p = " + FormatP(c.gap_p) + ").";
+  }
   if (r.sets_analysed == 0 || r.arms.empty()) return "No complete set of applications has been analysed yet.";
   if (!r.has_paired) {
     std::vector<std::string> parts;
@@ -185,7 +193,38 @@ std::string ArmName(const std::string& label) {
   return out.empty() ? label : out;
 }
 
+namespace {
+
+// A store with ranked lists only (a listing audit without applications).
+std::vector<SummaryParagraph> ListingOnlySummary(const AnalysisResult& r) {
+  const ListingAudit& a = r.listings;
+  std::ostringstream tested, found;
+  std::vector<std::string> factors;
+  for (const auto& f : a.factors) factors.push_back(f);
+  tested << "This audit asked whether ranked lists place items differently depending on their "
+         << (factors.empty() ? std::string("group") : Join(factors, " and ")) << ". It read " << a.listings
+         << " ranked lists in " << a.strata << " query and location combinations, " << a.appearances << " places in all.";
+  for (const auto& g : a.groups)
+    found << g.label << " items held " << g.appearances << " places and received " << FormatPercent(g.exposure_share)
+          << " of the attention (exposure). ";
+  for (const auto& c : a.overall) {
+    char gap[32];
+    std::snprintf(gap, sizeof gap, "%+.4f", c.exposure_gap);
+    found << "The exposure gap between " << c.reference << " and " << c.other << " items was " << gap
+          << " (permutation test p = " << FormatP(c.gap_p) << "). ";
+  }
+  return {{"What was tested", tested.str()},
+          {"What was found", found.str()},
+          {"What this does not show",
+           "A listing audit measures where items appeared in the lists read, for the queries and places read, at "
+           "the times they were read. It does not show why a list was ordered as it was, nor how other queries, "
+           "places or readers would see it."}};
+}
+
+}  // namespace
+
 std::vector<SummaryParagraph> PlainSummary(const AnalysisResult& r) {
+  if (r.listings.listing_only) return ListingOnlySummary(r);
   return {{"What was tested", WhatWasTested(r)},
           {"What was found", WhatWasFound(r)},
           {"How sure we are", HowSure(r)},

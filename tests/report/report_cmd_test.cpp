@@ -106,8 +106,8 @@ TEST_CASE("report: the demo writes a self-contained HTML report with every secti
   Demo d;
   const std::string path = d.study + "/reports/report.html";
   ParsedHtml page(testing::ReadFile(path));
-  for (const char* id : {"summary", "design", "rates", "paired", "strata", "responses", "employers", "methods",
-                         "cautions", "stamp"}) {
+  for (const char* id : {"summary", "design", "rates", "paired", "strata", "responses", "employers", "listing-audit",
+                         "methods", "cautions", "stamp"}) {
     INFO(id);
     CHECK(page.ElementById(id) != nullptr);
   }
@@ -282,4 +282,40 @@ TEST_CASE("report: hostile title, stratum and employer name come out as text in 
     CHECK(text.find(occupation) != std::string::npos);
     CHECK((text.find(employer) != std::string::npos) == reveal);
   }
+}
+
+TEST_CASE("report: a store with ranked lists only gives the listing audit, and hostile labels stay text") {
+  testing::TempDir dir;
+  const std::string study = dir / "audit";
+  const std::string query = "clerk <script>alert(1)</script>";
+  std::string csv = "listing,position,item,query,location,origin\n";
+  for (const char* listing : {"L1", "L2", "L3", "L4"})
+    for (int pos = 1; pos <= 6; ++pos)
+      csv += std::string(listing) + "," + std::to_string(pos) + ",item" + std::to_string((pos * 7) % 6) + ",\"" + query +
+             "\"," + (listing[1] < '3' ? "Orlinde," : "Tessvale,") +
+             ((pos * 7) % 6 < 3 ? "in<b>land" : "\"coast\"\"al & co\"") + "\n";
+  testing::WriteFile(dir / "ranks.csv", csv);
+  auto imported = RunCli({"--study", study, "import", "ranks", dir / "ranks.csv"});
+  INFO(imported.err);
+  REQUIRE(imported.exit_code == 0);
+  auto r = RunCli({"--study", study, "report", "--out", study + "/r.html"});
+  INFO(r.err);
+  REQUIRE(r.exit_code == 0);
+  ParsedHtml page(testing::ReadFile(study + "/r.html"));
+  for (const char* id : {"summary", "listing-audit", "methods", "cautions", "stamp"}) {
+    INFO(id);
+    CHECK(page.ElementById(id) != nullptr);
+  }
+  for (const char* id : {"design", "rates", "responses", "paired"}) {
+    INFO(id);
+    CHECK(page.ElementById(id) == nullptr);
+  }
+  CHECK(page.ElementById("chart-listing-groups") != nullptr);
+  CHECK(page.ElementsByTag("script").empty());
+  CHECK(page.ElementsByTag("b").empty());
+  CHECK(testing::ExternalReferences(page).empty());
+  const std::string text = page.AllText();
+  CHECK(text.find("origin=in<b>land") != std::string::npos);
+  CHECK(text.find("origin=coast\"al & co") != std::string::npos);
+  CHECK(text.find(query) != std::string::npos);
 }
