@@ -102,5 +102,5 @@ TEST_CASE("ethics: purge waits for the retention period, then removes identities
   auto verify = RunCli({"--study", demo, "verify"});
   CHECK(verify.exit_code == 0);
   auto audit = nlohmann::json::parse(RunCli({"--study", demo, "--json", "verify"}).out);
-  CHECK(audit["entries"] == 4);
+  CHECK(audit["entries"] == 5);  // demo: plan, simulate, import ranks (listing audit); record; purge
 }
