@@ -92,6 +92,7 @@ Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const 
 
   const bool paired = arms.size() == 2 && r.kind != "unpaired";
   std::map<std::pair<std::string, std::string>, stats::PairedCounts> by_stratum;
+  std::map<int64_t, stats::PairedCounts> pair_of_vacancy;  // for SummariseEmployers
   for (const auto& [vacancy, probes] : sets) {
     bool complete = true;
     for (const auto& pr : probes) complete = complete && (pr.sent || pr.has_response);
@@ -115,6 +116,7 @@ Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const 
         t.a += x.a, t.b += x.b, t.c += x.c, t.d += x.d;
       };
       add(r.paired, one);
+      pair_of_vacancy[vacancy] = one;
       for (const auto& kv : strata_of[vacancy]) add(by_stratum[kv], one);
     }
   }
@@ -155,6 +157,9 @@ Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const 
     effects_in.sets.push_back(std::move(so));
   }
   r.effects = ComputeEffects(effects_in);
+  r.design = SummariseDesign(store);
+  r.response_times = ComputeResponseTimes(store, scheme);
+  r.employers = SummariseEmployers(store, pair_of_vacancy);
   return r;
 }
 

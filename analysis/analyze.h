@@ -16,6 +16,9 @@
 #include "core/design.h"
 #include "core/status.h"
 #include "core/store.h"
+#include "analysis/design_summary.h"
+#include "analysis/employer_outcomes.h"
+#include "analysis/response_times.h"
 #include "stats/binomial.h"
 #include "stats/mcnemar.h"
 
@@ -68,6 +71,9 @@ struct AnalysisResult {
   // Every comparison with the reference arm, per-stratum tests corrected for
   // multiplicity, Mantel–Haenszel and Breslow–Day (analysis/effects.h).
   Effects effects;
+  DesignSummary design;              // analysis/design_summary.h
+  ResponseTimes response_times;      // analysis/response_times.h
+  EmployerOutcomes employers;        // analysis/employer_outcomes.h (pseudonyms only)
 };
 
 // Requires a plan in the store, or listings (a listing-only store gives kind

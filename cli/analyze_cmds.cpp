@@ -1,4 +1,4 @@
-// Commands that read the store: analyze, report, verify.
+// Commands that read the store: analyze, verify (report: cli/report_cmd.cpp).
 #include <filesystem>
 #include <fstream>
 #include <iostream>
@@ -29,33 +29,15 @@ int RunAnalyze(Context& ctx) {
   return 0;
 }
 
-struct ReportOptions {
-  std::string out;
-  bool text = false;
-};
-
-int RunReport(Context& ctx, const ReportOptions& o) {
-  auto r = AnalyzeStudy(ctx);
-  if (!r.ok()) return ReportError(r.error());
-  std::string body = ctx.json ? RenderJsonReport(r.value()) : RenderTextReport(r.value());
-  if (o.out.empty()) {
-    std::cout << body;
-    return 0;
-  }
-  std::ofstream out(o.out, std::ios::binary);
-  out << body;
-  if (!out) return ReportError(BadInput(o.out, "cannot write the report", "check that the folder exists and is writable"));
-  std::cerr << "Report written to " << o.out << "\n";
-  return 0;
-}
-
 int RunVerify(Context& ctx) {
   auto store = OpenStudyStore(ctx, false);
   if (!store.ok()) return ReportError(store.error());
   AuditReport rep = VerifyAudit(*store.value());
   if (ctx.json) {
     nlohmann::json problems = nlohmann::json::array();
-    for (const auto& p : rep.problems) problems.push_back({{"seq", p.seq}, {"what", p.what}});
+    for (const auto& p : rep.problems)
+      problems.push_back({{"seq", p.seq}, {"what", p.what}, {"command", p.command}, {"actor", p.actor},
+                          {"at", p.at}, {"summary", p.summary}});
     std::cout << nlohmann::json{{"ok", rep.ok()},
                                 {"entries", rep.entries},
                                 {"sealed_rows", rep.sealed_rows},
@@ -69,6 +51,9 @@ int RunVerify(Context& ctx) {
   } else {
     std::cout << "The audit chain is BROKEN. First broken link: entry " << rep.problems.front().seq << ": "
               << rep.problems.front().what << ".\n";
+    if (!rep.problems.front().actor.empty())
+      std::cout << "  entry " << rep.problems.front().seq << " was written by " << rep.problems.front().actor << " at "
+                << rep.problems.front().at << ": " << rep.problems.front().summary << "\n";
     for (size_t i = 1; i < rep.problems.size(); ++i)
       std::cout << "  also entry " << rep.problems[i].seq << ": " << rep.problems[i].what << "\n";
   }
@@ -78,11 +63,7 @@ int RunVerify(Context& ctx) {
 void RegisterAnalyzeCommands(CLI::App& app, Context& ctx) {
   app.add_subcommand("analyze", "Compute callback rates, the paired table and exact tests from the stored data")
       ->callback([&ctx] { ctx.exit_code = RunAnalyze(ctx); });
-  auto ro = std::make_shared<ReportOptions>();
-  auto* report = app.add_subcommand("report", "Write the study report (text, or JSON with --json)");
-  report->add_option("--out", ro->out, "Write to this file instead of standard output");
-  report->add_flag("--text", ro->text, "Plain-text summary (the default until the HTML report lands)");
-  report->callback([&ctx, ro] { ctx.exit_code = RunReport(ctx, *ro); });
+  // `report` lives in cli/report_cmd.cpp.
   app.add_subcommand("verify", "Recompute the audit chain and report the first broken link, if any")
       ->callback([&ctx] { ctx.exit_code = RunVerify(ctx); });
 }

@@ -1,15 +1,27 @@
-// Commands that record fieldwork: sent, record, import.
+// Commands that record fieldwork: sent, record, import outcomes, import pairs.
+#include <filesystem>
 #include <iostream>
 
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
+#include "collector/import_outcomes.h"
+#include "collector/import_pairs.h"
 #include "collector/responses.h"
 #include "core/clock.h"
 #include "core/ethics_gate.h"
+#include "planner/design_file.h"
 
 namespace twinprobe {
 namespace {
+
+std::string JoinWords(const std::vector<std::string>& v, const std::string& last_sep = " and ") {
+  std::string s;
+  for (size_t i = 0; i < v.size(); ++i) s += (i == 0 ? "" : i + 1 == v.size() ? last_sep : ", ") + v[i];
+  return s;
+}
+
+nlohmann::json OrNull(const std::string& s) { return s.empty() ? nlohmann::json(nullptr) : nlohmann::json(s); }
 
 struct RecordOptions {
   std::string probe, code, at, channel, note;
@@ -25,8 +37,12 @@ int RunRecord(Context& ctx, const RecordOptions& o) {
   if (!r.ok()) return ReportError(r.error());
   const auto& v = r.value();
   if (v.late)
-    Warn("the response arrived after the observation window of " + std::to_string(settings.value().outcomes.window_days) +
+    Warn("the response came " + std::to_string(v.days_after_sending) + " days after " + v.probe_ref +
+         " was sent, outside the observation window of " + std::to_string(settings.value().outcomes.window_days) +
          " days; it is stored with the flag 'late'");
+  if (v.unsent)
+    Warn(v.probe_ref + " has no sending recorded, so the observation window cannot be checked \u2014 record it with "
+         "'twinprobe sent " + v.probe_ref + " --at TIME'");
   // An invitation holds a real vacancy for a fictitious applicant: say when
   // and how it must be declined, every time one is recorded.
   const EthicsBlock& ethics = settings.value().ethics;
@@ -37,6 +53,7 @@ int RunRecord(Context& ctx, const RecordOptions& o) {
     std::cout << nlohmann::json{{"response_id", v.response_id}, {"probe", v.probe_ref},     {"code", v.code},
                                 {"decline_by", decline_by.empty() ? nlohmann::json(nullptr) : nlohmann::json(decline_by)},
                                 {"received_at", v.received_at}, {"positive", v.positive},   {"late", v.late},
+                                {"sent_at", OrNull(v.sent_at)},
                                 {"supersedes", v.superseded ? nlohmann::json(v.superseded) : nlohmann::json(nullptr)}}
                      .dump(2)
               << "\n";
@@ -57,10 +74,19 @@ int RunRecord(Context& ctx, const RecordOptions& o) {
 int RunSent(Context& ctx, const std::string& probe, const std::string& at) {
   auto store = OpenStudyStore(ctx, false);
   if (!store.ok()) return ReportError(store.error());
-  auto r = MarkSent(*store.value(), probe, at);
+  auto r = RecordSending(*store.value(), probe, at);
   if (!r.ok()) return ReportError(r.error());
-  if (ctx.json) std::cout << nlohmann::json{{"probe", probe}, {"sent_at", r.value()}}.dump(2) << "\n";
-  else std::cout << "Marked " << probe << " as sent at " << r.value() << ".\n";
+  const SendingRecord& v = r.value();
+  if (ctx.json) {
+    std::cout << nlohmann::json{{"probe", v.probe_ref}, {"sent_at", v.sent_at}, {"replaces", OrNull(v.previous_sent_at)}}
+                     .dump(2)
+              << "\n";
+  } else {
+    std::cout << "Marked " << v.probe_ref << " as sent at " << v.sent_at;
+    if (!v.previous_sent_at.empty())
+      std::cout << "; this replaces the earlier sending time " << v.previous_sent_at << ", which is kept";
+    std::cout << ".\n";
+  }
   return 0;
 }
 
@@ -68,27 +94,139 @@ struct ImportCmdOptions {
   std::string file;
   bool skip_bad = false;
   std::string rejects;
+  std::string strata;  // import pairs: comma-separated
+  bool strata_given = false;
+  std::string reference;
+  std::string study_id;
 };
+
+void WarnIgnoredColumns(const std::vector<std::string>& ignored, const std::string& kind) {
+  if (ignored.empty()) return;
+  std::vector<std::string> quoted;
+  for (const auto& c : ignored) quoted.push_back("'" + c + "'");
+  Warn(std::string(ignored.size() == 1 ? "the column " : "the columns ") + JoinWords(quoted) +
+       (ignored.size() == 1 ? " is" : " are") + " not part of " + kind + " and " +
+       (ignored.size() == 1 ? "was" : "were") + " ignored");
+}
+
+void WarnLate(int64_t late, int window_days) {
+  if (late == 0) return;
+  Warn(std::to_string(late) + (late == 1 ? " response arrived" : " responses arrived") +
+       " outside the observation window of " + std::to_string(window_days) + " days; " +
+       (late == 1 ? "it is" : "they are") + " stored with the flag 'late'");
+}
 
 int RunImportOutcomes(Context& ctx, const ImportCmdOptions& o) {
   auto store = OpenStudyStore(ctx, false);
   if (!store.ok()) return ReportError(store.error());
   auto settings = LoadStudySettings(ctx, *store.value());
   if (!settings.ok()) return ReportError(settings.error());
-  auto r = ImportOutcomes(*store.value(), settings.value().outcomes, o.file, {o.skip_bad, o.rejects});
+  ImportOptions options;
+  options.skip_bad = o.skip_bad;
+  options.reject_path = o.rejects;
+  auto r = ImportOutcomes(*store.value(), settings.value().outcomes, o.file, options);
   if (!r.ok()) return ReportError(r.error());
   const auto& s = r.value();
+  WarnIgnoredColumns(s.ignored_columns, "an outcomes file");
+  WarnLate(s.late, settings.value().outcomes.window_days);
   if (ctx.json) {
-    std::cout << nlohmann::json{{"file", o.file}, {"rows_landed", s.rows_landed}, {"rows_rejected", s.rows_rejected},
-                                {"already_imported", s.already_imported}}
+    std::cout << nlohmann::json{{"file", o.file},
+                                {"already_imported", s.already_imported},
+                                {"rows_landed", s.rows_landed},
+                                {"rows_rejected", s.rows_rejected},
+                                {"late", s.late},
+                                {"superseding", s.superseding},
+                                {"reject_file", OrNull(s.reject_path)},
+                                {"ignored_columns", s.ignored_columns},
+                                {"audit_hash", OrNull(s.audit_hash)}}
                      .dump(2)
               << "\n";
   } else if (s.already_imported) {
     std::cout << "This file was imported before; nothing was added.\n";
   } else {
-    std::cout << "Imported " << s.rows_landed << " responses from " << o.file;
-    if (s.rows_rejected) std::cout << "; " << s.rows_rejected << " bad rows were written to the reject file";
+    std::cout << "Imported " << s.rows_landed << (s.rows_landed == 1 ? " response" : " responses") << " from " << o.file;
+    if (s.superseding) std::cout << " (" << s.superseding << " of them supersede an earlier response, which is kept)";
+    if (s.rows_rejected)
+      std::cout << "; " << s.rows_rejected << (s.rows_rejected == 1 ? " bad row was" : " bad rows were")
+                << " written with the reasons to " << s.reject_path;
     std::cout << ".\n";
+  }
+  return s.rows_rejected ? 1 : 0;
+}
+
+std::vector<std::string> SplitList(const std::string& text) {
+  std::vector<std::string> out;
+  size_t start = 0;
+  while (start <= text.size()) {
+    size_t comma = text.find(',', start);
+    if (comma == std::string::npos) comma = text.size();
+    std::string item = text.substr(start, comma - start);
+    size_t b = item.find_first_not_of(' '), e = item.find_last_not_of(' ');
+    if (b != std::string::npos) out.push_back(item.substr(b, e - b + 1));
+    start = comma + 1;
+  }
+  return out;
+}
+
+int RunImportPairs(Context& ctx, const ImportCmdOptions& o) {
+  std::optional<Design> design;
+  if (std::filesystem::exists(DesignPath(ctx.study_dir))) {
+    auto d = LoadDesign(ctx.study_dir);
+    if (!d.ok()) return ReportError(d.error());
+    design = std::move(d).value();
+  }
+  PairsImportOptions options;
+  options.strata = SplitList(o.strata);
+  options.strata_given = o.strata_given;
+  options.reference = o.reference;
+  options.skip_bad = o.skip_bad;
+  options.reject_path = o.rejects;
+  options.study_id = o.study_id;
+  auto r = ImportPairs(StorePath(ctx), design ? &*design : nullptr, o.file, options);
+  if (!r.ok()) return ReportError(r.error());
+  const PairsImportSummary& s = r.value();
+  WarnIgnoredColumns(s.ignored_columns, "a pairs file");
+  if (!s.already_imported) {
+    auto store = OpenStudyStore(ctx, false);
+    if (!store.ok()) return ReportError(store.error());
+    auto settings = LoadStudySettings(ctx, *store.value());
+    if (!settings.ok()) return ReportError(settings.error());
+    WarnLate(s.late, settings.value().outcomes.window_days);
+  }
+  if (ctx.json) {
+    std::cout << nlohmann::json{{"file", o.file},
+                                {"already_imported", s.already_imported},
+                                {"new_plan", s.new_plan},
+                                {"plan_id", s.plan_id},
+                                {"kind", s.kind},
+                                {"arms", s.arms},
+                                {"reference", s.arms.empty() ? nlohmann::json(nullptr) : nlohmann::json(s.arms[0])},
+                                {"strata", s.strata},
+                                {"rows_landed", s.rows_landed},
+                                {"rows_rejected", s.rows_rejected},
+                                {"vacancies_landed", s.vacancies_landed},
+                                {"sendings", s.sendings},
+                                {"late", s.late},
+                                {"reject_file", OrNull(s.reject_path)},
+                                {"ignored_columns", s.ignored_columns},
+                                {"audit_hash", OrNull(s.audit_hash)}}
+                     .dump(2)
+              << "\n";
+  } else if (s.already_imported) {
+    std::cout << "This file was imported before; nothing was added.\n";
+  } else {
+    std::cout << (s.new_plan ? "Created a " + s.kind + " study from " : "Added to the study from ") << o.file << ": "
+              << s.rows_landed << (s.rows_landed == 1 ? " probe" : " probes") << " in " << s.vacancies_landed
+              << (s.vacancies_landed == 1 ? " vacancy" : " vacancies");
+    if (s.new_plan) {
+      std::vector<std::string> others(s.arms.begin() + 1, s.arms.end());
+      std::cout << "; reference arm " << s.arms[0] << ", compared with " << JoinWords(others);
+      std::cout << "; strata " << (s.strata.empty() ? "none" : JoinWords(s.strata));
+    }
+    if (s.rows_rejected)
+      std::cout << "; " << s.rows_rejected << (s.rows_rejected == 1 ? " row was" : " rows were")
+                << " left out and written with the reasons to " << s.reject_path;
+    std::cout << ".\nNext: twinprobe" << (ctx.study_dir == "." ? "" : " --study " + ctx.study_dir) << " analyze\n";
   }
   return s.rows_rejected ? 1 : 0;
 }
@@ -120,6 +258,22 @@ void RegisterCollectCommands(CLI::App& app, Context& ctx) {
   outcomes->add_flag("--skip-bad", io->skip_bad, "Land the good rows and write each bad row with its reason to a reject file");
   outcomes->add_option("--rejects", io->rejects, "Reject file for --skip-bad (default FILE.rejects.csv)");
   outcomes->callback([&ctx, io] { ctx.exit_code = RunImportOutcomes(ctx, *io); });
+
+  auto po = std::make_shared<ImportCmdOptions>();
+  auto* pairs = import->add_subcommand(
+      "pairs",
+      "Import a whole dataset collected elsewhere, one row per probe: columns vacancy,arm,outcome[,sent_at,"
+      "responded_at,probe,employer] and stratum columns; creates the study when the folder has none");
+  pairs->add_option("file", po->file, "CSV file")->required();
+  pairs->add_option("--strata", po->strata,
+                    "Comma-separated stratum columns, e.g. occupation,region (default: the design's [strata]; \"\" for none)")
+      ->each([po](const std::string&) { po->strata_given = true; });
+  pairs->add_option("--reference", po->reference, "The reference arm (needed when the folder has no study.toml)");
+  pairs->add_option("--id", po->study_id, "Study id for a new study without study.toml (default: the folder's name)");
+  pairs->add_flag("--skip-bad", po->skip_bad,
+                  "Land the good vacancies and write every row left out, with its reason, to a reject file");
+  pairs->add_option("--rejects", po->rejects, "Reject file for --skip-bad (default FILE.rejects.csv)");
+  pairs->callback([&ctx, po] { ctx.exit_code = RunImportPairs(ctx, *po); });
 }
 
 const bool kRegistered = RegisterCommand(40, &RegisterCollectCommands);

@@ -12,6 +12,9 @@
 #include "collector/responses.h"
 #include "core/audit.h"
 #include "core/clock.h"
+#include "core/sha256.h"
+#include "cli/report_cmd.h"
+#include "report/html_report.h"
 #include "planner/plan_store.h"
 #include "planner/study_check.h"
 #include "report/json_report.h"
@@ -122,6 +125,17 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
   if (!plan.ok()) return ReportError(plan.error());
   auto store = OpenStudyStore(ctx, true);
   if (!store.ok()) return ReportError(store.error());
+  {
+    // The demo's employers are invented; a pseudonym key fixed by the demo's
+    // seed makes its pseudonyms, and so its reports, repeat exactly. Real
+    // studies get a random key on first use (core/pseudonym.cpp).
+    Transaction tx(*store.value());
+    store.value()
+        ->Prepare("INSERT OR IGNORE INTO secret(name, value) VALUES ('employer_key', ?1)")
+        .Bind(1, Sha256Hex("twinprobe demo employer key " + std::to_string(DemoModel{}.seed)))
+        .Run();
+    tx.Commit();
+  }
   auto planned = StorePlan(*store.value(), s.design, s.vacancies, plan.value());
   if (!planned.ok()) return ReportError(planned.error());
   DemoModel model;
@@ -139,6 +153,8 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
   std::ofstream(text_path) << RenderTextReport(result.value());
   std::ofstream(json_path) << RenderJsonReport(result.value());
   AuditReport audit = VerifyAudit(*store.value());
+  std::string html_path = (fs::path(out_dir) / "reports" / "report.html").string();
+  std::ofstream(html_path) << RenderHtmlReport(result.value(), StudyReportContext(ctx, *store.value(), false));
 
   if (ctx.json) {
     std::cout << RenderJsonReport(result.value());
@@ -154,6 +170,7 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
             << "Study folder: " << out_dir << "\n"
             << "Reports:      " << text_path << "\n"
             << "              " << json_path << "\n"
+            << "              " << html_path << "  (open it in a browser; it prints on A4)\n"
             << "Try: twinprobe --study " << out_dir << " analyze\n";
   return 0;
 }

@@ -1,23 +1,29 @@
 #include "collector/responses.h"
 
 #include <algorithm>
-#include <fstream>
-#include <sstream>
 
+#include "collector/event_time.h"
 #include "core/audit.h"
-#include "core/clock.h"
-#include "core/csv.h"
 #include "core/sha256.h"
 #include "core/suggest.h"
 
 namespace twinprobe {
 namespace {
 
-const std::vector<std::string> kChannels = {"mail", "phone", "letter", "other"};
+std::string JoinCodes(const std::vector<std::string>& codes) {
+  std::string s;
+  for (const auto& c : codes) s += (s.empty() ? "" : ", ") + c;
+  return s;
+}
 
-std::string Prefix(const std::string& where) { return where; }
+constexpr const char* kTimeFormat = "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM (UTC)";
 
 }  // namespace
+
+const std::vector<std::string>& ResponseChannels() {
+  static const std::vector<std::string> channels = {"mail", "phone", "letter", "other"};
+  return channels;
+}
 
 int64_t FindProbe(Store& store, const std::string& probe_ref) {
   Stmt s = store.Prepare("SELECT id FROM current_probe WHERE ref = ?1");
@@ -25,158 +31,136 @@ int64_t FindProbe(Store& store, const std::string& probe_ref) {
   return s.Step() ? s.Int(0) : 0;
 }
 
-Result<RecordedResponse> AddResponse(Store& store, const OutcomeScheme& scheme, const ResponseEntry& e,
-                                     int64_t seq, const std::string& actor, const std::string& at,
-                                     const std::string& where) {
-  int64_t probe_id = FindProbe(store, e.probe_ref);
+ResponseWriter::ResponseWriter(Store& store, const OutcomeScheme& scheme, int64_t seq, std::string actor,
+                               std::string at)
+    : store_(store),
+      scheme_(scheme),
+      seq_(seq),
+      actor_(std::move(actor)),
+      at_(std::move(at)),
+      find_probe_(store.Prepare("SELECT id FROM current_probe WHERE ref = ?1")),
+      last_sending_(store.Prepare("SELECT sent_at FROM sending WHERE probe_id = ?1 ORDER BY id DESC LIMIT 1")),
+      current_(store.Prepare("SELECT id FROM current_response WHERE probe_id = ?1 ORDER BY id DESC LIMIT 1")),
+      insert_(store.Prepare(
+          "INSERT INTO response(probe_id, code, received_at, channel, note, note_sha256, origin, flags, entered_by, "
+          "entered_at, supersedes, audit_seq) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12)")) {}
+
+Result<RecordedResponse> ResponseWriter::Add(const ResponseEntry& e, const std::string& where,
+                                             const TimeReading& time) {
+  find_probe_.Bind(1, e.probe_ref);
+  int64_t probe_id = find_probe_.Step() ? find_probe_.Int(0) : 0;
+  find_probe_.Reset();
   if (probe_id == 0)
-    return BadInput(Prefix(where), "unknown probe '" + e.probe_ref + "'",
+    return BadInput(where, "unknown probe '" + e.probe_ref + "'",
                     "use a probe reference from 'twinprobe schedule' or the plan (e.g. P00001)");
-  if (!scheme.has_code(e.code))
-    return BadInput(Prefix(where), "'" + e.code + "' is not a response code of this study" + DidYouMean(e.code, scheme.codes),
-                    "use one of: " + [&] {
-                      std::string s;
-                      for (const auto& c : scheme.codes) s += (s.empty() ? "" : ", ") + c;
-                      return s;
-                    }());
-  if (!e.channel.empty() && std::find(kChannels.begin(), kChannels.end(), e.channel) == kChannels.end())
-    return BadInput(Prefix(where), "unknown channel '" + e.channel + "'" + DidYouMean(e.channel, kChannels),
+  if (!scheme_.has_code(e.code))
+    return BadInput(where, "'" + e.code + "' is not a response code of this study" + DidYouMean(e.code, scheme_.codes),
+                    "use one of: " + JoinCodes(scheme_.codes));
+  const auto& channels = ResponseChannels();
+  if (!e.channel.empty() && std::find(channels.begin(), channels.end(), e.channel) == channels.end())
+    return BadInput(where, "unknown channel '" + e.channel + "'" + DidYouMean(e.channel, channels),
                     "use mail, phone, letter or other");
-  std::string received = e.received_at.empty() ? at : e.received_at;
-  auto t_received = ParseIsoTime(received);
-  if (!t_received)
-    return BadInput(Prefix(where), "'" + received + "' is not a time", "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM");
-  received = FormatIsoTime(*t_received);
 
   RecordedResponse out;
   out.probe_ref = e.probe_ref;
   out.code = e.code;
-  out.received_at = received;
-  out.positive = scheme.is_positive(e.code);
-  Stmt sent = store.Prepare("SELECT sent_at FROM sending WHERE probe_id = ?1 ORDER BY id DESC LIMIT 1");
-  sent.Bind(1, probe_id);
-  if (sent.Step()) {
-    int64_t t_sent = ParseIsoTime(sent.Text(0)).value_or(0);
-    if (*t_received < t_sent)
-      return BadInput(Prefix(where),
-                      "the response time " + received + " is before the probe was sent (" + sent.Text(0) + ")",
-                      "check the date; a response cannot precede the application");
-    out.late = *t_received > t_sent + static_cast<int64_t>(scheme.window_days) * 86400;
+  out.positive = scheme_.is_positive(e.code);
+  std::optional<EventTime> received;
+  if (!time.unknown) {
+    std::string text = e.received_at.empty() ? at_ : e.received_at;
+    received = ParseEventTime(text);
+    if (!received)
+      return BadInput(where, (time.label.empty() ? "" : time.label + " ") + "'" + text + "' is not a date or time",
+                      kTimeFormat);
+    out.received_at = received->text();
   }
-  Stmt prev = store.Prepare("SELECT id FROM current_response WHERE probe_id = ?1 ORDER BY id DESC LIMIT 1");
-  prev.Bind(1, probe_id);
-  if (prev.Step()) out.superseded = prev.Int(0);
 
-  Stmt ins = store.Prepare(
-      "INSERT INTO response(probe_id, code, received_at, channel, note, note_sha256, origin, flags, entered_by, "
-      "entered_at, supersedes, audit_seq) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12)");
-  ins.Bind(1, probe_id).Bind(2, e.code).Bind(3, received);
-  if (e.channel.empty()) ins.BindNull(4);
-  else ins.Bind(4, e.channel);
-  if (e.note.empty()) ins.BindNull(5).BindNull(6);
-  else ins.Bind(5, e.note).Bind(6, Sha256Hex(e.note));
-  ins.Bind(7, e.origin).Bind(8, out.late ? "late" : "").Bind(9, actor).Bind(10, at);
-  if (out.superseded) ins.Bind(11, out.superseded);
-  else ins.BindNull(11);
-  ins.Bind(12, seq).Run();
-  out.response_id = store.LastInsertId();
+  last_sending_.Bind(1, probe_id);
+  if (last_sending_.Step()) out.sent_at = last_sending_.Text(0);
+  last_sending_.Reset();
+  if (out.sent_at.empty()) {
+    out.unsent = true;
+  } else if (received) {
+    EventTime sent = ParseEventTime(out.sent_at).value_or(EventTime{});
+    if (IsBefore(*received, sent))
+      return BadInput(where, "the response time " + out.received_at + " is before the probe was sent (" + out.sent_at + ")",
+                      "check the date; a response cannot precede the application");
+    out.late = IsAfterWindow(sent, *received, scheme_.window_days);
+    out.days_after_sending = DaysBetween(sent, *received);
+  }
+
+  current_.Bind(1, probe_id);
+  if (current_.Step()) out.superseded = current_.Int(0);
+  current_.Reset();
+
+  insert_.Bind(1, probe_id).Bind(2, e.code);
+  if (received) insert_.Bind(3, out.received_at);
+  else insert_.BindNull(3);
+  if (e.channel.empty()) insert_.BindNull(4);
+  else insert_.Bind(4, e.channel);
+  if (e.note.empty()) insert_.BindNull(5).BindNull(6);
+  else insert_.Bind(5, e.note).Bind(6, Sha256Hex(e.note));
+  insert_.Bind(7, e.origin).Bind(8, out.late ? "late" : "").Bind(9, actor_).Bind(10, at_);
+  if (out.superseded) insert_.Bind(11, out.superseded);
+  else insert_.BindNull(11);
+  insert_.Bind(12, seq_).Run();
+  out.response_id = store_.LastInsertId();
   return out;
+}
+
+Result<RecordedResponse> AddResponse(Store& store, const OutcomeScheme& scheme, const ResponseEntry& entry,
+                                     int64_t seq, const std::string& actor, const std::string& at,
+                                     const std::string& where) {
+  ResponseWriter writer(store, scheme, seq, actor, at);
+  return writer.Add(entry, where);
 }
 
 Result<RecordedResponse> RecordResponse(Store& store, const OutcomeScheme& scheme, const ResponseEntry& entry) {
   AuditedWrite write(store, "record");
   auto r = AddResponse(store, scheme, entry, write.seq(), write.actor(), write.at(), "");
   if (!r.ok()) return r.error();
-  write.Commit("record " + entry.probe_ref + " " + entry.code +
-               (r.value().superseded ? " (supersedes response " + std::to_string(r.value().superseded) + ")" : ""));
+  const RecordedResponse& v = r.value();
+  write.Commit("record " + entry.probe_ref + " " + entry.code + (v.late ? " (late)" : "") +
+               (v.superseded ? " (supersedes response " + std::to_string(v.superseded) + ")" : ""));
   return r;
 }
 
-Result<std::string> MarkSent(Store& store, const std::string& probe_ref, const std::string& sent_at) {
+Result<SendingRecord> RecordSending(Store& store, const std::string& probe_ref, const std::string& sent_at) {
   AuditedWrite write(store, "sent");
   int64_t probe_id = FindProbe(store, probe_ref);
   if (probe_id == 0)
     return BadInput("", "unknown probe '" + probe_ref + "'", "use a probe reference from 'twinprobe schedule'");
-  std::string at = sent_at.empty() ? write.at() : sent_at;
-  auto t = ParseIsoTime(at);
-  if (!t) return BadInput("", "'" + at + "' is not a time", "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM");
-  at = FormatIsoTime(*t);
+  std::string text = sent_at.empty() ? write.at() : sent_at;
+  auto t = ParseEventTime(text);
+  if (!t) return BadInput("", "'" + text + "' is not a date or time", kTimeFormat);
+  SendingRecord out;
+  out.probe_ref = probe_ref;
+  out.sent_at = t->text();
+
+  Stmt prev = store.Prepare("SELECT sent_at FROM sending WHERE probe_id = ?1 ORDER BY id DESC LIMIT 1");
+  prev.Bind(1, probe_id);
+  if (prev.Step()) out.previous_sent_at = prev.Text(0);
+  Stmt answered = store.Prepare(
+      "SELECT received_at FROM current_response WHERE probe_id = ?1 AND received_at IS NOT NULL ORDER BY id DESC LIMIT 1");
+  answered.Bind(1, probe_id);
+  if (answered.Step()) {
+    EventTime received = ParseEventTime(answered.Text(0)).value_or(EventTime{});
+    if (IsBefore(received, *t))
+      return BadInput("", probe_ref + " already has a response received " + answered.Text(0) + ", before " + out.sent_at,
+                      "check the date; a probe is sent before it is answered");
+  }
   Stmt ins = store.Prepare(
       "INSERT INTO sending(probe_id, sent_at, entered_by, entered_at, audit_seq) VALUES (?1, ?2, ?3, ?4, ?5)");
-  ins.Bind(1, probe_id).Bind(2, at).Bind(3, write.actor()).Bind(4, write.at()).Bind(5, write.seq()).Run();
-  write.Commit("sent " + probe_ref + " at " + at);
-  return at;
+  ins.Bind(1, probe_id).Bind(2, out.sent_at).Bind(3, write.actor()).Bind(4, write.at()).Bind(5, write.seq()).Run();
+  write.Commit("sent " + probe_ref + " at " + out.sent_at +
+               (out.previous_sent_at.empty() ? "" : " (replaces " + out.previous_sent_at + ")"));
+  return out;
 }
 
-Result<ImportSummary> ImportOutcomes(Store& store, const OutcomeScheme& scheme, const std::string& path,
-                                     const ImportOptions& options) {
-  std::ifstream in(path, std::ios::binary);
-  if (!in) return BadInput(path, "cannot read the file", "check the path");
-  std::stringstream buf;
-  buf << in.rdbuf();
-  const std::string content = buf.str();
-  auto table = ReadCsvText(content, path);
-  if (!table.ok()) return table.error();
-  const CsvTable& t = table.value();
-  int c_probe = t.Column("probe"), c_code = t.Column("code"), c_at = t.Column("received_at"),
-      c_channel = t.Column("channel"), c_note = t.Column("note");
-  if (c_probe < 0 || c_code < 0)
-    return BadInput(path + ":1", "an outcomes file needs the columns 'probe' and 'code'",
-                    "name the columns probe,code[,received_at,channel,note]");
-
-  AuditedWrite write(store, "import outcomes");
-  ImportSummary summary;
-  const std::string file_sha = Sha256Hex(content);
-  Stmt seen = store.Prepare("SELECT count(*) FROM import_file WHERE kind = 'outcomes' AND sha256 = ?1");
-  seen.Bind(1, file_sha);
-  if (seen.Step() && seen.Int(0) > 0) {
-    summary.already_imported = true;
-    return summary;  // nothing written; the transaction rolls back
-  }
-  std::vector<std::pair<const CsvRecord*, std::string>> rejects;
-  for (const auto& row : t.rows) {
-    ResponseEntry e;
-    e.probe_ref = row.fields[c_probe];
-    e.code = row.fields[c_code];
-    if (c_at >= 0) e.received_at = row.fields[c_at];
-    if (c_channel >= 0) e.channel = row.fields[c_channel];
-    if (c_note >= 0) e.note = row.fields[c_note];
-    e.origin = "import";
-    if (e.received_at.empty()) {
-      auto where = path + ":" + std::to_string(row.line);
-      Error err = BadInput(where, "received_at is empty", "give the time the response arrived");
-      if (!options.skip_bad) return err;
-      rejects.emplace_back(&row, err.what);
-      continue;
-    }
-    auto r = AddResponse(store, scheme, e, write.seq(), write.actor(), write.at(), path + ":" + std::to_string(row.line));
-    if (!r.ok()) {
-      if (!options.skip_bad) return r.error();
-      rejects.emplace_back(&row, r.error().what);
-      continue;
-    }
-    ++summary.rows_landed;
-  }
-  summary.rows_rejected = static_cast<int64_t>(rejects.size());
-  if (!rejects.empty()) {
-    std::string reject_path = options.reject_path.empty() ? path + ".rejects.csv" : options.reject_path;
-    std::ofstream out(reject_path, std::ios::binary);
-    if (!out) return BadInput(reject_path, "cannot write the reject file", "check the folder is writable");
-    out << "line,reason";
-    for (const auto& h : t.header) out << "," << CsvQuote(h);
-    out << "\n";
-    for (const auto& [row, reason] : rejects) {
-      out << row->line << "," << CsvQuote(reason);
-      for (const auto& f : row->fields) out << "," << CsvQuote(f);
-      out << "\n";
-    }
-  }
-  Stmt ins = store.Prepare(
-      "INSERT INTO import_file(kind, sha256, path, rows_landed, rows_rejected, audit_seq) VALUES ('outcomes', ?1, ?2, ?3, ?4, ?5)");
-  ins.Bind(1, file_sha).Bind(2, path).Bind(3, summary.rows_landed).Bind(4, summary.rows_rejected).Bind(5, write.seq()).Run();
-  summary.audit_hash = write.Commit("import outcomes " + path + ": " + std::to_string(summary.rows_landed) +
-                                    " rows landed, " + std::to_string(summary.rows_rejected) + " rejected");
-  return summary;
+Result<std::string> MarkSent(Store& store, const std::string& probe_ref, const std::string& sent_at) {
+  auto r = RecordSending(store, probe_ref, sent_at);
+  if (!r.ok()) return r.error();
+  return r.value().sent_at;
 }
 
 }  // namespace twinprobe

@@ -1,7 +1,12 @@
 #pragma once
-// Recording what came back to a probe (DESIGN.md: response), marking probes
-// sent, and importing outcomes from CSV. Nothing is overwritten: a new
-// response to a probe that already has one supersedes it, and both stay.
+// Recording what came back to a probe (DESIGN.md: response) and marking
+// probes sent. Nothing is overwritten: a new response to a probe that
+// already has one supersedes it, and both stay; a second sending of a probe
+// is a new row too, and the newest one counts.
+//
+// Times are UTC ISO 8601, stored as full times (core/clock.h); a date alone
+// ("2027-03-04") is stored as midnight and checked as "that day"
+// (collector/event_time.h).
 #include <cstdint>
 #include <string>
 #include <vector>
@@ -15,53 +20,82 @@ namespace twinprobe {
 struct ResponseEntry {
   std::string probe_ref;    // e.g. P00042 (current plan)
   std::string code;         // one of the scheme's codes
-  std::string received_at;  // ISO time; "" means now
+  std::string received_at;  // ISO date or time; "" means now (unless time_unknown)
   std::string channel;      // mail | phone | letter | other | "" (unknown)
   std::string note;
   std::string origin = "record";
 };
 
+// How a writer reads an entry's time (imports differ from `record`).
+struct TimeReading {
+  std::string label;          // names the time in messages, e.g. "received_at"; "" for --at
+  bool unknown = false;       // store no time at all (e.g. code 'none' imported without one)
+};
+
 struct RecordedResponse {
   int64_t response_id = 0;
   int64_t superseded = 0;  // id of the response it replaces, 0 if none
-  bool late = false;       // received outside the observation window
+  bool late = false;       // received outside the observation window (flag 'late')
+  bool unsent = false;     // the probe has no sending, so the window could not be checked
   bool positive = false;
   std::string probe_ref;
   std::string code;
-  std::string received_at;
+  std::string received_at;  // as stored ("" when unknown)
+  std::string sent_at;      // the probe's newest sending, "" if none
+  int64_t days_after_sending = 0;
 };
 
-// Validates `entry` and adds it under audit entry `seq`. `where` prefixes
-// messages (e.g. "file.csv:12"). Errors: unknown probe, code outside the
-// scheme, unknown channel, unreadable time, a time before the probe was sent.
+// Adds validated responses under one audit entry, reusing its prepared
+// statements (imports add thousands through one writer).
+class ResponseWriter {
+ public:
+  ResponseWriter(Store& store, const OutcomeScheme& scheme, int64_t seq, std::string actor, std::string at);
+
+  // Validates `entry` and adds it. `where` prefixes messages (e.g.
+  // "file.csv:12"; "" for the command line). Errors (bad input): unknown
+  // probe, code outside the scheme, unknown channel, unreadable time, a time
+  // before the probe's newest sending. A time after the observation window is
+  // accepted and flagged 'late'.
+  Result<RecordedResponse> Add(const ResponseEntry& entry, const std::string& where, const TimeReading& time = {});
+
+ private:
+  Store& store_;
+  const OutcomeScheme& scheme_;
+  int64_t seq_;
+  std::string actor_, at_;
+  Stmt find_probe_, last_sending_, current_, insert_;
+};
+
+// One response through a one-off ResponseWriter (kept for callers that add
+// a single response inside their own audited write, e.g. the demo).
 Result<RecordedResponse> AddResponse(Store& store, const OutcomeScheme& scheme, const ResponseEntry& entry,
                                      int64_t seq, const std::string& actor, const std::string& at,
                                      const std::string& where);
 
-// One `record` command: AddResponse in its own audited transaction.
+// One `record` command: Add in its own audited transaction.
 Result<RecordedResponse> RecordResponse(Store& store, const OutcomeScheme& scheme, const ResponseEntry& entry);
 
-// Marks a probe as sent at `sent_at` (ISO; "" = now), in its own transaction.
+struct SendingRecord {
+  std::string probe_ref;
+  std::string sent_at;           // as stored
+  std::string previous_sent_at;  // the sending it replaces, "" if none
+};
+
+// One `sent` command in its own audited transaction. `sent_at` is ISO ("" =
+// now). Errors: unknown probe, unreadable time, a sending time after the
+// probe's current response arrived.
+Result<SendingRecord> RecordSending(Store& store, const std::string& probe_ref, const std::string& sent_at);
+
+// RecordSending, returning only the stored time.
 Result<std::string> MarkSent(Store& store, const std::string& probe_ref, const std::string& sent_at);
-
-struct ImportOptions {
-  bool skip_bad = false;
-  std::string reject_path;  // with skip_bad: where bad rows go (CSV with a reason column)
-};
-
-struct ImportSummary {
-  int64_t rows_landed = 0;
-  int64_t rows_rejected = 0;
-  bool already_imported = false;  // same file content imported before: nothing added
-  std::string audit_hash;
-};
-
-// `import outcomes FILE.csv`: columns probe, code, and optionally received_at,
-// channel, note. All or nothing unless options.skip_bad.
-Result<ImportSummary> ImportOutcomes(Store& store, const OutcomeScheme& scheme, const std::string& path,
-                                     const ImportOptions& options);
 
 // Looks up a probe of the current plan by its reference; 0 if unknown.
 int64_t FindProbe(Store& store, const std::string& probe_ref);
 
+// The channels a response may come through.
+const std::vector<std::string>& ResponseChannels();
+
 }  // namespace twinprobe
+
+// Importing outcomes lived here first; it has its own file now.
+#include "collector/import_outcomes.h"  // IWYU pragma: export

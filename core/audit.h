@@ -46,18 +46,26 @@ class AuditedWrite {
 std::string ContentDigest(Store& store, int64_t seq);
 
 struct AuditProblem {
+  AuditProblem() = default;
+  AuditProblem(int64_t s, std::string w) : seq(s), what(std::move(w)) {}
   int64_t seq = 0;
   std::string what;  // e.g. "rows of table response changed since they were written"
+  // The audit entry `seq` as stored (empty when no entry has that seq).
+  std::string command, actor, at, summary;
 };
 
 struct AuditReport {
   int64_t entries = 0;
   int64_t sealed_rows = 0;
   std::string head_hash;           // hash of the last audit row ("" when empty)
-  std::vector<AuditProblem> problems;  // first one is the first broken link
+  std::vector<AuditProblem> problems;  // by seq; the first one is the first broken link
   bool ok() const { return problems.empty(); }
 };
 
+// Recomputes every entry's content digest and the chain. Also checks that a
+// free-text column left out of the digest (response.note) still matches the
+// SHA-256 sealed beside it (note_sha256): purge may empty it, nobody may
+// change it.
 AuditReport VerifyAudit(Store& store);
 
 // The hash of the newest audit row, or "" for an empty chain.

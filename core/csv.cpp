@@ -6,12 +6,18 @@
 namespace twinprobe {
 namespace {
 
-// True when `s` is well-formed UTF-8 (RFC 3629: no overlongs, no surrogates).
+constexpr size_t kBufferBytes = 1 << 16;
+
+}  // namespace
+
 bool IsValidUtf8(const std::string& s) {
   size_t i = 0, n = s.size();
   while (i < n) {
     unsigned char c = static_cast<unsigned char>(s[i]);
-    if (c < 0x80) { ++i; continue; }
+    if (c < 0x80) {
+      ++i;
+      continue;
+    }
     int len = (c >> 5) == 6 ? 2 : (c >> 4) == 14 ? 3 : (c >> 3) == 30 ? 4 : 0;
     if (len == 0 || i + len > n) return false;
     uint32_t cp = c & (len == 2 ? 0x1f : len == 3 ? 0x0f : 0x07);
@@ -28,103 +34,153 @@ bool IsValidUtf8(const std::string& s) {
   return true;
 }
 
-}  // namespace
+CsvReader::CsvReader(std::istream& in, std::string name) : in_(in), name_(std::move(name)), buf_(kBufferBytes) {}
 
-CsvReader::CsvReader(std::istream& in, std::string name) : in_(in), name_(std::move(name)) {}
+bool CsvReader::Fill() {
+  if (!in_) return false;
+  in_.read(buf_.data(), static_cast<std::streamsize>(buf_.size()));
+  len_ = static_cast<size_t>(in_.gcount());
+  pos_ = 0;
+  return len_ > 0;
+}
 
 int CsvReader::Get() {
-  int c = in_.get();
+  int c = Peek();
+  if (c < 0) return c;
+  ++pos_;
+  ++consumed_;
   if (c == '\n') {
     ++line_;
     col_ = 0;
-  } else if (c != EOF) {
-    ++col_;
+  } else if (c == '\r') {
+    // A lone CR ends a line too (old spreadsheet exports); CRLF counts once,
+    // at its LF.
+    if (Peek() != '\n') {
+      ++line_;
+      col_ = 0;
+    }
+  } else if ((c & 0xC0) != 0x80) {
+    ++col_;  // count characters, not UTF-8 continuation bytes
   }
   return c;
 }
 
-int CsvReader::Peek() { return in_.peek(); }
+bool CsvReader::Fail(int64_t line, int64_t col, const std::string& what, const std::string& fix) {
+  error_ = BadInput(name_ + ":" + std::to_string(line) + ":" + std::to_string(col), what, fix);
+  return false;
+}
+
+bool CsvReader::CheckStart() {
+  started_ = true;
+  int c = Peek();
+  if (c == 0xEF) {
+    // UTF-8 byte-order mark: three bytes, skipped without counting a column.
+    char bom[3] = {0, 0, 0};
+    for (char& b : bom) {
+      int x = Peek();
+      if (x < 0) break;
+      b = static_cast<char>(x);
+      ++pos_;
+      ++consumed_;
+    }
+    if (static_cast<unsigned char>(bom[1]) != 0xBB || static_cast<unsigned char>(bom[2]) != 0xBF)
+      return Fail(1, 1, "the file starts with bytes that are not UTF-8", "save it as UTF-8 CSV");
+  } else if (c == 0xFF || c == 0xFE) {
+    return Fail(1, 1, "the file is UTF-16 (it starts with a UTF-16 byte-order mark)",
+                "save it as UTF-8 CSV (in a spreadsheet: CSV UTF-8)");
+  }
+  return true;
+}
 
 bool CsvReader::Next(CsvRecord& out) {
   if (error_) return false;
-  if (!started_) {
-    started_ = true;
-    if (Peek() == 0xEF) {  // UTF-8 byte-order mark
-      char bom[3];
-      in_.read(bom, 3);
-      if (in_.gcount() != 3 || static_cast<unsigned char>(bom[1]) != 0xBB ||
-          static_cast<unsigned char>(bom[2]) != 0xBF) {
-        error_ = BadInput(name_ + ":1:1", "the file starts with bytes that are not UTF-8", "save it as UTF-8 CSV");
-        return false;
-      }
-    }
-  }
-  out.fields.clear();
-  for (;;) {
-    // Skip blank lines between records.
+  if (!started_ && !CheckStart()) return false;
+  for (;;) {  // skip blank lines between records
     int c = Peek();
-    if (c == EOF) return false;
-    if (c == '\r' || c == '\n') {
-      Get();
-      continue;
-    }
-    break;
+    if (c < 0) return false;
+    if (c != '\r' && c != '\n') break;
+    Get();
   }
   out.line = line_;
-  std::string field;
+  size_t count = 0;
   for (;;) {
-    int c = Peek();
-    int64_t field_line = line_, field_col = col_ + 1;
-    auto fail = [&](const std::string& what, const std::string& fix) {
-      error_ = BadInput(name_ + ":" + std::to_string(field_line) + ":" + std::to_string(field_col), what, fix);
-      return false;
-    };
+    if (count == out.fields.size()) out.fields.emplace_back();
+    std::string& field = out.fields[count++];
     field.clear();
+    const int64_t field_line = line_, field_col = col_ + 1;
+    bool ascii = true;
+    int c = Peek();
     if (c == '"') {
       Get();
       for (;;) {
         int q = Get();
-        if (q == EOF) return fail("a quoted field is never closed", "add the closing double quote");
+        if (q < 0)
+          return Fail(field_line, field_col, "a quoted field is never closed", "add the closing double quote");
         if (q == '"') {
-          if (Peek() == '"') {
-            Get();
-            field += '"';
-            continue;
-          }
-          break;
+          if (Peek() != '"') break;
+          Get();
+        } else if (q == 0) {
+          return Fail(line_, col_, "the field holds a NUL byte", "remove the NUL byte; is this really a CSV file?");
         }
-        if (q == 0) return fail("the field holds a NUL byte", "remove the NUL byte; is this really a CSV file?");
+        ascii = ascii && q < 0x80;
         field += static_cast<char>(q);
       }
       int after = Peek();
-      if (after != ',' && after != '\n' && after != '\r' && after != EOF)
-        return fail("text follows a closing quote", "quote the whole field and double any quote inside it");
+      if (after != ',' && after != '\n' && after != '\r' && after >= 0)
+        return Fail(line_, col_ + 1, "text follows a closing quote",
+                    "quote the whole field and double any quote inside it");
     } else {
       for (;;) {
         int u = Peek();
-        if (u == ',' || u == '\n' || u == '\r' || u == EOF) break;
+        if (u == ',' || u == '\n' || u == '\r' || u < 0) break;
         if (u == '"')
-          return fail("a double quote inside an unquoted field",
+          return Fail(line_, col_ + 1, "a double quote inside an unquoted field",
                       "quote the whole field and write the quote as \"\"");
-        if (u == 0) return fail("the field holds a NUL byte", "remove the NUL byte; is this really a CSV file?");
+        if (u == 0)
+          return Fail(line_, col_ + 1, "the field holds a NUL byte", "remove the NUL byte; is this really a CSV file?");
+        ascii = ascii && u < 0x80;
         field += static_cast<char>(Get());
       }
     }
-    if (!IsValidUtf8(field)) return fail("the field is not valid UTF-8", "save the file as UTF-8 CSV");
-    out.fields.push_back(field);
+    if (!ascii && !IsValidUtf8(field))
+      return Fail(field_line, field_col, "the field is not valid UTF-8", "save the file as UTF-8 CSV");
     int sep = Get();
     if (sep == ',') continue;
-    if (sep == '\r') {
-      if (Peek() == '\n') Get();
-      return true;
-    }
-    return true;  // '\n' or EOF
+    if (sep == '\r' && Peek() == '\n') Get();
+    out.fields.resize(count);
+    return true;  // line end or end of input
   }
 }
 
-int CsvTable::Column(const std::string& name) const {
+Result<std::vector<std::string>> ReadCsvHeader(CsvReader& reader) {
+  CsvRecord rec;
+  if (!reader.Next(rec)) {
+    if (reader.error()) return *reader.error();
+    return BadInput(reader.name() + ":1", "the file is empty", "the first line must name the columns");
+  }
+  const std::string where = reader.name() + ":" + std::to_string(rec.line);
+  for (size_t i = 0; i < rec.fields.size(); ++i) {
+    if (rec.fields[i].empty())
+      return BadInput(where, "column " + std::to_string(i + 1) + " has no name", "name every column");
+    for (size_t j = 0; j < i; ++j)
+      if (rec.fields[j] == rec.fields[i])
+        return BadInput(where, "the column '" + rec.fields[i] + "' appears twice", "rename one of them");
+  }
+  return rec.fields;
+}
+
+Status CheckFieldCount(const CsvRecord& record, size_t header_fields, const std::string& name) {
+  if (record.fields.size() == header_fields) return {};
+  return BadInput(name + ":" + std::to_string(record.line),
+                  "the row has " + std::to_string(record.fields.size()) + " field" +
+                      (record.fields.size() == 1 ? "" : "s") + " but the header has " +
+                      std::to_string(header_fields),
+                  "check for a missing or extra comma, or quote fields that contain commas");
+}
+
+int FindColumn(const std::vector<std::string>& header, const std::string& column) {
   for (size_t i = 0; i < header.size(); ++i)
-    if (header[i] == name) return static_cast<int>(i);
+    if (header[i] == column) return static_cast<int>(i);
   return -1;
 }
 
@@ -133,25 +189,13 @@ namespace {
 Result<CsvTable> ReadCsvStream(std::istream& in, const std::string& name) {
   CsvReader reader(in, name);
   CsvTable table;
+  auto header = ReadCsvHeader(reader);
+  if (!header.ok()) return header.error();
+  table.header = std::move(header).value();
   CsvRecord rec;
-  if (!reader.Next(rec)) {
-    if (reader.error()) return *reader.error();
-    return BadInput(name + ":1", "the file is empty", "the first line must name the columns");
-  }
-  table.header = rec.fields;
-  for (size_t i = 0; i < table.header.size(); ++i) {
-    if (table.header[i].empty())
-      return BadInput(name + ":1", "column " + std::to_string(i + 1) + " has no name", "name every column");
-    for (size_t j = 0; j < i; ++j)
-      if (table.header[j] == table.header[i])
-        return BadInput(name + ":1", "the column '" + table.header[i] + "' appears twice", "rename one of them");
-  }
   while (reader.Next(rec)) {
-    if (rec.fields.size() != table.header.size())
-      return BadInput(name + ":" + std::to_string(rec.line),
-                      "the row has " + std::to_string(rec.fields.size()) + " fields but the header has " +
-                          std::to_string(table.header.size()),
-                      "check for a missing or extra comma, or quote fields that contain commas");
+    Status s = CheckFieldCount(rec, table.header.size(), name);
+    if (!s.ok()) return s.error();
     table.rows.push_back(rec);
   }
   if (reader.error()) return *reader.error();
@@ -172,7 +216,8 @@ Result<CsvTable> ReadCsvText(const std::string& text, const std::string& name) {
 }
 
 std::string CsvQuote(const std::string& field) {
-  if (field.find_first_of(",\"\r\n") == std::string::npos) return field;
+  bool edge_space = !field.empty() && (field.front() == ' ' || field.back() == ' ');
+  if (!edge_space && field.find_first_of(",\"\r\n") == std::string::npos) return field;
   std::string out = "\"";
   for (char c : field) {
     if (c == '"') out += '"';

@@ -274,12 +274,19 @@ CREATE VIEW current_listing AS
   SELECT l.* FROM listing l WHERE NOT EXISTS (SELECT 1 FROM listing_replay r WHERE r.replaces = l.id);
 )SQL";
 
+// Version 4: current_response asks, for every response, whether another
+// supersedes it; without an index that is a scan of the table per response,
+// and analysis of a 40,000-probe import took minutes instead of a second.
+constexpr const char* kMigration4 = R"SQL(
+CREATE INDEX response_supersedes ON response(supersedes);
+)SQL";
+
 struct Migration {
   int version;
   const char* sql;
 };
 
-const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigration3}};
+const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigration3}, {4, kMigration4}};
 
 }  // namespace
 

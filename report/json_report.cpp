@@ -102,6 +102,79 @@ nlohmann::json ListingAuditJson(const ListingAudit& a) {
   return j;
 }
 
+nlohmann::json Steps(const std::vector<CumulativePoint>& points) {
+  nlohmann::json out = nlohmann::json::array();
+  for (const auto& p : points) out.push_back({{"day", Num(p.day)}, {"count", p.count}, {"share", Num(p.share)}});
+  return out;
+}
+
+nlohmann::json DesignJson(const DesignSummary& d) {
+  nlohmann::json j;
+  j["design_sha256"] = d.design_sha256;
+  j["seed"] = d.has_seed ? nlohmann::json(d.seed) : nlohmann::json(nullptr);
+  // plan_created_at stays out: the plain document must repeat byte for byte
+  // for the same data (the demo's reproducibility check); the audit chain
+  // keeps the time.
+  j["window_days"] = d.window_days;
+  j["factors"] = nlohmann::json::array();
+  for (const auto& f : d.factors) j["factors"].push_back({{"name", f.name}, {"levels", f.levels}, {"reference", f.reference}});
+  j["arms"] = nlohmann::json::array();
+  for (const auto& a : d.arms)
+    j["arms"].push_back({{"label", a.label}, {"is_reference", a.is_reference}, {"profiles", a.profiles},
+                         {"probes_planned", a.probes_planned}});
+  j["strata_columns"] = d.strata_columns;
+  j["strata"] = nlohmann::json::array();
+  for (const auto& s : d.strata) j["strata"].push_back({{"name", s.name}, {"value", s.value}, {"vacancies", s.vacancies}});
+  j["templates"] = d.templates;
+  j["employers"] = d.employers;
+  j["first_sent_at"] = d.first_sent_at;
+  j["last_sent_at"] = d.last_sent_at;
+  return j;
+}
+
+nlohmann::json ResponseTimesJson(const ResponseTimes& rt) {
+  nlohmann::json j;
+  j["available"] = rt.available;
+  j["window_days"] = rt.window_days;
+  j["arms"] = nlohmann::json::array();
+  for (const auto& a : rt.arms) {
+    nlohmann::json arm = {{"label", a.label},
+                          {"is_reference", a.is_reference},
+                          {"probes_sent", a.probes_sent},
+                          {"responded", a.responded},
+                          {"responded_positive", a.responded_positive},
+                          {"late", a.late},
+                          {"responses_without_time", a.responses_without_time},
+                          {"median_days", a.median_days >= 0 ? Num(a.median_days) : nlohmann::json(nullptr)},
+                          {"first_response", Steps(a.any)},
+                          {"first_positive", Steps(a.positive)}};
+    arm["milestones"] = nlohmann::json::array();
+    for (const auto& m : a.milestones)
+      arm["milestones"].push_back({{"day", m.day},
+                                   {"any", m.any},
+                                   {"any_share", Num(m.any_share)},
+                                   {"positive", m.positive},
+                                   {"positive_share", Num(m.positive_share)}});
+    arm["codes"] = nlohmann::json::object();
+    for (const auto& c : a.codes) arm["codes"][c.code] = c.probes;
+    j["arms"].push_back(arm);
+  }
+  return j;
+}
+
+nlohmann::json EmployersJson(const EmployerOutcomes& e) {
+  nlohmann::json j;
+  j["available"] = e.available;
+  j["employers"] = e.employers;
+  j["employers_discordant"] = e.employers_discordant;
+  j["discordant"] = nlohmann::json::array();
+  for (const auto& x : e.discordant) {
+    j["discordant"].push_back(
+        {{"pseudonym", x.pseudonym}, {"pairs", x.vacancies}, {"discordant", x.discordant}, {"table", Table(x.table)}});
+  }
+  return j;
+}
+
 }  // namespace
 
 std::string RenderJsonReport(const AnalysisResult& r) {
@@ -138,7 +211,28 @@ std::string RenderJsonReport(const AnalysisResult& r) {
     j["paired"] = p;
   }
   j["effects"] = EffectsJson(r);
+  j["design"] = DesignJson(r.design);
+  j["response_times"] = ResponseTimesJson(r.response_times);
+  j["employers"] = EmployersJson(r.employers);
   if (r.listings.present) j["listing_audit"] = ListingAuditJson(r.listings);
+  return j.dump(2) + "\n";
+}
+
+std::string RenderJsonReport(const AnalysisResult& r, const ReportContext& ctx) {
+  // The context adds to the plain document; the plain one stays the single
+  // place where result fields become keys.
+  nlohmann::json j = nlohmann::json::parse(RenderJsonReport(r));
+  j["report"] = {{"tool_version", ctx.tool_version},
+                 {"generated_at", ctx.generated_at},
+                 {"audit_head", ctx.audit_head},
+                 {"audit_entries", ctx.audit_entries},
+                 {"audit_intact", ctx.audit_intact},
+                 {"employers_revealed", ctx.reveal_employers}};
+  if (ctx.reveal_employers)
+    for (auto& row : j["employers"]["discordant"]) {
+      auto it = ctx.employer_names.find(row["pseudonym"].get<std::string>());
+      row["name"] = it == ctx.employer_names.end() ? nlohmann::json(nullptr) : nlohmann::json(it->second);
+    }
   return j.dump(2) + "\n";
 }
 

@@ -4,10 +4,14 @@
 #include <string>
 
 #include "analysis/analyze.h"
+#include "report/report_context.h"
 
 namespace twinprobe {
 
 std::string RenderTextReport(const AnalysisResult& result);
+// The same text plus a reproducibility stamp (tool version, time, audit
+// head) and, with --reveal-employers, employer names beside pseudonyms.
+std::string RenderTextReport(const AnalysisResult& result, const ReportContext& context);
 
 // Formats a probability for people: 3 significant digits, "< 1e-16" style
 // below the smallest printable value.

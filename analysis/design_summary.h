@@ -1,0 +1,52 @@
+#pragma once
+// The design as the store holds it, for the report's "design" section and
+// its reproducibility stamp: factors and levels, arms, strata with their
+// vacancy counts, the design hash and seed of the current plan, and the
+// fieldwork period. Counts only; nothing here identifies an employer.
+#include <cstdint>
+#include <string>
+#include <vector>
+
+namespace twinprobe {
+
+class Store;
+
+struct DesignFactorSummary {
+  std::string name;
+  std::vector<std::string> levels;  // in the order they were declared
+  std::string reference;            // the reference level ("" when none is marked)
+};
+
+struct DesignArmSummary {
+  std::string label;
+  bool is_reference = false;
+  int64_t profiles = 0;        // fictitious applicants (identities) of this arm
+  int64_t probes_planned = 0;  // probes of the current plan in this arm
+};
+
+struct StratumValueCount {
+  std::string name;   // stratum column, e.g. "region"
+  std::string value;  // e.g. "Orlinde"
+  int64_t vacancies = 0;
+};
+
+struct DesignSummary {
+  std::string design_sha256;  // SHA-256 of the design's canonical text when planned ("" for imports)
+  int64_t seed = 0;
+  bool has_seed = false;
+  std::string plan_created_at;
+  int window_days = 0;  // the observation window stored with the plan
+  std::vector<DesignFactorSummary> factors;
+  std::vector<DesignArmSummary> arms;  // reference first
+  std::vector<std::string> strata_columns;
+  std::vector<StratumValueCount> strata;  // by column, then value
+  std::vector<std::string> templates;     // distinct templates used by the plan
+  int64_t employers = 0;                  // distinct employer pseudonyms among the plan's vacancies
+  std::string first_sent_at;              // fieldwork period ("" when nothing was sent)
+  std::string last_sent_at;
+};
+
+// Requires a plan in the store (Analyze checks that first).
+DesignSummary SummariseDesign(Store& store);
+
+}  // namespace twinprobe

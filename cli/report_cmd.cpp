@@ -1,0 +1,128 @@
+// `twinprobe report`: the study report as self-contained HTML (with SVG
+// charts), plain text or JSON. Employers appear by pseudonym unless
+// --reveal-employers is given, which is recorded in the audit chain.
+#include "cli/report_cmd.h"
+
+#include <filesystem>
+#include <fstream>
+#include <iostream>
+
+#include "analysis/analyze.h"
+#include "core/audit.h"
+#include "core/clock.h"
+#include "planner/design_file.h"
+#include "report/html_report.h"
+#include "report/json_report.h"
+#include "report/text_report.h"
+
+namespace twinprobe {
+namespace fs = std::filesystem;
+
+ReportContext StudyReportContext(const Context& ctx, Store& store, bool reveal_employers) {
+  ReportContext rc;
+  rc.tool_version = TWINPROBE_VERSION;
+  rc.generated_at = NowIso();
+  AuditReport audit = VerifyAudit(store);
+  rc.audit_head = audit.head_hash;
+  rc.audit_entries = audit.entries;
+  rc.audit_intact = audit.ok();
+  if (fs::exists(DesignPath(ctx.study_dir))) {
+    auto design = LoadDesign(ctx.study_dir);
+    if (design.ok()) rc.ethics_approval = design.value().ethics.approval;
+  }
+  rc.reveal_employers = reveal_employers;
+  if (reveal_employers) {
+    Stmt q = store.Prepare("SELECT key, name FROM employer WHERE name IS NOT NULL");
+    while (q.Step()) rc.employer_names[q.Text(0)] = q.Text(1);
+  }
+  return rc;
+}
+
+namespace {
+
+enum class Format { kText, kHtml, kJson };
+
+struct ReportOptions {
+  std::string out;
+  bool html = false;
+  bool text = false;
+  bool reveal_employers = false;
+};
+
+bool EndsWith(const std::string& s, const std::string& suffix) {
+  if (s.size() < suffix.size()) return false;
+  std::string tail = s.substr(s.size() - suffix.size());
+  for (auto& ch : tail) ch = static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
+  return tail == suffix;
+}
+
+Result<Format> ChooseFormat(const Context& ctx, const ReportOptions& o) {
+  const int explicit_formats = int(o.html) + int(o.text) + int(ctx.json);
+  if (explicit_formats > 1)
+    return Error{ErrorKind::kUsage, "", "report takes one format, got more than one of --html, --text and --json",
+                 "give one of them, or none and let --out's extension choose (.html, .json, anything else: text)"};
+  if (o.html) return Format::kHtml;
+  if (o.text) return Format::kText;
+  if (ctx.json) return Format::kJson;
+  if (EndsWith(o.out, ".html") || EndsWith(o.out, ".htm")) return Format::kHtml;
+  if (EndsWith(o.out, ".json")) return Format::kJson;
+  return Format::kText;
+}
+
+int RunReport(Context& ctx, const ReportOptions& o) {
+  auto format = ChooseFormat(ctx, o);
+  if (!format.ok()) return ReportError(format.error());
+  auto store = OpenStudyStore(ctx, false);
+  if (!store.ok()) return ReportError(store.error());
+  Store& db = *store.value();
+  auto settings = LoadStudySettings(ctx, db);
+  if (!settings.ok()) return ReportError(settings.error());
+  auto result = Analyze(db, settings.value().outcomes, settings.value().analysis);
+  if (!result.ok()) return ReportError(result.error());
+
+  if (o.reveal_employers) {
+    // The audit chain records who put employer names into which report
+    // before the names leave the store.
+    AuditedWrite write(db, "report --reveal-employers");
+    write.Commit("report with employer names written to " + (o.out.empty() ? std::string("standard output") : o.out));
+  }
+  const ReportContext rc = StudyReportContext(ctx, db, o.reveal_employers);
+
+  std::string body;
+  switch (format.value()) {
+    case Format::kHtml: body = RenderHtmlReport(result.value(), rc); break;
+    case Format::kJson: body = RenderJsonReport(result.value(), rc); break;
+    case Format::kText: body = RenderTextReport(result.value(), rc); break;
+  }
+  if (o.out.empty()) {
+    std::cout << body;
+    return 0;
+  }
+  std::error_code ec;
+  const fs::path parent = fs::path(o.out).parent_path();
+  if (!parent.empty()) fs::create_directories(parent, ec);
+  std::ofstream out(o.out, std::ios::binary);
+  out << body;
+  out.close();
+  if (!out) return ReportError(BadInput(o.out, "cannot write the report", "check that the folder exists and is writable"));
+  std::cout << "Report written to " << o.out << "\n";
+  return 0;
+}
+
+void RegisterReport(CLI::App& app, Context& ctx) {
+  auto ro = std::make_shared<ReportOptions>();
+  auto* report = app.add_subcommand(
+      "report", "Write the study report: self-contained HTML with charts, plain text, or JSON (--json)");
+  report->add_option("--out", ro->out,
+                     "Write to this file instead of standard output; FILE.html gives HTML, FILE.json JSON, other names text");
+  report->add_flag("--html", ro->html, "HTML report (inline CSS and SVG charts; no external resources)");
+  report->add_flag("--text", ro->text, "Plain-text report");
+  report->add_flag("--reveal-employers", ro->reveal_employers,
+                   "Show employer names beside their pseudonyms (recorded in the audit chain)");
+  report->callback([&ctx, ro] { ctx.exit_code = RunReport(ctx, *ro); });
+}
+
+const bool kRegistered = RegisterCommand(71, &RegisterReport);
+
+}  // namespace
+}  // namespace twinprobe

@@ -1,0 +1,47 @@
+#pragma once
+// `export`: the current plan's data as tables that R (read.csv) and pandas
+// read directly, in the layout documented in docs/export.md:
+//   vacancies  one row per vacancy, with one column per stratum
+//   probes     one row per probe, with its newest sending, its current
+//              response and its vacancy's strata (the analysis-ready table)
+//   responses  every response row, superseded ones included
+// plus a manifest (study, arms, outcome scheme, audit head) so an export
+// can be tied to a verified state of the store.
+//
+// Pseudonymised by default: employers appear by their keyed pseudonym only;
+// profiles by their (invented) display name, without mailbox or phone; free
+// -text notes are left out. `identities` adds employer name and contact,
+// profile mailbox and phone, and notes (what purge has removed stays empty).
+//
+// Values: missing is an empty CSV field / JSON null; yes-no columns are 1/0
+// in CSV and true/false in JSON; times are UTC ISO 8601 text.
+#include <cstdint>
+#include <string>
+
+#include "core/design.h"
+#include "core/status.h"
+#include "core/store.h"
+
+namespace twinprobe {
+
+struct ExportOptions {
+  bool identities = false;
+  std::string format = "csv";  // csv: a folder of files; json: one document
+};
+
+struct ExportSummary {
+  std::string path;  // the folder (csv) or file (json) written
+  int64_t vacancies = 0;
+  int64_t probes = 0;
+  int64_t responses = 0;
+  std::string audit_head;
+};
+
+// Writes the export to `path`: for csv a folder (created; files in it are
+// replaced) holding vacancies.csv, probes.csv, responses.csv and
+// manifest.json; for json a single file. Errors: no plan in the store, an
+// unwritable path (bad input).
+Result<ExportSummary> ExportStudy(Store& store, const OutcomeScheme& scheme, const std::string& path,
+                                  const ExportOptions& options);
+
+}  // namespace twinprobe

@@ -1,0 +1,792 @@
+#include "collector/import_pairs.h"
+
+#include <algorithm>
+#include <cstdio>
+#include <filesystem>
+#include <fstream>
+#include <limits>
+#include <memory>
+#include <optional>
+#include <unordered_map>
+#include <unordered_set>
+
+#include "collector/batch_insert.h"
+#include "collector/event_time.h"
+#include "collector/import_support.h"
+#include "core/audit.h"
+#include "core/csv.h"
+#include "core/meta.h"
+#include "core/plan_header.h"
+#include "core/progress.h"
+#include "core/pseudonym.h"
+#include "core/store.h"
+#include "core/suggest.h"
+
+namespace twinprobe {
+namespace {
+namespace fs = std::filesystem;
+
+// More distinct values than this in the arm column is not an arm column.
+constexpr size_t kMaxArms = 64;
+constexpr uint32_t kNone = std::numeric_limits<uint32_t>::max();
+constexpr const char* kTimeFormat = "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM (UTC)";
+// A larger page cache for the one big transaction (negative: KiB). Measured
+// on a million rows: 32 MiB is as fast as 512 MiB (bench/import).
+constexpr const char* kImportCache = "PRAGMA cache_size = -32768";
+
+const std::vector<std::string> kFixedColumns = {"vacancy", "arm", "outcome", "sent_at", "responded_at",
+                                                "probe", "employer"};
+
+std::string Join(const std::vector<std::string>& v) {
+  std::string s;
+  for (const auto& x : v) s += (s.empty() ? "" : ", ") + x;
+  return s;
+}
+
+std::string Quoted(const std::vector<std::string>& v) {
+  std::string s;
+  for (const auto& x : v) s += (s.empty() ? "'" : ", '") + x + "'";
+  return s;
+}
+
+// Distinct strings as small integers (strata values, employers).
+class Interner {
+ public:
+  uint32_t Id(const std::string& s) {
+    auto [it, inserted] = ids_.try_emplace(s, static_cast<uint32_t>(names_.size()));
+    if (inserted) names_.push_back(s);
+    return it->second;
+  }
+  const std::string& Name(uint32_t id) const { return names_[id]; }
+
+ private:
+  std::unordered_map<std::string, uint32_t> ids_;
+  std::vector<std::string> names_;
+};
+
+// What the file is checked against: the study's arms, scheme and strata,
+// from the design, an earlier import, or (discover) the file itself.
+struct Target {
+  bool append = false;  // joins the current imported plan
+  int64_t plan_id = 0;
+  std::string kind;
+  OutcomeScheme scheme;
+  bool has_design = false;
+  bool discover = false;  // arms come from the file
+  std::vector<std::string> arms;              // labels by index
+  std::vector<int64_t> arm_rows;              // good rows per arm (pass 1)
+  std::vector<int64_t> arm_first_line;        // first good row per arm (pass 1)
+  std::unordered_map<std::string, int> arm_of;  // accepted values -> index
+  int reference = -1;
+  std::vector<int64_t> arm_ids;  // store ids by index (append)
+  std::vector<std::string> strata;
+  std::string strata_source;  // names where the strata came from, for messages
+  std::unordered_set<std::string> existing_vacancies, existing_probes;
+  int64_t next_serial = 1;
+
+  void IndexArms() {
+    arm_of.clear();
+    for (size_t i = 0; i < arms.size(); ++i) {
+      arm_of.emplace(arms[i], static_cast<int>(i));
+      // "origin=coastal" may be written "coastal" when there is one factor.
+      size_t eq = arms[i].find('=');
+      if (eq != std::string::npos && arms[i].find(',') == std::string::npos)
+        arm_of.emplace(arms[i].substr(eq + 1), static_cast<int>(i));
+    }
+  }
+  std::vector<std::string> AcceptedArmValues() const {
+    std::vector<std::string> v;
+    for (const auto& [value, index] : arm_of) v.push_back(value);
+    std::sort(v.begin(), v.end());
+    return v;
+  }
+};
+
+OutcomeScheme SchemeWithoutDesign() {
+  OutcomeScheme s;
+  s.codes.push_back("0");
+  s.codes.push_back("1");
+  s.positive.push_back("1");
+  return s;
+}
+
+Result<Target> BuildTarget(Store* store, const Design* design, const PairsImportOptions& o) {
+  Target t;
+  for (const auto& s : o.strata)
+    if (FindColumn(kFixedColumns, s) >= 0)
+      return BadInput("", "'" + s + "' is a column of its own and cannot be a stratum", "name other columns with --strata");
+  if (store) {
+    Stmt p = store->Prepare("SELECT id, origin, kind FROM current_plan");
+    if (p.Step()) {
+      if (p.Text(1) != "import")
+        return BadInput(store->path(),
+                        "this study was planned with 'twinprobe plan'; 'import pairs' brings in a whole dataset "
+                        "collected elsewhere",
+                        "use 'import outcomes' for responses to the planned probes, or import into a new folder");
+      t.append = true;
+      t.plan_id = p.Int(0);
+      t.kind = p.Text(2);
+    }
+  }
+  if (t.append) {
+    Stmt a = store->Prepare("SELECT id, label, is_reference FROM arm WHERE plan_id = ?1 ORDER BY id");
+    a.Bind(1, t.plan_id);
+    while (a.Step()) {
+      if (a.Int(2)) t.reference = static_cast<int>(t.arms.size());
+      t.arm_ids.push_back(a.Int(0));
+      t.arms.push_back(a.Text(1));
+    }
+    t.scheme = design ? design->outcomes : StoredOutcomeScheme(*store);
+    t.has_design = design != nullptr;
+    std::vector<std::string> stored = MetaList(*store, "strata");
+    if (o.strata_given) {
+      std::vector<std::string> a = o.strata, b = stored;
+      std::sort(a.begin(), a.end());
+      std::sort(b.begin(), b.end());
+      if (a != b)
+        return BadInput("", "--strata " + Join(o.strata) + " differs from the study's strata (" +
+                                (stored.empty() ? "none" : Join(stored)) + ")",
+                        "a later import has the strata of the first; leave --strata out");
+    }
+    t.strata = stored;
+    t.strata_source = "the study (set by its first import)";
+    Stmt v = store->Prepare("SELECT ref FROM vacancy WHERE plan_id = ?1");
+    v.Bind(1, t.plan_id);
+    while (v.Step()) t.existing_vacancies.insert(v.Text(0));
+    Stmt pr = store->Prepare("SELECT ref FROM probe WHERE plan_id = ?1");
+    pr.Bind(1, t.plan_id);
+    while (pr.Step()) t.existing_probes.insert(pr.Text(0));
+    t.next_serial = 1 + store->QueryInt(
+                            "SELECT max(CAST(substr(ref, 2) AS INTEGER)) FROM current_probe WHERE ref GLOB 'P[0-9]*'");
+  } else if (design) {
+    t.has_design = true;
+    t.kind = design->kind;
+    t.scheme = design->outcomes;
+    for (const auto& a : design->arms) t.arms.push_back(a.label);
+    t.reference = design->reference_arm;
+    t.strata = o.strata_given ? o.strata : design->strata;
+    t.strata_source = o.strata_given ? "--strata" : "study.toml [strata]";
+  } else {
+    t.discover = true;
+    t.scheme = SchemeWithoutDesign();
+    t.strata = o.strata;
+    t.strata_source = "--strata";
+  }
+  t.IndexArms();
+  if (!t.discover && !o.reference.empty()) {
+    auto it = t.arm_of.find(o.reference);
+    if (it == t.arm_of.end() || it->second != t.reference)
+      return BadInput("", "--reference '" + o.reference + "' differs from the study's reference arm '" +
+                              t.arms[static_cast<size_t>(t.reference)] + "'",
+                      "leave --reference out; the reference arm is set by the design or the first import");
+  }
+  t.arm_rows.assign(t.arms.size(), 0);
+  t.arm_first_line.assign(t.arms.size(), 0);
+  return t;
+}
+
+struct Columns {
+  size_t count = 0;
+  int vacancy = -1, arm = -1, outcome = -1, sent_at = -1, responded_at = -1, probe = -1, employer = -1;
+  std::vector<int> strata;
+};
+
+Result<Columns> FindColumns(const std::vector<std::string>& header, const Target& t, const std::string& path,
+                            std::vector<std::string>& ignored) {
+  Columns c;
+  c.count = header.size();
+  std::vector<std::string> other;
+  for (const auto& h : header)
+    if (FindColumn(kFixedColumns, h) < 0 && FindColumn(t.strata, h) < 0 && !IsRejectColumn(h)) other.push_back(h);
+  for (const char* required : {"vacancy", "arm", "outcome"})
+    if (FindColumn(header, required) < 0)
+      return BadInput(path + ":1", std::string("the column '") + required + "' is missing" + DidYouMean(required, other),
+                      "a pairs file has the columns vacancy,arm,outcome, optionally sent_at,responded_at,probe,employer, "
+                      "and its stratum columns");
+  for (const auto& s : t.strata) {
+    int i = FindColumn(header, s);
+    if (i < 0)
+      return BadInput(path + ":1",
+                      "the stratum column '" + s + "' named in " + t.strata_source + " is missing" + DidYouMean(s, other),
+                      "add the column, or name the file's stratum columns with --strata");
+    c.strata.push_back(i);
+  }
+  c.vacancy = FindColumn(header, "vacancy");
+  c.arm = FindColumn(header, "arm");
+  c.outcome = FindColumn(header, "outcome");
+  c.sent_at = FindColumn(header, "sent_at");
+  c.responded_at = FindColumn(header, "responded_at");
+  c.probe = FindColumn(header, "probe");
+  c.employer = FindColumn(header, "employer");
+  ignored = other;
+  return c;
+}
+
+std::string OutcomeFix(const Target& t) {
+  if (!t.has_design) return "use 1 or 0 (a positive callback or not), or one of: none, rejection, info_request, invitation, offer";
+  std::string fix = "use one of: " + Join(t.scheme.codes);
+  if (!t.scheme.has_code("1"))
+    fix += " (for 1/0 data, add \"0\" and \"1\" to [outcomes].codes and \"1\" to positive in study.toml)";
+  return fix;
+}
+
+// One row's values, checked on their own (cross-row checks come after).
+struct Row {
+  int arm = -1;  // -1: a value not seen yet (discover mode)
+  std::optional<EventTime> sent, responded;
+  bool late = false;
+};
+
+std::optional<Error> CheckRow(const CsvRecord& r, const Columns& c, const Target& t, const std::string& path, Row& out) {
+  auto bad = [&](std::string what, std::string fix) {
+    return BadInput(path + ":" + std::to_string(r.line), std::move(what), std::move(fix));
+  };
+  const std::string& arm = r.fields[c.arm];
+  if (arm.empty())
+    return bad("the arm is empty", t.arms.empty() ? "give every row the arm it was sent as" : "use one of: " + Join(t.arms));
+  auto it = t.arm_of.find(arm);
+  out.arm = it == t.arm_of.end() ? -1 : it->second;
+  if (out.arm < 0 && !t.discover)
+    return bad("unknown arm '" + arm + "'" + DidYouMean(arm, t.AcceptedArmValues()),
+               "use one of the study's arms: " + Join(t.arms));
+  const std::string& outcome = r.fields[c.outcome];
+  if (outcome.empty()) return bad("the outcome is empty", OutcomeFix(t));
+  if (!t.scheme.has_code(outcome))
+    return bad("outcome '" + outcome + "' is not " + (t.has_design ? "a code of this study's scheme" : "1, 0 or a response code") +
+                   // A one-letter value is one edit from "0" and "1": no useful guess.
+                   (outcome.size() < 3 ? std::string() : DidYouMean(outcome, t.scheme.codes)),
+               OutcomeFix(t));
+  out.sent.reset();
+  out.responded.reset();
+  for (auto [col, name, slot] : {std::tuple{c.sent_at, "sent_at", &out.sent}, {c.responded_at, "responded_at", &out.responded}}) {
+    if (col < 0 || r.fields[col].empty()) continue;
+    *slot = ParseEventTime(r.fields[col]);
+    if (!*slot) return bad(std::string(name) + " '" + r.fields[col] + "' is not a date or time", kTimeFormat);
+  }
+  if (out.sent && out.responded && IsBefore(*out.responded, *out.sent))
+    return bad("responded_at " + out.responded->text() + " is before sent_at " + out.sent->text(),
+               "check the dates; a response cannot precede the application");
+  out.late = out.sent && out.responded && IsAfterWindow(*out.sent, *out.responded, t.scheme.window_days);
+  for (size_t i = 0; i < c.strata.size(); ++i)
+    if (r.fields[c.strata[i]].empty())
+      return bad("the stratum '" + t.strata[i] + "' is empty", "fill it in (use 'unknown' if it is not known)");
+  if (c.probe >= 0 && r.fields[c.probe].empty())
+    return bad("the probe is empty",
+               "give every row a probe reference, or leave out the probe column to number the probes P00001, P00002, …");
+  return std::nullopt;
+}
+
+// What pass 1 learns about each vacancy of the file, by dense index.
+struct Book {
+  std::unordered_map<std::string, uint32_t> index;
+  std::vector<int64_t> first_good_line;          // 0 when no good row
+  std::vector<int64_t> bad_line;                 // first bad row, 0 if none
+  std::vector<std::vector<int64_t>> arm_line;    // [arm][vacancy]: its good row, 0 if none
+  std::vector<std::vector<uint32_t>> stratum;    // [stratum][vacancy]: value id, kNone unset
+  std::vector<uint32_t> employer;                // value id, kNone unset
+  std::vector<int32_t> missing_arm;              // an arm without a row, -1 if none
+  std::vector<Interner> stratum_values;
+  Interner employers;
+  std::unordered_map<std::string, int64_t> probe_line;
+
+  uint32_t Add(const std::string& ref) {
+    auto [it, inserted] = index.try_emplace(ref, static_cast<uint32_t>(bad_line.size()));
+    if (inserted) {
+      first_good_line.push_back(0);
+      bad_line.push_back(0);
+      for (auto& a : arm_line) a.push_back(0);
+      for (auto& s : stratum) s.push_back(kNone);
+      employer.push_back(kNone);
+    }
+    return it->second;
+  }
+  void AddArm() { arm_line.emplace_back(bad_line.size(), 0); }
+  std::string RefOf(uint32_t v) const {
+    for (const auto& [ref, i] : index)
+      if (i == v) return ref;
+    return "";
+  }
+};
+
+struct BadRow {
+  int64_t line;
+  std::string reason;
+};
+
+// Pass 1: checks every row; with skip_bad collects the bad ones, else stops
+// at the first.
+class Checker {
+ public:
+  Checker(Target& t, const Columns& c, const std::string& path, bool skip_bad)
+      : t_(t), c_(c), path_(path), skip_bad_(skip_bad) {
+    book_.stratum_values.resize(c.strata.size());
+    book_.stratum.resize(c.strata.size());
+    book_.arm_line.assign(t.arms.size(), {});
+    values_.resize(c.strata.size());
+  }
+
+  // Returns an error to stop at (all-or-nothing), else records the row.
+  std::optional<Error> Take(const CsvRecord& r) {
+    ++rows_;
+    uint32_t v = kNone;
+    auto err = Examine(r, v);
+    if (!err) return std::nullopt;
+    if (!skip_bad_) return err;
+    bad_.push_back({r.line, err->what});
+    if (v != kNone && book_.bad_line[v] == 0) book_.bad_line[v] = r.line;
+    return std::nullopt;
+  }
+
+  // After the last row: arm typos, arm count, the reference, missing arms.
+  std::optional<Error> Finish(const PairsImportOptions& o);
+
+  int64_t rows() const { return rows_; }
+  Book& book() { return book_; }
+  std::vector<BadRow>& bad_rows() { return bad_; }
+
+ private:
+  std::optional<Error> Examine(const CsvRecord& r, uint32_t& v);
+  Error At(int64_t line, std::string what, std::string fix) const {
+    return BadInput(path_ + ":" + std::to_string(line), std::move(what), std::move(fix));
+  }
+  void DropArm(size_t a, const std::string& reason);
+
+  Target& t_;
+  const Columns& c_;
+  const std::string& path_;
+  bool skip_bad_;
+  Book book_;
+  std::vector<BadRow> bad_;
+  std::vector<uint32_t> values_;  // the current row's strata value ids
+  int64_t rows_ = 0;
+};
+
+std::optional<Error> Checker::Examine(const CsvRecord& r, uint32_t& v) {
+  Status count = CheckFieldCount(r, c_.count, path_);
+  if (!count.ok()) return count.error();
+  const std::string& ref = r.fields[c_.vacancy];
+  if (ref.empty()) return At(r.line, "the vacancy is empty", "give every row the reference of its vacancy");
+  if (t_.existing_vacancies.count(ref))
+    return At(r.line, "vacancy '" + ref + "' is already in the study (from an earlier import)",
+              "import only new vacancies; a corrected reject file can be imported as it is");
+  v = book_.Add(ref);
+  Row row;
+  if (auto err = CheckRow(r, c_, t_, path_, row)) return err;
+  if (row.arm >= 0 && book_.arm_line[row.arm][v] != 0)
+    return At(r.line,
+              "vacancy '" + ref + "' has a second row for arm '" + t_.arms[row.arm] + "' (the first is on line " +
+                  std::to_string(book_.arm_line[row.arm][v]) + ")",
+              "keep one row per vacancy and arm");
+  std::vector<uint32_t>& values = values_;
+  for (size_t i = 0; i < c_.strata.size(); ++i) {
+    values[i] = book_.stratum_values[i].Id(r.fields[c_.strata[i]]);
+    uint32_t known = book_.stratum[i][v];
+    if (known != kNone && known != values[i])
+      return At(r.line,
+                "vacancy '" + ref + "' has " + t_.strata[i] + " '" + r.fields[c_.strata[i]] + "' here but '" +
+                    book_.stratum_values[i].Name(known) + "' on line " + std::to_string(book_.first_good_line[v]),
+                "a vacancy's strata are the same on all its rows");
+  }
+  uint32_t employer = kNone;
+  if (c_.employer >= 0 && !r.fields[c_.employer].empty()) employer = book_.employers.Id(r.fields[c_.employer]);
+  if (book_.first_good_line[v] != 0 && employer != book_.employer[v])
+    return At(r.line,
+              "vacancy '" + ref + "' has employer '" + (employer == kNone ? "" : book_.employers.Name(employer)) +
+                  "' here but '" + (book_.employer[v] == kNone ? "" : book_.employers.Name(book_.employer[v])) +
+                  "' on line " + std::to_string(book_.first_good_line[v]),
+              "a vacancy has one employer on all its rows");
+  if (c_.probe >= 0) {
+    const std::string& probe = r.fields[c_.probe];
+    if (t_.existing_probes.count(probe))
+      return At(r.line, "probe '" + probe + "' is already in the study (from an earlier import)",
+                "give each probe a reference not used before");
+    auto [it, inserted] = book_.probe_line.try_emplace(probe, r.line);
+    if (!inserted)
+      return At(r.line, "probe '" + probe + "' appears twice (first on line " + std::to_string(it->second) + ")",
+                "give each probe its own reference");
+  }
+  if (t_.discover && t_.arms.size() == kMaxArms && row.arm < 0)
+    return At(r.line, "a " + std::to_string(kMaxArms + 1) + "th distinct value '" + r.fields[c_.arm] + "' in the arm column",
+              "is 'arm' the right column? it names the group of profiles each row was sent as (at most " +
+                  std::to_string(kMaxArms) + " arms)");
+  // The row is good: remember it.
+  if (row.arm < 0) {
+    row.arm = static_cast<int>(t_.arms.size());
+    t_.arms.push_back(r.fields[c_.arm]);
+    t_.arm_of.emplace(r.fields[c_.arm], row.arm);
+    t_.arm_rows.push_back(0);
+    t_.arm_first_line.push_back(r.line);
+    book_.AddArm();
+  }
+  ++t_.arm_rows[row.arm];
+  book_.arm_line[row.arm][v] = r.line;
+  if (book_.first_good_line[v] == 0) {
+    book_.first_good_line[v] = r.line;
+    for (size_t i = 0; i < values.size(); ++i) book_.stratum[i][v] = values[i];
+    book_.employer[v] = employer;
+  }
+  return std::nullopt;
+}
+
+void Checker::DropArm(size_t a, const std::string& reason) {
+  for (size_t v = 0; v < book_.bad_line.size(); ++v) {
+    int64_t line = book_.arm_line[a][v];
+    if (line == 0) continue;
+    bad_.push_back({line, reason});
+    if (book_.bad_line[v] == 0 || line < book_.bad_line[v]) book_.bad_line[v] = line;
+  }
+  book_.arm_line.erase(book_.arm_line.begin() + static_cast<long>(a));
+  t_.arms.erase(t_.arms.begin() + static_cast<long>(a));
+  t_.arm_rows.erase(t_.arm_rows.begin() + static_cast<long>(a));
+  t_.arm_first_line.erase(t_.arm_first_line.begin() + static_cast<long>(a));
+  t_.IndexArms();
+}
+
+std::optional<Error> Checker::Finish(const PairsImportOptions& o) {
+  if (rows_ == 0) return At(2, "the file has no data rows", "add one row per probe under the header");
+  if (t_.discover && t_.arms.empty()) {  // every row is bad (only with skip_bad)
+    book_.missing_arm.assign(book_.bad_line.size(), -1);
+    std::stable_sort(bad_.begin(), bad_.end(), [](const BadRow& a, const BadRow& b) { return a.line < b.line; });
+    return std::nullopt;
+  }
+  if (t_.discover) {
+    // A rare value one typo away from a common one is a typo, not an arm:
+    // left in, it would make every vacancy look incomplete.
+    for (size_t a = 0; a < t_.arms.size();) {
+      std::vector<std::string> common;
+      for (size_t b = 0; b < t_.arms.size(); ++b)
+        if (b != a && t_.arm_rows[b] >= 2 * t_.arm_rows[a]) common.push_back(t_.arms[b]);
+      std::string near = NearestName(t_.arms[a], common);
+      if (near.empty()) {
+        ++a;
+        continue;
+      }
+      const std::string what = "unknown arm '" + t_.arms[a] + "' (did you mean '" + near + "'?)";
+      int64_t n = t_.arm_rows[a], m = t_.arm_rows[static_cast<size_t>(t_.arm_of.at(near))];
+      if (!skip_bad_)
+        return At(t_.arm_first_line[a], what,
+                  "'" + t_.arms[a] + "' is on " + std::to_string(n) + (n == 1 ? " row" : " rows") + " and '" + near +
+                      "' on " + std::to_string(m) + "; correct the typo");
+      DropArm(a, what);
+    }
+    if (t_.arms.size() < 2)
+      return BadInput(path_,
+                      bad_.empty() ? "the arm column holds only one arm ('" + t_.arms[0] + "')"
+                                   : "only one arm ('" + t_.arms[0] + "') is left once the bad rows are set aside",
+                      "a comparison needs at least two arms; check the arm column");
+    if (o.reference.empty())
+      return BadInput("", "the reference arm is not named",
+                      "add --reference ARM; the arms in " + path_ + " are " + Quoted(t_.arms));
+    auto it = t_.arm_of.find(o.reference);
+    if (it == t_.arm_of.end())
+      return BadInput("", "--reference '" + o.reference + "' is not an arm of " + path_ + DidYouMean(o.reference, t_.arms),
+                      "use one of: " + Join(t_.arms));
+    // Reference first, the others in order of appearance.
+    size_t ref = static_cast<size_t>(it->second);
+    std::rotate(t_.arms.begin(), t_.arms.begin() + static_cast<long>(ref), t_.arms.begin() + static_cast<long>(ref) + 1);
+    std::rotate(t_.arm_rows.begin(), t_.arm_rows.begin() + static_cast<long>(ref), t_.arm_rows.begin() + static_cast<long>(ref) + 1);
+    std::rotate(t_.arm_first_line.begin(), t_.arm_first_line.begin() + static_cast<long>(ref),
+                t_.arm_first_line.begin() + static_cast<long>(ref) + 1);
+    std::rotate(book_.arm_line.begin(), book_.arm_line.begin() + static_cast<long>(ref),
+                book_.arm_line.begin() + static_cast<long>(ref) + 1);
+    t_.reference = 0;
+    t_.IndexArms();
+    t_.kind = t_.arms.size() == 2 ? "paired" : "sets";
+  }
+  // Every remaining vacancy needs one row per arm.
+  book_.missing_arm.assign(book_.bad_line.size(), -1);
+  int64_t first_line = 0;
+  uint32_t first_v = kNone;
+  for (uint32_t v = 0; v < book_.bad_line.size(); ++v) {
+    if (book_.bad_line[v] != 0) continue;
+    for (size_t a = 0; a < t_.arms.size(); ++a)
+      if (book_.arm_line[a][v] == 0) {
+        book_.missing_arm[v] = static_cast<int32_t>(a);
+        if (first_v == kNone || book_.first_good_line[v] < first_line) first_v = v, first_line = book_.first_good_line[v];
+        break;
+      }
+  }
+  if (first_v != kNone && !skip_bad_)
+    return At(first_line,
+              "vacancy '" + book_.RefOf(first_v) + "' has no row for arm '" +
+                  t_.arms[static_cast<size_t>(book_.missing_arm[first_v])] + "'",
+              "every vacancy needs one row per arm (" + Join(t_.arms) + "); add the missing row or remove the vacancy");
+  std::stable_sort(bad_.begin(), bad_.end(), [](const BadRow& a, const BadRow& b) { return a.line < b.line; });
+  return std::nullopt;
+}
+
+// Pass 2: the good rows into the store, under one audit entry. Row ids are
+// assigned here (the transaction holds the write lock) so probes, their
+// sendings and responses can be written in batches of kBatch probes, parents
+// first, under the usual immediate foreign-key checks.
+class Lander {
+ public:
+  static constexpr int kBatch = 64;
+
+  Lander(Store& store, const Target& t, const Columns& c, size_t vacancies, int64_t seq, const std::string& actor,
+         const std::string& at, int64_t plan_id, std::vector<int64_t> arm_ids)
+      : store_(store), t_(t), c_(c), plan_id_(plan_id), arm_ids_(std::move(arm_ids)), serial_(t.next_serial),
+        vacancy_id_(vacancies, 0), probes_in_(vacancies, 0),
+        next_vacancy_id_(store.QueryInt("SELECT coalesce(max(id), 0) + 1 FROM vacancy")),
+        next_probe_id_(store.QueryInt("SELECT coalesce(max(id), 0) + 1 FROM probe")),
+        ins_employer_(store.Prepare("INSERT OR IGNORE INTO employer(key, name) VALUES (?1, ?2)")),
+        vacancies_(store, "INSERT INTO vacancy(id, plan_id, ref, employer_key, source, audit_seq) VALUES ",
+                   "(@, ?1, @, @, 'import', ?2)", {plan_id, seq}, kBatch),
+        strata_(store, "INSERT INTO vacancy_stratum(vacancy_id, name, value, audit_seq) VALUES ", "(@, @, @, ?1)",
+                {seq}, kBatch * std::max<int>(1, static_cast<int>(c.strata.size()))),
+        probes_(store, "INSERT INTO probe(id, plan_id, ref, vacancy_id, arm_id, send_order, audit_seq) VALUES ",
+                "(@, ?1, @, @, @, @, ?2)", {plan_id, seq}, kBatch),
+        sendings_(store, "INSERT INTO sending(probe_id, sent_at, entered_by, entered_at, audit_seq) VALUES ",
+                  "(@, @, ?1, ?2, ?3)", {actor, at, seq}, kBatch),
+        responses_(store,
+                   "INSERT INTO response(probe_id, code, received_at, origin, flags, entered_by, entered_at, "
+                   "audit_seq) VALUES ",
+                   "(@, @, @, 'import', @, ?1, ?2, ?3)", {actor, at, seq}, kBatch) {}
+
+  void Land(const CsvRecord& r, uint32_t v, const Row& row, PairsImportSummary& summary) {
+    if (vacancy_id_[v] == 0) {
+      vacancy_id_[v] = next_vacancy_id_++;
+      vacancies_.Int(vacancy_id_[v]);
+      vacancies_.Text(r.fields[c_.vacancy]);
+      std::string key = EmployerOf(r);
+      if (key.empty()) vacancies_.Null();
+      else vacancies_.Text(key);
+      vacancies_.EndRow();
+      for (size_t i = 0; i < c_.strata.size(); ++i) {
+        strata_.Int(vacancy_id_[v]);
+        strata_.Text(t_.strata[i]);
+        strata_.Text(r.fields[c_.strata[i]]);
+        strata_.EndRow();
+      }
+      ++summary.vacancies_landed;
+    }
+    const int64_t probe_id = next_probe_id_++;
+    probes_.Int(probe_id);
+    if (c_.probe >= 0) {
+      probes_.Text(r.fields[c_.probe]);
+    } else {
+      char ref[24];
+      int n = std::snprintf(ref, sizeof ref, "P%05lld", static_cast<long long>(serial_++));
+      probes_.Text(std::string_view(ref, static_cast<size_t>(n)));
+    }
+    probes_.Int(vacancy_id_[v]);
+    probes_.Int(arm_ids_[static_cast<size_t>(row.arm)]);
+    probes_.Int(++probes_in_[v]);
+    probes_.EndRow();
+    if (row.sent) {
+      sendings_.Int(probe_id);
+      sendings_.Text(CanonicalEventText(r.fields[c_.sent_at]));
+      sendings_.EndRow();
+      ++summary.sendings;
+    }
+    responses_.Int(probe_id);
+    responses_.Text(r.fields[c_.outcome]);
+    if (row.responded) responses_.Text(CanonicalEventText(r.fields[c_.responded_at]));
+    else responses_.Null();
+    responses_.Text(row.late ? "late" : "");
+    responses_.EndRow();
+    if (row.late) ++summary.late;
+    ++summary.rows_landed;
+    if (probes_.full()) Finish();
+  }
+
+  // Writes what is buffered, parents before children.
+  void Finish() {
+    for (BatchInsert* b : {&vacancies_, &strata_, &probes_, &sendings_, &responses_}) b->Flush();
+  }
+
+ private:
+  std::string EmployerOf(const CsvRecord& r) {
+    if (c_.employer < 0 || r.fields[c_.employer].empty()) return "";
+    const std::string& name = r.fields[c_.employer];
+    auto it = employer_keys_.find(name);
+    if (it == employer_keys_.end()) {
+      it = employer_keys_.emplace(name, EmployerKey(store_, name)).first;
+      ins_employer_.Bind(1, it->second).Bind(2, name).Run();
+    }
+    return it->second;
+  }
+
+  Store& store_;
+  const Target& t_;
+  const Columns& c_;
+  int64_t plan_id_;
+  std::vector<int64_t> arm_ids_;
+  int64_t serial_;
+  std::vector<int64_t> vacancy_id_;
+  std::vector<int64_t> probes_in_;
+  int64_t next_vacancy_id_, next_probe_id_;
+  std::unordered_map<std::string, std::string> employer_keys_;
+  Stmt ins_employer_;
+  BatchInsert vacancies_, strata_, probes_, sendings_, responses_;
+};
+
+// The design a new imported plan is stored with.
+Design HeaderDesign(const Design* design, const Target& t, const std::string& store_path, const std::string& path,
+                    const PairsImportOptions& o) {
+  Design d;
+  if (design) {
+    d = *design;
+    d.strata = t.strata;
+    return d;
+  }
+  d.study_id = o.study_id.empty() ? fs::absolute(store_path).parent_path().filename().string() : o.study_id;
+  d.title = "Data imported from " + fs::path(path).filename().string();
+  d.seed = 0;
+  d.kind = t.kind;
+  Factor f;
+  f.name = "arm";
+  f.levels = t.arms;
+  f.reference = t.arms[static_cast<size_t>(t.reference)];
+  d.factors = {f};
+  d.arms.clear();
+  for (size_t i = 0; i < t.arms.size(); ++i)
+    d.arms.push_back(Arm{t.arms[i], {{"arm", t.arms[i]}}, static_cast<int>(i) == t.reference});
+  d.reference_arm = t.reference;
+  d.outcomes = t.scheme;
+  d.strata = t.strata;
+  return d;
+}
+
+std::string PartnerReason(const std::string& ref, int64_t bad_line) {
+  return "another row of vacancy '" + ref + "' (line " + std::to_string(bad_line) +
+         ") is bad, so the whole set is left out";
+}
+
+}  // namespace
+
+Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Design* design, const std::string& path,
+                                       const PairsImportOptions& o) {
+  PairsImportSummary summary;
+  auto sha = FileSha256(path);
+  if (!sha.ok()) return sha.error();
+  std::unique_ptr<Store> store;
+  if (fs::exists(store_path)) {
+    auto opened = Store::Open(store_path, false);
+    if (!opened.ok()) return opened.error();
+    store = std::move(opened).value();
+    if (AlreadyImported(*store, "pairs", sha.value())) {
+      summary.already_imported = true;
+      return summary;
+    }
+  }
+  auto target = BuildTarget(store.get(), design, o);
+  if (!target.ok()) return target.error();
+  Target& t = target.value();
+
+  // Pass 1: check.
+  std::ifstream in(path, std::ios::binary);
+  if (!in) return BadInput(path, "cannot read the file", "check the path");
+  CsvReader reader(in, path);
+  auto header = ReadCsvHeader(reader);
+  if (!header.ok()) return header.error();
+  auto columns = FindColumns(header.value(), t, path, summary.ignored_columns);
+  if (!columns.ok()) return columns.error();
+  const Columns& c = columns.value();
+  const int64_t file_bytes = FileSize(path);
+  Checker checker(t, c, path, o.skip_bad);
+  {
+    std::unique_ptr<Progress> bar;
+    if (o.progress) bar = std::make_unique<Progress>("checking " + path, file_bytes, Progress::Unit::kBytes);
+    CsvRecord r;
+    while (reader.Next(r)) {
+      if (auto err = checker.Take(r)) return *err;
+      if (bar) bar->Update(reader.bytes_consumed());
+    }
+    if (reader.error()) return *reader.error();  // a malformed CSV fails even with --skip-bad
+    if (bar) bar->Update(file_bytes);
+  }
+  if (auto err = checker.Finish(o)) return *err;
+  Book& book = checker.book();
+  bool any_good = false;
+  for (size_t v = 0; v < book.bad_line.size() && !any_good; ++v)
+    any_good = book.bad_line[v] == 0 && book.missing_arm[v] < 0;
+
+  // Pass 2: land the good rows (or, when none is good, only write the rejects).
+  if (!store) {
+    if (any_good) {
+      fs::create_directories(fs::absolute(store_path).parent_path());
+      auto created = Store::Open(store_path, true);
+      if (!created.ok()) return created.error();
+      store = std::move(created).value();
+    }
+  }
+  std::unique_ptr<AuditedWrite> write;
+  std::unique_ptr<Lander> lander;
+  if (any_good) {
+    store->Exec(kImportCache);
+    write = std::make_unique<AuditedWrite>(*store, "import pairs");
+    if (AlreadyImported(*store, "pairs", sha.value())) {  // another process was quicker
+      summary.already_imported = true;
+      return summary;
+    }
+    int64_t current = store->QueryInt("SELECT id FROM current_plan");
+    if (current != t.plan_id)
+      return BadInput(store_path, "the study changed while the file was checked", "run the import again");
+    std::vector<int64_t> arm_ids = t.arm_ids;
+    int64_t plan_id = t.plan_id;
+    if (!t.append) {
+      plan_id = StorePlanHeader(*store, write->seq(), "import", HeaderDesign(design, t, store_path, path, o), arm_ids);
+      summary.new_plan = true;
+    }
+    summary.plan_id = plan_id;
+    lander = std::make_unique<Lander>(*store, t, c, book.bad_line.size(), write->seq(), write->actor(), write->at(),
+                                      plan_id, arm_ids);
+  }
+  RejectWriter rejects(o.reject_path.empty() ? DefaultRejectPath(path) : o.reject_path, header.value());
+  {
+    std::ifstream again(path, std::ios::binary);
+    CsvReader pass2(again, path);
+    auto header2 = ReadCsvHeader(pass2);
+    if (!header2.ok()) return header2.error();
+    std::unique_ptr<Progress> bar;
+    if (o.progress) bar = std::make_unique<Progress>("importing " + path, file_bytes, Progress::Unit::kBytes);
+    const std::vector<BadRow>& bad = checker.bad_rows();
+    size_t next_bad = 0;
+    CsvRecord r;
+    Row row;
+    while (pass2.Next(r)) {
+      if (bar) bar->Update(pass2.bytes_consumed());
+      Status status;
+      if (next_bad < bad.size() && bad[next_bad].line == r.line) {
+        status = rejects.Add(r.line, bad[next_bad++].reason, r.fields);
+      } else {
+        const std::string& ref = r.fields[c.vacancy];
+        auto it = book.index.find(ref);
+        if (it == book.index.end() || CheckRow(r, c, t, path, row) || row.arm < 0)
+          return Internal("import pairs: " + path + ":" + std::to_string(r.line) + " changed between the two passes");
+        uint32_t v = it->second;
+        if (book.bad_line[v] != 0)
+          status = rejects.Add(r.line, PartnerReason(ref, book.bad_line[v]), r.fields);
+        else if (book.missing_arm[v] >= 0)
+          status = rejects.Add(r.line, "vacancy '" + ref + "' has no row for arm '" +
+                                           t.arms[static_cast<size_t>(book.missing_arm[v])] + "'",
+                               r.fields);
+        else
+          lander->Land(r, v, row, summary);
+      }
+      if (!status.ok()) return status.error();
+    }
+    if (pass2.error()) return *pass2.error();
+    if (bar) bar->Update(file_bytes);
+  }
+  if (lander) lander->Finish();
+  Status closed = rejects.Close();
+  if (!closed.ok()) return closed.error();
+  summary.rows_rejected = rejects.rows();
+  if (summary.rows_rejected) summary.reject_path = rejects.path();
+  if (!any_good)
+    return BadInput(path, "no row of the file can be imported",
+                    "see the reasons in " + rejects.path() + "; nothing was written to the store");
+  summary.kind = t.kind;
+  summary.arms = t.arms;
+  if (t.reference > 0) std::rotate(summary.arms.begin(), summary.arms.begin() + t.reference, summary.arms.begin() + t.reference + 1);
+  summary.strata = t.strata;
+  RecordImportFile(*store, write->seq(), "pairs", sha.value(), path, summary.rows_landed, summary.rows_rejected);
+  summary.audit_hash = write->Commit("import pairs " + path + ": " + std::to_string(summary.rows_landed) + " probes in " +
+                                     std::to_string(summary.vacancies_landed) + " vacancies landed, " +
+                                     std::to_string(summary.rows_rejected) + " rows rejected");
+  return summary;
+}
+
+}  // namespace twinprobe

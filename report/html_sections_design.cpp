@@ -1,0 +1,119 @@
+// The design section of the HTML report: factors and arms, counts, strata,
+// and the design's integrity (hash, seed, freeze and deviations). New design
+// fields (balance tables, deviations …) each get one part function here and
+// one entry in HtmlSections().
+#include <cstdio>
+
+#include "report/html_escape.h"
+#include "report/html_parts.h"
+#include "report/html_sections.h"
+#include "report/html_table.h"
+#include "report/plain_summary.h"
+
+namespace twinprobe {
+namespace {
+
+std::string Joined(const std::vector<std::string>& items) {
+  std::string s;
+  for (const auto& x : items) s += (s.empty() ? "" : ", ") + x;
+  return s;
+}
+
+std::string Plain(double v) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%g", v);
+  return buf;
+}
+
+}  // namespace
+
+std::string DesignFactors(const AnalysisResult& r, const ReportContext&) {
+  const auto& d = r.design;
+  std::string o = html::Para(
+      "A factor is the protected attribute under test; its levels are the groups compared. The applications in a set "
+      "differed only in the factor's level, signalled by the applicant's name and contact details." +
+      std::string(r.plan_origin == "plan" && d.templates.size() > 1
+                       ? " The CV templates were rotated so that each group used each template equally often."
+                       : ""));
+  o += "<div class=\"tables\">";
+  if (!d.factors.empty()) {
+    HtmlTable f;
+    f.caption = "Factors";
+    f.headers = {"Factor", "Levels", "Reference level"};
+    for (const auto& x : d.factors) f.rows.push_back({HeadCell(x.name), Cell(Joined(x.levels)), Cell(x.reference)});
+    o += RenderTable(f);
+  }
+  if (!d.arms.empty()) {
+    HtmlTable a;
+    a.caption = "Groups (arms)";
+    a.headers = {"Group", "Stored label", "Fictitious applicants", "Applications planned"};
+    for (const auto& x : d.arms)
+      a.rows.push_back({HeadCell(ArmName(x.label) + (x.is_reference ? " (reference)" : "")), Cell(x.label),
+                        NumCell(std::to_string(x.profiles)), NumCell(std::to_string(x.probes_planned))});
+    o += RenderTable(a);
+  }
+  return o + "</div>";
+}
+
+std::string DesignCounts(const AnalysisResult& r, const ReportContext&) {
+  const auto& d = r.design;
+  std::vector<std::pair<std::string, std::string>> rows = {
+      {"Design", r.kind + (r.plan_origin == "import" ? " (imported data)" : "")},
+      {"Vacancies", std::to_string(r.vacancies)},
+      {"Employers", std::to_string(d.employers) + " (kept under keyed pseudonyms)"},
+      {"Applications planned", std::to_string(r.probes_planned)},
+      {"Applications sent", std::to_string(r.probes_sent)},
+      {"Responses recorded", std::to_string(r.responses) +
+                                 (r.responses_superseded
+                                      ? " (" + std::to_string(r.responses_superseded) + " earlier entries corrected; both kept)"
+                                      : "")},
+      {"Complete sets analysed", std::to_string(r.sets_analysed)},
+  };
+  if (r.sets_incomplete) rows.push_back({"Sets left out (an application not sent)", std::to_string(r.sets_incomplete)});
+  if (!d.first_sent_at.empty()) rows.push_back({"Fieldwork", d.first_sent_at + " to " + d.last_sent_at});
+  rows.push_back({"Observation window", std::to_string(d.window_days) + " days after each application"});
+  rows.push_back({"Positive outcome", Joined(r.positive_codes)});
+  if (!d.templates.empty()) rows.push_back({"CV templates", Joined(d.templates)});
+  rows.push_back({"Significance level (alpha)", Plain(r.alpha)});
+  rows.push_back({"Multiple-comparison correction", r.correction.empty() ? "none" : r.correction});
+  return html::Heading("Counts") + html::Facts(rows);
+}
+
+std::string DesignStrata(const AnalysisResult& r, const ReportContext&) {
+  const auto& d = r.design;
+  if (d.strata.empty()) return "";
+  std::string o;
+  std::string current;
+  HtmlTable t;
+  for (const auto& s : d.strata) {
+    if (s.name != current) {
+      if (!t.rows.empty()) o += RenderTable(t);
+      t = HtmlTable{};
+      current = s.name;
+      t.caption = "Vacancies by " + s.name;
+      t.headers = {s.name, "vacancies"};
+      t.css_class = "compact";
+    }
+    t.rows.push_back({HeadCell(s.value), NumCell(std::to_string(s.vacancies))});
+  }
+  if (!t.rows.empty()) o += RenderTable(t);
+  return html::Heading("Strata") +
+         html::Para("Vacancies were described by " + Joined(d.strata_columns) +
+                    "; the analysis also reports results within each of these strata.") +
+         "<div class=\"tables\">" + o + "</div>";
+}
+
+std::string DesignIntegrity(const AnalysisResult& r, const ReportContext&) {
+  const auto& d = r.design;
+  std::vector<std::pair<std::string, std::string>> rows;
+  rows.push_back({"Design hash (SHA-256)", d.design_sha256.empty() ? "none (data imported without a design file)"
+                                                                    : d.design_sha256});
+  if (d.has_seed) rows.push_back({"Random seed", std::to_string(d.seed)});
+  if (!d.plan_created_at.empty()) rows.push_back({"Plan made", d.plan_created_at});
+  return html::Heading("Integrity") +
+         html::Para("The design hash identifies the exact design file the plan was made from; anyone holding the "
+                    "study folder can recompute it. The seed makes the random assignment repeatable.") +
+         html::Facts(rows);
+}
+
+}  // namespace twinprobe

@@ -1,0 +1,210 @@
+// The effect estimates of analysis/effects.h in the HTML report: effect
+// measures beside the paired table, every arm against the reference, the
+// forest chart of odds ratios per stratum (adjusted p) and the
+// Mantel–Haenszel / Breslow–Day summary across strata.
+#include <cmath>
+#include <cstdio>
+
+#include "report/html_escape.h"
+#include "report/html_parts.h"
+#include "report/html_sections.h"
+#include "report/html_table.h"
+#include "report/plain_summary.h"
+#include "report/svg_forest_chart.h"
+#include "report/text_report.h"
+
+namespace twinprobe {
+namespace {
+
+std::string Conf(double confidence) { return std::to_string(static_cast<int>(std::lround(confidence * 100))) + "%"; }
+
+// A p-value as the text report prints it (FormatP, or the log10 when it underflowed).
+std::string PText(const stats::PValue& p) {
+  if (std::isnan(p.p)) return "undefined";
+  if (p.p < 1e-300) {
+    char buf[64];
+    std::snprintf(buf, sizeof buf, "< 1e-300 (log10 p = %.1f)", p.log10_p);
+    return buf;
+  }
+  return FormatP(p.p);
+}
+
+std::string PercentInterval(const stats::Estimate& e) {
+  if (std::isnan(e.estimate)) return "not estimable";
+  return FormatPercent(e.estimate) + " (" + FormatPercent(e.ci.low) + " to " + FormatPercent(e.ci.high) + ")";
+}
+
+const ArmComparison* FirstComparison(const AnalysisResult& r) {
+  return r.effects.comparisons.empty() ? nullptr : &r.effects.comparisons.front();
+}
+
+// The odds ratio a comparison reports: conditional b/c for paired data, the
+// conditional MLE of Fisher's test for unpaired data.
+svg::ForestRow Row(const std::string& label, const ArmComparison& c, double p) {
+  if (c.paired) return {label, c.conditional_or.estimate, c.conditional_or.ci.low, c.conditional_or.ci.high, p, false};
+  return {label, c.fisher.estimate, c.fisher.ci.low, c.fisher.ci.high, p, false};
+}
+
+std::string OrHeader(const ArmComparison& c) {
+  return c.paired ? "conditional odds ratio b/c" : "odds ratio (conditional MLE)";
+}
+
+}  // namespace
+
+std::string PairedEffects(const AnalysisResult& r, const ReportContext&) {
+  const ArmComparison* c = FirstComparison(r);
+  if (!c || !c->paired) return "";
+  const std::string ref = ArmName(r.reference_label), other = ArmName(c->other_label), conf = Conf(r.confidence);
+  HtmlTable t;
+  t.caption = "Effect measures (" + ref + " against " + other + ")";
+  t.headers = {"measure", "estimate (" + conf + " interval)", "what it means"};
+  t.rows.push_back({HeadCell("net discrimination (b \u2212 c) / (a + b + c)"), NumCell(PercentInterval(c->net.among_positive)),
+                    Cell("among vacancies where at least one applicant was answered positively, the share favouring " +
+                         ref + " minus the share favouring " + other + " (ILO measure)")});
+  t.rows.push_back({HeadCell("difference of rates (b \u2212 c) / n"), NumCell(PercentInterval(c->net.over_all)),
+                    Cell("the " + ref + " rate minus the " + other + " rate, over all pairs (Newcombe interval)")});
+  t.rows.push_back({HeadCell("conditional odds ratio b / c"),
+                    NumCell(svg::FormatRatioInterval(c->conditional_or.estimate, c->conditional_or.ci.low,
+                                                     c->conditional_or.ci.high)),
+                    Cell("how many times more often an unequal pair favoured " + ref + " than " + other +
+                         " (exact interval)")});
+  t.rows.push_back({HeadCell("exact McNemar p (two-sided)"), NumCell(PText(c->mcnemar.exact)),
+                    Cell("chance of a split at least this uneven if employers had no preference")});
+  t.rows.push_back({HeadCell("mid-p"), NumCell(PText(c->mcnemar.mid_p)),
+                    Cell("the exact p less half the probability of the observed split; less conservative")});
+  char chi[96];
+  std::snprintf(chi, sizeof chi, "X\u00B2 = %.3g, p = %s", c->mcnemar.chi2_corrected,
+                PText(c->mcnemar.chi2_corrected_p).c_str());
+  t.rows.push_back({HeadCell("asymptotic McNemar (continuity corrected)"), NumCell(chi),
+                    Cell("the large-sample version, as R's mcnemar.test")});
+  return html::Heading("Effect measures") + RenderTable(t);
+}
+
+std::string ComparisonsForest(const AnalysisResult& r, const ReportContext&) {
+  const Effects& e = r.effects;
+  if (e.comparisons.empty()) return "";
+  const std::string ref = r.arms.empty() ? "reference" : ArmName(r.arms.front().label);
+  svg::ForestChart chart;
+  chart.id = "chart-comparisons";
+  chart.title = "Each group against " + ref + ": odds ratios with " + Conf(r.confidence) + " intervals";
+  chart.left_note = "favours the other group";
+  chart.right_note = "favours " + ref;
+  chart.p_header = "p (" + e.correction + ")";
+  HtmlTable t;
+  t.caption = "Each group against " + ref;
+  t.headers = {"group", OrHeader(e.comparisons.front()) + " (" + Conf(r.confidence) + " interval)", "p",
+               "p adjusted (" + e.correction + ")"};
+  std::string desc = "Forest chart on a log scale.";
+  for (const auto& c : e.comparisons) {
+    svg::ForestRow row = Row(ArmName(c.other_label), c, c.p_adjusted);
+    const std::string text = svg::FormatRatioInterval(row.estimate, row.low, row.high);
+    desc += " " + row.label + ": " + text + ", adjusted p " + FormatP(c.p_adjusted) + ".";
+    chart.rows.push_back(row);
+    t.rows.push_back({HeadCell(row.label), NumCell(text), NumCell(PText(c.p)), NumCell(FormatP(c.p_adjusted))});
+  }
+  chart.description = desc;
+  return html::Para("Each row compares one group with the reference group " + ref +
+                    ". An odds ratio above 1 means the reference group was answered positively more often; the "
+                    "p-values are adjusted for the number of comparisons (" + e.correction + ").") +
+         html::Figure("fig-comparisons", "Odds ratios of each group against " + ref + " (log scale).",
+                      svg::RenderForestChart(chart), RenderTable(t), true);
+}
+
+std::string StrataForest(const AnalysisResult& r, const ReportContext&) {
+  const Effects& e = r.effects;
+  if (e.strata.empty()) return "";
+  const std::string ref = r.arms.empty() ? "reference" : ArmName(r.arms.front().label);
+  std::string o;
+  for (const auto& overall : e.comparisons) {
+    const std::string other = ArmName(overall.other_label);
+    svg::ForestChart chart;
+    chart.id = "chart-forest-" + std::to_string(&overall - &e.comparisons.front());
+    chart.title = "Odds ratio within each stratum, " + ref + " against " + other;
+    chart.left_note = "favours " + other;
+    chart.right_note = "favours " + ref;
+    chart.p_header = "p (" + e.correction + ")";
+    HtmlTable t;
+    t.caption = "Within each stratum, " + ref + " against " + other;
+    t.headers = overall.paired
+                    ? std::vector<std::string>{"stratum", "b", "c", OrHeader(overall), "p", "p adjusted"}
+                    : std::vector<std::string>{"stratum", ref + " positive", other + " positive", OrHeader(overall), "p",
+                                               "p adjusted"};
+    std::string desc = "Forest chart on a log scale, one row per stratum value.";
+    for (const auto& s : e.strata) {
+      if (s.result.other_label != overall.other_label) continue;
+      svg::ForestRow row = Row(s.column + ": " + s.value, s.result, s.result.p_adjusted);
+      const std::string text = svg::FormatRatioInterval(row.estimate, row.low, row.high);
+      desc += " " + row.label + ": " + text + ", adjusted p " + FormatP(s.result.p_adjusted) + ".";
+      chart.rows.push_back(row);
+      const auto& c = s.result;
+      if (c.paired)
+        t.rows.push_back({HeadCell(row.label), NumCell(std::to_string(c.pairs.b)), NumCell(std::to_string(c.pairs.c)),
+                          NumCell(text), NumCell(PText(c.p)), NumCell(FormatP(c.p_adjusted))});
+      else
+        t.rows.push_back({HeadCell(row.label),
+                          NumCell(std::to_string(c.table.a) + " / " + std::to_string(c.table.a + c.table.b)),
+                          NumCell(std::to_string(c.table.c) + " / " + std::to_string(c.table.c + c.table.d)),
+                          NumCell(text), NumCell(PText(c.p)), NumCell(FormatP(c.p_adjusted))});
+    }
+    // The summary on the same scale: for pairs the overall conditional odds
+    // ratio (Mantel–Haenszel over vacancies reduces to it); for unpaired
+    // data the Mantel–Haenszel odds ratio of the first stratum column.
+    if (overall.paired) {
+      svg::ForestRow all = Row("all pairs", overall, overall.p_adjusted);
+      all.summary = true;
+      desc += " All pairs: " + svg::FormatRatioInterval(all.estimate, all.low, all.high) + ".";
+      chart.rows.push_back(all);
+    } else {
+      for (const auto& a : e.across)
+        if (a.other_label == overall.other_label) {
+          chart.rows.push_back({"Mantel\u2013Haenszel over " + a.column, a.mh.estimate, a.mh.ci.low, a.mh.ci.high,
+                                a.mh.chi2_corrected_p.p, true});
+          desc += " Mantel-Haenszel over " + a.column + ": " +
+                  svg::FormatRatioInterval(a.mh.estimate, a.mh.ci.low, a.mh.ci.high) + ".";
+          break;
+        }
+    }
+    chart.description = desc;
+    o += html::Figure("fig-forest-" + std::to_string(&overall - &e.comparisons.front()),
+                      "Odds ratios within each stratum (log scale; arrows: an interval reaching 0 or infinity). "
+                      "p-values adjusted with " + e.correction + " within each stratum column.",
+                      svg::RenderForestChart(chart), RenderTable(t), true);
+  }
+  return html::Heading("Odds ratios by stratum") +
+         html::Para(std::string("Each row is the odds ratio within one stratum value, with its exact ") +
+                    Conf(r.confidence) + " interval; above 1, " + ref +
+                    " applicants were favoured. Strata with few unequal pairs have wide intervals; an interval "
+                    "that reaches 0 or infinity (no unequal pair one way) ends in an arrow. The p-values of one "
+                    "stratum column are adjusted together (" + e.correction + ").") +
+         o;
+}
+
+std::string AcrossStrataTable(const AnalysisResult& r, const ReportContext&) {
+  const Effects& e = r.effects;
+  if (e.across.empty()) return "";
+  const bool paired = !e.comparisons.empty() && e.comparisons.front().paired;
+  const std::string ref = r.arms.empty() ? "reference" : ArmName(r.arms.front().label);
+  HtmlTable t;
+  t.caption = "Across strata (group \u00D7 outcome tables" + std::string(paired ? ", pairing ignored)" : ")");
+  t.headers = {"stratum column", "against", "values", "Mantel\u2013Haenszel odds ratio (" + Conf(r.confidence) + ")",
+               "CMH test (corrected)", "Breslow\u2013Day (Tarone)"};
+  for (const auto& a : e.across) {
+    char cmh[96], bd[128];
+    std::snprintf(cmh, sizeof cmh, "X\u00B2 = %.3g, p = %s", a.mh.chi2_corrected, PText(a.mh.chi2_corrected_p).c_str());
+    std::snprintf(bd, sizeof bd, "X\u00B2 = %.3g on %.0f df, p = %s (%s)", a.breslow_day.statistic, a.breslow_day.df,
+                  PText(a.breslow_day.p).c_str(), PText(a.breslow_day.tarone_p).c_str());
+    t.rows.push_back({HeadCell(a.column), Cell(ArmName(a.other_label)), NumCell(std::to_string(a.values)),
+                      NumCell(svg::FormatRatioInterval(a.mh.estimate, a.mh.ci.low, a.mh.ci.high)), NumCell(cmh),
+                      NumCell(bd)});
+  }
+  std::string note =
+      "The Mantel\u2013Haenszel odds ratio pools the group \u00D7 outcome tables of the stratum values; the CMH test "
+      "asks whether " + ref + " applicants were favoured after allowing for the stratum, and Breslow\u2013Day whether "
+      "the odds ratio differs between stratum values.";
+  if (paired)
+    note += " These treat the two applications of a pair as independent; the estimate that respects the pairs is "
+            "the conditional odds ratio of all pairs (the summary row of the forest chart).";
+  return html::Heading("Across strata") + html::Para(note) + RenderTable(t);
+}
+
+}  // namespace twinprobe

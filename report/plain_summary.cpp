@@ -1,0 +1,195 @@
+#include "report/plain_summary.h"
+
+#include <cmath>
+#include <sstream>
+
+#include "report/text_report.h"
+
+namespace twinprobe {
+namespace {
+
+std::string Join(const std::vector<std::string>& items, const std::string& last_sep) {
+  std::string s;
+  for (size_t i = 0; i < items.size(); ++i) {
+    if (i > 0) s += (i + 1 == items.size()) ? last_sep : ", ";
+    s += items[i];
+  }
+  return s;
+}
+
+// "a coastal", "an inland".
+std::string Article(const std::string& word) {
+  const bool vowel = !word.empty() && std::string("aeiouAEIOU").find(word[0]) != std::string::npos;
+  return (vowel ? "an " : "a ") + word;
+}
+
+std::string Count(int64_t n, const std::string& one, const std::string& many) {
+  return std::to_string(n) + " " + (n == 1 ? one : many);
+}
+
+std::string Alpha(double alpha) {
+  std::ostringstream o;
+  o << alpha;
+  return o.str();
+}
+
+std::string WhatWasTested(const AnalysisResult& r) {
+  std::ostringstream o;
+  std::vector<std::string> factors, arms;
+  for (const auto& f : r.design.factors) factors.push_back(f.name);
+  for (const auto& a : r.arms) arms.push_back(ArmName(a.label));
+  o << "This study asked whether employers answer job applications differently depending on the applicant's "
+    << (factors.empty() ? std::string("group") : Join(factors, " and ")) << ". ";
+  if (r.kind == "unpaired") {
+    o << "Fictitious applications with equivalent qualifications went to " << Count(r.vacancies, "vacancy", "vacancies")
+      << ", one application per vacancy, from applicants who differed only in that respect ("
+      << Join(arms, " or ") << ").";
+  } else {
+    o << "Sets of fictitious applications, equal in qualifications and differing only in that respect, went to "
+      << Count(r.vacancies, "vacancy", "vacancies") << ": each vacancy received ";
+    if (arms.size() == 2)
+      o << "one application from " << Article(arms[0]) << " applicant and one from " << Article(arms[1]) << " applicant.";
+    else o << "one application from each group (" << Join(arms, " and ") << ").";
+  }
+  if (!r.design.first_sent_at.empty())
+    o << " Applications were sent between " << r.design.first_sent_at.substr(0, 10) << " and "
+      << r.design.last_sent_at.substr(0, 10) << ", and answers were counted for " << r.design.window_days
+      << " days after each application.";
+  o << " " << Count(r.sets_analysed, "set was", "sets were") << " complete and analysed";
+  if (r.sets_incomplete) o << "; " << r.sets_incomplete << " could not be used because an application was not sent";
+  o << ".";
+  return o.str();
+}
+
+std::string WhatWasFound(const AnalysisResult& r) {
+  std::ostringstream o;
+  std::vector<std::string> codes;
+  for (const auto& c : r.positive_codes) codes.push_back(CodeName(c));
+  o << "A positive answer means " << Join(codes, " or ") << ". ";
+  std::vector<std::string> parts;
+  for (const auto& a : r.arms)
+    parts.push_back(std::to_string(a.positive) + " of " + std::to_string(a.probes) + " applications from " +
+                    ArmName(a.label) + " applicants (" + FormatPercent(a.rate) + ")");
+  o << "Employers answered positively to " << Join(parts, " and ") << ".";
+  if (r.has_paired) {
+    const auto& t = r.paired;
+    o << " Of the " << t.n() << " pairs, both applicants were answered positively in " << t.a << " and neither in "
+      << t.d << ". In the " << t.discordant() << " pairs where the employer treated the two differently, only the "
+      << ArmName(r.reference_label) << " applicant was answered positively " << Count(t.b, "time", "times")
+      << " and only the " << ArmName(r.other_label) << " applicant " << Count(t.c, "time", "times") << ".";
+    if (!r.effects.comparisons.empty() && r.effects.comparisons.front().paired) {
+      const auto& c = r.effects.comparisons.front();
+      const auto& net = c.net.among_positive;
+      if (!std::isnan(net.estimate))
+        o << " Net discrimination, the share of vacancies with at least one positive answer that favoured "
+          << ArmName(r.reference_label) << " minus the share that favoured " << ArmName(r.other_label) << ", was "
+          << FormatPercent(net.estimate) << " (" << std::lround(r.confidence * 100) << "% interval "
+          << FormatPercent(net.ci.low) << " to " << FormatPercent(net.ci.high) << ").";
+    }
+  }
+  return o.str();
+}
+
+std::string HowSure(const AnalysisResult& r) {
+  std::ostringstream o;
+  const int conf = static_cast<int>(std::lround(r.confidence * 100));
+  if (!r.has_paired) {
+    o << "The ranges in the chart of callback rates (" << conf
+      << "% confidence intervals) show how high or low each group's true callback rate may plausibly be.";
+    return o.str();
+  }
+  const auto& t = r.paired;
+  if (t.discordant() == 0) {
+    o << "No employer treated the two applicants differently, so these data cannot show a difference either way.";
+    return o.str();
+  }
+  o << "If employers had no preference, a split of the " << t.discordant() << " unequal-treatment pairs at least as "
+    << "uneven as " << t.b << " to " << t.c << " would happen by chance with probability "
+    << (r.mcnemar_exact_p < 0.001 ? "below one in a thousand" : FormatP(r.mcnemar_exact_p)) << " ("
+    << PlainP(r.mcnemar_exact_p) << ", exact McNemar test, two-sided). ";
+  if (r.mcnemar_exact_p < r.alpha)
+    o << "That is below the study's threshold of " << Alpha(r.alpha)
+      << ", so chance alone is an unlikely explanation: the data show that "
+      << ArmName(t.b > t.c ? r.reference_label : r.other_label)
+      << " applicants were favoured at these vacancies. ";
+  else
+    o << "That is not below the study's threshold of " << Alpha(r.alpha)
+      << ", so the test does not show a difference. This is not proof that there is none; a larger study may find one. ";
+  o << "The ranges in the chart of callback rates (" << conf
+    << "% confidence intervals) show how high or low each group's true callback rate may plausibly be.";
+  return o.str();
+}
+
+std::string WhatItDoesNotShow() {
+  return "A correspondence test measures the first step of hiring (who is answered, invited or asked for more "
+         "information) at the vacancies tested. It does not show who would have been hired, why an employer acted "
+         "as it did, or how employers outside the sample behave, and a single unequal pair says little about a "
+         "single employer. See the cautions at the end of this report.";
+}
+
+}  // namespace
+
+std::string PlainP(double p) { return p < 0.001 ? "p < 0.001" : "p = " + FormatP(p); }
+
+std::string CodeName(const std::string& code) {
+  std::string s = code;
+  for (auto& ch : s)
+    if (ch == '_') ch = ' ';
+  return s;
+}
+
+std::string Headline(const AnalysisResult& r) {
+  if (r.sets_analysed == 0 || r.arms.empty()) return "No complete set of applications has been analysed yet.";
+  if (!r.has_paired) {
+    std::vector<std::string> parts;
+    for (const auto& a : r.arms) parts.push_back(ArmName(a.label) + " " + FormatPercent(a.rate));
+    return "Share of applications answered positively: " + Join(parts, " and ") + ".";
+  }
+  const auto& t = r.paired;
+  const ArmResult& ref = r.arms[0];
+  const ArmResult& other = r.arms.size() > 1 ? r.arms[1] : r.arms[0];
+  auto cap = [](std::string s) {
+    if (!s.empty() && s[0] >= 'a' && s[0] <= 'z') s[0] = static_cast<char>(s[0] - 'a' + 'A');
+    return s;
+  };
+  if (t.discordant() == 0)
+    return "No employer treated the two applicants differently, so these data show no difference either way.";
+  const bool ref_favoured = t.b > t.c;
+  const ArmResult& hi = ref_favoured ? ref : other;
+  const ArmResult& lo = ref_favoured ? other : ref;
+  if (t.b == t.c)
+    return "Unequal treatment went both ways equally often (" + std::to_string(t.b) + " pairs each); the data show no "
+           "difference.";
+  std::string s = cap(ArmName(hi.label)) + " applicants received positive answers more often than " + ArmName(lo.label) +
+                  " applicants (" + FormatPercent(hi.rate) + " against " + FormatPercent(lo.rate) + "); ";
+  if (r.mcnemar_exact_p < r.alpha)
+    s += "chance alone is an unlikely explanation (" + PlainP(r.mcnemar_exact_p) + ").";
+  else
+    s += "the difference could well be chance (" + PlainP(r.mcnemar_exact_p) + "), so the test does not show one.";
+  return s;
+}
+
+std::string ArmName(const std::string& label) {
+  std::string out;
+  size_t start = 0;
+  bool any = false;
+  while (start <= label.size()) {
+    size_t comma = label.find(',', start);
+    std::string part = label.substr(start, comma == std::string::npos ? std::string::npos : comma - start);
+    size_t eq = part.find('=');
+    out += (any ? ", " : "") + (eq == std::string::npos ? part : part.substr(eq + 1));
+    any = true;
+    if (comma == std::string::npos) break;
+    start = comma + 1;
+  }
+  return out.empty() ? label : out;
+}
+
+std::vector<SummaryParagraph> PlainSummary(const AnalysisResult& r) {
+  return {{"What was tested", WhatWasTested(r)},
+          {"What was found", WhatWasFound(r)},
+          {"How sure we are", HowSure(r)},
+          {"What this does not show", WhatItDoesNotShow()}};
+}
+
+}  // namespace twinprobe

@@ -1,0 +1,202 @@
+// `export` (collector/export.h): the layout of docs/export.md, read back by
+// R's read.csv and by pandas (Debian's r-base-core and python3-pandas, run
+// live), pseudonymised unless identities are asked for.
+#include <catch2/catch.hpp>
+
+#include <nlohmann/json.hpp>
+
+#include "collector/export.h"
+#include "collector/import_pairs.h"
+#include "collector/collector_fixtures.h"
+#include "core/csv.h"
+#include "core/meta.h"
+
+using namespace twinprobe;
+using testing::RunCli;
+
+namespace {
+
+// An imported study whose values are awkward for CSV: commas, quotes, a
+// line break, non-ASCII letters, an empty stratum column clash.
+struct AwkwardStudy {
+  testing::TempDir dir;
+  std::string db = dir / "s/study.db";
+  AwkwardStudy() {
+    std::string csv = dir / "pairs.csv";
+    testing::WriteFile(csv,
+                       "vacancy,arm,outcome,sent_at,responded_at,occupation,region,employer\n"
+                       "\"V 1, north\",inland,invitation,2027-03-01,2027-03-03,\"caf\xC3\xA9 \"\"Ost\"\"\",Orlinde,"
+                       "Galengate Logistics (invented)\n"
+                       "\"V 1, north\",coastal,none,2027-03-01,,\"caf\xC3\xA9 \"\"Ost\"\"\",Orlinde,"
+                       "Galengate Logistics (invented)\n"
+                       "V2,inland,0,2027-03-02,,\"line one\nline two\",Brakkeport,\n"
+                       "V2,coastal,1,2027-03-02,2027-04-10,\"line one\nline two\",Brakkeport,\n");
+    PairsImportOptions o;
+    o.reference = "inland";
+    o.strata = {"occupation", "region"};
+    o.strata_given = true;
+    o.progress = false;
+    auto r = ImportPairs(db, nullptr, csv, o);
+    INFO((r.ok() ? "" : r.error().Message()));
+    REQUIRE(r.ok());
+  }
+  ExportSummary Export(const std::string& path, const std::string& format, bool identities = false) {
+    auto store = Store::Open(db, false);
+    REQUIRE(store.ok());
+    ExportOptions o;
+    o.format = format;
+    o.identities = identities;
+    auto r = ExportStudy(*store.value(), StoredOutcomeScheme(*store.value()), path, o);
+    INFO((r.ok() ? "" : r.error().Message()));
+    REQUIRE(r.ok());
+    return r.value();
+  }
+};
+
+// Runs a command with a UTF-8 locale; returns its standard output.
+std::string Run(const std::string& command) {
+  testing::TempDir io;
+  std::string full = "LANG=C.UTF-8 LC_ALL=C.UTF-8 " + command + " >'" + io / "out" + "' 2>'" + io / "err" + "'";
+  int rc = std::system(full.c_str());
+  INFO(testing::ReadFile(io / "err"));
+  CHECK(rc == 0);
+  return testing::ReadFile(io / "out");
+}
+
+}  // namespace
+
+TEST_CASE("export: CSV files in the documented layout, pseudonymised by default") {
+  AwkwardStudy s;
+  std::string out = s.dir / "export";
+  ExportSummary sum = s.Export(out, "csv");
+  CHECK(sum.vacancies == 2);
+  CHECK(sum.probes == 4);
+  CHECK(sum.responses == 4);
+  auto probes = ReadCsvFile(out + "/probes.csv");
+  REQUIRE(probes.ok());
+  CHECK(probes.value().header ==
+        std::vector<std::string>{"probe", "vacancy", "arm", "reference", "profile", "template", "send_order",
+                                 "planned_at", "sent_at", "outcome", "positive", "received_at", "channel", "late",
+                                 "responses", "occupation", "region"});
+  CHECK(probes.value().rows[0].fields ==
+        std::vector<std::string>{"P00001", "V 1, north", "inland", "1", "", "", "1", "", "2027-03-01T00:00:00Z",
+                                 "invitation", "1", "2027-03-03T00:00:00Z", "", "0", "1", "caf\xC3\xA9 \"Ost\"",
+                                 "Orlinde"});
+  CHECK(probes.value().rows[3].fields[13] == "1");  // 39 days after sending: late
+  auto vacancies = ReadCsvFile(out + "/vacancies.csv");
+  REQUIRE(vacancies.ok());
+  CHECK(vacancies.value().header == std::vector<std::string>{"vacancy", "employer_key", "source", "opened_on",
+                                                             "closed_on", "occupation", "region"});
+  CHECK(vacancies.value().rows[0].fields[1].rfind("E-", 0) == 0);
+  CHECK(vacancies.value().rows[1].fields[1].empty());
+  std::string everything = testing::ReadFile(out + "/vacancies.csv") + testing::ReadFile(out + "/probes.csv") +
+                           testing::ReadFile(out + "/responses.csv");
+  CHECK(everything.find("Galengate") == std::string::npos);
+  auto manifest = nlohmann::json::parse(testing::ReadFile(out + "/manifest.json"));
+  CHECK(manifest["format"] == "twinprobe-export");
+  CHECK(manifest["version"] == 1);
+  CHECK(manifest["identities"] == false);
+  CHECK(manifest["audit_intact"] == true);
+  CHECK(manifest["audit_head"] == sum.audit_head);
+  CHECK(manifest["rows"]["probes"] == 4);
+  CHECK(manifest["positive_codes"] == nlohmann::json({"info_request", "invitation", "offer", "1"}));
+}
+
+TEST_CASE("export: R's read.csv reads the files as they are") {
+  AwkwardStudy s;
+  std::string out = s.dir / "export";
+  s.Export(out, "csv");
+  std::string script = s.dir / "read.R";
+  testing::WriteFile(script,
+                     "d <- commandArgs(trailingOnly = TRUE)[1]\n"
+                     "p <- read.csv(file.path(d, 'probes.csv'), encoding = 'UTF-8', stringsAsFactors = FALSE)\n"
+                     "v <- read.csv(file.path(d, 'vacancies.csv'), encoding = 'UTF-8', stringsAsFactors = FALSE)\n"
+                     "r <- read.csv(file.path(d, 'responses.csv'), encoding = 'UTF-8', stringsAsFactors = FALSE)\n"
+                     "cat(nrow(p), ncol(p), nrow(v), nrow(r), '\\n')\n"
+                     "cat(class(p$positive), sum(p$positive), class(p$reference), '\\n')\n"
+                     "cat(p$vacancy[1], '|', p$occupation[1], '|', p$occupation[3], '\\n')\n"
+                     "cat(sum(is.na(r$supersedes)), class(r$current), sum(p$late), '\\n')\n"
+                     "cat(tapply(p$positive, p$arm, sum)[c('inland', 'coastal')], '\\n')\n");
+  CHECK(Run("Rscript '" + script + "' '" + out + "'") ==
+        "4 17 2 4 \n"
+        "integer 2 integer \n"
+        "V 1, north | caf\xC3\xA9 \"Ost\" | line one\nline two \n"
+        "4 integer 1 \n"
+        "1 1 \n");
+}
+
+TEST_CASE("export: pandas reads the CSV files and the JSON document") {
+  AwkwardStudy s;
+  std::string out = s.dir / "export";
+  s.Export(out, "csv");
+  std::string json = s.dir / "export.json";
+  s.Export(json, "json");
+  std::string script = s.dir / "read.py";
+  testing::WriteFile(script,
+                     "import json, sys\n"
+                     "import pandas as pd\n"
+                     "d, j = sys.argv[1], sys.argv[2]\n"
+                     "p = pd.read_csv(d + '/probes.csv')\n"
+                     "v = pd.read_csv(d + '/vacancies.csv')\n"
+                     "r = pd.read_csv(d + '/responses.csv')\n"
+                     "print(len(p), len(p.columns), len(v), len(r))\n"
+                     "print(p['positive'].dtype, int(p['positive'].sum()), p['vacancy'][0], '|', p['occupation'][0])\n"
+                     "print(int(r['supersedes'].isna().sum()), int(p['late'].sum()), repr(p['occupation'][2]))\n"
+                     "doc = json.load(open(j, encoding='utf-8'))\n"
+                     "jp = pd.DataFrame(doc['probes'])\n"
+                     "print(doc['format'], doc['version'], len(jp), list(jp.columns) == list(p.columns))\n"
+                     "print(jp['positive'].tolist(), jp['received_at'].isna().sum())\n"
+                     "print(pd.DataFrame(doc['vacancies'])['employer_key'].isna().tolist())\n");
+  CHECK(Run("/usr/bin/python3 '" + script + "' '" + out + "' '" + json + "'") ==
+        "4 17 2 4\n"
+        "int64 2 V 1, north | caf\xC3\xA9 \"Ost\"\n"
+        "4 1 'line one\\nline two'\n"
+        "twinprobe-export 1 4 True\n"
+        "[True, False, False, True] 2\n"
+        "[False, True]\n");
+}
+
+TEST_CASE("export: --identities adds employer names, mailboxes and notes; the CLI warns") {
+  testing::PlannedStudy s;
+  REQUIRE(RunCli({"--study", s.path, "record", "P00001", "invitation", "--at", "2027-03-05", "--note",
+                  "Ms Invented, \"HR\", called"})
+              .exit_code == 0);
+  auto plain = RunCli({"--study", s.path, "export", "--out", s.dir / "plain"});
+  CHECK(plain.exit_code == 0);
+  CHECK(plain.err.empty());
+  CHECK(testing::ReadFile(s.dir / "plain/probes.csv").find("@postbox.example") == std::string::npos);
+  CHECK(testing::ReadFile(s.dir / "plain/responses.csv").find("Ms Invented") == std::string::npos);
+  CHECK(testing::ReadFile(s.dir / "plain/vacancies.csv").find("(invented)") == std::string::npos);
+
+  auto full = RunCli({"--study", s.path, "export", "--identities", "--out", s.dir / "full"});
+  CHECK(full.exit_code == 0);
+  CHECK(full.err == "twinprobe: warning: the export holds employer names and contacts, profile mailboxes and notes: "
+                    "personal data; keep it as safe as the store and delete it when your retention period ends\n");
+  auto probes = ReadCsvFile(s.dir / "full/probes.csv");
+  REQUIRE(probes.ok());
+  CHECK(probes.value().Column("profile_mailbox") == 5);
+  CHECK(probes.value().rows[0].fields[5].find("@postbox.example") != std::string::npos);
+  auto responses = ReadCsvFile(s.dir / "full/responses.csv");
+  REQUIRE(responses.ok());
+  CHECK(responses.value().rows[0].fields.back() == "Ms Invented, \"HR\", called");
+  auto vacancies = ReadCsvFile(s.dir / "full/vacancies.csv");
+  CHECK(vacancies.value().rows[0].fields[2].find("(invented)") != std::string::npos);
+
+  auto json = RunCli({"--study", s.path, "--json", "export", "--format", "json", "--out", s.dir / "e.json"});
+  CHECK(json.exit_code == 0);
+  auto summary = nlohmann::json::parse(json.out);
+  CHECK(summary["probes"] == 800);
+  CHECK(summary["responses"] == 1);
+  auto doc = nlohmann::json::parse(testing::ReadFile(s.dir / "e.json"));
+  CHECK(doc["probes"].size() == 800);
+  CHECK(doc["probes"][0]["positive"] == true);
+  CHECK(doc["probes"][1]["positive"].is_null());
+}
+
+TEST_CASE("export: a store without a plan is refused") {
+  testing::TempDir dir;
+  auto r = RunCli({"--study", dir.path(), "export"});
+  CHECK(r.exit_code == 1);
+  CHECK(r.err == "twinprobe: " + dir / "study.db" + ": no study store here \u2014 run 'twinprobe plan' (or 'twinprobe "
+                                                    "import pairs') first, or pass --study DIR\n");
+}
