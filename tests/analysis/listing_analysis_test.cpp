@@ -186,7 +186,7 @@ TEST_CASE("listing analysis: an empty store still says that it holds no plan") {
         ":memory:: the store holds no plan yet \u2014 run 'twinprobe plan' or 'twinprobe import pairs' first");
 }
 
-TEST_CASE("listing analysis: pages of a fetched list join in order; a gap ends the list; replays replace") {
+TEST_CASE("listing analysis: pages of a fetched list join in order, a gap ends the list, replays replace") {
   auto opened = Store::Open(":memory:", true);
   REQUIRE(opened.ok());
   Store& store = *opened.value();

@@ -26,7 +26,7 @@ TEST_CASE("cli record: a late response is stored with a warning that says by how
   CHECK(doc["supersedes"] == 1);
 }
 
-TEST_CASE("cli record: a response to a probe never marked sent is kept quietly; bad times and channels are not") {
+TEST_CASE("cli record: a response to a probe never marked sent is kept quietly, bad times and channels are not") {
   testing::PlannedStudy s;
   auto r = RunCli({"--study", s.path, "--json", "record", "P00002", "rejection", "--at", "2027-03-05", "--channel",
                    "letter"});
@@ -64,7 +64,7 @@ TEST_CASE("cli import outcomes: summary, reject file and exit code 1 with --skip
   CHECK(again.out == "This file was imported before; nothing was added.\n");
 }
 
-TEST_CASE("cli import pairs: a folder without a design; analyze and report then run on it") {
+TEST_CASE("cli import pairs: a folder without a design, then analyze and report run on it") {
   testing::TempDir dir;
   std::string study = dir / "newsroom";
   std::string csv = dir / "applications.csv";

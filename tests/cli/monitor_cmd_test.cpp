@@ -143,7 +143,7 @@ TEST_CASE("monitor cli: --final makes the sets completed now the final analysis"
   CHECK(j["exact_type_i_error_so_far"].get<double>() <= 0.05);
 }
 
-TEST_CASE("monitor cli: before the first look it waits; a bad spending name is one error line") {
+TEST_CASE("monitor cli: before the first look it waits, a bad spending name is one error line") {
   MonitoredStudy s;
   s.Import(Pattern(3, 1, 46), Hours(50));
   auto j = nlohmann::json::parse(RunCli({"--study", s.study, "--json", "monitor"}).out);

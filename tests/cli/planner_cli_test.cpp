@@ -245,7 +245,7 @@ TEST_CASE("cli schedule: what to send by a date, in time order, and sent probes 
   CHECK(bad.err == "twinprobe: --due: 'March' is not a date \u2014 write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM\n");
 }
 
-TEST_CASE("cli freeze: hashes stored once; analyze lists deviations and marks exploratory results") {
+TEST_CASE("cli freeze: hashes stored once, analyze lists deviations and marks exploratory results") {
   InitStudy s;
   auto freeze = s.Run({"--json", "freeze"});
   INFO(freeze.err);

@@ -46,7 +46,7 @@ TEST_CASE("ethics: check refuses a design without a cap per employer") {
   CHECK(r.err.find("[ethics].cap_per_employer is missing") != std::string::npos);
 }
 
-TEST_CASE("ethics: recording an invitation prints the decline deadline and the letter; decline clears it") {
+TEST_CASE("ethics: recording an invitation prints the decline deadline and the letter, decline clears it") {
   Study s;
   REQUIRE(RunCli({"--study", s.path, "plan"}).exit_code == 0);
   auto r = RunCli({"--study", s.path, "record", "P00001", "invitation", "--at", "2027-03-04T10:00"});

@@ -156,7 +156,7 @@ TEST_CASE("export: pandas reads the CSV files and the JSON document") {
         "[False, True]\n");
 }
 
-TEST_CASE("export: --identities adds employer names, mailboxes and notes; the CLI warns") {
+TEST_CASE("export: --identities adds employer names, mailboxes and notes, the CLI warns") {
   testing::PlannedStudy s;
   REQUIRE(RunCli({"--study", s.path, "record", "P00001", "invitation", "--at", "2027-03-05", "--note",
                   "Ms Invented, \"HR\", called"})

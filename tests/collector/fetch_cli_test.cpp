@@ -203,7 +203,7 @@ TEST_CASE("fetch cli: an unknown --source is named with a suggestion") {
                  "one of the [[source]] names\n");
 }
 
-TEST_CASE("fetch cli: import labels links item keys to factor levels; bad levels are refused with their line") {
+TEST_CASE("fetch cli: import labels links item keys to factor levels, bad levels are refused with their line") {
   FixtureServer server;
   ListingStudy s;
   s.Write(StudyToml(server));

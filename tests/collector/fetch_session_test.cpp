@@ -64,7 +64,7 @@ TEST_CASE("fetch session: a page is fetched after robots.txt, with the identifyi
   CHECK(std::filesystem::exists(s.snapshots.PathOf(s.session.log()[0].snapshot_sha256)));
 }
 
-TEST_CASE("fetch session: paths robots.txt disallows are never requested; the longest match decides") {
+TEST_CASE("fetch session: paths robots.txt disallows are never requested, the longest match decides") {
   FixtureServer server;
   Session s;
   FetchPolicy p = PolicyFor(server);
@@ -197,7 +197,7 @@ TEST_CASE("fetch session: the minimum interval per host holds between all reques
   for (size_t i = 1; i < seen.size(); ++i) CHECK(seen[i].t - seen[i - 1].t >= 0.39);
 }
 
-TEST_CASE("fetch session: a body above the size cap fails; the part read is kept as the snapshot") {
+TEST_CASE("fetch session: a body above the size cap fails, the part read is kept as the snapshot") {
   FixtureServer server;
   Session s;
   FetchPolicy p = PolicyFor(server);
@@ -233,7 +233,7 @@ TEST_CASE("fetch session: robots.txt that redirects outside the allowlist disall
   CHECK(LogHas(s.session, "allowlist", "rules.elsewhere.example"));
 }
 
-TEST_CASE("fetch session: TLS certificates are verified; a self-signed one is refused") {
+TEST_CASE("fetch session: TLS certificates are verified, a self-signed one is refused") {
   std::string fixtures = testing::SourceDir() + "/tests/fixtures/listing/";
   FixtureServer server({"--tls-cert", fixtures + "selfsigned.crt", "--tls-key", fixtures + "selfsigned.key"});
   CurlHttpClient client;

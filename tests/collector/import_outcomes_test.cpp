@@ -85,7 +85,7 @@ TEST_CASE("import outcomes: bad-row battery, each message exact, the store uncha
   CHECK(testing::Fingerprint(*o.store) == before);
 }
 
-TEST_CASE("import outcomes: the same file twice adds nothing; --skip-bad keeps good rows and lists the bad") {
+TEST_CASE("import outcomes: the same file twice adds nothing, --skip-bad keeps good rows and lists the bad") {
   Outcomes o;
   const std::string text = "probe,code,received_at,comment\nP00001,invitation,2027-03-05,x\nP00002,offer,2027-03-06,y\n";
   auto first = o.Import(text);

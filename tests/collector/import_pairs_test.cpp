@@ -285,7 +285,7 @@ TEST_CASE("import pairs: --skip-bad with no good row writes the rejects and leav
         std::string::npos);
 }
 
-TEST_CASE("import pairs: a later file joins the imported study; conflicts fail and change nothing") {
+TEST_CASE("import pairs: a later file joins the imported study, conflicts fail and change nothing") {
   Folder f;
   REQUIRE(f.Import(kGood).ok());
   const std::string before = FingerprintOf(f.db);

@@ -166,7 +166,7 @@ TEST_CASE("mail intake: keys, digests and what the sealed columns hold") {
                         "match_reason LIKE '%@kestrel%' OR evidence LIKE '%Hanne%'") == 0);
 }
 
-TEST_CASE("mail intake: the audit chain seals the log; the excerpt alone may be purged") {
+TEST_CASE("mail intake: the audit chain seals the log, the excerpt alone may be purged") {
   PlannedMailStudy s;
   auto store = s.Open();
   REQUIRE(IngestMail(*store, FixtureRules(s.study), FixtureBatches(s.study)).ok());

@@ -42,7 +42,7 @@ TEST_CASE("mail message: ISO-8859-1 quoted-printable body and Q-encoded headers"
   CHECK(Contains(m.text, "Ren\u00e9e Halvard, Direkt\u00f8r of people matters"));
 }
 
-TEST_CASE("mail message: multipart/alternative prefers text/plain; B-encoded UTF-8 words") {
+TEST_CASE("mail message: multipart/alternative prefers text/plain, B-encoded UTF-8 words") {
   MailMessage m = ParseMailMessage(FixtureMbox()[2].raw);
   CHECK(m.subject == "Print operator \u2013 a question about your certificate \u2713");
   CHECK(m.from == "\u00d6yvind Marsk <oyvind.marsk@kestrel-print.example>");

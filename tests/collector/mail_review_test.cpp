@@ -206,7 +206,7 @@ TEST_CASE("mail review: a probe of another profile is allowed with a warning") {
         other + " belongs to profile kemi.saralon@postbox.example, but the message was for " + kAldo);
 }
 
-TEST_CASE("mail review: a message without a date needs --at; without a suggestion needs --code") {
+TEST_CASE("mail review: a message without a date needs --at, without a suggestion needs --code") {
   PlannedMailStudy s;
   auto store = s.Open();
   MailRules rules;

@@ -48,7 +48,7 @@ TEST_CASE("mail source: a From line inside a body without a date does not split 
   CHECK(r.value()[1].raw == "Subject: two\n\nbye\n");
 }
 
-TEST_CASE("mail source: an empty mbox holds no messages; a wrong file is refused with its place") {
+TEST_CASE("mail source: an empty mbox holds no messages, a wrong file is refused with its place") {
   testing::TempDir dir;
   testing::WriteFile(dir / "empty.mbox", "");
   auto empty = ReadMbox(dir / "empty.mbox");

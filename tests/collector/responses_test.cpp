@@ -62,7 +62,7 @@ TEST_CASE("record: unknown probe, code, channel and time are refused with exact 
   CHECK(testing::Fingerprint(*store) == before);
 }
 
-TEST_CASE("record: a response before the sending is refused; on the sending day by date it is accepted") {
+TEST_CASE("record: a response before the sending is refused, on the sending day by date it is accepted") {
   testing::PlannedStudy s;
   auto store = s.Open();
   OutcomeScheme scheme;
@@ -82,7 +82,7 @@ TEST_CASE("record: a response before the sending is refused; on the sending day 
   CHECK(same_day.value().sent_at == "2027-03-04T09:14:00Z");
 }
 
-TEST_CASE("record: outside the observation window is stored with the flag 'late'; unsent is reported") {
+TEST_CASE("record: outside the observation window is stored with the flag 'late', unsent is reported") {
   testing::PlannedStudy s;
   auto store = s.Open();
   OutcomeScheme scheme;  // window 28 days
@@ -101,7 +101,7 @@ TEST_CASE("record: outside the observation window is stored with the flag 'late'
   CHECK_FALSE(unsent.value().late);
 }
 
-TEST_CASE("record: corrections never overwrite; each new response supersedes the current one") {
+TEST_CASE("record: corrections never overwrite, each new response supersedes the current one") {
   testing::PlannedStudy s;
   auto store = s.Open();
   OutcomeScheme scheme;
@@ -119,7 +119,7 @@ TEST_CASE("record: corrections never overwrite; each new response supersedes the
   CHECK(VerifyAudit(*store).ok());
 }
 
-TEST_CASE("sent: a later sending replaces the time but keeps the earlier row; it cannot follow the response") {
+TEST_CASE("sent: a later sending replaces the time but keeps the earlier row, it cannot follow the response") {
   testing::PlannedStudy s;
   auto store = s.Open();
   OutcomeScheme scheme;

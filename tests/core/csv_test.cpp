@@ -46,7 +46,7 @@ TEST_CASE("csv: RFC 4180 quoting, embedded commas, quotes and newlines, CRLF, BO
   CHECK(t.value().rows[1].line == 3);
 }
 
-TEST_CASE("csv: LF, CRLF and a lone CR all end a record; the last record may lack a line break") {
+TEST_CASE("csv: LF, CRLF and a lone CR all end a record, the last record may lack a line break") {
   Rows expected = {{"a", "b"}, {"1", "2"}, {"3", "4"}};
   CHECK(ReadAll("a,b\n1,2\n3,4\n").first == expected);
   CHECK(ReadAll("a,b\r\n1,2\r\n3,4\r\n").first == expected);
@@ -111,7 +111,7 @@ TEST_CASE("csv: a NUL byte is refused, quoted or not") {
         "t.csv:2:3: the field holds a NUL byte \u2014 remove the NUL byte; is this really a CSV file?");
 }
 
-TEST_CASE("csv: valid UTF-8 of every length passes; each kind of invalid UTF-8 is refused") {
+TEST_CASE("csv: valid UTF-8 of every length passes, each kind of invalid UTF-8 is refused") {
   // 2-, 3- and 4-byte sequences: e acute, euro sign, U+1F600.
   CHECK(ReadAll("a\n\xC3\xA9\xE2\x82\xAC\xF0\x9F\x98\x80\n").first == Rows{{"a"}, {"\xC3\xA9\xE2\x82\xAC\xF0\x9F\x98\x80"}});
   const std::string bad_message =
@@ -126,7 +126,7 @@ TEST_CASE("csv: valid UTF-8 of every length passes; each kind of invalid UTF-8 i
   CHECK(ErrorOf("a\n\"ok\",\xFF\n").empty() == false);
 }
 
-TEST_CASE("csv: a UTF-8 byte-order mark is skipped only at the start; UTF-16 is named") {
+TEST_CASE("csv: a UTF-8 byte-order mark is skipped only at the start, UTF-16 is named") {
   CHECK(ReadAll("\xEF\xBB\xBF" "a\n1\n").first == Rows{{"a"}, {"1"}});
   CHECK(ReadAll("\xEF\xBB\xBF\"a\"\n1\n").first == Rows{{"a"}, {"1"}});
   CHECK(ReadAll("a\n\xEF\xBB\xBFx\n").first == Rows{{"a"}, {"\xEF\xBB\xBFx"}});

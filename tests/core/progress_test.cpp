@@ -16,7 +16,7 @@ TEST_CASE("progress: renders a bar with percent and human byte amounts") {
   CHECK(Progress::Render("x", 999, 2000, Progress::Unit::kBytes) == "x [###########-------------]  49%  999 B of 2.0 kB");
 }
 
-TEST_CASE("progress: short work draws nothing; long work redraws in place and ends the line") {
+TEST_CASE("progress: short work draws nothing, long work redraws in place and ends the line") {
   std::ostringstream quick_out;
   {
     Progress quick("quick", 100, Progress::Unit::kCount, &quick_out);

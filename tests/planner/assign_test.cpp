@@ -165,7 +165,7 @@ TEST_CASE("assign: every balance property holds over random designs and seeds") 
   CHECK(kinds["unpaired"] > 50);
 }
 
-TEST_CASE("assign: the same seed gives the same plan byte for byte; another seed another plan") {
+TEST_CASE("assign: the same seed gives the same plan byte for byte, another seed another plan") {
   for (uint64_t seed = 1; seed <= 60; ++seed) {
     auto s = testing::MakeRandomStudy(seed);
     INFO("seed " << seed);

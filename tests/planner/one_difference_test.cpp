@@ -159,7 +159,7 @@ TEST_CASE("one difference: an unpaired design reports a field whose values diffe
   CHECK(e.what.find("'Brakkeport'") != std::string::npos);
 }
 
-TEST_CASE("one difference: factor fields may differ; over random designs a leaking template is always caught") {
+TEST_CASE("one difference: factor fields may differ, over random designs a leaking template is always caught") {
   int caught = 0, clean = 0;
   for (uint64_t seed = 1; seed <= 150; ++seed) {
     auto s = testing::MakeRandomStudy(seed);

@@ -50,7 +50,7 @@ TEST_CASE("forest chart: accessible svg with title, description and role=img") {
         "Forest chart of four strata and the Mantel-Haenszel summary.");
 }
 
-TEST_CASE("forest chart: finite rows draw a square and no arrow; values and p printed") {
+TEST_CASE("forest chart: finite rows draw a square and no arrow, values and p printed") {
   auto page = Page(svg::RenderForestChart(Chart({{"bookkeeper", 1.875, 0.75, 5.0, 0.21, false},
                                                   {"care assistant", 1.82, 0.83, 4.2, 0.0123, false}})));
   CHECK(Count(page, "path", "arrow") == 0);
@@ -72,7 +72,7 @@ TEST_CASE("forest chart: infinite upper limit and zero lower limit end in arrows
   CHECK(text.find("0 (0 to 0.52)") != std::string::npos);
 }
 
-TEST_CASE("forest chart: limits beyond the axis ceiling are arrows; the axis never passes floor and ceiling") {
+TEST_CASE("forest chart: limits beyond the axis ceiling are arrows, the axis never passes floor and ceiling") {
   auto c = Chart({{"region", 3.0, 0.5, 5000.0, std::nullopt, false}});
   auto page = Page(svg::RenderForestChart(c));
   CHECK(Count(page, "path", "arrow") == 1);

@@ -128,7 +128,7 @@ TEST_CASE("contingency: a perfectly balanced table gives X^2 = 0 and p = 1") {
   CHECK(r.p() == 1.0);
 }
 
-TEST_CASE("contingency: rows and columns with a zero total are left out; one column means no test") {
+TEST_CASE("contingency: rows and columns with a zero total are left out, one column means no test") {
   auto r = PearsonIndependence({{10, 0, 5}, {0, 0, 0}, {4, 0, 9}}, 1);
   CHECK(r.df == 1);
   CHECK_THAT(r.statistic, WithinRel(PearsonStatistic({{10, 5}, {4, 9}}), 1e-15));

@@ -60,7 +60,7 @@ TEST_CASE("permutation: labels move only within their block") {
   CHECK(intact);
 }
 
-TEST_CASE("permutation: a seed reproduces the p-value; p is never zero; progress reaches the end") {
+TEST_CASE("permutation: a seed reproduces the p-value, p is never zero, progress reaches the end") {
   std::vector<double> v;
   std::vector<int32_t> labels;
   std::vector<int32_t> block;

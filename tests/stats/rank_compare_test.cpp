@@ -58,7 +58,7 @@ TEST_CASE("rank compare: an item shown in two lists keeps one label under permut
   CHECK(c.n_b == 4);
 }
 
-TEST_CASE("rank compare: a group always on top is detected; a null labelling is not") {
+TEST_CASE("rank compare: a group always on top is detected, a null labelling is not") {
   TwoGroupPositions top, null;
   for (int l = 0; l < 30; ++l) {
     std::vector<int32_t> block;
