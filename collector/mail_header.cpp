@@ -126,6 +126,17 @@ bool AllDigits(std::string_view s) {
          std::all_of(s.begin(), s.end(), [](char c) { return std::isdigit(static_cast<unsigned char>(c)); });
 }
 
+// The value of a run of 1..max_digits digits; nullopt for anything else.
+// std::stoi would throw on a run too long for an int (the mail fuzzer found
+// an mbox "From " line with a 60-digit year), and a damaged header must be
+// read as far as it goes, never stop the reading.
+std::optional<int> SmallNumber(std::string_view s, size_t max_digits) {
+  if (s.size() > max_digits || !AllDigits(s)) return std::nullopt;
+  int v = 0;
+  for (char c : s) v = v * 10 + (c - '0');
+  return v;
+}
+
 // "HH:MM[:SS]" → seconds of the day; -1 if malformed.
 int ParseClock(std::string_view t) {
   int h = 0, m = 0, s = 0;
@@ -295,7 +306,11 @@ MimeValue ParseMimeValue(std::string_view value) {
     if (size_t star = name.find('*'); star != std::string::npos) {
       std::string idx = name.substr(star + 1);
       name.resize(star);
-      index = AllDigits(idx) ? std::stoi(idx) : 0;
+      if (AllDigits(idx)) {
+        auto n = SmallNumber(idx, 4);  // RFC 2231 section 3: sections are numbered 0, 1, 2 …
+        if (!n) continue;              // an index no sender writes: drop that piece
+        index = *n;
+      }
     }
     continued[name][index] = {raw, extended};
   }
@@ -368,11 +383,11 @@ std::optional<int64_t> ParseMailDate(std::string_view value) {
   size_t k = 0;
   if (k < w.size() && !AllDigits(w[k])) ++k;  // day of week
   if (k + 2 >= w.size()) return std::nullopt;
-  if (!AllDigits(w[k])) return std::nullopt;
-  int day = std::stoi(std::string(w[k]));
+  auto day = SmallNumber(w[k], 2);  // RFC 5322 section 3.3: day = 1*2DIGIT
   int month = MonthNumber(w[k + 1]);
-  if (!month || !AllDigits(w[k + 2])) return std::nullopt;
-  int year = std::stoi(std::string(w[k + 2]));
+  auto year_number = SmallNumber(w[k + 2], 4);
+  if (!day || !month || !year_number) return std::nullopt;
+  int year = *year_number;
   if (w[k + 2].size() <= 2)
     year += year < 50 ? 2000 : 1900;  // RFC 5322 section 4.3
   else if (w[k + 2].size() == 3)
@@ -383,7 +398,7 @@ std::optional<int64_t> ParseMailDate(std::string_view value) {
     if (clock < 0) return std::nullopt;
   }
   int offset = k + 4 < w.size() ? ZoneOffset(w[k + 4]) : 0;
-  auto t = EpochOf(year, month, day, clock);
+  auto t = EpochOf(year, month, *day, clock);
   if (!t) return std::nullopt;
   return *t - offset;
 }
@@ -393,10 +408,11 @@ std::optional<int64_t> ParseMboxFromLineDate(std::string_view line) {
   // From SENDER DOW MON DAY HH:MM:SS YEAR
   for (size_t k = 2; k + 3 < w.size(); ++k) {
     int month = MonthNumber(w[k]);
-    if (!month || w[k].size() != 3 || !AllDigits(w[k + 1]) || !AllDigits(w[k + 3])) continue;
+    auto day = SmallNumber(w[k + 1], 2), year = SmallNumber(w[k + 3], 4);
+    if (!month || w[k].size() != 3 || !day || !year) continue;
     int clock = ParseClock(w[k + 2]);
     if (clock < 0) continue;
-    return EpochOf(std::stoi(std::string(w[k + 3])), month, std::stoi(std::string(w[k + 1])), clock);
+    return EpochOf(*year, month, *day, clock);
   }
   return std::nullopt;
 }

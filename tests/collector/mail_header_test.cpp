@@ -96,3 +96,21 @@ TEST_CASE("mail header: the asctime date of an mbox From line") {
   CHECK(ParseMboxFromLineDate("From - Thu Mar 04 09:15:00 2027") == 1804151700);
   CHECK_FALSE(ParseMboxFromLineDate("From the whole team at the bakehouse").has_value());
 }
+
+// Found by tests/fuzz/mail_fuzzer: std::stoi threw on a digit run too long
+// for an int, which stopped `twinprobe mail` with an internal error.
+TEST_CASE("mail header: an mbox From line with a year too long for a number is no date, not a crash") {
+  const std::string year(60, '9');
+  CHECK_FALSE(ParseMboxFromLineDate("From renee.halvard@brakkeport-freight.example Thu Mar  4 16:02:00 " + year));
+  CHECK_FALSE(ParseMboxFromLineDate("From - Thu Mar 444444444444444444444 16:02:00 2027"));
+  CHECK(ParseMboxFromLineDate("From - Thu Mar  4 09:15:00 2027") == 1804151700);  // the reading is unchanged
+}
+
+TEST_CASE("mail header: over-long numbers in a Date and an RFC 2231 index are damage, not a crash") {
+  CHECK_FALSE(ParseMailDate("Thu, 04 Mar " + std::string(40, '2') + " 10:15:00 +0100"));
+  CHECK_FALSE(ParseMailDate("Thu, " + std::string(40, '4') + " Mar 2027 10:15:00 +0100"));
+  CHECK(ParseMailDate("Thu, 04 Mar 2027 10:15:00 +0100") == 1804151700);
+  // The piece with an impossible index is dropped; the rest still joins.
+  MimeValue cd = ParseMimeValue("attachment; filename*0=\"cv\"; filename*99999999999=\"x\"; filename*1=\".pdf\"");
+  CHECK(cd.Param("filename") == "cv.pdf");
+}

@@ -104,3 +104,20 @@ TEST_CASE("mail source: the canonical form makes CRLF and LF copies of a message
   CHECK(CanonicalRaw(mbox.value()[7].raw) == CanonicalRaw(maildir.value()[0].raw));
   CHECK(mbox.value()[7].raw != maildir.value()[0].raw);
 }
+
+// Found by tests/fuzz/mail_fuzzer: a "From " line whose year is a 60-digit
+// number made ReadMbox throw (std::out_of_range from std::stoi) instead of
+// reading the line as text of the message before it.
+TEST_CASE("mail source: a From line with a year too long for a number is message text, not a crash") {
+  testing::TempDir dir;
+  testing::WriteFile(dir / "a.mbox",
+                     "From hanne.ostrel@orlinde-bakehouse.example Thu Mar  4 09:15:00 2027\n"
+                     "Subject: first\n\nbody one\n\n"
+                     "From renee.halvard@brakkeport-freight.example Thu Mar  4 16:02:00 " + std::string(60, '9') + "\n"
+                     "Subject: second\n\nbody two\n");
+  auto r = ReadMbox(dir / "a.mbox");
+  REQUIRE(r.ok());
+  REQUIRE(r.value().size() == 1);
+  CHECK(r.value()[0].raw.find("\nFrom renee.halvard@brakkeport-freight.example Thu Mar  4 16:02:00 999") !=
+        std::string::npos);
+}
