@@ -35,6 +35,30 @@ void DropSeparatorLine(std::string& raw) {
     raw.resize(raw.size() - 2);
 }
 
+// Why a file is not an mbox, in the terms of what it most likely is: a
+// single message file and a compressed or UTF-16 export each get their own
+// fix, since "no 'From ' line" reads as wrong to someone who sees "From:".
+Error NotAnMbox(const std::string& path, std::string_view text) {
+  const std::string where = path + ":1:1";
+  if (text.rfind("\x1F\x8B", 0) == 0)
+    return BadInput(where, "this is a gzip-compressed file, not an mbox file", "unpack it first (gunzip) and pass the result");
+  if (text.rfind("\xFF\xFE", 0) == 0 || text.rfind("\xFE\xFF", 0) == 0)
+    return BadInput(where, "this file is UTF-16 text, not an mbox file",
+                    "export the mailbox in mbox format (mail clients write it as 8-bit text)");
+  size_t colon = text.find(':');
+  size_t name_end = 0;
+  while (name_end < text.size() && name_end < 80 && text[name_end] > ' ' && text[name_end] < 0x7F && text[name_end] != ':')
+    ++name_end;
+  if (colon == name_end && name_end > 0 && name_end < text.size())
+    return BadInput(where,
+                    "this is a single message, not an mbox file: it starts with a '" +
+                        std::string(text.substr(0, name_end)) + ":' header, not a 'From ' line",
+                    "put message files in the new/ folder of a Maildir and pass that with --maildir, or export the "
+                    "mailbox in mbox format");
+  return BadInput(where, "this is not an mbox file: it does not start with a 'From ' line",
+                  "pass a Maildir folder with --maildir, or export the mailbox in mbox format");
+}
+
 }  // namespace
 
 std::string CanonicalRaw(const std::string& raw) {
@@ -55,10 +79,11 @@ Result<std::vector<RawMail>> ReadMbox(const std::string& path) {
     return BadInput(path, "this is a folder, not an mbox file", "pass a Maildir folder with --maildir");
   if (!ReadWhole(path, text)) return BadInput(path, "cannot read the mbox file", "check the path");
   std::vector<RawMail> out;
+  // A UTF-8 byte order mark (an editor's, never mail's) is skipped, so no
+  // response is lost to it; line numbers are unchanged.
+  if (text.rfind("\xEF\xBB\xBF", 0) == 0) text.erase(0, 3);
   if (text.empty()) return out;
-  if (text.rfind("From ", 0) != 0)
-    return BadInput(path + ":1:1", "this is not an mbox file: it does not start with a 'From ' line",
-                    "pass a Maildir folder with --maildir, or export the mailbox in mbox format");
+  if (text.rfind("From ", 0) != 0) return NotAnMbox(path, text);
   RawMail* current = nullptr;
   bool previous_empty = true;
   size_t pos = 0;
@@ -90,6 +115,8 @@ Result<std::vector<RawMail>> ReadMbox(const std::string& path) {
 }
 
 Result<std::vector<RawMail>> ReadMaildir(const std::string& dir) {
+  if (fs::exists(dir) && !fs::is_directory(dir))
+    return BadInput(dir, "this is a file, not a Maildir folder", "pass an mbox file with --mbox");
   if (!fs::is_directory(dir)) return BadInput(dir, "no such folder", "check the path of the Maildir folder");
   if (!fs::is_directory(fs::path(dir) / "cur") || !fs::is_directory(fs::path(dir) / "new"))
     return BadInput(dir, "this is not a Maildir folder: it has no cur/ and new/ folders",

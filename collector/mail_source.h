@@ -23,14 +23,16 @@ struct RawMail {
 // line before the next separator is the separator's, not the message's. In
 // each message one '>' is removed from lines matching ^>+From (the mboxrd
 // rule; in mboxo files it restores the common case). An empty file holds no
-// messages. Errors: the file cannot be read ("PATH: cannot read the mbox
-// file"); it does not start with "From " ("PATH:1:1: … is not an mbox file").
+// messages; a leading UTF-8 byte order mark is skipped. Errors: the file
+// cannot be read ("PATH: cannot read the mbox file"); it does not start with
+// "From " ("PATH:1:1: … not an mbox file", naming a single message file, a
+// gzip-compressed file or UTF-16 text when it is one of those).
 Result<std::vector<RawMail>> ReadMbox(const std::string& path);
 
 // Reads a Maildir folder: every file in new/ and then cur/, each in name
 // order (names starting with '.' are skipped). The delivery time is the
-// number a Maildir file name starts with. Errors: the folder does not exist
-// or has no cur/ and new/ folders.
+// number a Maildir file name starts with. Errors: the folder does not exist,
+// is a file, or has no cur/ and new/ folders.
 Result<std::vector<RawMail>> ReadMaildir(const std::string& dir);
 
 // The form of a message that identifies it whatever the mailbox: CRLF made

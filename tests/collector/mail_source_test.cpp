@@ -55,7 +55,7 @@ TEST_CASE("mail source: an empty mbox holds no messages, a wrong file is refused
   REQUIRE(empty.ok());
   CHECK(empty.value().empty());
 
-  testing::WriteFile(dir / "notes.txt", "Subject: hello\n\nnot an mbox\n");
+  testing::WriteFile(dir / "notes.txt", "call the bakehouse back\n\nnot an mbox\n");
   auto wrong = ReadMbox(dir / "notes.txt");
   REQUIRE_FALSE(wrong.ok());
   CHECK(wrong.error().Message() == dir / "notes.txt" +
@@ -92,6 +92,9 @@ TEST_CASE("mail source: a folder without cur/ and new/ is not a Maildir") {
   auto missing = ReadMaildir(dir / "nothing");
   REQUIRE_FALSE(missing.ok());
   CHECK(missing.error().what == "no such folder");
+  auto file = ReadMaildir(dir / "box/new/1.x");  // an mbox or message file passed as a Maildir
+  REQUIRE_FALSE(file.ok());
+  CHECK(file.error().Message() == dir / "box/new/1.x" + ": this is a file, not a Maildir folder \u2014 pass an mbox file with --mbox");
 }
 
 TEST_CASE("mail source: the canonical form makes CRLF and LF copies of a message equal") {
@@ -120,4 +123,33 @@ TEST_CASE("mail source: a From line with a year too long for a number is message
   REQUIRE(r.value().size() == 1);
   CHECK(r.value()[0].raw.find("\nFrom renee.halvard@brakkeport-freight.example Thu Mar  4 16:02:00 999") !=
         std::string::npos);
+}
+
+TEST_CASE("mail source: a message file, a gzip or UTF-16 export is refused as what it is; a byte order mark is skipped") {
+  testing::TempDir dir;
+  const std::string message = "Return-Path: <hanne.ostrel@orlinde-bakehouse.example>\nSubject: hello\n\nbody\n";
+  const std::string mbox = "From hanne.ostrel@orlinde-bakehouse.example Thu Mar  4 09:15:00 2027\n" + message;
+  auto refusal = [&](const std::string& name, const std::string& bytes) {
+    testing::WriteFile(dir / name, bytes);
+    auto r = ReadMbox(dir / name);
+    REQUIRE_FALSE(r.ok());
+    CHECK(r.error().where == dir / name + ":1:1");
+    return r.error().what + " \u2014 " + r.error().fix;
+  };
+  CHECK(refusal("one.eml", message) ==
+        "this is a single message, not an mbox file: it starts with a 'Return-Path:' header, not a 'From ' line "
+        "\u2014 put message files in the new/ folder of a Maildir and pass that with --maildir, or export the "
+        "mailbox in mbox format");
+  CHECK(refusal("inbox.mbox.gz", std::string("\x1F\x8B\x08\x00", 4) + "rest") ==
+        "this is a gzip-compressed file, not an mbox file \u2014 unpack it first (gunzip) and pass the result");
+  CHECK(refusal("utf16.mbox", std::string("\xFF\xFE" "F\0r\0o\0m\0", 10)) ==
+        "this file is UTF-16 text, not an mbox file \u2014 export the mailbox in mbox format (mail clients write "
+        "it as 8-bit text)");
+
+  testing::WriteFile(dir / "bom.mbox", "\xEF\xBB\xBF" + mbox);
+  auto bom = ReadMbox(dir / "bom.mbox");
+  REQUIRE(bom.ok());
+  REQUIRE(bom.value().size() == 1);
+  CHECK(bom.value()[0].raw == message);
+  CHECK(bom.value()[0].envelope_time == 1804151700);
 }

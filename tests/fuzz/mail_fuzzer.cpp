@@ -86,12 +86,15 @@ void CheckMbox(std::string_view bytes) {
   }
   auto mails = ReadMbox(path);
   std::remove(path.c_str());
+  std::string_view text = bytes;
+  if (text.rfind("\xEF\xBB\xBF", 0) == 0) text.remove_prefix(3);  // skipped by ReadMbox
   if (!mails.ok()) {
-    FUZZ_CHECK(bytes.rfind("From ", 0) != 0);
+    FUZZ_CHECK(text.rfind("From ", 0) != 0);
     FUZZ_CHECK(mails.error().where == path + ":1:1");
+    FUZZ_CHECK(!mails.error().what.empty() && !mails.error().fix.empty());
     return;
   }
-  FUZZ_CHECK(bytes.empty() || bytes.rfind("From ", 0) == 0);
+  FUZZ_CHECK(text.empty() || text.rfind("From ", 0) == 0);
   size_t total = 0;
   for (const RawMail& r : mails.value()) {
     FUZZ_CHECK(r.where.rfind(path + ":", 0) == 0);

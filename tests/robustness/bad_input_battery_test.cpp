@@ -1,6 +1,8 @@
-// The bad-input battery (issue 12): malformed design files, CSVs and
-// commands, each giving exactly one error line (asserted in full), exit code
-// 1, and an unchanged store. The cases live in bad_input_battery.json:
+// The bad-input battery (issue 12): malformed design files, CSVs, commands,
+// listing inputs (ranks and labels files, [[source]] fetch and extraction
+// rules) and mailboxes (mbox files, Maildir folders, IMAP URLs, [mail]),
+// each giving exactly one error line (asserted in full), exit code 1, and an
+// unchanged store. The cases live in bad_input_battery.json:
 //   name    what is wrong
 //   edit    {file, from, to | to_hex}: replace the first `from` in a fixture file
 //   write   {file, text | hex}: write a file (text is written as Latin-1 bytes)
@@ -51,7 +53,9 @@ std::string StoreState(const std::string& db) {
   auto store = Store::Open(db, false);
   REQUIRE(store.ok());
   std::string state = AuditHead(*store.value());
-  for (const char* t : {"plan", "vacancy", "probe", "profile", "response", "sending", "decline", "employer", "meta"})
+  for (const char* t : {"plan", "vacancy", "probe", "profile", "response", "sending", "decline", "employer", "meta",
+                        "import_file", "listing", "listing_item", "item_label", "fetch_log", "mail_message",
+                        "review_decision"})
     state += std::string("|") + t + "=" + std::to_string(store.value()->QueryInt(std::string("SELECT count(*) FROM ") + t));
   return state;
 }
@@ -65,7 +69,7 @@ TEST_CASE("bad-input battery: every malformed input gets its exact message, exit
   REQUIRE(testing::RunCli({"--study", base, "plan"}).exit_code == 0);
 
   auto cases = nlohmann::json::parse(testing::ReadFile(testing::SourceDir() + "/tests/robustness/bad_input_battery.json"));
-  REQUIRE(cases.size() >= 50);
+  REQUIRE(cases.size() >= 125);  // 68 design, CSV and command cases; 57 listing and mail cases
   int n = 0;
   for (const auto& c : cases) {
     std::string study = dir / ("case" + std::to_string(n++));
