@@ -58,14 +58,7 @@ Status PrepareFolder(const std::string& dir) {
   }
   fs::create_directories(dir);
   std::ofstream(fs::path(dir) / kMarker) << "made by 'twinprobe demo'; the next demo run may replace this folder\n";
-  for (const auto& f : DemoStudyFiles()) {
-    fs::path p = fs::path(dir) / std::string(f.path);
-    fs::create_directories(p.parent_path());
-    std::ofstream out(p, std::ios::binary);
-    out << f.content;
-    if (!out) return BadInput(p.string(), "cannot write the file", "check that the folder is writable");
-  }
-  return {};
+  return WriteExampleStudyFiles(dir);
 }
 
 // Sends every planned probe and records the simulated responses in one
