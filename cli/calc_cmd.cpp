@@ -17,6 +17,7 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
+#include "report/json_number.h"
 #include "stats/adjust.h"
 #include "stats/binomial.h"
 #include "stats/exact_stratified.h"
@@ -109,13 +110,7 @@ Result<std::array<int64_t, 4>> ParseTable(const std::string& where, const std::s
 
 // ---- output ----
 
-nlohmann::json Num(double v) {
-  if (std::isinf(v)) return v > 0 ? "Inf" : "-Inf";
-  if (std::isnan(v)) return nullptr;
-  return v;
-}
-
-nlohmann::json Ci(const stats::Interval& ci) { return nlohmann::json::array({Num(ci.low), Num(ci.high)}); }
+nlohmann::json Ci(const stats::Interval& ci) { return nlohmann::json::array({JsonNumber(ci.low), JsonNumber(ci.high)}); }
 
 std::string Fmt(double v) {
   if (std::isnan(v)) return "undefined";
@@ -145,8 +140,8 @@ std::string Percent(double conf) {
 }
 
 void PutP(nlohmann::json& j, const std::string& key, const PValue& p) {
-  j[key] = Num(p.p);
-  j["log10_" + key] = Num(p.log10_p);
+  j[key] = JsonNumber(p.p);
+  j["log10_" + key] = JsonNumber(p.log10_p);
 }
 
 std::string Line(const std::string& label, const std::string& value) {
@@ -200,7 +195,7 @@ int RunBinom(const Context& ctx, const Options& o) {
                      {"alternative", AlternativeName(alt.value())},
                      {"conf_level", conf.value()},
                      {"statistic", x.value()},
-                     {"estimate", Num(r.estimate)},
+                     {"estimate", JsonNumber(r.estimate)},
                      {"conf_int", Ci(r.ci)},
                      {"conf_int_method", "Clopper-Pearson"},
                      {"wilson_conf_int", Ci(wilson)}};
@@ -236,13 +231,13 @@ int RunMcNemar(const Context& ctx, const Options& o) {
                      {"conf_level", conf.value()},
                      {"statistic", pc.b},
                      {"discordant", pc.discordant()},
-                     {"estimate", Num(cor.estimate)},
+                     {"estimate", JsonNumber(cor.estimate)},
                      {"conf_int", Ci(cor.ci)},
                      {"estimate_name", "conditional odds ratio b/c"},
-                     {"chi2", Num(m.chi2)},
-                     {"chi2_corrected", Num(m.chi2_corrected)},
-                     {"net_discrimination_among_positive", {{"estimate", Num(net.among_positive.estimate)}, {"conf_int", Ci(net.among_positive.ci)}}},
-                     {"net_discrimination_over_all", {{"estimate", Num(net.over_all.estimate)}, {"conf_int", Ci(net.over_all.ci)}}}};
+                     {"chi2", JsonNumber(m.chi2)},
+                     {"chi2_corrected", JsonNumber(m.chi2_corrected)},
+                     {"net_discrimination_among_positive", {{"estimate", JsonNumber(net.among_positive.estimate)}, {"conf_int", Ci(net.among_positive.ci)}}},
+                     {"net_discrimination_over_all", {{"estimate", JsonNumber(net.over_all.estimate)}, {"conf_int", Ci(net.over_all.ci)}}}};
     PutP(j, "p_value", m.exact);
     PutP(j, "mid_p_value", m.mid_p);
     PutP(j, "chi2_p_value", m.chi2_p);
@@ -291,13 +286,13 @@ int RunFisher(const Context& ctx, const Options& o) {
                      {"alternative", AlternativeName(alt.value())},
                      {"conf_level", conf.value()},
                      {"statistic", tab.a},
-                     {"estimate", Num(r.estimate)},
+                     {"estimate", JsonNumber(r.estimate)},
                      {"estimate_name", "conditional maximum-likelihood odds ratio"},
                      {"conf_int", Ci(r.ci)},
-                     {"sample_odds_ratio", Num(woolf.estimate)},
+                     {"sample_odds_ratio", JsonNumber(woolf.estimate)},
                      {"woolf_conf_int", Ci(woolf.ci)},
-                     {"rate_reference", Num(rate(tab.a, tab.a + tab.b))},
-                     {"rate_other", Num(rate(tab.c, tab.c + tab.d))}};
+                     {"rate_reference", JsonNumber(rate(tab.a, tab.a + tab.b))},
+                     {"rate_other", JsonNumber(rate(tab.c, tab.c + tab.d))}};
     PutP(j, "p_value", r.p);
     std::cout << j.dump(2) << "\n";
     return 0;
@@ -336,26 +331,26 @@ int RunMh(const Context& ctx, const Options& o) {
                      {"strata", strata.size()},
                      {"strata_used", mh.strata_used},
                      {"conf_level", conf.value()},
-                     {"mantel_haenszel_estimate", Num(mh.estimate)},
+                     {"mantel_haenszel_estimate", JsonNumber(mh.estimate)},
                      {"mantel_haenszel_conf_int", Ci(mh.ci)},
-                     {"chi2_corrected", Num(mh.chi2_corrected)},
-                     {"chi2", Num(mh.chi2)},
-                     {"breslow_day", {{"statistic", Num(bd.statistic)}, {"df", Num(bd.df)}, {"p_value", Num(bd.p.p)},
-                                      {"tarone_statistic", Num(bd.tarone)}, {"tarone_p_value", Num(bd.tarone_p.p)}}}};
+                     {"chi2_corrected", JsonNumber(mh.chi2_corrected)},
+                     {"chi2", JsonNumber(mh.chi2)},
+                     {"breslow_day", {{"statistic", JsonNumber(bd.statistic)}, {"df", JsonNumber(bd.df)}, {"p_value", JsonNumber(bd.p.p)},
+                                      {"tarone_statistic", JsonNumber(bd.tarone)}, {"tarone_p_value", JsonNumber(bd.tarone_p.p)}}}};
     PutP(j, "chi2_p_value", mh.chi2_p);
     PutP(j, "chi2_corrected_p_value", mh.chi2_corrected_p);
     if (exact) {
       j["statistic"] = exact->statistic;
       j["p_value_method"] = "exact conditional (product hypergeometric)";
       PutP(j, "p_value", exact->p);
-      j["estimate"] = Num(exact->estimate);
+      j["estimate"] = JsonNumber(exact->estimate);
       j["estimate_name"] = "conditional maximum-likelihood common odds ratio";
       j["conf_int"] = Ci(exact->ci);
     } else {
-      j["statistic"] = Num(mh.chi2_corrected);
+      j["statistic"] = JsonNumber(mh.chi2_corrected);
       j["p_value_method"] = "Cochran-Mantel-Haenszel chi-squared with continuity correction";
       PutP(j, "p_value", mh.chi2_corrected_p);
-      j["estimate"] = Num(mh.estimate);
+      j["estimate"] = JsonNumber(mh.estimate);
       j["estimate_name"] = "Mantel-Haenszel common odds ratio";
       j["conf_int"] = Ci(mh.ci);
     }

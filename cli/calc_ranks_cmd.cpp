@@ -12,18 +12,13 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
+#include "report/json_number.h"
 #include "report/text_report.h"
 #include "stats/wasserstein.h"
 #include "stats/wilcoxon.h"
 
 namespace twinprobe {
 namespace {
-
-nlohmann::json Num(double v) {
-  if (std::isinf(v)) return v > 0 ? "Inf" : "-Inf";
-  if (std::isnan(v)) return nullptr;
-  return v;
-}
 
 // "1.5,2,-3" -> numbers. `option` names the flag in the message.
 Result<std::vector<double>> ParseNumbers(const std::string& text, const std::string& option) {
@@ -99,8 +94,8 @@ int RunWilcoxon(Context& ctx, const WilcoxonOptions& o) {
                      {"statistic_name", (y.empty() || o.paired) ? "V" : "W"},
                      {"alternative", o.alternative},
                      {"estimate_name", (y.empty() || o.paired) ? "Hodges-Lehmann (pseudo)median" : "Hodges-Lehmann location shift"},
-                     {"p_value", Num(r.p_value)},
-                     {"estimate", Num(r.estimate)},
+                     {"p_value", JsonNumber(r.p_value)},
+                     {"estimate", JsonNumber(r.estimate)},
                      {"exact", r.exact},
                      {"n", r.n},
                      {"zeros", r.zeros},

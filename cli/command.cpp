@@ -2,11 +2,13 @@
 
 #include <algorithm>
 #include <filesystem>
+#include <fstream>
 #include <iostream>
 #include <vector>
 
 #include "core/meta.h"
 #include "planner/design_file.h"
+#include "templates/embedded.h"
 
 namespace twinprobe {
 namespace {
@@ -63,6 +65,18 @@ Result<StudySettings> LoadStudySettings(const Context& ctx, Store& store) {
     if (auto h = MetaValue(store, "ethics.decline_within_hours")) s.ethics.decline_within_hours = std::stoi(*h);
   }
   return s;
+}
+
+Status WriteExampleStudyFiles(const std::string& dir) {
+  namespace fs = std::filesystem;
+  for (const auto& f : DemoStudyFiles()) {
+    fs::path p = fs::path(dir) / std::string(f.path);
+    fs::create_directories(p.parent_path());
+    std::ofstream out(p, std::ios::binary);
+    out << f.content;
+    if (!out) return BadInput(p.string(), "cannot write the file", "check that the folder is writable");
+  }
+  return {};
 }
 
 }  // namespace twinprobe

@@ -55,4 +55,9 @@ struct StudySettings {
 };
 Result<StudySettings> LoadStudySettings(const Context& ctx, Store& store);
 
+// Writes the embedded example study (templates/demo: study.toml, vacancies,
+// name pools, templates) into `dir`, overwriting files of the same name;
+// `init` and `demo` first make sure that is allowed.
+Status WriteExampleStudyFiles(const std::string& dir);
+
 }  // namespace twinprobe

@@ -15,6 +15,7 @@
 #include "core/sha256.h"
 #include "cli/report_cmd.h"
 #include "report/html_report.h"
+#include "planner/freeze.h"
 #include "planner/plan_store.h"
 #include "planner/study_check.h"
 #include "report/json_report.h"
@@ -57,14 +58,7 @@ Status PrepareFolder(const std::string& dir) {
   }
   fs::create_directories(dir);
   std::ofstream(fs::path(dir) / kMarker) << "made by 'twinprobe demo'; the next demo run may replace this folder\n";
-  for (const auto& f : DemoStudyFiles()) {
-    fs::path p = fs::path(dir) / std::string(f.path);
-    fs::create_directories(p.parent_path());
-    std::ofstream out(p, std::ios::binary);
-    out << f.content;
-    if (!out) return BadInput(p.string(), "cannot write the file", "check that the folder is writable");
-  }
-  return {};
+  return WriteExampleStudyFiles(dir);
 }
 
 // Sends every planned probe and records the simulated responses in one
@@ -138,6 +132,10 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
   }
   auto planned = StorePlan(*store.value(), s.design, s.vacancies, plan.value());
   if (!planned.ok()) return ReportError(planned.error());
+  // Pre-register before any fieldwork, as a real study should (docs/freeze.md),
+  // so the report shows a prospective registration and no deviations.
+  auto frozen = FreezeStudy(*store.value(), s.design);
+  if (!frozen.ok()) return ReportError(frozen.error());
   DemoModel model;
   int64_t responses = SimulateFieldwork(*store.value(), s.design.outcomes, model);
   // The listing-audit part: invented candidate rankings of an invented job
@@ -163,6 +161,8 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
   std::cout << "twinprobe demo: an invented study in the invented country of Veldmark\n"
             << "  planned   " << planned.value().probes << " probes to " << planned.value().vacancies
             << " vacancies (4 occupations x 3 regions)\n"
+            << "  froze     the design (sha256 " << frozen.value().design_sha256.substr(0, 16)
+            << "...) and the analysis plan before fieldwork\n"
             << "  simulated " << responses << " employer responses; true callback rates 27.8% (inland) vs 19.4% (coastal)\n"
             << "  imported  " << ranks.value().listings << " invented candidate rankings of Kestrel Board (invented) for the listing audit\n"
             << "  audit     " << (audit.ok() ? "chain intact, " : "CHAIN BROKEN, ") << audit.entries << " entries\n\n"

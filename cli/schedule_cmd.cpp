@@ -1,10 +1,14 @@
-// `twinprobe schedule [--due DATE] [--all]`: what to send and when.
+// `twinprobe schedule [--due DATE] [--all]`: what to send and when. Overdue
+// declines come first (ethics/README.md): an invitation not yet declined holds
+// an employer's vacancy, which matters more than the next sending.
 #include <cstdio>
 #include <iostream>
+#include <vector>
 
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
+#include "collector/declines.h"
 #include "core/clock.h"
 #include "planner/schedule.h"
 
@@ -15,6 +19,42 @@ struct ScheduleOptions {
   std::string due;
   bool all = false;
 };
+
+nlohmann::json DeclinesJson(const std::vector<PendingDecline>& declines) {
+  nlohmann::json rows = nlohmann::json::array();
+  for (const auto& d : declines)
+    rows.push_back({{"probe", d.probe_ref},
+                    {"vacancy", d.vacancy_ref},
+                    {"employer", d.employer_key},
+                    {"profile", d.profile},
+                    {"code", d.code},
+                    {"received_at", d.received_at},
+                    {"decline_by", FormatIsoTime(d.deadline)},
+                    {"overdue", d.overdue}});
+  return rows;
+}
+
+// Overdue declines first, then those still within their deadline.
+void PrintDeclines(const std::vector<PendingDecline>& declines, int hours) {
+  if (declines.empty()) return;
+  size_t overdue = 0;
+  for (const auto& d : declines) overdue += d.overdue;
+  if (overdue > 0)
+    std::cout << "OVERDUE: " << overdue << (overdue == 1 ? " invitation or offer" : " invitations or offers")
+              << " not declined within " << hours << " hours. Decline now with ethics/letters/decline-invitation.md, "
+              << "then run 'twinprobe decline PROBE':\n";
+  else
+    std::cout << declines.size() << (declines.size() == 1 ? " invitation or offer" : " invitations or offers")
+              << " to decline (ethics/letters/decline-invitation.md, then 'twinprobe decline PROBE'):\n";
+  for (const auto& d : declines) {
+    if (overdue > 0 && !d.overdue && &d == &declines[overdue])
+      std::cout << "Still within the deadline:\n";
+    std::cout << "  " << (d.overdue ? "overdue " : "due     ") << FormatIsoTime(d.deadline) << "  " << d.probe_ref
+              << "  " << d.vacancy_ref << "  " << d.employer_key << "  " << d.code << " received " << d.received_at
+              << "\n";
+  }
+  std::cout << "\n";
+}
 
 int RunSchedule(Context& ctx, const ScheduleOptions& o) {
   ScheduleQuery query;
@@ -31,6 +71,11 @@ int RunSchedule(Context& ctx, const ScheduleOptions& o) {
   auto list = ListSchedule(*store.value(), query);
   if (!list.ok()) return ReportError(list.error());
   const auto& probes = list.value();
+  auto settings = LoadStudySettings(ctx, *store.value());
+  if (!settings.ok()) return ReportError(settings.error());
+  const int hours = settings.value().ethics.decline_within_hours;
+  std::vector<PendingDecline> declines;
+  if (hours > 0) declines = PendingDeclines(*store.value(), settings.value().outcomes, hours, NowEpoch());
   if (ctx.json) {
     nlohmann::json rows = nlohmann::json::array();
     for (const auto& p : probes)
@@ -47,12 +92,14 @@ int RunSchedule(Context& ctx, const ScheduleOptions& o) {
                       {"sent_at", p.sent_at.empty() ? nlohmann::json() : nlohmann::json(p.sent_at)}});
     std::cout << nlohmann::json{{"due", o.due.empty() ? nlohmann::json() : nlohmann::json(o.due)},
                                 {"include_sent", o.all},
+                                {"declines", DeclinesJson(declines)},
                                 {"count", probes.size()},
                                 {"probes", rows}}
                      .dump(2)
               << "\n";
     return 0;
   }
+  PrintDeclines(declines, hours);
   std::cout << probes.size() << (probes.size() == 1 ? " probe" : " probes")
             << (o.all ? " in the plan" : " to send") << (o.due.empty() ? "" : " by " + o.due)
             << " (times UTC; mark each with 'twinprobe sent PROBE --at TIME'):\n";

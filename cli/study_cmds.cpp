@@ -26,14 +26,7 @@ Status WriteExampleStudy(const std::string& dir) {
     fs::path p = fs::path(dir) / std::string(f.path);
     if (fs::exists(p)) return BadInput(p.string(), "already exists", "init writes only into a folder without a study; choose another --study DIR");
   }
-  for (const auto& f : DemoStudyFiles()) {
-    fs::path p = fs::path(dir) / std::string(f.path);
-    fs::create_directories(p.parent_path());
-    std::ofstream out(p, std::ios::binary);
-    out << f.content;
-    if (!out) return BadInput(p.string(), "cannot write the file", "check that the folder is writable");
-  }
-  return {};
+  return WriteExampleStudyFiles(dir);
 }
 
 int RunInit(Context& ctx) {

@@ -3,6 +3,7 @@
 // charsets). Pure functions on strings; none of them fails: damaged input is
 // decoded as far as it goes, because a response must never be lost to a
 // stray byte (the review shows what came through).
+#include <cstdint>
 #include <string>
 #include <string_view>
 
@@ -23,6 +24,9 @@ std::string DecodeQEncoding(std::string_view text);
 
 // True if `bytes` is well-formed UTF-8 (no overlongs, no surrogates).
 bool IsUtf8(std::string_view bytes);
+
+// Appends code point `cp` (at most U+10FFFF) to `out` as UTF-8.
+void AppendUtf8(std::string& out, uint32_t cp);
 
 // Converts `bytes` in `charset` (a MIME charset name, any case) to UTF-8 with
 // glibc's iconv. us-ascii and iso-8859-1 are read as windows-1252, as the

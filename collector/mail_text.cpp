@@ -1,5 +1,7 @@
 #include "collector/mail_text.h"
 
+#include "collector/mail_codec.h"
+
 #include <locale.h>
 #include <wctype.h>
 
@@ -29,24 +31,6 @@ uint32_t DecodeAt(std::string_view s, size_t i, size_t& len) {
   }
   len = static_cast<size_t>(extra) + 1;
   return cp;
-}
-
-void Encode(std::string& out, uint32_t cp) {
-  if (cp < 0x80)
-    out += static_cast<char>(cp);
-  else if (cp < 0x800) {
-    out += static_cast<char>(0xC0 | (cp >> 6));
-    out += static_cast<char>(0x80 | (cp & 0x3F));
-  } else if (cp < 0x10000) {
-    out += static_cast<char>(0xE0 | (cp >> 12));
-    out += static_cast<char>(0x80 | ((cp >> 6) & 0x3F));
-    out += static_cast<char>(0x80 | (cp & 0x3F));
-  } else {
-    out += static_cast<char>(0xF0 | (cp >> 18));
-    out += static_cast<char>(0x80 | ((cp >> 12) & 0x3F));
-    out += static_cast<char>(0x80 | ((cp >> 6) & 0x3F));
-    out += static_cast<char>(0x80 | (cp & 0x3F));
-  }
 }
 
 locale_t Utf8Locale() {
@@ -216,7 +200,7 @@ SearchText MakeSearchText(std::string_view text) {
     if (cp == 0xFFFD && len == 1)
       st.folded += st.plain[i];
     else
-      Encode(st.folded, Lower(Plain(cp)));
+      AppendUtf8(st.folded, Lower(Plain(cp)));
     for (size_t k = before; k < st.folded.size(); ++k) st.origin.push_back(static_cast<uint32_t>(i));
     i += len;
   }

@@ -4,40 +4,35 @@
 #include <cstdio>
 #include <sstream>
 
+#include "report/json_number.h"
 #include "report/text_report.h"
 
 namespace twinprobe {
 namespace {
 
-nlohmann::json Num(double v) {
-  if (std::isinf(v)) return v > 0 ? "Inf" : "-Inf";
-  if (std::isnan(v)) return nullptr;
-  return v;
-}
+nlohmann::json Ci(const stats::Interval& ci) { return nlohmann::json::array({JsonNumber(ci.low), JsonNumber(ci.high)}); }
 
-nlohmann::json Ci(const stats::Interval& ci) { return nlohmann::json::array({Num(ci.low), Num(ci.high)}); }
+nlohmann::json P(const stats::PValue& p) { return {{"p", JsonNumber(p.p)}, {"log10_p", JsonNumber(p.log10_p)}}; }
 
-nlohmann::json P(const stats::PValue& p) { return {{"p", Num(p.p)}, {"log10_p", Num(p.log10_p)}}; }
-
-nlohmann::json Est(const stats::Estimate& e) { return {{"estimate", Num(e.estimate)}, {"conf_int", Ci(e.ci)}}; }
+nlohmann::json Est(const stats::Estimate& e) { return {{"estimate", JsonNumber(e.estimate)}, {"conf_int", Ci(e.ci)}}; }
 
 nlohmann::json ComparisonJson(const ArmComparison& c) {
-  nlohmann::json j{{"other_arm", c.other_label}, {"design", c.paired ? "paired" : "unpaired"}, {"p_value", Num(c.p.p)},
-                   {"log10_p_value", Num(c.p.log10_p)}, {"p_adjusted", Num(c.p_adjusted)}};
+  nlohmann::json j{{"other_arm", c.other_label}, {"design", c.paired ? "paired" : "unpaired"}, {"p_value", JsonNumber(c.p.p)},
+                   {"log10_p_value", JsonNumber(c.p.log10_p)}, {"p_adjusted", JsonNumber(c.p_adjusted)}};
   if (c.paired) {
     j["table"] = {{"a", c.pairs.a}, {"b", c.pairs.b}, {"c", c.pairs.c}, {"d", c.pairs.d}, {"n", c.pairs.n()}};
     j["mcnemar_exact"] = P(c.mcnemar.exact);
     j["mcnemar_mid_p"] = P(c.mcnemar.mid_p);
-    j["mcnemar_chi2"] = {{"statistic", Num(c.mcnemar.chi2)}, {"df", 1}, {"p", Num(c.mcnemar.chi2_p.p)}};
-    j["mcnemar_chi2_corrected"] = {{"statistic", Num(c.mcnemar.chi2_corrected)}, {"df", 1}, {"p", Num(c.mcnemar.chi2_corrected_p.p)}};
+    j["mcnemar_chi2"] = {{"statistic", JsonNumber(c.mcnemar.chi2)}, {"df", 1}, {"p", JsonNumber(c.mcnemar.chi2_p.p)}};
+    j["mcnemar_chi2_corrected"] = {{"statistic", JsonNumber(c.mcnemar.chi2_corrected)}, {"df", 1}, {"p", JsonNumber(c.mcnemar.chi2_corrected_p.p)}};
     j["conditional_odds_ratio"] = Est(c.conditional_or);
     j["net_discrimination_among_positive"] = Est(c.net.among_positive);
     j["paired_difference"] = Est(c.net.over_all);
   } else {
     j["table"] = {{"a", c.table.a}, {"b", c.table.b}, {"c", c.table.c}, {"d", c.table.d}, {"n", c.table.n()}};
-    j["fisher"] = {{"p", Num(c.fisher.p.p)}, {"log10_p", Num(c.fisher.p.log10_p)}, {"conditional_mle_odds_ratio", Num(c.fisher.estimate)},
+    j["fisher"] = {{"p", JsonNumber(c.fisher.p.p)}, {"log10_p", JsonNumber(c.fisher.p.log10_p)}, {"conditional_mle_odds_ratio", JsonNumber(c.fisher.estimate)},
                    {"conf_int", Ci(c.fisher.ci)}};
-    j["sample_odds_ratio"] = {{"estimate", Num(c.woolf.estimate)}, {"conf_int", Ci(c.woolf.ci)}, {"method", "Woolf"}};
+    j["sample_odds_ratio"] = {{"estimate", JsonNumber(c.woolf.estimate)}, {"conf_int", Ci(c.woolf.ci)}, {"method", "Woolf"}};
     j["reference_rate_wilson"] = Ci(c.reference_wilson);
     j["other_rate_wilson"] = Ci(c.other_wilson);
   }
@@ -114,13 +109,13 @@ nlohmann::json EffectsJson(const AnalysisResult& r) {
          {"other_arm", a.other_label},
          {"values", a.values},
          {"tables", tables},
-         {"mantel_haenszel", {{"estimate", Num(a.mh.estimate)}, {"conf_int", Ci(a.mh.ci)}, {"log_sd", Num(a.mh.log_sd)},
+         {"mantel_haenszel", {{"estimate", JsonNumber(a.mh.estimate)}, {"conf_int", Ci(a.mh.ci)}, {"log_sd", JsonNumber(a.mh.log_sd)},
                               {"strata_used", a.mh.strata_used}}},
-         {"cmh", {{"statistic", Num(a.mh.chi2)}, {"p", Num(a.mh.chi2_p.p)}, {"statistic_corrected", Num(a.mh.chi2_corrected)},
-                  {"p_corrected", Num(a.mh.chi2_corrected_p.p)}}},
-         {"breslow_day", {{"statistic", Num(a.breslow_day.statistic)}, {"df", Num(a.breslow_day.df)},
-                          {"p", Num(a.breslow_day.p.p)}, {"tarone_statistic", Num(a.breslow_day.tarone)},
-                          {"tarone_p", Num(a.breslow_day.tarone_p.p)}, {"strata_used", a.breslow_day.strata_used}}}});
+         {"cmh", {{"statistic", JsonNumber(a.mh.chi2)}, {"p", JsonNumber(a.mh.chi2_p.p)}, {"statistic_corrected", JsonNumber(a.mh.chi2_corrected)},
+                  {"p_corrected", JsonNumber(a.mh.chi2_corrected_p.p)}}},
+         {"breslow_day", {{"statistic", JsonNumber(a.breslow_day.statistic)}, {"df", JsonNumber(a.breslow_day.df)},
+                          {"p", JsonNumber(a.breslow_day.p.p)}, {"tarone_statistic", JsonNumber(a.breslow_day.tarone)},
+                          {"tarone_p", JsonNumber(a.breslow_day.tarone_p.p)}, {"strata_used", a.breslow_day.strata_used}}}});
   }
   return j;
 }

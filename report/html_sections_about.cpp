@@ -86,6 +86,21 @@ std::string MethodsText(const AnalysisResult& r, const ReportContext&) {
                 std::to_string(r.response_times.window_days) +
                 "-day observation window count as no answer. While windows are still open the curves underestimate.",
             "");
+  if (r.balance.present)
+    o += Item("Balance of the plan",
+              "Applications are counted by group against template, position in the sending order, stratum and "
+              "weekday; each table is tested with Pearson's chi-square test of independence without continuity "
+              "correction (as R's chisq.test with correct = FALSE), with a seeded Monte Carlo p-value from 9,999 "
+              "tables with the observed margins when expected counts are small. For what the plan balances by "
+              "construction, X\u00b2 = 0 and p = 1 are a proof of balance, not a test of chance.",
+              "Pearson, K. (1900), Philosophical Magazine 50:157\u2013175; Agresti, A. (2002), Categorical Data "
+              "Analysis, 2nd ed., section 3.2.1");
+  if (r.preregistration.frozen)
+    o += Item("Pre-registration",
+              "'twinprobe freeze' stored the SHA-256 of the design and of the analysis plan before the data came in. "
+              "The report compares both with the current ones; each change is listed as a deviation, and results it "
+              "touches are marked exploratory.",
+              "");
   if (r.employers.available)
     o += Item("Employer pseudonyms",
               "Employers are identified by a keyed hash (HMAC-SHA-256) of the normalised name under a secret kept in "

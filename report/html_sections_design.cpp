@@ -132,13 +132,14 @@ std::string DesignBalance(const AnalysisResult& r, const ReportContext&) {
       for (int64_t n : t.counts[i]) row.push_back(NumCell(std::to_string(n)));
       h.rows.push_back(row);
     }
-    o += RenderTable(h);
+    // Each table and its test line stay together as one item of the row.
+    o += "<div class=\"balance-item\">" + RenderTable(h);
     char test[160];
     if (t.test.df == 0) std::snprintf(test, sizeof test, "no test (a single column)");
     else
       std::snprintf(test, sizeof test, "X\u00b2 = %.2f, df = %d, p = %s%s", t.test.statistic, t.test.df,
                     FormatP(t.test.p()).c_str(), t.test.p_monte_carlo ? " (Monte Carlo: small expected counts)" : "");
-    o += html::Para(t.title + ": " + test);
+    o += "<p class=\"note\">" + EscapeHtml(test) + "</p></div>";
   }
   return html::Heading("Balance of the plan") +
          html::Para("Applications per group by template, position in the sending order, stratum and weekday of "
@@ -154,10 +155,11 @@ std::string DesignPreregistration(const AnalysisResult& r, const ReportContext&)
     return html::Heading("Pre-registration") +
            html::Para("The analysis plan was not registered with 'twinprobe freeze', so this report cannot show that the "
                       "analysis was fixed before the data came in.");
-  std::string o = html::Heading("Pre-registration") +
+  std::string o = html::Heading("Pre-registration") + "<div class=\"hashes\">" +
                   html::Facts({{"Frozen at", s.frozen_at},
                                {"Design hash at the freeze (SHA-256)", s.design_sha256},
-                               {"Analysis plan hash (SHA-256)", s.analysis_sha256}});
+                               {"Analysis plan hash (SHA-256)", s.analysis_sha256}}) +
+                  "</div>";
   if (s.deviations.empty()) return o + html::Para("The analysis follows the frozen plan: no deviation.");
   HtmlTable d;
   d.caption = "Deviations from the frozen plan";

@@ -43,6 +43,9 @@ table.cross td { font-size: 15px; }
 table.cross td.hl { background: var(--soft); font-weight: bold; }
 table.cross small { font-weight: normal; color: var(--muted); }
 .tables { display: flex; flex-wrap: wrap; gap: 0 32px; align-items: flex-start; }
+.balance-item table.data { margin-bottom: 2px; }
+.balance-item .note { margin: 0 0 16px; }
+.hashes dl.facts dd, dl.facts dd.hash { font-family: "DejaVu Sans Mono", monospace; font-size: 12.5px; }
 .headline { font-size: 18px; line-height: 1.45; font-weight: bold; max-width: 70ch; margin: 14px 0 6px; }
 figure { margin: 14px 0 22px; }
 .figure-body { display: flex; flex-wrap: wrap; gap: 10px 24px; align-items: flex-start; }

@@ -6,22 +6,16 @@
 
 #include "report/design_report.h"
 #include "report/effects_report.h"
+#include "report/json_number.h"
 
 namespace twinprobe {
 namespace {
-
-// JSON has no infinity; the calculators and reports write "Inf".
-nlohmann::json Num(double v) {
-  if (std::isinf(v)) return v > 0 ? "Inf" : "-Inf";
-  if (std::isnan(v)) return nullptr;
-  return v;
-}
 
 nlohmann::json Table(const stats::PairedCounts& t) {
   return {{"a", t.a}, {"b", t.b}, {"c", t.c}, {"d", t.d}, {"n", t.n()}};
 }
 
-nlohmann::json OptNum(const std::optional<double>& v) { return v ? Num(*v) : nlohmann::json(nullptr); }
+nlohmann::json OptNum(const std::optional<double>& v) { return v ? JsonNumber(*v) : nlohmann::json(nullptr); }
 
 nlohmann::json ListingComparisonJson(const ListingComparison& c) {
   return {{"factor", c.factor},
@@ -31,11 +25,11 @@ nlohmann::json ListingComparisonJson(const ListingComparison& c) {
           {"location", c.location},
           {"n_reference", c.n_reference},
           {"n_other", c.n_other},
-          {"exposure_gap", Num(c.exposure_gap)},
-          {"emd", Num(c.emd)},
-          {"mann_whitney_p", Num(c.mann_whitney_p)},
-          {"exposure_gap_p", Num(c.gap_p)},
-          {"emd_p", Num(c.emd_p)},
+          {"exposure_gap", JsonNumber(c.exposure_gap)},
+          {"emd", JsonNumber(c.emd)},
+          {"mann_whitney_p", JsonNumber(c.mann_whitney_p)},
+          {"exposure_gap_p", JsonNumber(c.gap_p)},
+          {"emd_p", JsonNumber(c.emd_p)},
           {"exposure_gap_p_adjusted", OptNum(c.gap_p_adjusted)},
           {"emd_p_adjusted", OptNum(c.emd_p_adjusted)}};
 }
@@ -61,11 +55,11 @@ nlohmann::json ListingAuditJson(const ListingAudit& a) {
     j["groups"].push_back({{"factor", g.factor},
                            {"group", g.label},
                            {"appearances", g.appearances},
-                           {"exposure", Num(g.exposure)},
-                           {"exposure_share", Num(g.exposure_share)},
-                           {"top_k_share", Num(g.top_k_share)},
-                           {"mean_position", Num(g.mean_position)},
-                           {"median_position", Num(g.median_position)}});
+                           {"exposure", JsonNumber(g.exposure)},
+                           {"exposure_share", JsonNumber(g.exposure_share)},
+                           {"top_k_share", JsonNumber(g.top_k_share)},
+                           {"mean_position", JsonNumber(g.mean_position)},
+                           {"median_position", JsonNumber(g.median_position)}});
   j["comparisons"] = nlohmann::json::array();
   for (const auto& c : a.overall) j["comparisons"].push_back(ListingComparisonJson(c));
   j["by_stratum"] = nlohmann::json::array();
@@ -78,20 +72,20 @@ nlohmann::json ListingAuditJson(const ListingAudit& a) {
          {"other", p.other},
          {"strata", p.strata},
          {"wilcoxon",
-          {{"statistic", p.wilcoxon.statistic}, {"p_value", Num(p.wilcoxon.p_value)}, {"estimate", Num(p.wilcoxon.estimate)},
+          {{"statistic", p.wilcoxon.statistic}, {"p_value", JsonNumber(p.wilcoxon.p_value)}, {"estimate", JsonNumber(p.wilcoxon.estimate)},
            {"exact", p.wilcoxon.exact}}},
          {"sign_test",
-          {{"positive", p.sign.positive}, {"negative", p.sign.negative}, {"zeros", p.sign.zeros}, {"p_value", Num(p.sign.p_value)}}}});
+          {{"positive", p.sign.positive}, {"negative", p.sign.negative}, {"zeros", p.sign.zeros}, {"p_value", JsonNumber(p.sign.p_value)}}}});
   j["disparity"] = nlohmann::json::array();
   for (const auto& d : a.disparity) {
     nlohmann::json most = nlohmann::json::array(), least = nlohmann::json::array();
-    for (const auto& e : d.most) most.push_back({{"value", e.value}, {"disparity", Num(e.disparity)}});
-    for (const auto& e : d.least) least.push_back({{"value", e.value}, {"disparity", Num(e.disparity)}});
+    for (const auto& e : d.most) most.push_back({{"value", e.value}, {"disparity", JsonNumber(e.disparity)}});
+    for (const auto& e : d.least) least.push_back({{"value", e.value}, {"disparity", JsonNumber(e.disparity)}});
     j["disparity"].push_back({{"dimension", d.dimension}, {"most", most}, {"least", least}});
   }
   if (a.widest)
     j["widest_split"] = {{"split", a.widest->description}, {"parts", a.widest->parts},
-                         {"distance", Num(a.widest->distance)}, {"p_value", Num(a.widest->p_value)},
+                         {"distance", JsonNumber(a.widest->distance)}, {"p_value", JsonNumber(a.widest->p_value)},
                          {"resamples", a.widest->resamples}, {"candidates", a.widest->candidates},
                          {"exhaustive", a.widest->exhaustive}};
   else
@@ -99,13 +93,13 @@ nlohmann::json ListingAuditJson(const ListingAudit& a) {
   j["overlap"] = nlohmann::json::array();
   for (const auto& o : a.overlap)
     j["overlap"].push_back({{"profile_a", o.profile_a}, {"profile_b", o.profile_b}, {"comparisons", o.comparisons},
-                            {"mean_jaccard_distance", Num(o.mean_jaccard_distance)}});
+                            {"mean_jaccard_distance", JsonNumber(o.mean_jaccard_distance)}});
   return j;
 }
 
 nlohmann::json Steps(const std::vector<CumulativePoint>& points) {
   nlohmann::json out = nlohmann::json::array();
-  for (const auto& p : points) out.push_back({{"day", Num(p.day)}, {"count", p.count}, {"share", Num(p.share)}});
+  for (const auto& p : points) out.push_back({{"day", JsonNumber(p.day)}, {"count", p.count}, {"share", JsonNumber(p.share)}});
   return out;
 }
 
@@ -146,16 +140,16 @@ nlohmann::json ResponseTimesJson(const ResponseTimes& rt) {
                           {"responded_positive", a.responded_positive},
                           {"late", a.late},
                           {"responses_without_time", a.responses_without_time},
-                          {"median_days", a.median_days >= 0 ? Num(a.median_days) : nlohmann::json(nullptr)},
+                          {"median_days", a.median_days >= 0 ? JsonNumber(a.median_days) : nlohmann::json(nullptr)},
                           {"first_response", Steps(a.any)},
                           {"first_positive", Steps(a.positive)}};
     arm["milestones"] = nlohmann::json::array();
     for (const auto& m : a.milestones)
       arm["milestones"].push_back({{"day", m.day},
                                    {"any", m.any},
-                                   {"any_share", Num(m.any_share)},
+                                   {"any_share", JsonNumber(m.any_share)},
                                    {"positive", m.positive},
-                                   {"positive_share", Num(m.positive_share)}});
+                                   {"positive_share", JsonNumber(m.positive_share)}});
     arm["codes"] = nlohmann::json::object();
     for (const auto& c : a.codes) arm["codes"][c.code] = c.probes;
     j["arms"].push_back(arm);
@@ -198,14 +192,14 @@ std::string RenderJsonReport(const AnalysisResult& r) {
                          {"is_reference", a.is_reference},
                          {"probes", a.probes},
                          {"positive", a.positive},
-                         {"rate", Num(a.rate)},
-                         {"conf_int", {Num(a.ci.low), Num(a.ci.high)}}});
+                         {"rate", JsonNumber(a.rate)},
+                         {"conf_int", {JsonNumber(a.ci.low), JsonNumber(a.ci.high)}}});
   if (r.has_paired) {
     nlohmann::json p;
     p["reference_arm"] = r.reference_label;
     p["other_arm"] = r.other_label;
     p["table"] = Table(r.paired);
-    p["mcnemar_exact_p"] = Num(r.mcnemar_exact_p);
+    p["mcnemar_exact_p"] = JsonNumber(r.mcnemar_exact_p);
     p["strata"] = nlohmann::json::array();
     for (const auto& s : r.strata)
       p["strata"].push_back({{"name", s.name}, {"value", s.value}, {"table", Table(s.table)},

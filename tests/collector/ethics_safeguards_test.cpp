@@ -67,6 +67,45 @@ TEST_CASE("ethics: recording an invitation prints the decline deadline and the l
   CHECK(ok.out == "Recorded that the invitation to P00001 was declined at 2027-03-04T15:00:00Z.\n");
 }
 
+TEST_CASE("ethics: schedule lists overdue declines first, then those still due, then what to send") {
+  Study s;
+  REQUIRE(RunCli({"--study", s.path, "plan"}).exit_code == 0);
+  REQUIRE(RunCli({"--study", s.path, "record", "P00002", "offer", "--at", "2027-03-06T08:00"}).exit_code == 0);
+  REQUIRE(RunCli({"--study", s.path, "record", "P00001", "invitation", "--at", "2027-03-04T10:00"}).exit_code == 0);
+  REQUIRE(RunCli({"--study", s.path, "record", "P00003", "rejection", "--at", "2027-03-04T10:00"}).exit_code == 0);
+  const std::vector<std::string> now = {"TWINPROBE_NOW=2027-03-06T12:00:00Z"};
+
+  auto text = RunCli({"--study", s.path, "schedule"}, now);
+  REQUIRE(text.exit_code == 0);
+  auto overdue = text.out.find("OVERDUE: 1 invitation or offer not declined within 24 hours.");
+  auto p1 = text.out.find("  overdue 2027-03-05T10:00:00Z  P00001");
+  auto still = text.out.find("Still within the deadline:");
+  auto p2 = text.out.find("  due     2027-03-07T08:00:00Z  P00002");
+  auto to_send = text.out.find("probes to send");
+  CHECK(overdue == 0);  // the very first line
+  CHECK(p1 != std::string::npos);
+  CHECK(still != std::string::npos);
+  CHECK(p2 != std::string::npos);
+  CHECK(to_send != std::string::npos);
+  CHECK((overdue < p1 && p1 < still && still < p2 && p2 < to_send));
+  std::string declines_block = text.out.substr(0, to_send);
+  CHECK(declines_block.find("P00003") == std::string::npos);  // a rejection needs no decline
+
+  auto j = nlohmann::json::parse(RunCli({"--study", s.path, "--json", "schedule"}, now).out);
+  REQUIRE(j["declines"].size() == 2);
+  CHECK(j["declines"][0]["probe"] == "P00001");
+  CHECK(j["declines"][0]["overdue"] == true);
+  CHECK(j["declines"][0]["decline_by"] == "2027-03-05T10:00:00Z");
+  CHECK(j["declines"][1]["probe"] == "P00002");
+  CHECK(j["declines"][1]["overdue"] == false);
+
+  REQUIRE(RunCli({"--study", s.path, "decline", "P00001", "--at", "2027-03-06T12:30"}, now).exit_code == 0);
+  auto after = RunCli({"--study", s.path, "schedule"}, now);
+  CHECK(after.out.find("OVERDUE") == std::string::npos);
+  CHECK(after.out.rfind("1 invitation or offer to decline", 0) == 0);
+  CHECK(after.out.substr(0, after.out.find("probes to send")).find("P00001") == std::string::npos);
+}
+
 TEST_CASE("ethics: purge waits for the retention period, then removes identities and keeps the analysis") {
   testing::TempDir dir;
   std::string demo = dir / "demo";
