@@ -125,7 +125,7 @@ TEST_CASE("mail source: a From line with a year too long for a number is message
         std::string::npos);
 }
 
-TEST_CASE("mail source: a message file, a gzip or UTF-16 export is refused as what it is; a byte order mark is skipped") {
+TEST_CASE("mail source: a message file, a gzip or UTF-16 export is refused as what it is, a byte order mark is skipped") {
   testing::TempDir dir;
   const std::string message = "Return-Path: <hanne.ostrel@orlinde-bakehouse.example>\nSubject: hello\n\nbody\n";
   const std::string mbox = "From hanne.ostrel@orlinde-bakehouse.example Thu Mar  4 09:15:00 2027\n" + message;
