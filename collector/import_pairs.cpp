@@ -535,7 +535,7 @@ class Lander {
 
   Lander(Store& store, const Target& t, const Columns& c, size_t vacancies, int64_t seq, const std::string& actor,
          const std::string& at, int64_t plan_id, std::vector<int64_t> arm_ids)
-      : store_(store), t_(t), c_(c), plan_id_(plan_id), arm_ids_(std::move(arm_ids)), serial_(t.next_serial),
+      : store_(store), t_(t), c_(c), arm_ids_(std::move(arm_ids)), serial_(t.next_serial),
         vacancy_id_(vacancies, 0), probes_in_(vacancies, 0),
         next_vacancy_id_(store.QueryInt("SELECT coalesce(max(id), 0) + 1 FROM vacancy")),
         next_probe_id_(store.QueryInt("SELECT coalesce(max(id), 0) + 1 FROM probe")),
@@ -620,7 +620,6 @@ class Lander {
   Store& store_;
   const Target& t_;
   const Columns& c_;
-  int64_t plan_id_;
   std::vector<int64_t> arm_ids_;
   int64_t serial_;
   std::vector<int64_t> vacancy_id_;

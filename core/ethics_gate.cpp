@@ -34,9 +34,12 @@ Status CheckEthicsGate(const Design& d, const std::string& label) {
     if (s.allow_hosts.empty())
       return BadInput(label, name + " has no host allowlist",
                       std::string("list the hosts you are permitted to collect from") + kSee);
-    if (s.user_agent.empty() || !HasContact(s.user_agent))
+    // The design keeps the product token and the contact apart; the header
+    // sent is "user_agent (+contact)" (Source::UserAgentHeader).
+    if (s.user_agent.empty() || !HasContact(s.UserAgentHeader()))
       return BadInput(label, name + " does not identify the collector",
-                      std::string("give a User-Agent with a contact address, e.g. \"study-bot (research@org.example)\"") +
+                      std::string("give user_agent = \"Product/version\" and contact = an e-mail or web address, "
+                                  "e.g. contact = \"research@org.example\"") +
                           kSee);
   }
   return {};

@@ -53,7 +53,8 @@ TEST_CASE("ethics gate: each missing safeguard is refused with a message naming 
   SECTION("source without allowlist") {
     Source s;
     s.name = "jobs-exchange";
-    s.user_agent = "veldmark-study (research@board.example)";
+    s.user_agent = "VeldmarkStudy/1.0";
+    s.contact = "research@board.example";
     d.sources.push_back(s);
     expected = "study.toml: source 'jobs-exchange' has no host allowlist \u2014 list the hosts you are permitted to "
                "collect from (see ethics/README.md)";
@@ -62,14 +63,28 @@ TEST_CASE("ethics gate: each missing safeguard is refused with a message naming 
     Source s;
     s.name = "jobs-exchange";
     s.allow_hosts = {"jobs.example"};
-    s.user_agent = "veldmark-study";
+    s.user_agent = "VeldmarkStudy/1.0";  // and no contact
     d.sources.push_back(s);
-    expected = "study.toml: source 'jobs-exchange' does not identify the collector \u2014 give a User-Agent with a "
-               "contact address, e.g. \"study-bot (research@org.example)\" (see ethics/README.md)";
+    expected = "study.toml: source 'jobs-exchange' does not identify the collector \u2014 give user_agent = "
+               "\"Product/version\" and contact = an e-mail or web address, e.g. contact = \"research@org.example\" "
+               "(see ethics/README.md)";
   }
   Status s = CheckEthicsGate(d, "study.toml");
   REQUIRE_FALSE(s.ok());
   CHECK(s.error().Message() == expected);
+}
+
+TEST_CASE("ethics gate: a source written as docs/fetch.md shows it (user_agent and contact) passes") {
+  // Regression: the gate once looked for the contact inside user_agent, so
+  // plan refused a [[source]] that fetch accepted.
+  Design d = Complete();
+  Source s;
+  s.name = "kestrel-board";
+  s.allow_hosts = {"jobs.kestrel.example"};
+  s.user_agent = "VeldmarkListingAudit/1.0";
+  s.contact = "listing-audit@newsroom.example";
+  d.sources.push_back(s);
+  CHECK(CheckEthicsGate(d, "study.toml").ok());
 }
 
 TEST_CASE("ethics gate: the decline deadline is the receipt time plus the stated hours") {
