@@ -2,6 +2,7 @@
 // (a listing audit), into the store's listing, listing_item and item_label
 // tables in one audited write. Works in a folder without a design: the
 // store is created when missing. Manual: docs/ranks.md.
+#include <charconv>
 #include <cmath>
 #include <cstdlib>
 #include <filesystem>
@@ -83,9 +84,12 @@ Result<ParsedFile> Parse(const CsvTable& t, const std::string& path) {
     const std::string& ref = row.fields[static_cast<size_t>(c_listing)];
     if (ref.empty()) return BadInput(where, "the listing is empty", "give every row the listing it belongs to");
     const std::string& pos_text = row.fields[static_cast<size_t>(c_position)];
-    char* end = nullptr;
-    long long pos = std::strtoll(pos_text.c_str(), &end, 10);
-    if (pos_text.empty() || *end != '\0' || pos < 1 || pos > 1000000)
+    // from_chars, unlike strtoll, takes no leading space or sign: " 1" and
+    // "1 " are refused alike.
+    long long pos = 0;
+    const char* last = pos_text.data() + pos_text.size();
+    auto [end, ec] = std::from_chars(pos_text.data(), last, pos);
+    if (pos_text.empty() || ec != std::errc() || end != last || pos < 1 || pos > 1000000)
       return BadInput(where, "position '" + pos_text + "' is not a whole number from 1 to 1000000",
                       "write the place in the list, 1 for the top");
     const std::string& key = row.fields[static_cast<size_t>(c_item)];
