@@ -7,11 +7,14 @@
 #include <iostream>
 
 #include "analysis/analyze.h"
+#include "analysis/listing_analysis.h"
 #include "cli/command.h"
-#include "cli/import_ranks_cmd.h"
+#include "collector/import_ranks.h"
 #include "collector/responses.h"
 #include "core/audit.h"
 #include "core/clock.h"
+#include "core/plan_probes.h"
+#include "core/pseudonym.h"
 #include "core/sha256.h"
 #include "cli/report_cmd.h"
 #include "report/html_report.h"
@@ -66,29 +69,16 @@ Status PrepareFolder(const std::string& dir) {
 int64_t SimulateFieldwork(Store& store, const OutcomeScheme& scheme, const DemoModel& model) {
   stats::Rng rng(model.seed);
   AuditedWrite write(store, "demo simulate");
-  struct Row {
-    int64_t id;
-    std::string ref, planned_at, arm_label, occupation;
-    int64_t vacancy;
-  };
-  std::vector<Row> rows;
-  Stmt q = store.Prepare(
-      "SELECT p.id, p.ref, p.planned_at, a.label, "
-      "  (SELECT value FROM vacancy_stratum s WHERE s.vacancy_id = p.vacancy_id AND s.name = 'occupation'), "
-      "  p.vacancy_id "
-      "FROM current_probe p JOIN arm a ON a.id = p.arm_id ORDER BY p.vacancy_id, p.send_order");
-  while (q.Step()) rows.push_back({q.Int(0), q.Text(1), q.Text(2), q.Text(3), q.Text(4), q.Int(5)});
-
-  Stmt ins_sent = store.Prepare(
-      "INSERT INTO sending(probe_id, sent_at, entered_by, entered_at, audit_seq) VALUES (?1, ?2, 'demo', ?3, ?4)");
+  const std::vector<PlannedProbeRow> rows = ReadPlannedProbes(store, "occupation");
+  PlannedSendingWriter sendings(store);
   int64_t recorded = 0;
   int64_t current_vacancy = -1;
   bool responsive = false;
   for (const auto& r : rows) {
-    ins_sent.Bind(1, r.id).Bind(2, r.planned_at).Bind(3, write.at()).Bind(4, write.seq()).Run();
-    if (r.vacancy != current_vacancy) {
-      current_vacancy = r.vacancy;
-      responsive = rng.Bernoulli(model.Responsive(r.occupation));
+    sendings.Insert(write.seq(), r.id, r.planned_at, "demo", write.at());
+    if (r.vacancy_id != current_vacancy) {
+      current_vacancy = r.vacancy_id;
+      responsive = rng.Bernoulli(model.Responsive(r.stratum_value));
     }
     bool inland = r.arm_label.find("inland") != std::string::npos;
     bool positive = responsive && rng.Bernoulli(inland ? model.inland_callback : model.coastal_callback);
@@ -124,10 +114,7 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
     // seed makes its pseudonyms, and so its reports, repeat exactly. Real
     // studies get a random key on first use (core/pseudonym.cpp).
     Transaction tx(*store.value());
-    store.value()
-        ->Prepare("INSERT OR IGNORE INTO secret(name, value) VALUES ('employer_key', ?1)")
-        .Bind(1, Sha256Hex("twinprobe demo employer key " + std::to_string(DemoModel{}.seed)))
-        .Run();
+    SeedEmployerKeySecret(*store.value(), Sha256Hex("twinprobe demo employer key " + std::to_string(DemoModel{}.seed)));
     tx.Commit();
   }
   auto planned = StorePlan(*store.value(), s.design, s.vacancies, plan.value());
@@ -140,7 +127,8 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
   int64_t responses = SimulateFieldwork(*store.value(), s.design.outcomes, model);
   // The listing-audit part: invented candidate rankings of an invented job
   // board (templates/demo/listings/generate_ranks.py states the model).
-  auto ranks = ImportRanksFile(*store.value(), (fs::path(out_dir) / "listings" / "ranks.csv").string());
+  auto ranks = ImportRanksFile(*store.value(), (fs::path(out_dir) / "listings" / "ranks.csv").string(),
+                               TerminalProgress("import ranks"));
   if (!ranks.ok()) return ReportError(ranks.error());
   auto result = Analyze(*store.value(), s.design.outcomes, s.design.analysis, &s.design);
   if (!result.ok()) return ReportError(result.error());

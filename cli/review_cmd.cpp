@@ -20,6 +20,11 @@ struct ReviewOptions {
 
 nlohmann::json NullIfEmpty(const std::string& s) { return s.empty() ? nlohmann::json(nullptr) : nlohmann::json(s); }
 
+// The stored spelling, or null while the message waits.
+nlohmann::json DecisionJson(const std::optional<ReviewDecision>& decision) {
+  return decision ? nlohmann::json(std::string(ReviewDecisionName(*decision))) : nlohmann::json(nullptr);
+}
+
 nlohmann::json ItemJson(const ReviewItem& i) {
   nlohmann::json evidence = nlohmann::json::array();
   for (const auto& e : i.evidence)
@@ -45,7 +50,7 @@ nlohmann::json ItemJson(const ReviewItem& i) {
           {"candidates", i.candidates},
           {"suggested_code", NullIfEmpty(i.suggested_code)},
           {"evidence", evidence},
-          {"decision", NullIfEmpty(i.decision)},
+          {"decision", DecisionJson(i.decision)},
           {"decided_by", NullIfEmpty(i.decided_by)},
           {"decided_at", NullIfEmpty(i.decided_at)},
           {"response_id", i.response_id ? nlohmann::json(i.response_id) : nlohmann::json(nullptr)}};
@@ -79,8 +84,8 @@ void PrintItem(const ReviewItem& i) {
   }
   if (i.evidence.empty()) row("evidence", "no phrase of the rules appears");
   row("excerpt", i.excerpt);
-  if (!i.decision.empty()) {
-    row("decision", i.decision + " by " + i.decided_by + " at " + i.decided_at +
+  if (i.decision) {
+    row("decision", std::string(ReviewDecisionName(*i.decision)) + " by " + i.decided_by + " at " + i.decided_at +
                         (i.response_id ? " (response " + std::to_string(i.response_id) + ")" : ""));
   } else if (i.probe_ref.empty()) {
     row("decide", i.suggested_code.empty()
@@ -186,7 +191,7 @@ int RunReview(Context& ctx, const ReviewOptions& o) {
     decline_by = FormatIsoTime(DeclineDeadline(ethics, ParseIsoTime(r.received_at).value_or(0)));
   if (ctx.json) {
     std::cout << nlohmann::json{{"message", req.message},
-                                {"decision", r.decision},
+                                {"decision", std::string(ReviewDecisionName(r.decision))},
                                 {"response_id",
                                  r.response_id ? nlohmann::json(r.response_id) : nlohmann::json(nullptr)},
                                 {"probe", NullIfEmpty(r.probe_ref)},
@@ -202,12 +207,13 @@ int RunReview(Context& ctx, const ReviewOptions& o) {
               << "\n";
     return 0;
   }
-  if (r.decision == "dismissed") {
+  if (r.decision == ReviewDecision::kDismissed) {
     std::cout << "Dismissed message " << req.message << "; no response was recorded.\n";
     return 0;
   }
   std::cout << "Recorded " << r.code << " for " << r.probe_ref << " at " << r.received_at << " from message "
-            << req.message << " (" << r.decision << (r.decision == "confirmed" ? " as suggested" : " by you") << ")"
+            << req.message << " (" << ReviewDecisionName(r.decision)
+            << (r.decision == ReviewDecision::kConfirmed ? " as suggested" : " by you") << ")"
             << (r.positive ? ", a positive callback" : "");
   if (r.superseded) std::cout << "; it supersedes response " << r.superseded << ", which is kept";
   std::cout << ".\n";

@@ -27,6 +27,7 @@
 #include "collector/robots.h"
 #include "collector/snapshot_store.h"
 #include "core/design.h"
+#include "core/listing_pages.h"
 
 namespace twinprobe {
 
@@ -49,14 +50,8 @@ FetchPolicy PolicyFor(const Source& source);
 // hop that was followed), retry (a 429/503 that was waited out), failed,
 // robots, allowlist, limit. detail is a JSON object (reason, headers of
 // note, wait).
-struct FetchLogEntry {
-  std::string url;
-  std::string at;
-  std::string outcome;
-  int http_status = 0;  // 0: none
-  std::string detail;
-  std::string snapshot_sha256;  // "" when no body was stored
-};
+// One URL considered, as fetch_log keeps it (core/listing_pages.h).
+using FetchLogEntry = FetchLogRow;
 
 enum class PageOutcome { kFetched, kRobots, kAllowlist, kFailed };
 

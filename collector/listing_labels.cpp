@@ -7,18 +7,11 @@
 
 #include "core/audit.h"
 #include "core/csv.h"
+#include "core/listing_labels.h"
 #include "core/sha256.h"
 #include "core/suggest.h"
 
 namespace twinprobe {
-namespace {
-
-void InsertLabel(Store& store, int64_t seq, const std::string& key, const std::string& factor, const std::string& level) {
-  Stmt ins = store.Prepare("INSERT INTO item_label(item_key, factor, level, audit_seq) VALUES (?1, ?2, ?3, ?4)");
-  ins.Bind(1, key).Bind(2, factor).Bind(3, level).Bind(4, seq).Run();
-}
-
-}  // namespace
 
 Result<LabelImport> ImportLabels(Store& store, const Design* design, const std::string& path) {
   std::ifstream in(path, std::ios::binary);
@@ -50,12 +43,11 @@ Result<LabelImport> ImportLabels(Store& store, const Design* design, const std::
   AuditedWrite write(store, "import labels");
   LabelImport out;
   const std::string sha = Sha256Hex(content);
-  Stmt seen = store.Prepare("SELECT count(*) FROM import_file WHERE kind = 'labels' AND sha256 = ?1");
-  seen.Bind(1, sha);
-  if (seen.Step() && seen.Int(0) > 0) {
+  if (ListingFileImported(store, ImportKind::kLabels, sha)) {
     out.already_imported = true;
     return out;
   }
+  ItemLabelWriter labels(store);
   std::set<std::string> keys;
   for (const CsvRecord& row : t.rows) {
     const std::string where = path + ":" + std::to_string(row.line);
@@ -74,14 +66,12 @@ Result<LabelImport> ImportLabels(Store& store, const Design* design, const std::
           return BadInput(where, "'" + level + "' is not a level of factor '" + factor + "'" + DidYouMean(level, f->levels),
                           "use one of its levels, or leave the cell empty when unknown");
       }
-      InsertLabel(store, write.seq(), key, factor, level);
+      labels.Insert(write.seq(), key, factor, level);
       ++out.labels;
     }
   }
   out.items = static_cast<int64_t>(keys.size());
-  Stmt ins = store.Prepare(
-      "INSERT INTO import_file(kind, sha256, path, rows_landed, rows_rejected, audit_seq) VALUES ('labels', ?1, ?2, ?3, 0, ?4)");
-  ins.Bind(1, sha).Bind(2, path).Bind(3, static_cast<int64_t>(t.rows.size())).Bind(4, write.seq()).Run();
+  RecordListingFile(store, write.seq(), ImportKind::kLabels, sha, path, static_cast<int64_t>(t.rows.size()));
   out.audit_hash = write.Commit("import labels " + path + ": " + std::to_string(out.labels) + " labels for " +
                                 std::to_string(out.items) + " items");
   return out;
@@ -89,15 +79,12 @@ Result<LabelImport> ImportLabels(Store& store, const Design* design, const std::
 
 Result<LabelImport> LabelsFromProfiles(Store& store) {
   AuditedWrite write(store, "import labels --from-profiles");
-  Stmt q = store.Prepare(
-      "SELECT p.display_name, f.name, l.name FROM profile p "
-      "JOIN arm_level al ON al.arm_id = p.arm_id JOIN level l ON l.id = al.level_id JOIN factor f ON f.id = l.factor_id "
-      "WHERE p.plan_id = (SELECT max(id) FROM plan) ORDER BY p.id, f.name");
   LabelImport out;
+  ItemLabelWriter labels(store);
   std::set<std::string> keys;
-  while (q.Step()) {
-    InsertLabel(store, write.seq(), q.Text(0), q.Text(1), q.Text(2));
-    keys.insert(q.Text(0));
+  for (const ProfileLabelRow& row : ReadProfileLabels(store)) {
+    labels.Insert(write.seq(), row.display_name, row.factor, row.level);
+    keys.insert(row.display_name);
     ++out.labels;
   }
   if (out.labels == 0)

@@ -9,6 +9,7 @@
 #include "collector/mail_text.h"
 #include "core/audit.h"
 #include "core/clock.h"
+#include "core/mail_log.h"
 #include "core/sha256.h"
 
 namespace twinprobe {
@@ -40,11 +41,7 @@ Result<IntakeSummary> IngestMail(Store& store, const MailRules& rules, const std
   IntakeSummary summary;
   const MatchIndex index = LoadMatchIndex(store);
   const Suggester suggester(rules);
-  Stmt find = store.Prepare("SELECT id FROM mail_message WHERE message_id = ?1");
-  Stmt ins = store.Prepare(
-      "INSERT INTO mail_message(message_id, mailbox, from_addr, to_addr, subject, sent_date, body_sha256, excerpt, "
-      "probe_id, match_reason, suggested_code, evidence, audit_seq) "
-      "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13)");
+  MailLog log(store);
   size_t total = 0;
   for (const MailBatch& batch : batches) total += batch.messages.size();
   for (const MailBatch& batch : batches) {
@@ -56,16 +53,13 @@ Result<IntakeSummary> IngestMail(Store& store, const MailRules& rules, const std
       IntakeMessage out;
       out.where = raw.where;
       out.subject = m.subject;
-      find.Bind(1, key);
-      if (find.Step()) {
-        out.message = find.Int(0);
+      if (std::optional<int64_t> before = log.Find(key)) {
+        out.message = *before;
         out.status = "duplicate";
-        find.Reset();
         ++summary.duplicates;
         summary.messages.push_back(out);
         continue;
       }
-      find.Reset();
 
       const MatchResult match = MatchMessage(index, m, rules);
       const std::string fresh = FreshText(m.text, m.subject);
@@ -94,36 +88,20 @@ Result<IntakeSummary> IngestMail(Store& store, const MailRules& rules, const std
           {"contexts", contexts}};
       std::string sender = m.sender_addresses.empty() ? "" : m.sender_addresses.front();
 
-      ins.Bind(1, key).Bind(2, SourceName(batch));
-      if (sender.empty())
-        ins.BindNull(3);
-      else
-        ins.Bind(3, DigestOrNull(sender));
-      if (match.profile_mailbox.empty())
-        ins.BindNull(4);
-      else
-        ins.Bind(4, match.profile_mailbox);
-      if (m.subject.empty())
-        ins.BindNull(5);
-      else
-        ins.Bind(5, DigestOrNull(m.subject));
-      if (date)
-        ins.Bind(6, FormatIsoTime(*date));
-      else
-        ins.BindNull(6);
-      ins.Bind(7, Sha256Hex(CanonicalRaw(raw.raw))).Bind(8, excerpt.dump());
-      if (match.status == MatchStatus::kMatched)
-        ins.Bind(9, match.probe_id);
-      else
-        ins.BindNull(9);
-      ins.Bind(10, std::string(MatchStatusName(match.status)) + ": " + match.reason);
-      if (suggestion.code.empty())
-        ins.BindNull(11);
-      else
-        ins.Bind(11, suggestion.code);
-      ins.Bind(12, evidence.dump()).Bind(13, write.seq()).Run();
-
-      out.message = store.LastInsertId();
+      MailMessageRow row;
+      row.key = key;
+      row.source = SourceName(batch);
+      if (!sender.empty()) row.from_digest = DigestOrNull(sender);
+      if (!match.profile_mailbox.empty()) row.profile_mailbox = match.profile_mailbox;
+      if (!m.subject.empty()) row.subject_digest = DigestOrNull(m.subject);
+      if (date) row.sent_date = FormatIsoTime(*date);
+      row.body_sha256 = Sha256Hex(CanonicalRaw(raw.raw));
+      row.excerpt = excerpt.dump();
+      if (match.status == MatchStatus::kMatched) row.probe_id = match.probe_id;
+      row.match_reason = std::string(MatchStatusName(match.status)) + ": " + match.reason;
+      if (!suggestion.code.empty()) row.suggested_code = suggestion.code;
+      row.evidence = evidence.dump();
+      out.message = log.Insert(write.seq(), row);
       out.status = MatchStatusName(match.status);
       out.probe_ref = match.probe_ref;
       out.profile = match.profile_mailbox;

@@ -5,6 +5,7 @@
 
 #include "collector/mail_header.h"
 #include "collector/mail_text.h"
+#include "core/mail_log.h"
 #include "core/store.h"
 
 namespace twinprobe {
@@ -67,21 +68,16 @@ std::string EmployerMatchName(const std::string& name) {
 
 MatchIndex LoadMatchIndex(Store& store) {
   MatchIndex index;
-  Stmt s = store.Prepare(
-      "SELECT p.id, p.ref, lower(coalesce(pr.mailbox, '')), v.ref, coalesce(v.employer_key, ''), "
-      "coalesce(e.name, ''), lower(coalesce(e.contact, '')) "
-      "FROM current_probe p JOIN vacancy v ON v.id = p.vacancy_id "
-      "LEFT JOIN profile pr ON pr.id = p.profile_id LEFT JOIN employer e ON e.key = v.employer_key ORDER BY p.id");
-  while (s.Step()) {
+  for (const MailProbeRow& row : ReadMailProbes(store)) {
     MatchProbe p;
-    p.probe_id = s.Int(0);
-    p.probe_ref = s.Text(1);
-    p.profile_mailbox = s.Text(2);
-    p.vacancy_ref = s.Text(3);
+    p.probe_id = row.probe_id;
+    p.probe_ref = row.probe_ref;
+    p.profile_mailbox = row.profile_mailbox;
+    p.vacancy_ref = row.vacancy_ref;
     p.vacancy_ref_folded = FoldPhrase(p.vacancy_ref);
-    p.employer_key = s.Text(4);
-    p.employer_name = EmployerMatchName(s.Text(5));
-    auto contact = ExtractAddresses(s.Text(6));
+    p.employer_key = row.employer_key;
+    p.employer_name = EmployerMatchName(row.employer_name);
+    auto contact = ExtractAddresses(row.employer_contact);
     p.employer_contact = contact.empty() ? "" : contact.front();
     if (!p.profile_mailbox.empty()) index.by_mailbox[p.profile_mailbox].push_back(index.probes.size());
     index.probes.push_back(p);

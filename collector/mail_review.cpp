@@ -4,41 +4,35 @@
 
 #include "collector/responses.h"
 #include "core/audit.h"
+#include "core/mail_log.h"
+#include "core/mail_reviews.h"
 
 namespace twinprobe {
 namespace {
-
-const char* kSelect =
-    "SELECT m.id, m.mailbox, coalesce(m.sent_date, ''), coalesce(p.ref, ''), coalesce(m.to_addr, ''), "
-    "coalesce(v.employer_key, ''), coalesce(m.match_reason, ''), coalesce(m.suggested_code, ''), "
-    "coalesce(m.evidence, '{}'), m.excerpt, coalesce(d.decision, ''), coalesce(d.decided_by, ''), "
-    "coalesce(d.decided_at, ''), coalesce(d.response_id, 0) "
-    "FROM mail_message m LEFT JOIN probe p ON p.id = m.probe_id LEFT JOIN vacancy v ON v.id = p.vacancy_id "
-    "LEFT JOIN review_decision d ON d.mail_message_id = m.id ";
 
 std::string Str(const nlohmann::json& j, const char* key) {
   auto it = j.find(key);
   return it != j.end() && it->is_string() ? it->get<std::string>() : "";
 }
 
-ReviewItem ReadItem(const Stmt& s) {
+ReviewItem ReadItem(const MailReviewRow& row) {
   ReviewItem item;
-  item.message = s.Int(0);
-  item.source = s.Text(1);
-  item.date = s.Text(2);
-  item.probe_ref = s.Text(3);
-  item.profile = s.Text(4);
-  item.employer_key = s.Text(5);
-  item.reason = s.Text(6);
+  item.message = row.message;
+  item.source = row.source;
+  item.date = row.date;
+  item.probe_ref = row.probe_ref;
+  item.profile = row.profile;
+  item.employer_key = row.employer_key;
+  item.reason = row.match_reason;
   if (size_t colon = item.reason.find(": "); colon != std::string::npos) item.reason = item.reason.substr(colon + 2);
-  item.suggested_code = s.Text(7);
-  item.decision = s.Text(10);
-  item.decided_by = s.Text(11);
-  item.decided_at = s.Text(12);
-  item.response_id = s.Int(13);
+  item.suggested_code = row.suggested_code;
+  item.decision = row.decision;
+  item.decided_by = row.decided_by;
+  item.decided_at = row.decided_at;
+  item.response_id = row.response_id;
   if (item.probe_ref.empty()) item.employer_key.clear();
 
-  nlohmann::json evidence = nlohmann::json::parse(s.Text(8), nullptr, false);
+  nlohmann::json evidence = nlohmann::json::parse(row.evidence_json, nullptr, false);
   if (evidence.is_discarded()) evidence = nlohmann::json::object();
   item.status = Str(evidence, "match");
   item.date_source = Str(evidence, "date");
@@ -47,7 +41,8 @@ ReviewItem ReadItem(const Stmt& s) {
     for (const auto& c : evidence["candidates"])
       if (c.is_string()) item.candidates.push_back(c.get<std::string>());
 
-  nlohmann::json excerpt = s.IsNull(9) ? nlohmann::json() : nlohmann::json::parse(s.Text(9), nullptr, false);
+  nlohmann::json excerpt =
+      !row.excerpt_json ? nlohmann::json() : nlohmann::json::parse(*row.excerpt_json, nullptr, false);
   item.purged = !excerpt.is_object();
   if (!item.purged) {
     item.from = Str(excerpt, "from");
@@ -79,17 +74,15 @@ std::string Number(int64_t message) { return std::to_string(message); }
 
 std::vector<ReviewItem> LoadReviewQueue(Store& store, bool include_decided) {
   std::vector<ReviewItem> out;
-  Stmt s = store.Prepare(std::string(kSelect) + (include_decided ? "" : "WHERE d.id IS NULL ") + "ORDER BY m.id");
-  while (s.Step()) out.push_back(ReadItem(s));
+  for (const MailReviewRow& row : ReadMailReviews(store, include_decided)) out.push_back(ReadItem(row));
   return out;
 }
 
 Result<ReviewItem> LoadReviewItem(Store& store, int64_t message) {
-  Stmt s = store.Prepare(std::string(kSelect) + "WHERE m.id = ?1");
-  s.Bind(1, message);
-  if (!s.Step())
+  std::optional<MailReviewRow> row = ReadMailReview(store, message);
+  if (!row)
     return BadInput("", "there is no mail message " + Number(message), "run 'twinprobe review' to list the queue");
-  return ReadItem(s);
+  return ReadItem(*row);
 }
 
 Result<ReviewOutcome> DecideReview(Store& store, const OutcomeScheme& scheme, const ReviewRequest& req) {
@@ -102,22 +95,17 @@ Result<ReviewOutcome> DecideReview(Store& store, const OutcomeScheme& scheme, co
   out.item = loaded.value();
   const ReviewItem& item = out.item;
   const std::string n = Number(req.message);
-  if (!item.decision.empty())
+  if (item.decision)
     return BadInput("",
-                    "message " + n + " was reviewed before (" + item.decision + " by " + item.decided_by + " at " +
-                        item.decided_at + ")",
+                    "message " + n + " was reviewed before (" + std::string(ReviewDecisionName(*item.decision)) +
+                        " by " + item.decided_by + " at " + item.decided_at + ")",
                     "to correct the response, record a new one with 'twinprobe record PROBE CODE'; it supersedes the "
                     "old one and both are kept");
-  Stmt ins = store.Prepare(
-      "INSERT INTO review_decision(mail_message_id, decision, response_id, decided_by, decided_at, audit_seq) "
-      "VALUES (?1, ?2, ?3, ?4, ?5, ?6)");
-
   if (req.action == ReviewAction::kDismiss) {
     if (!req.probe_ref.empty() || !req.at.empty())
       return BadInput("", "--probe and --at do not go with --dismiss", "dismiss the message alone, or confirm it");
-    out.decision = "dismissed";
-    ins.Bind(1, req.message).Bind(2, out.decision).BindNull(3).Bind(4, write.actor()).Bind(5, write.at());
-    ins.Bind(6, write.seq()).Run();
+    out.decision = ReviewDecision::kDismissed;
+    InsertReviewDecision(store, write.seq(), req.message, out.decision, std::nullopt, write.actor(), write.at());
     out.audit_hash = write.Commit("review message " + n + ": dismissed (no response recorded)");
     return out;
   }
@@ -149,24 +137,21 @@ Result<ReviewOutcome> DecideReview(Store& store, const OutcomeScheme& scheme, co
   out.unsent = recorded.value().unsent;
   out.days_after_sending = recorded.value().days_after_sending;
   out.superseded = recorded.value().superseded;
-  out.decision = out.probe_ref == item.probe_ref && out.code == item.suggested_code ? "confirmed" : "changed";
+  out.decision = out.probe_ref == item.probe_ref && out.code == item.suggested_code ? ReviewDecision::kConfirmed
+                                                                                    : ReviewDecision::kChanged;
 
   // A probe of another profile than the one the message was for is allowed
   // (a forwarded message may say so), but worth a second look.
   if (!item.profile.empty()) {
-    Stmt who = store.Prepare(
-        "SELECT lower(coalesce(pr.mailbox, '')) FROM current_probe p LEFT JOIN profile pr ON pr.id = p.profile_id "
-        "WHERE p.ref = ?1");
-    who.Bind(1, out.probe_ref);
-    if (who.Step() && item.profile.find(who.Text(0)) == std::string::npos)
-      out.warnings.push_back(out.probe_ref + " belongs to profile " + who.Text(0) + ", but the message was for " +
+    std::optional<std::string> mailbox = ReadProbeMailbox(store, out.probe_ref);
+    if (mailbox && item.profile.find(*mailbox) == std::string::npos)
+      out.warnings.push_back(out.probe_ref + " belongs to profile " + *mailbox + ", but the message was for " +
                              item.profile);
   }
-  ins.Bind(1, req.message).Bind(2, out.decision).Bind(3, out.response_id).Bind(4, write.actor()).Bind(5, write.at());
-  ins.Bind(6, write.seq()).Run();
-  out.audit_hash =
-      write.Commit("review message " + n + ": " + out.decision + " " + out.code + " for " + out.probe_ref +
-                   (out.superseded ? " (supersedes response " + std::to_string(out.superseded) + ")" : ""));
+  InsertReviewDecision(store, write.seq(), req.message, out.decision, out.response_id, write.actor(), write.at());
+  out.audit_hash = write.Commit(
+      "review message " + n + ": " + std::string(ReviewDecisionName(out.decision)) + " " + out.code + " for " +
+      out.probe_ref + (out.superseded ? " (supersedes response " + std::to_string(out.superseded) + ")" : ""));
   return out;
 }
 

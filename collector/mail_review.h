@@ -6,6 +6,7 @@
 // channel "mail"), which supersedes an earlier response to the probe like
 // any `record` does.
 #include <cstdint>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -13,6 +14,7 @@
 #include "core/design.h"
 #include "core/status.h"
 #include "core/store.h"
+#include "core/stored_codes.h"
 
 namespace twinprobe {
 
@@ -33,7 +35,7 @@ struct ReviewItem {
   std::string from, subject, excerpt, where;
   bool purged = false;
   // Set once decided.
-  std::string decision;  // confirmed | changed | dismissed ("" : waiting)
+  std::optional<ReviewDecision> decision;  // nullopt: waiting
   std::string decided_by, decided_at;
   int64_t response_id = 0;
 };
@@ -57,7 +59,7 @@ struct ReviewRequest {
 
 struct ReviewOutcome {
   ReviewItem item;          // as it was before the decision
-  std::string decision;     // confirmed | changed | dismissed
+  ReviewDecision decision = ReviewDecision::kDismissed;
   int64_t response_id = 0;  // 0 when dismissed
   std::string probe_ref, code, received_at;
   bool positive = false, late = false;

@@ -34,4 +34,8 @@ std::string EmployerKey(Store& store, const std::string& employer_name) {
   return "E-" + HmacSha256Hex(secret, NormaliseName(employer_name)).substr(0, 10);
 }
 
+void SeedEmployerKeySecret(Store& store, const std::string& secret) {
+  store.Prepare("INSERT OR IGNORE INTO secret(name, value) VALUES ('employer_key', ?1)").Bind(1, secret).Run();
+}
+
 }  // namespace twinprobe

@@ -13,6 +13,12 @@ class Store;
 // (call inside a write transaction).
 std::string EmployerKey(Store& store, const std::string& employer_name);
 
+// Sets the study's secret to `secret` unless it has one already (then
+// nothing changes, so pseudonyms stored before keep their meaning). For a
+// study whose pseudonyms must repeat exactly (the demo); call inside a write
+// transaction.
+void SeedEmployerKeySecret(Store& store, const std::string& secret);
+
 // Lowercased, inner whitespace collapsed, trimmed.
 std::string NormaliseName(const std::string& name);
 

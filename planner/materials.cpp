@@ -9,6 +9,8 @@
 
 #include "core/clock.h"
 #include "core/csv.h"
+#include "core/material_rows.h"
+#include "core/plan_rows.h"
 #include "core/sha256.h"
 #include "planner/markdown.h"
 #include "planner/name_pools.h"
@@ -80,25 +82,21 @@ Result<std::vector<ProbeMaterial>> PlannedMaterials(const Design& d, const std::
 }
 
 Result<std::vector<ProbeMaterial>> StoredMaterials(Store& store, const Design& d, const std::vector<Vacancy>& vacancies) {
-  if (store.QueryInt("SELECT count(*) FROM current_plan") == 0)
+  if (!HasCurrentPlan(store))
     return BadInput(store.path(), "the store holds no plan yet", "run 'twinprobe plan' first");
   std::unordered_map<std::string, const Vacancy*> by_ref;
   for (const auto& v : vacancies) by_ref[v.ref] = &v;
-  Stmt q = store.Prepare(
-      "SELECT p.ref, v.ref, a.label, p.send_order, p.planned_at, p.template, pr.fields "
-      "FROM current_probe p JOIN vacancy v ON v.id = p.vacancy_id JOIN arm a ON a.id = p.arm_id "
-      "LEFT JOIN profile pr ON pr.id = p.profile_id ORDER BY p.vacancy_id, p.send_order, p.id");
   std::vector<ProbeMaterial> out;
   std::map<std::string, std::map<std::string, std::string>> vacancy_fields;
   bool clash_checked = false;
-  while (q.Step()) {
+  for (const MaterialRow& row : ReadMaterialRows(store)) {
     ProbeMaterial m;
-    m.probe_ref = q.Text(0);
-    m.vacancy_ref = q.Text(1);
-    m.arm_label = q.Text(2);
-    m.send_order = static_cast<int>(q.Int(3));
-    m.planned_at = q.Text(4);
-    m.template_path = q.Text(5);
+    m.probe_ref = row.probe_ref;
+    m.vacancy_ref = row.vacancy_ref;
+    m.arm_label = row.arm_label;
+    m.send_order = row.send_order;
+    m.planned_at = row.planned_at;
+    m.template_path = row.template_path;
     m.source = "study.db";
     auto it = by_ref.find(m.vacancy_ref);
     if (it == by_ref.end())
@@ -108,8 +106,8 @@ Result<std::vector<ProbeMaterial>> StoredMaterials(Store& store, const Design& d
     auto& vf = vacancy_fields[m.vacancy_ref];
     if (vf.empty()) vf = VacancyFields(*it->second);
     m.vacancy = vf;
-    if (!q.IsNull(6)) {
-      auto json = nlohmann::json::parse(q.Text(6), nullptr, false);
+    if (row.profile_fields_json) {
+      auto json = nlohmann::json::parse(*row.profile_fields_json, nullptr, false);
       if (json.is_object())
         for (const auto& [k, v] : json.items())
           if (v.is_string()) m.profile[k] = v.get<std::string>();

@@ -5,24 +5,13 @@
 #include <string>
 #include <vector>
 
+#include "core/schedule_rows.h"
 #include "core/status.h"
 #include "core/store.h"
 
 namespace twinprobe {
 
-struct ScheduledProbe {
-  std::string probe;      // P00001
-  std::string vacancy;    // the vacancy's reference
-  std::string employer;   // pseudonymous key (E-…)
-  std::string arm;
-  std::string profile;    // display name
-  std::string mailbox;
-  std::string phone;
-  std::string template_path;
-  int send_order = 1;
-  std::string planned_at;  // ISO time
-  std::string sent_at;     // ISO time of the newest `sent` entry, "" when not sent
-};
+// ScheduledProbe (one probe with its sending) is core/schedule_rows.h.
 
 struct ScheduleQuery {
   std::optional<int64_t> due_until;  // only probes planned before this time (epoch seconds)

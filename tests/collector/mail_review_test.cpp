@@ -87,7 +87,7 @@ TEST_CASE("mail review: confirming records the suggestion as a normal response, 
   auto r = s.Decide(1, ReviewAction::kConfirm);
   INFO((r.ok() ? "" : r.error().Message()));
   REQUIRE(r.ok());
-  CHECK(r.value().decision == "confirmed");
+  CHECK(r.value().decision == ReviewDecision::kConfirmed);
   CHECK(r.value().probe_ref == probe);
   CHECK(r.value().code == "invitation");
   CHECK(r.value().received_at == "2027-03-04T09:15:00Z");
@@ -127,19 +127,19 @@ TEST_CASE("mail review: a changed code, an assigned probe and a dismissal") {
   ReadStudy s;
   auto changed = s.Decide(2, ReviewAction::kCode, "info_request");
   REQUIRE(changed.ok());
-  CHECK(changed.value().decision == "changed");
+  CHECK(changed.value().decision == ReviewDecision::kChanged);
   CHECK(changed.value().code == "info_request");
 
   const std::string p = mailtest::ProbeFor(*s.store, "V0102", kKemi);
   auto assigned = s.Decide(10, ReviewAction::kConfirm, "", p);
   REQUIRE(assigned.ok());
-  CHECK(assigned.value().decision == "changed");  // it had no probe; a person chose one
+  CHECK(assigned.value().decision == ReviewDecision::kChanged);  // it had no probe; a person chose one
   CHECK(assigned.value().code == "info_request");
   CHECK(assigned.value().probe_ref == p);
 
   auto dismissed = s.Decide(9, ReviewAction::kDismiss);
   REQUIRE(dismissed.ok());
-  CHECK(dismissed.value().decision == "dismissed");
+  CHECK(dismissed.value().decision == ReviewDecision::kDismissed);
   CHECK(dismissed.value().response_id == 0);
   CHECK(s.store->QueryInt("SELECT count(*) FROM response") == 2);
   CHECK(s.store->QueryInt(
@@ -226,7 +226,7 @@ TEST_CASE("mail review: a message without a date needs --at, without a suggestio
         "message 1 carries no date \u2014 give the time it arrived: --at YYYY-MM-DDTHH:MM");
   auto ok = DecideReview(*store, scheme, {1, ReviewAction::kCode, "info_request", "", "2027-03-06"});
   REQUIRE(ok.ok());
-  CHECK(ok.value().decision == "changed");
+  CHECK(ok.value().decision == ReviewDecision::kChanged);
 }
 
 TEST_CASE("mail review: after purge the queue still shows the sealed facts") {
