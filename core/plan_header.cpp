@@ -1,6 +1,7 @@
 #include "core/plan_header.h"
 
 #include <map>
+#include <optional>
 
 #include "core/clock.h"
 #include "core/sha256.h"
@@ -10,9 +11,20 @@ namespace twinprobe {
 
 int64_t StorePlanHeader(Store& store, int64_t seq, const std::string& origin, const Design& design,
                         std::vector<int64_t>& arm_ids) {
+  std::optional<PlanOrigin> parsed = ParsePlanOrigin(origin);
+  if (!parsed) throw StoreError("plan origin '" + origin + "' is not a stored origin (plan, import)");
+  return StorePlanHeader(store, seq, *parsed, design, arm_ids);
+}
+
+int64_t StorePlanHeader(Store& store, int64_t seq, PlanOrigin origin, const Design& design,
+                        std::vector<int64_t>& arm_ids) {
+  // Design::kind is still text (the design file reads it); the store keeps
+  // only spellings of DesignKind.
+  std::optional<DesignKind> kind = ParseDesignKind(design.kind);
+  if (!kind) throw StoreError("design kind '" + design.kind + "' is not a stored design kind");
   Stmt ins_plan = store.Prepare(
       "INSERT INTO plan(origin, kind, design_sha256, seed, created_at, audit_seq) VALUES (?1, ?2, ?3, ?4, ?5, ?6)");
-  ins_plan.Bind(1, origin).Bind(2, design.kind);
+  ins_plan.Bind(1, PlanOriginName(origin)).Bind(2, DesignKindName(*kind));
   if (design.canonical.empty()) ins_plan.BindNull(3);
   else ins_plan.Bind(3, Sha256Hex(design.canonical));
   ins_plan.Bind(4, static_cast<int64_t>(design.seed)).Bind(5, NowIso()).Bind(6, seq).Run();

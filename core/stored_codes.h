@@ -2,7 +2,7 @@
 // Codes the store keeps as text, each an enum with one table of its stored
 // spellings. A spelling is a file format: once written to a study.db it
 // never changes and is never reused for another meaning (docs/schema.md,
-// "Stored codes"). Add a new code at the end of its table.
+// "Conventions"). Add a new code at the end of its table.
 //
 // Each code has Parse…(text) -> the enum, or nullopt for a spelling the
 // table does not hold, and …Name(code) -> its stored spelling.

@@ -26,7 +26,7 @@ Result<PlanSummary> StorePlan(Store& store, const Design& design, const std::vec
   const int64_t seq = write.seq();
   PlanSummary summary;
   std::vector<int64_t> arm_ids;
-  summary.plan_id = StorePlanHeader(store, seq, std::string(PlanOriginName(PlanOrigin::kPlanned)), design, arm_ids);
+  summary.plan_id = StorePlanHeader(store, seq, PlanOrigin::kPlanned, design, arm_ids);
 
   PlanRowWriter rows(store);
   std::vector<int64_t> vacancy_ids;

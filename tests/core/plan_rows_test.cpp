@@ -32,7 +32,7 @@ Design PairDesign() {
 // first) and P00002 (coastal), under audit entry 1.
 void StorePair(Store& store, bool with_template) {
   std::vector<int64_t> arm_ids;
-  const int64_t plan = StorePlanHeader(store, 1, "plan", PairDesign(), arm_ids);
+  const int64_t plan = StorePlanHeader(store, 1, PlanOrigin::kPlanned, PairDesign(), arm_ids);
   PlanRowWriter rows(store);
   rows.InsertEmployer("E-0123456789", "Harbour Tools (invented)", "jobs@harbour.example");
   const int64_t v = rows.InsertVacancy(1, {plan, "V1", "E-0123456789", "2026-02-01"});
@@ -47,6 +47,20 @@ void StorePair(Store& store, bool with_template) {
 }
 
 }  // namespace
+
+TEST_CASE("plan header: the origin and kind are stored by their spellings, and a kind outside the table is refused") {
+  auto store = MemoryStore();
+  std::vector<int64_t> arm_ids;
+  StorePlanHeader(*store, 1, "import", PairDesign(), arm_ids);
+  CHECK(store->QueryInt("SELECT count(*) FROM plan WHERE origin = 'import' AND kind = 'paired'") == 1);
+  Design odd = PairDesign();
+  odd.kind = "triples";
+  CHECK_THROWS_WITH(StorePlanHeader(*store, 2, PlanOrigin::kPlanned, odd, arm_ids),
+                    "design kind 'triples' is not a stored design kind");
+  CHECK_THROWS_WITH(StorePlanHeader(*store, 2, "imported", PairDesign(), arm_ids),
+                    "plan origin 'imported' is not a stored origin (plan, import)");
+  CHECK(store->QueryInt("SELECT count(*) FROM plan") == 1);
+}
 
 TEST_CASE("plan rows: an empty store has no plan and no fieldwork") {
   auto store = MemoryStore();
