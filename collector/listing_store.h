@@ -27,7 +27,9 @@ void InsertFetchLog(Store& store, int64_t seq, const FetchLogEntry& entry);
 // Marks `new_id` as the replay of `replaced_id`.
 void InsertReplay(Store& store, int64_t seq, int64_t new_id, int64_t replaced_id);
 
+// A listing with its id (core/listing_pages.h).
 using StoredListing = StoredListingPage;
+
 // The current (not replaced) listings of a source, oldest first.
 std::vector<StoredListing> CurrentListings(Store& store, const std::string& source);
 
