@@ -1,5 +1,5 @@
 #pragma once
-// The listing audit: how groups are placed in ranked lists (DESIGN.md:
+// The listing audit: how groups are placed in ranked lists (docs/architecture.md:
 // listing), computed from the store for `analyze` and `report`.
 //
 // Reads every listing whose extraction is 'ok' with its items, and the

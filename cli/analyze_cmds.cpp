@@ -6,6 +6,7 @@
 #include <nlohmann/json.hpp>
 
 #include "analysis/analyze.h"
+#include "report/plural.h"
 #include "cli/command.h"
 #include "core/audit.h"
 #include "report/json_report.h"
@@ -47,8 +48,8 @@ int RunVerify(Context& ctx) {
                      .dump(2)
               << "\n";
   } else if (rep.ok()) {
-    std::cout << "The audit chain is intact: " << rep.entries << " entries sealing " << rep.sealed_rows
-              << " rows; head " << rep.head_hash.substr(0, 16) << "…\n";
+    std::cout << "The audit chain is intact: " << Count(rep.entries, "entry", "entries") << " sealing "
+              << Count(rep.sealed_rows, "row", "rows") << "; head " << rep.head_hash.substr(0, 16) << "…\n";
   } else {
     std::cout << "The audit chain is BROKEN. First broken link: entry " << rep.problems.front().seq << ": "
               << rep.problems.front().what << ".\n";

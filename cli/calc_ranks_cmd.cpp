@@ -164,7 +164,7 @@ void RegisterCalcRanks(CLI::App& app, Context& ctx) {
   w->add_option("--y", wo->y, "Second sample (rank-sum) or second measurement of each pair (--paired)");
   w->add_flag("--paired", wo->paired, "Signed-rank test of the differences x - y");
   w->add_option("--alternative", wo->alternative, "two-sided (default), less or greater: x shifted below or above y");
-  auto* exact = w->add_flag("--exact", wo->exact, "Exact null distribution (refused with ties or zeros, as R)");
+  auto* exact = w->add_flag("--exact", wo->exact, "Exact null distribution; with ties or zeros (or samples too large) it warns and falls back to the normal approximation, as R");
   auto* normal = w->add_flag("--normal", wo->normal, "Normal approximation with continuity correction");
   exact->excludes(normal);
   w->callback([&ctx, wo] { ctx.exit_code = RunWilcoxon(ctx, *wo); });

@@ -8,6 +8,7 @@
 
 #include "analysis/analyze.h"
 #include "analysis/listing_analysis.h"
+#include "report/plural.h"
 #include "cli/command.h"
 #include "collector/import_ranks.h"
 #include "collector/responses.h"
@@ -153,7 +154,7 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
             << "...) and the analysis plan before fieldwork\n"
             << "  simulated " << responses << " employer responses; true callback rates 27.8% (inland) vs 19.4% (coastal)\n"
             << "  imported  " << ranks.value().listings << " invented candidate rankings of Kestrel Board (invented) for the listing audit\n"
-            << "  audit     " << (audit.ok() ? "chain intact, " : "CHAIN BROKEN, ") << audit.entries << " entries\n\n"
+            << "  audit     " << (audit.ok() ? "chain intact, " : "CHAIN BROKEN, ") << Count(audit.entries, "entry", "entries") << "\n\n"
             << RenderTextReport(result.value()) << "\n"
             << "Study folder: " << out_dir << "\n"
             << "Reports:      " << text_path << "\n"

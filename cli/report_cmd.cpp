@@ -113,11 +113,11 @@ int RunReport(Context& ctx, const ReportOptions& o) {
 void RegisterReport(CLI::App& app, Context& ctx) {
   auto ro = std::make_shared<ReportOptions>();
   auto* report = app.add_subcommand(
-      "report", "Write the study report: self-contained HTML with charts, plain text, or JSON (--json)");
+      "report", "Write the study report: plain text (the default), self-contained HTML with charts (--html), or JSON (--json)");
   report->add_option("--out", ro->out,
                      "Write to this file instead of standard output; FILE.html gives HTML, FILE.json JSON, other names text");
   report->add_flag("--html", ro->html, "HTML report (inline CSS and SVG charts; no external resources)");
-  report->add_flag("--text", ro->text, "Plain-text report");
+  report->add_flag("--text", ro->text, "Plain-text report (the default when neither --html, --json nor --out FILE.html/.json is given)");
   report->add_flag("--reveal-employers", ro->reveal_employers,
                    "Show employer names beside their pseudonyms (recorded in the audit chain)");
   report->callback([&ctx, ro] { ctx.exit_code = RunReport(ctx, *ro); });

@@ -37,7 +37,7 @@ int RunInit(Context& ctx) {
     std::cout << nlohmann::json{{"study", ctx.study_dir}, {"files", DemoStudyFiles().size()}}.dump(2) << "\n";
   } else {
     std::cout << "Created an example study in " << ctx.study_dir << " (" << DemoStudyFiles().size()
-              << " files: study.toml, vacancies.csv, name pools, templates).\n"
+              << " files: study.toml, vacancies.csv, name pools, templates, a ranks file for a listing audit).\n"
               << "It is the invented demo scenario: replace the names, templates and vacancies with your own,\n"
               << "fill in [ethics] with your board's approval, then run 'twinprobe check' and 'twinprobe plan'.\n";
   }

@@ -1,6 +1,6 @@
 #pragma once
 // A one-line progress bar on stderr, drawn only when stderr is a terminal
-// (DESIGN.md: long work shows progress on a terminal and stays quiet
+// (docs/architecture.md: long work shows progress on a terminal and stays quiet
 // otherwise). Rendering is a pure function so it can be tested.
 #include <cstddef>
 #include <string>

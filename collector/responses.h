@@ -1,5 +1,5 @@
 #pragma once
-// Recording what came back to a probe (DESIGN.md: response) and marking
+// Recording what came back to a probe (docs/architecture.md: response) and marking
 // probes sent. Nothing is overwritten: a new response to a probe that
 // already has one supersedes it, and both stay; a second sending of a probe
 // is a new row too, and the newest one counts.

@@ -1,6 +1,6 @@
 #pragma once
 // Raw fetched bodies kept as evidence: content-addressed files under the
-// study's snapshots/ folder (DESIGN.md: "snapshots/ (raw fetched pages,
+// study's snapshots/ folder (docs/architecture.md: "snapshots/ (raw fetched pages,
 // content-addressed)"). A body is stored once, at
 //   snapshots/<first two hex digits>/<SHA-256 of the bytes, lower-case hex>
 // written to a temporary file in the same folder, flushed to disk and renamed

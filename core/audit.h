@@ -1,5 +1,5 @@
 #pragma once
-// The audit chain (DESIGN.md, "Store rules"). Every writing command runs in
+// The audit chain (docs/architecture.md, "Store rules"). Every writing command runs in
 // one AuditedWrite: one transaction, one audit row. Rows the command adds
 // carry the audit row's seq; on commit their canonical serialisation is
 // hashed into `content_sha256`, and the audit row's own hash covers the

@@ -1,7 +1,7 @@
 #pragma once
 // The study design as plain data: what `study.toml` says, after parsing and
 // validation (planner/design_file.h reads it; every other module takes it as
-// a value). Field names follow DESIGN.md's words.
+// a value). Field names follow the words of docs/architecture.md.
 #include <cstdint>
 #include <map>
 #include <optional>
@@ -91,7 +91,7 @@ struct FieldRule {
   SourcePos pos;
 };
 
-// A permitted web source for a listing audit (DESIGN.md: [[source]]; read by
+// A permitted web source for a listing audit (docs/design-file.md: [[source]]; read by
 // planner/source_section.h, fetched by collector/fetch_run.h).
 struct Source {
   std::string name;

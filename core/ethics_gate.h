@@ -1,5 +1,5 @@
 #pragma once
-// The ethics policy gate (DESIGN.md; ethics/README.md). Safeguards written in
+// The ethics policy gate (docs/architecture.md; ethics/README.md). Safeguards written in
 // a protocol and not enforced are forgotten in week three of fieldwork, so
 // `check` and `plan` refuse a design that does not state them.
 #include <string>

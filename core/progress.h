@@ -1,6 +1,6 @@
 #pragma once
 // A progress bar for long work (imports, fetching, rendering, permutation
-// tests; DESIGN.md): drawn on stderr only when stderr is a terminal, quiet
+// tests; docs/architecture.md): drawn on stderr only when stderr is a terminal, quiet
 // otherwise, so logs and pipes stay clean. Redraws at most ten times a
 // second; Update() is cheap enough to call once per row.
 //

@@ -1,5 +1,5 @@
 #pragma once
-// Keyed pseudonyms for employers (DESIGN.md, "Store rules"): the key is an
+// Keyed pseudonyms for employers (docs/architecture.md, "Store rules"): the key is an
 // HMAC-SHA-256 of the normalised employer name under a per-study secret, so
 // the same employer gets the same key within a study, while the key reveals
 // nothing once `purge` has removed the secret and the employer table.

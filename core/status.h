@@ -8,7 +8,7 @@
 
 namespace twinprobe {
 
-// Process exit codes (DESIGN.md): 0 ok, 1 bad input or failed check, 2 usage, 3 internal.
+// Process exit codes (docs/architecture.md): 0 ok, 1 bad input or failed check, 2 usage, 3 internal.
 enum class ExitCode { kOk = 0, kBadInput = 1, kUsage = 2, kInternal = 3 };
 
 enum class ErrorKind { kBadInput, kUsage, kInternal };

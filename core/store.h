@@ -1,5 +1,5 @@
 #pragma once
-// The study store: one SQLite file per study (DESIGN.md, "Store rules").
+// The study store: one SQLite file per study (docs/architecture.md, "Store rules").
 // WAL mode, foreign keys on, a busy timeout, migrations by PRAGMA user_version.
 //
 // SQLite failures that are not the user's fault (disk full, a corrupt file,

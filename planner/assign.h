@@ -1,6 +1,6 @@
 #pragma once
 // Assignment of profiles, templates, send order and send times to vacancies
-// (DESIGN.md, "planner"). Deterministic from the design's seed through
+// (docs/architecture.md, "planner"). Deterministic from the design's seed through
 // stats::Rng only: the same design, vacancies and pools give the same plan,
 // byte for byte.
 //

@@ -7,6 +7,7 @@
 #include <fstream>
 #include <set>
 #include <sstream>
+#include <stdexcept>
 
 #include "core/clock.h"
 #include "core/suggest.h"
@@ -19,6 +20,14 @@
 namespace twinprobe {
 namespace fs = std::filesystem;
 namespace {
+
+// The keys of one section, from the single list below; a section missing from
+// it is a programming error, so it fails loudly in tests.
+const std::vector<std::string>& KeysOf(const std::string& section) {
+  for (const auto& s : KnownDesignKeys())
+    if (s.section == section) return s.keys;
+  throw std::logic_error("no known keys for " + section);
+}
 
 // Walks the parsed TOML and turns every problem into one positioned error.
 class DesignReader {
@@ -187,7 +196,7 @@ void DesignReader::CheckFile(const toml::node* node, const std::string& rel, con
 void DesignReader::ReadStudy(Design& d) {
   const toml::table* s = Table(root_, "study", true);
   if (!s) return;
-  CheckKeys(*s, "[study]", {"id", "title", "seed", "kind"});
+  CheckKeys(*s, "[study]", KeysOf("[study]"));
   d.study_id = String(*s, "[study]", "id", true);
   for (char c : d.study_id)
     if (!(std::isalnum(static_cast<unsigned char>(c)) || c == '-' || c == '_' || c == '.')) {
@@ -215,7 +224,7 @@ void DesignReader::ReadFactors(Design& d) {
   }
   for (const auto& el : *n->as_array()) {
     const toml::table& t = *el.as_table();
-    CheckKeys(t, "[[factor]]", {"name", "levels", "reference", "fields"});
+    CheckKeys(t, "[[factor]]", KeysOf("[[factor]]"));
     Factor f;
     f.pos = Pos(&t);
     f.name = String(t, "[[factor]]", "name", true);
@@ -286,7 +295,7 @@ std::string ArmLabel(const std::map<std::string, std::string>& levels) {
 void DesignReader::ReadArms(Design& d) {
   const toml::table* a = Table(root_, "arms", false);
   std::vector<std::map<std::string, std::string>> combos;
-  if (a) CheckKeys(*a, "[arms]", {"include", "list"});
+  if (a) CheckKeys(*a, "[arms]", KeysOf("[arms]"));
   const toml::node* list = a ? a->get("list") : nullptr;
   if (list) {
     if (!list->is_array()) {
@@ -398,7 +407,7 @@ void DesignReader::CheckPattern(const toml::table& p, const std::string& key, co
 // One [[profiles.pool]]: factor = "origin", level = "coastal" (names signal one
 // factor) or levels = { gender = "f", origin = "coastal" } (several).
 void DesignReader::ReadPool(const toml::table& t, Design& d) {
-  CheckKeys(t, "[[profiles.pool]]", {"factor", "level", "levels", "file"});
+  CheckKeys(t, "[[profiles.pool]]", KeysOf("[[profiles.pool]]"));
   NamePool np;
   np.pos = Pos(&t);
   np.file = String(t, "[[profiles.pool]]", "file", true);
@@ -463,7 +472,7 @@ void DesignReader::ReadPool(const toml::table& t, Design& d) {
 void DesignReader::ReadProfiles(Design& d) {
   const toml::table* p = Table(root_, "profiles", true);
   if (!p) return;
-  CheckKeys(*p, "[profiles]", {"mailbox", "phone", "pool"});
+  CheckKeys(*p, "[profiles]", KeysOf("[profiles]"));
   d.mailbox_pattern = String(*p, "[profiles]", "mailbox", false, d.mailbox_pattern);
   d.phone_pattern = String(*p, "[profiles]", "phone", false, "");
   CheckPattern(*p, "mailbox", d.mailbox_pattern);
@@ -514,7 +523,7 @@ void DesignReader::ReadProfiles(Design& d) {
 void DesignReader::ReadTemplates(Design& d) {
   const toml::table* t = Table(root_, "templates", true);
   if (!t) return;
-  CheckKeys(*t, "[templates]", {"files", "factor_fields"});
+  CheckKeys(*t, "[templates]", KeysOf("[templates]"));
   d.templates = Strings(*t, "[templates]", "files", true);
   const toml::node* files = t->get("files");
   if (files && files->is_array())
@@ -530,7 +539,7 @@ void DesignReader::ReadTemplates(Design& d) {
 void DesignReader::ReadSchedule(Design& d) {
   const toml::table* s = Table(root_, "schedule", false);
   if (!s) return;
-  CheckKeys(*s, "[schedule]", {"start", "gap_hours", "weekdays", "hours", "sets_per_day"});
+  CheckKeys(*s, "[schedule]", KeysOf("[schedule]"));
   d.schedule.start = String(*s, "[schedule]", "start", false, "");
   if (!d.schedule.start.empty() && !ParseIsoTime(d.schedule.start))
     Fail(s->get("start"), "[schedule].start '" + d.schedule.start + "' is not a date", "write it as YYYY-MM-DD");
@@ -592,7 +601,7 @@ void DesignReader::ReadSchedule(Design& d) {
 void DesignReader::ReadOutcomes(Design& d) {
   const toml::table* o = Table(root_, "outcomes", false);
   if (!o) return;
-  CheckKeys(*o, "[outcomes]", {"codes", "positive", "window_days"});
+  CheckKeys(*o, "[outcomes]", KeysOf("[outcomes]"));
   d.outcomes.codes = Strings(*o, "[outcomes]", "codes", false, d.outcomes.codes);
   d.outcomes.positive = Strings(*o, "[outcomes]", "positive", false, d.outcomes.positive);
   d.outcomes.window_days = static_cast<int>(Integer(*o, "[outcomes]", "window_days", 28, 1, 3650));
@@ -606,16 +615,16 @@ void DesignReader::ReadOutcomes(Design& d) {
 
 void DesignReader::ReadRest(Design& d) {
   if (const toml::table* s = Table(root_, "strata", false)) {
-    CheckKeys(*s, "[strata]", {"columns"});
+    CheckKeys(*s, "[strata]", KeysOf("[strata]"));
     d.strata = Strings(*s, "[strata]", "columns", false);
   }
   if (const toml::table* v = Table(root_, "vacancies", false)) {
-    CheckKeys(*v, "[vacancies]", {"file"});
+    CheckKeys(*v, "[vacancies]", KeysOf("[vacancies]"));
     d.vacancies_file = String(*v, "[vacancies]", "file", false, d.vacancies_file);
     CheckFile(v->get("file"), d.vacancies_file, "the vacancies file");
   }
   if (const toml::table* a = Table(root_, "analysis", false)) {
-    CheckKeys(*a, "[analysis]", {"primary", "correction", "alpha", "looks"});
+    CheckKeys(*a, "[analysis]", KeysOf("[analysis]"));
     d.analysis.primary = String(*a, "[analysis]", "primary", false, d.analysis.primary);
     d.analysis.correction = String(*a, "[analysis]", "correction", false, d.analysis.correction);
     static const std::vector<std::string> kCorrections = {"none", "bonferroni", "holm", "hochberg", "hommel", "bh", "by"};
@@ -638,7 +647,7 @@ void DesignReader::ReadRest(Design& d) {
     }
   }
   if (const toml::table* e = Table(root_, "ethics", false)) {
-    CheckKeys(*e, "[ethics]", {"approval", "retention_days", "decline_within_hours", "cap_per_employer"});
+    CheckKeys(*e, "[ethics]", KeysOf("[ethics]"));
     d.ethics.present = true;
     d.ethics.approval = String(*e, "[ethics]", "approval", false);
     d.ethics.retention_days = static_cast<int>(Integer(*e, "[ethics]", "retention_days", 0, 1, 36500));
@@ -648,9 +657,7 @@ void DesignReader::ReadRest(Design& d) {
 }
 
 Result<Design> DesignReader::Read() {
-  CheckKeys(root_, "the design",
-            {"study", "factor", "arms", "profiles", "templates", "vacancies", "schedule", "outcomes", "strata",
-             "analysis", "ethics", "source", "mail"});
+  CheckKeys(root_, "the design", KeysOf("the design"));
   Design d;
   ReadStudy(d);
   // A listing audit (kind = "listing") sends no probes: its factors, profiles
@@ -676,6 +683,27 @@ Result<Design> DesignReader::Read() {
 }
 
 }  // namespace
+
+const std::vector<DesignSectionKeys>& KnownDesignKeys() {
+  static const std::vector<DesignSectionKeys> kKeys{
+      {"the design",
+       {"study", "factor", "arms", "profiles", "templates", "vacancies", "schedule", "outcomes", "strata", "analysis",
+        "ethics", "source", "mail"}},
+      {"[study]", {"id", "title", "seed", "kind"}},
+      {"[[factor]]", {"name", "levels", "reference", "fields"}},
+      {"[arms]", {"include", "list"}},
+      {"[profiles]", {"mailbox", "phone", "pool"}},
+      {"[[profiles.pool]]", {"factor", "level", "levels", "file"}},
+      {"[templates]", {"files", "factor_fields"}},
+      {"[vacancies]", {"file"}},
+      {"[schedule]", {"start", "gap_hours", "weekdays", "hours", "sets_per_day"}},
+      {"[outcomes]", {"codes", "positive", "window_days"}},
+      {"[strata]", {"columns"}},
+      {"[analysis]", {"primary", "correction", "alpha", "looks"}},
+      {"[ethics]", {"approval", "retention_days", "decline_within_hours", "cap_per_employer"}},
+  };
+  return kKeys;
+}
 
 std::string DesignPath(const std::string& study_dir) { return (fs::path(study_dir) / "study.toml").string(); }
 

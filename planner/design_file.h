@@ -1,8 +1,9 @@
 #pragma once
-// Reading and validating the design file, study.toml (DESIGN.md, "The design
-// file"). Every error names study.toml:LINE:COL and says how to fix it.
+// Reading and validating the design file, study.toml (docs/design-file.md, the
+// reference). Every error names study.toml:LINE:COL and says how to fix it.
 #include <string>
 #include <string_view>
+#include <vector>
 
 #include "core/design.h"
 #include "core/status.h"
@@ -19,5 +20,15 @@ Result<Design> ParseDesign(std::string_view text, const std::string& label, cons
 
 // Path of the design file in a study folder.
 std::string DesignPath(const std::string& study_dir);
+
+// The keys the design reader accepts, section by section, in the order
+// docs/design-file.md documents them (a test keeps the page and this list
+// equal). "the design" lists the top-level sections. [[source]] and [mail]
+// check their own keys (planner/source_section.h, planner/mail_section.h).
+struct DesignSectionKeys {
+  std::string section;  // as written in messages: "[study]", "[[factor]]", …
+  std::vector<std::string> keys;
+};
+const std::vector<DesignSectionKeys>& KnownDesignKeys();
 
 }  // namespace twinprobe

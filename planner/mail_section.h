@@ -1,5 +1,5 @@
 #pragma once
-// The [mail] section of study.toml (DESIGN.md, "The design file"; the keys and
+// The [mail] section of study.toml (docs/design-file.md; the keys and
 // a worked example are in docs/mail.md):
 //
 //   [mail]

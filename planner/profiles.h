@@ -1,5 +1,5 @@
 #pragma once
-// Profiles: the fictitious applicants as sent (DESIGN.md, "Words"). There is
+// Profiles: the fictitious applicants as sent (docs/architecture.md, "Words"). There is
 // one profile per arm and name of the arm's pool; a profile carries every
 // template field that belongs to the applicant:
 //   given_name, family_name, full_name   from the name pool

@@ -3,6 +3,7 @@
 #include <cmath>
 
 #include "report/html_escape.h"
+#include "report/plural.h"
 #include "report/html_parts.h"
 #include "report/html_sections.h"
 #include "report/html_table.h"
@@ -167,7 +168,7 @@ std::string StampTable(const AnalysisResult& r, const ReportContext& ctx) {
                    " sets analysed"},
   };
   if (!ctx.audit_head.empty())
-    rows.push_back({"Audit chain", std::to_string(ctx.audit_entries) + " entries, " +
+    rows.push_back({"Audit chain", Count(ctx.audit_entries, "entry", "entries") + ", " +
                                        (ctx.audit_intact ? "intact" : "BROKEN (run twinprobe verify)") + ", head " +
                                        ctx.audit_head});
   rows.push_back({"Employer names", ctx.reveal_employers ? "shown (--reveal-employers, recorded in the audit chain)"

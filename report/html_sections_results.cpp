@@ -2,6 +2,7 @@
 #include <cmath>
 
 #include "report/html_escape.h"
+#include "report/plural.h"
 #include "report/html_parts.h"
 #include "report/html_sections.h"
 #include "report/html_table.h"
@@ -48,7 +49,7 @@ std::string SummaryKeyFigures(const AnalysisResult& r, const ReportContext&) {
     o += KeyFigure(std::to_string(r.paired.b) + " : " + std::to_string(r.paired.c),
                    "unequal pairs favouring " + UserText(ArmName(r.reference_label)) + " : " +
                        UserText(ArmName(r.other_label)),
-                   std::to_string(r.paired.discordant()) + " of " + std::to_string(r.paired.n()) + " pairs");
+                   std::to_string(r.paired.discordant()) + " of " + Count(r.paired.n(), "pair", "pairs"));
     if (!r.effects.comparisons.empty() && r.effects.comparisons.front().paired &&
         !std::isnan(r.effects.comparisons.front().net.among_positive.estimate)) {
       const auto& net = r.effects.comparisons.front().net.among_positive;

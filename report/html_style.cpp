@@ -77,6 +77,12 @@ bdi { unicode-bidi: isolate; }
   h1 { font-size: 20pt; }
   h2 { font-size: 14pt; margin-top: 18pt; break-after: avoid; page-break-after: avoid; }
   h3 { break-after: avoid; page-break-after: avoid; }
+  /* A heading keeps its introduction and its first chart or table on the same page. Chromium
+     honours break-after: avoid after a paragraph of several lines only when the paragraph is
+     laid out as a table (checked with --print-to-pdf on the demo report). */
+  h2 + p, h3 + p, h2 + p + p, h3 + p + p {
+    display: table; break-inside: avoid; page-break-inside: avoid; break-after: avoid; page-break-after: avoid;
+  }
   .toc { display: none; }
   .figure-body { display: block; }
   .figure-body .figure-table { margin-top: 6pt; }

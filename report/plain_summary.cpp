@@ -1,4 +1,5 @@
 #include "report/plain_summary.h"
+#include "report/plural.h"
 
 #include <cmath>
 #include <cstdio>
@@ -22,10 +23,6 @@ std::string Join(const std::vector<std::string>& items, const std::string& last_
 std::string Article(const std::string& word) {
   const bool vowel = !word.empty() && std::string("aeiouAEIOU").find(word[0]) != std::string::npos;
   return (vowel ? "an " : "a ") + word;
-}
-
-std::string Count(int64_t n, const std::string& one, const std::string& many) {
-  return std::to_string(n) + " " + (n == 1 ? one : many);
 }
 
 std::string Alpha(double alpha) {
@@ -74,8 +71,9 @@ std::string WhatWasFound(const AnalysisResult& r) {
   o << "Employers answered positively to " << Join(parts, " and ") << ".";
   if (r.has_paired) {
     const auto& t = r.paired;
-    o << " Of the " << t.n() << " pairs, both applicants were answered positively in " << t.a << " and neither in "
-      << t.d << ". In the " << t.discordant() << " pairs where the employer treated the two differently, only the "
+    o << " Of the " << Count(t.n(), "pair", "pairs") << ", both applicants were answered positively in " << t.a
+      << " and neither in " << t.d << ". In the " << Count(t.discordant(), "pair", "pairs")
+      << " where the employer treated the two differently, only the "
       << ArmName(r.reference_label) << " applicant was answered positively " << Count(t.b, "time", "times")
       << " and only the " << ArmName(r.other_label) << " applicant " << Count(t.c, "time", "times") << ".";
     if (!r.effects.comparisons.empty() && r.effects.comparisons.front().paired) {
@@ -95,8 +93,8 @@ std::string HowSure(const AnalysisResult& r) {
   std::ostringstream o;
   const int conf = static_cast<int>(std::lround(r.confidence * 100));
   if (!r.has_paired) {
-    o << "The ranges in the chart of callback rates (" << conf
-      << "% confidence intervals) show how high or low each group's true callback rate may plausibly be.";
+    o << "The " << conf
+      << "% confidence intervals of the callback rates show how high or low each group's true callback rate may plausibly be.";
     return o.str();
   }
   const auto& t = r.paired;
@@ -104,7 +102,8 @@ std::string HowSure(const AnalysisResult& r) {
     o << "No employer treated the two applicants differently, so these data cannot show a difference either way.";
     return o.str();
   }
-  o << "If employers had no preference, a split of the " << t.discordant() << " unequal-treatment pairs at least as "
+  o << "If employers had no preference, a split of the " << Count(t.discordant(), "unequal-treatment pair", "unequal-treatment pairs")
+    << " at least as "
     << "uneven as " << t.b << " to " << t.c << " would happen by chance with probability "
     << (r.mcnemar_exact_p < 0.001 ? "below one in a thousand" : FormatP(r.mcnemar_exact_p)) << " ("
     << PlainP(r.mcnemar_exact_p) << ", exact McNemar test, two-sided). ";
@@ -116,8 +115,8 @@ std::string HowSure(const AnalysisResult& r) {
   else
     o << "That is not below the study's threshold of " << Alpha(r.alpha)
       << ", so the test does not show a difference. This is not proof that there is none; a larger study may find one. ";
-  o << "The ranges in the chart of callback rates (" << conf
-    << "% confidence intervals) show how high or low each group's true callback rate may plausibly be.";
+  o << "The " << conf
+    << "% confidence intervals of the callback rates show how high or low each group's true callback rate may plausibly be.";
   return o.str();
 }
 

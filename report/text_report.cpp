@@ -1,4 +1,5 @@
 #include "report/text_report.h"
+#include "report/plural.h"
 
 #include <algorithm>
 #include <cmath>
@@ -117,7 +118,7 @@ void EmployersBlock(std::ostringstream& o, const AnalysisResult& r) {
     if (x.discordant < 2) break;  // sorted, most unequal first
     if (!any) o << " With more than one, by pseudonym:\n";
     any = true;
-    o << "  " << x.pseudonym << ": " << x.vacancies << " pairs, only " << ArmName(r.reference_label) << " "
+    o << "  " << x.pseudonym << ": " << Count(x.vacancies, "pair", "pairs") << ", only " << ArmName(r.reference_label) << " "
       << x.table.b << ", only " << ArmName(r.other_label) << " " << x.table.c << "\n";
   }
   if (!any) o << " None had more than one.\n";
@@ -231,7 +232,7 @@ std::string RenderListingText(const ListingAudit& a, double alpha, bool heading)
       << "are the noise floor):\n";
     for (const auto& p : a.overlap)
       o << "  " << p.profile_a << " vs " << p.profile_b << ": " << Fixed(p.mean_jaccard_distance, 3) << " over "
-        << p.comparisons << " pairs of lists\n";
+        << Count(p.comparisons, "pair", "pairs") << " of lists\n";
   }
   return o.str();
 }
@@ -251,7 +252,7 @@ std::string RenderTextReport(const AnalysisResult& r, const ReportContext& ctx) 
     }
   }
   o << "\nMade with twinprobe " << ctx.tool_version << " at " << ctx.generated_at << "; audit chain "
-    << ctx.audit_entries << " entries, " << (ctx.audit_intact ? "intact" : "BROKEN") << ", head " << ctx.audit_head
+    << Count(ctx.audit_entries, "entry", "entries") << ", " << (ctx.audit_intact ? "intact" : "BROKEN") << ", head " << ctx.audit_head
     << ".\n";
   return o.str();
 }
@@ -292,14 +293,14 @@ std::string RenderTextReport(const AnalysisResult& r) {
     o << "  only " << r.other_label << std::string(r.other_label.size() < 23 ? 23 - r.other_label.size() : 1, ' ')
       << "c = " << t.c << "\n";
     o << "  neither                     d = " << t.d << "\n";
-    o << "Exact McNemar test (conditional binomial on the " << t.discordant()
-      << " discordant pairs, two-sided): p = " << FormatP(r.mcnemar_exact_p) << ".\n";
+    o << "Exact McNemar test (conditional binomial on the " << Count(t.discordant(), "discordant pair", "discordant pairs")
+      << ", two-sided): p = " << FormatP(r.mcnemar_exact_p) << ".\n";
     if (t.discordant() == 0)
       o << "No pair was discordant, so the data say nothing about a difference between the arms.\n";
     else if (r.mcnemar_exact_p < r.alpha)
       o << "At alpha = " << r.alpha << " the data are not compatible with equal callback chances: "
         << (t.b > t.c ? r.reference_label : r.other_label) << " was favoured in " << std::max(t.b, t.c) << " of "
-        << t.discordant() << " pairs where the employer treated the two applicants differently.\n";
+        << Count(t.discordant(), "pair", "pairs") << " where the employer treated the two applicants differently.\n";
     else
       o << "At alpha = " << r.alpha << " the test does not show a difference; this is not evidence that there is none.\n";
   }

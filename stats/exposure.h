@@ -17,7 +17,7 @@
 //                 precision (Moffat & Zobel 2008, ACM TOIS 27(1), article 2):
 //                 the reader moves on to the next item with probability
 //                 `patience`, 0 < patience < 1.
-// Sources are cited from memory (METHODS.md section 5 marks them [M]).
+// The sources above are cited from memory.
 #include <cstdint>
 #include <string>
 #include <vector>

@@ -8,9 +8,10 @@
 // origin=coastal and gender=m, origin=coastal). The disparity of a cell is
 // the mean distance between it and each of its neighbours: comparing only
 // neighbours attributes each gap to one factor at a time. This is the
-// toolkit's own construction (no published source uses the term; METHODS.md
-// section 5 notes the closest designs: Hannák et al. 2013 one-attribute
-// control accounts, Chen et al. 2018 per-attribute group comparisons).
+// toolkit's own construction (no published source uses the term; the closest
+// published designs are Hannák et al. 2013, WWW '13, one-attribute control
+// accounts, and Chen, Ma, Hannák & Wilson 2018, CHI '18, per-attribute group
+// comparisons).
 //
 // A split of the listed population is a partition of the cells defined by
 // the protected factors: pick some factors, and for each picked factor a

@@ -121,8 +121,8 @@ double ConnorPower(double n_sets, const PairedAlternative& alt, double alpha, in
 
 // Miettinen (1968), "The matched pairs design in the case of all-or-none
 // responses", Biometrics 24:339-352: as Connor with psi - delta^2 replaced by
-// psi - delta^2 (3 + psi) / 4 (formula from memory, ../shared/METHODS.md §3;
-// it reproduces the 23.33 computed there for Connor's worked example).
+// psi - delta^2 (3 + psi) / 4 (formula from memory; on Connor's worked example
+// it gives 23.33, as R 4.2.2 does with the same formula written out).
 double MiettinenSampleSize(const PairedAlternative& alt, double alpha, double power, int sides = 2);
 double MiettinenPower(double n_sets, const PairedAlternative& alt, double alpha, int sides = 2);
 

@@ -5,7 +5,7 @@
 //   J(A, B) = |A n B| / |A u B|,  distance = 1 - J   (Jaccard 1912, New
 //   Phytologist 11(2):37-50 [from memory]),
 // as used to measure personalisation of search results by Hannák et al.
-// (2013, WWW '13; METHODS.md section 5), who compare treatment-vs-control
+// (2013, "Measuring personalization of web search", WWW '13), who compare treatment-vs-control
 // distances with the control-vs-control noise floor.
 #include <string>
 #include <vector>

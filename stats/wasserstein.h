@@ -8,8 +8,8 @@
 // the distance scipy.stats.wasserstein_distance computes (scipy's
 // `_cdf_distance` with p = 1), and the one-dimensional case of the earth
 // mover's distance of Rubner, Tomasi & Guibas (2000), IJCV 40(2):99-121 [from
-// memory]. Check values (METHODS.md section 5, equal to scipy's documented
-// examples): W1([0,1,3],[5,6,8]) = 5; W1([0,1],[0,1]; w [3,1],[2,2]) = 0.25;
+// memory]. Check values (scipy.stats.wasserstein_distance documentation,
+// its Examples section): W1([0,1,3],[5,6,8]) = 5; W1([0,1],[0,1]; w [3,1],[2,2]) = 0.25;
 // W1([3.4,3.9,7.5,7.8],[4.5,1.4]; w [1.4,0.9,3.1,7.2],[3.2,3.5]) = 4.0781331438.
 #include <cstdint>
 #include <string>

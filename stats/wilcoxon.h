@@ -25,7 +25,7 @@
 //   of the standardised statistic with uniroot (tol 1e-4), which lands on or
 //   within the flat step around this median: a definitional difference of at
 //   most the gap between the two middle averages, documented in docs/methods.md.
-// Check value (METHODS.md section 5): Darwin's Zea mays data as in Cureton,
+// Check value (Cureton 1967, JASA 62:1068-1069 [from memory]; R 4.2.2 wilcox.test): Darwin's Zea mays data as in Cureton,
 // differences 6,8,14,16,23,24,28,29,41,-48,49,56,60,-67,75: V = 96, exact
 // two-sided p = 0.041259765625.
 #include <cstdint>

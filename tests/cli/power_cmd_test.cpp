@@ -26,7 +26,7 @@ TEST_CASE("power cli: paired sample size from the practitioner's rates, text and
   CHECK(j["applications"] == 1290);
   CHECK_THAT(j["p10"].get<double>(), WithinAbs(0.05, 1e-12));
   CHECK_THAT(j["p01"].get<double>(), WithinAbs(0.02, 1e-12));
-  CHECK_THAT(j["connor"]["n"].get<double>(), WithinAbs(608.1, 0.05));  // METHODS.md §3
+  CHECK_THAT(j["connor"]["n"].get<double>(), WithinAbs(608.1, 0.05));  // Connor (1987) formula in R 4.2.2: 608.105
   CHECK(j["connor"]["n_rounded"] == 609);
   CHECK_THAT(j["miettinen"]["n"].get<double>(), WithinAbs(608.7, 0.05));
   CHECK(j["table"].size() == 8);
@@ -70,7 +70,7 @@ TEST_CASE("power cli: unpaired as R's power.prop.test, with an SVG power curve")
   INFO(r.err);
   REQUIRE(r.exit_code == 0);
   auto j = nlohmann::json::parse(r.out);
-  CHECK(j["n"] == 1356);  // METHODS.md §3: 10% vs 7% needs 1,356 per arm
+  CHECK(j["n"] == 1356);  // R 4.2.2 power.prop.test(p1 = 0.10, p2 = 0.07, power = 0.8)$n = 1355.37
   CHECK_THAT(j["n_unrounded"].get<double>(),
              WithinRel(stats::NormalTwoProportionSampleSize(0.1, 0.07, 0.05, 0.8), 1e-12));
   std::string svg = testing::ReadFile(dir / "curve.svg");

@@ -158,7 +158,7 @@ TEST_CASE("import ranks: an item's group in the store cannot be changed by a lat
   CHECK(nlohmann::json::parse(a.out)["listing_audit"]["listings"] == 2);  // the store is unchanged
 }
 
-TEST_CASE("calc wilcoxon: Cureton's differences, exact, as R (METHODS.md section 5)") {
+TEST_CASE("calc wilcoxon: Cureton's differences, exact, as R") {
   auto r = RunCli({"--json", "calc", "wilcoxon", "--x", "6,8,14,16,23,24,28,29,41,-48,49,56,60,-67,75"});
   INFO(r.err);
   REQUIRE(r.exit_code == 0);

@@ -15,7 +15,7 @@ rsize <- function() sample(c(1:40, 60, 100, 250, 1000, 5000, 1e5, 1e6, 1e7), 1)
 add("binom", csv(682, 925, 0.75, 0, 0.95))        # Conover (1971), R's binom.test help
 add("mcnemar", csv(794, 150, 86, 570, 0.95))      # Agresti (1990/2002) approval ratings
 add("newcombe", csv(794, 150, 86, 570, 0.95))
-add("newcombe", csv(40, 30, 10, 0, 0.95))         # METHODS.md 2.2 net discrimination example
+add("newcombe", csv(40, 30, 10, 0, 0.95))         # net discrimination example (a, b, c of 40, 30, 10)
 add("newcombe", csv(14, 5, 0, 22, 0.95))          # Altman et al. (2000) Table 6.2 layout
 add("fisher", csv(3, 1, 1, 3, 2, 0.95))           # tea tasting, greater
 add("fisher", csv(3, 1, 1, 3, 0, 0.95))

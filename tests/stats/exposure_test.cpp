@@ -10,7 +10,7 @@ using Catch::Matchers::WithinAbs;
 using Catch::Matchers::WithinRel;
 
 TEST_CASE("exposure: alternating ranks 1..10 give mean exposure 0.5042 vs 0.4045 (log2)") {
-  // METHODS.md section 5 [C]: groups at ranks {1,3,5,7,9} and {2,4,6,8,10}
+  // R 4.2.2: mean(1 / log2(1 + c(1,3,5,7,9))) and the same for {2,4,6,8,10}:
   // under the DCG discount 1/log2(1+j): 0.5042 vs 0.4045, ratio 1.247.
   DiscountSpec log2;
   PositionSummary odd = SummarisePositions({1, 3, 5, 7, 9}, log2, 5);

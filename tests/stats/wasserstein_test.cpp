@@ -8,9 +8,9 @@ using namespace twinprobe::stats;
 using Catch::Matchers::WithinAbs;
 using Catch::Matchers::WithinRel;
 
-TEST_CASE("wasserstein: scipy's documented examples (METHODS.md section 5)") {
-  // scipy.stats.wasserstein_distance docstring examples; METHODS.md check
-  // values 5.0, 0.25 and 4.0781331438 (recomputed with scipy 1.10.1 in
+TEST_CASE("wasserstein: scipy's documented examples") {
+  // scipy.stats.wasserstein_distance docstring examples: 5.0, 0.25 and
+  // 4.0781331438 (recomputed with scipy 1.10.1 in
   // tests/reference/ranks/fixtures.json).
   CHECK_THAT(Wasserstein1({0, 1, 3}, {5, 6, 8}), WithinRel(5.0, 1e-15));
   CHECK_THAT(Wasserstein1({0, 1}, {0, 1}, {3, 1}, {2, 2}), WithinRel(0.25, 1e-15));

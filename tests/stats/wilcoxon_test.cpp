@@ -42,7 +42,7 @@ const std::vector<double> kCureton = {6, 8, 14, 16, 23, 24, 28, 29, 41, -48, 49,
 }  // namespace
 
 TEST_CASE("wilcoxon: Darwin's Zea mays differences (Cureton) give V = 96, exact p = 0.041259765625") {
-  // METHODS.md section 5: Darwin's paired plant heights as tabulated by
+  // Darwin's paired plant heights as tabulated by
   // Cureton; exact p 0.041259765625 (also R 4.2.2: wilcox.test(d)$p.value).
   RankTestResult r = WilcoxonSignedRank(kCureton);
   CHECK(r.statistic == 96);
@@ -52,14 +52,14 @@ TEST_CASE("wilcoxon: Darwin's Zea mays differences (Cureton) give V = 96, exact 
 
 TEST_CASE("wilcoxon: Cureton differences with the normal approximation give p = 0.0437723") {
   // R 4.2.2: wilcox.test(d, exact = FALSE)$p.value = 0.0437723237630412
-  // (METHODS.md section 5 rounds it to 0.04377).
+  // (0.04377 to four figures).
   RankTestResult r = WilcoxonSignedRank(kCureton, Alternative::kTwoSided, RankMethod::kNormal);
   CHECK_FALSE(r.exact);
   CHECK_THAT(r.p_value, WithinRel(0.0437723237630412, 1e-10));
 }
 
 TEST_CASE("wilcoxon: sign test on the Cureton differences, 13 of 15 positive, p = 0.00738525390625") {
-  // METHODS.md section 5 ([C] 0.00739); R 4.2.2 binom.test(13, 15)$p.value.
+  // R 4.2.2 binom.test(13, 15)$p.value = 0.007385253906.
   SignTestResult s = SignTest(kCureton);
   CHECK(s.positive == 13);
   CHECK(s.negative == 2);

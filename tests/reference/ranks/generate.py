@@ -43,7 +43,7 @@ def sample(n, decimals=None, lo=-5.0, hi=5.0):
 
 # ---- scipy: wasserstein_distance -------------------------------------------
 emd_cases = []
-# scipy's documented examples (also METHODS.md section 5 check values).
+# scipy's documented examples (scipy.stats.wasserstein_distance, Examples).
 emd_cases.append(dict(u=[0, 1, 3], v=[5, 6, 8], uw=[], vw=[]))
 emd_cases.append(dict(u=[0, 1], v=[0, 1], uw=[3, 1], vw=[2, 2]))
 emd_cases.append(dict(u=[3.4, 3.9, 7.5, 7.8], v=[4.5, 1.4], uw=[1.4, 0.9, 3.1, 7.2], vw=[3.2, 3.5]))
