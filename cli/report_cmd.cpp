@@ -110,6 +110,8 @@ int RunReport(Context& ctx, const ReportOptions& o) {
   return 0;
 }
 
+}  // namespace
+
 void RegisterReport(CLI::App& app, Context& ctx) {
   auto ro = std::make_shared<ReportOptions>();
   auto* report = app.add_subcommand(
@@ -123,7 +125,4 @@ void RegisterReport(CLI::App& app, Context& ctx) {
   report->callback([&ctx, ro] { ctx.exit_code = RunReport(ctx, *ro); });
 }
 
-const bool kRegistered = RegisterCommand(71, &RegisterReport);
-
-}  // namespace
 }  // namespace twinprobe
