@@ -10,6 +10,7 @@
 #include "analysis/analyze.h"
 #include "core/audit.h"
 #include "core/clock.h"
+#include "core/text.h"
 #include "planner/design_file.h"
 #include "report/html_report.h"
 #include "report/json_report.h"
@@ -51,9 +52,7 @@ struct ReportOptions {
 
 bool EndsWith(const std::string& s, const std::string& suffix) {
   if (s.size() < suffix.size()) return false;
-  std::string tail = s.substr(s.size() - suffix.size());
-  for (auto& ch : tail) ch = static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
-  return tail == suffix;
+  return Lower(std::string_view(s).substr(s.size() - suffix.size())) == suffix;
 }
 
 Result<Format> ChooseFormat(const Context& ctx, const ReportOptions& o) {
