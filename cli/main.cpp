@@ -18,11 +18,24 @@ using Registrar = void (*)(CLI::App& app, Context& ctx);
 // The order of `twinprobe --help`: the order of the work, from setting a
 // study up to reporting it. Each group registers all of its subcommands.
 constexpr Registrar kCommandGroups[] = {
-    &RegisterStudyCommands, &RegisterFreeze,        &RegisterPower,           &RegisterRender,
-    &RegisterSchedule,      &RegisterCollectCommands, &RegisterImportCommands, &RegisterHistory,
-    &RegisterMailCommand,   &RegisterReviewCommand, &RegisterFetchCommands,   &RegisterAnalyzeCommands,
-    &RegisterReport,        &RegisterExport,        &RegisterMonitor,         &RegisterCalcCommands,
-    &RegisterDemo,          &RegisterEthicsCommands,
+    &RegisterStudyCommands,    // init, check, plan
+    &RegisterFreeze,           // freeze
+    &RegisterPower,            // power
+    &RegisterRender,           // render
+    &RegisterSchedule,         // schedule
+    &RegisterCollectCommands,  // sent, record
+    &RegisterImportCommands,   // import outcomes|pairs|ranks|labels
+    &RegisterHistory,          // history
+    &RegisterMailCommand,      // mail
+    &RegisterReviewCommand,    // review
+    &RegisterFetchCommands,    // fetch
+    &RegisterAnalyzeCommands,  // analyze, verify
+    &RegisterReport,           // report
+    &RegisterExport,           // export
+    &RegisterMonitor,          // monitor
+    &RegisterCalcCommands,     // calc binom|mcnemar|fisher|mh|adjust|wilcoxon|emd
+    &RegisterDemo,             // demo
+    &RegisterEthicsCommands,   // decline, purge
 };
 
 constexpr char kGlobalGroup[] = "Global options (before or after the command)";
@@ -55,7 +68,8 @@ size_t NextWord(const std::vector<std::string>& args, size_t from) {
 
 std::vector<std::string> SubcommandNames(const CLI::App& command) {
   std::vector<std::string> names;
-  for (const auto* sub : command.get_subcommands([](const CLI::App*) { return true; })) names.push_back(sub->get_name());
+  for (const auto* sub : command.get_subcommands([](const CLI::App*) { return true; }))
+    names.push_back(sub->get_name());
   return names;
 }
 

@@ -2,7 +2,6 @@
 // global options in every --help, the usage line's name, `init DIR`, and the
 // one list that orders the commands.
 #include <catch2/catch.hpp>
-
 #include <filesystem>
 
 #include "testing/testing.h"
@@ -13,7 +12,8 @@ using testing::RunCli;
 TEST_CASE("cli: a misspelt command after global options still gets a suggestion") {
   auto r = RunCli({"--study", "x", "recrod"});
   CHECK(r.exit_code == 2);
-  CHECK(r.err == "twinprobe: unknown command 'recrod' (did you mean 'record'?) \u2014 run 'twinprobe --help' for the list\n");
+  CHECK(r.err ==
+        "twinprobe: unknown command 'recrod' (did you mean 'record'?) \u2014 run 'twinprobe --help' for the list\n");
   auto json = RunCli({"--json", "analyse"});
   CHECK(json.exit_code == 2);
   CHECK(json.err ==
@@ -23,11 +23,13 @@ TEST_CASE("cli: a misspelt command after global options still gets a suggestion"
 TEST_CASE("cli: a misspelt subcommand of a group names the group") {
   auto r = RunCli({"import", "--study", "x", "pair", "a.csv"});
   CHECK(r.exit_code == 2);
-  CHECK(r.err ==
-        "twinprobe: unknown command 'pair' (did you mean 'pairs'?) \u2014 run 'twinprobe import --help' for the list\n");
+  CHECK(
+      r.err ==
+      "twinprobe: unknown command 'pair' (did you mean 'pairs'?) \u2014 run 'twinprobe import --help' for the list\n");
   auto calc = RunCli({"calc", "mcnemr", "--table", "1,2,3,4"});
   CHECK(calc.err ==
-        "twinprobe: unknown command 'mcnemr' (did you mean 'mcnemar'?) \u2014 run 'twinprobe calc --help' for the list\n");
+        "twinprobe: unknown command 'mcnemr' (did you mean 'mcnemar'?) \u2014 run 'twinprobe calc --help' for the "
+        "list\n");
 }
 
 TEST_CASE("cli: every subcommand's help shows the global options and the name twinprobe") {

@@ -2,7 +2,6 @@
 // honours TWINPROBE_PROGRESS_DELAY_MS; before, render drew its own bar at once
 // and could not be told to wait.
 #include <catch2/catch.hpp>
-
 #include <cstdlib>
 
 #include "testing/testing.h"

@@ -1,6 +1,6 @@
-#include <catch2/catch.hpp>
-
 #include "core/text.h"
+
+#include <catch2/catch.hpp>
 
 using namespace twinprobe;
 

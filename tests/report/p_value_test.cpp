@@ -1,11 +1,10 @@
 // The one p-value rule: every output (analyze, report, monitor, calc) prints
 // p through these two functions.
-#include <catch2/catch.hpp>
+#include "report/p_value.h"
 
+#include <catch2/catch.hpp>
 #include <cmath>
 #include <limits>
-
-#include "report/p_value.h"
 
 using namespace twinprobe;
 

@@ -1,9 +1,10 @@
 // The power curve uses the report's one SVG toolkit: its escaping and its
 // colour-blind-safe palette (Okabe & Ito 2008).
+#include "report/svg_power.h"
+
 #include <catch2/catch.hpp>
 
 #include "report/svg_common.h"
-#include "report/svg_power.h"
 
 using namespace twinprobe;
 
