@@ -7,11 +7,10 @@
 #include <set>
 #include <tuple>
 
-#include <unistd.h>
-
 #include <cstdio>
 #include <memory>
 
+#include "core/progress.h"
 #include "stats/adjust.h"
 #include "stats/neighbour.h"
 #include "stats/rank_compare.h"
@@ -289,17 +288,12 @@ std::vector<DisparityEntry> Entries(const std::vector<std::string>& names, const
 }  // namespace
 
 stats::ProgressFn TerminalProgress(const std::string& label) {
-  if (!isatty(STDERR_FILENO)) return {};
-  auto last = std::make_shared<int>(-1);
-  return [label, last](int64_t done, int64_t total) {
-    int percent = total > 0 ? static_cast<int>(done * 100 / total) : 100;
-    if (percent == *last) return;  // redraw only when the figure changes
-    *last = percent;
-    const int width = 30, filled = percent * width / 100;
-    std::fprintf(stderr, "\r%s [%s%s] %3d%%", label.c_str(), std::string(static_cast<size_t>(filled), '=').c_str(),
-                 std::string(static_cast<size_t>(width - filled), ' ').c_str(), percent);
-    if (done >= total) std::fprintf(stderr, "\n");
-    std::fflush(stderr);
+  auto bar = std::make_shared<Progress>(label, 0);
+  if (!bar->enabled()) return {};  // no callback: the tests skip the bookkeeping
+  return [bar](int64_t done, int64_t total) {
+    bar->SetTotal(total);
+    bar->Update(done);
+    if (done >= total) bar->Finish();
   };
 }
 

@@ -121,8 +121,8 @@ Result<ListingAudit> AnalyzeListings(Store& store, const ListingOptions& options
 // terminal.
 Result<ListingAudit> AnalyzeStudyListings(Store& store, const AnalysisPlan& plan);
 
-// A progress callback that draws "LABEL [=====     ] 42%" on stderr when
-// stderr is a terminal, and does nothing (an empty function) otherwise.
+// A progress callback that feeds the one progress bar (core/progress.h) on a
+// terminal, and is an empty function otherwise.
 stats::ProgressFn TerminalProgress(const std::string& label);
 
 }  // namespace twinprobe

@@ -62,6 +62,8 @@ int RunVerify(Context& ctx) {
   return rep.ok() ? 0 : 1;
 }
 
+}  // namespace
+
 void RegisterAnalyzeCommands(CLI::App& app, Context& ctx) {
   app.add_subcommand("analyze", "Compute callback rates, the paired table and exact tests from the stored data")
       ->callback([&ctx] { ctx.exit_code = RunAnalyze(ctx); });
@@ -70,7 +72,4 @@ void RegisterAnalyzeCommands(CLI::App& app, Context& ctx) {
       ->callback([&ctx] { ctx.exit_code = RunVerify(ctx); });
 }
 
-const bool kRegistered = RegisterCommand(70, &RegisterAnalyzeCommands);
-
-}  // namespace
 }  // namespace twinprobe

@@ -5,8 +5,8 @@
 //   calc fisher  --table a,b,c,d [--alternative ...] [--conf 0.95]
 //   calc mh      --tables "a,b,c,d;..." [--conf 0.95] [--exact]
 //   calc adjust  --method M (--p p1,p2,... | --file FILE)
-// Other files add more calculators to the same "calc" subcommand
-// (app.get_subcommand("calc")), so it is created here by that name.
+// RegisterCalcCommands (end of this file) creates the group and adds these
+// and the rank calculators of cli/calc_ranks_cmd.cpp.
 #include <cmath>
 #include <cstdio>
 #include <fstream>
@@ -17,7 +17,9 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
+#include "core/text.h"
 #include "report/json_number.h"
+#include "report/p_value.h"
 #include "stats/adjust.h"
 #include "stats/binomial.h"
 #include "stats/exact_stratified.h"
@@ -34,24 +36,19 @@ using stats::PValue;
 
 // ---- parsing: every bad value is one clear line, exit 1 ----
 
-std::string Trim(const std::string& s) {
-  size_t a = s.find_first_not_of(" \t\r\n"), b = s.find_last_not_of(" \t\r\n");
-  return a == std::string::npos ? "" : s.substr(a, b - a + 1);
-}
-
 std::vector<std::string> SplitOn(const std::string& s, char sep) {
   std::vector<std::string> out;
   std::string cur;
   for (char ch : s) {
-    if (ch == sep) out.push_back(Trim(cur)), cur.clear();
+    if (ch == sep) out.emplace_back(Trim(cur)), cur.clear();
     else cur += ch;
   }
-  out.push_back(Trim(cur));
+  out.emplace_back(Trim(cur));
   return out;
 }
 
 Result<int64_t> ParseCount(const std::string& where, const std::string& text, const std::string& fix) {
-  std::string t = Trim(text);
+  std::string t(Trim(text));
   if (!t.empty() && t[0] == '-' && t.find_first_not_of("0123456789", 1) == std::string::npos && t.size() > 1)
     return BadInput(where, "counts cannot be negative, got " + t, fix);
   if (t.empty() || t.size() > 15 || t.find_first_not_of("0123456789") != std::string::npos)
@@ -60,7 +57,7 @@ Result<int64_t> ParseCount(const std::string& where, const std::string& text, co
 }
 
 Result<double> ParseNumber(const std::string& where, const std::string& text, const std::string& fix) {
-  std::string t = Trim(text);
+  std::string t(Trim(text));
   char* end = nullptr;
   double v = t.empty() ? NAN : std::strtod(t.c_str(), &end);
   if (t.empty() || end != t.c_str() + t.size() || !std::isfinite(v))
@@ -71,7 +68,7 @@ Result<double> ParseNumber(const std::string& where, const std::string& text, co
 Result<double> ParseProbability(const std::string& where, const std::string& text, const std::string& fix) {
   auto v = ParseNumber(where, text, fix);
   if (!v.ok()) return v;
-  if (v.value() < 0 || v.value() > 1) return BadInput(where, "a probability must lie in [0, 1], got " + Trim(text), fix);
+  if (v.value() < 0 || v.value() > 1) return BadInput(where, "a probability must lie in [0, 1], got " + std::string(Trim(text)), fix);
   return v;
 }
 
@@ -79,7 +76,7 @@ Result<double> ParseConf(const std::string& text) {
   auto v = ParseNumber("--conf", text, "give the confidence level as a fraction, e.g. --conf 0.95");
   if (!v.ok()) return v;
   if (!(v.value() > 0 && v.value() < 1))
-    return BadInput("--conf", "the confidence level must lie strictly between 0 and 1, got " + Trim(text),
+    return BadInput("--conf", "the confidence level must lie strictly between 0 and 1, got " + std::string(Trim(text)),
                     "e.g. --conf 0.95");
   return v;
 }
@@ -98,7 +95,7 @@ std::string AlternativeName(Alternative a) {
 Result<std::array<int64_t, 4>> ParseTable(const std::string& where, const std::string& text, const std::string& fix) {
   auto parts = SplitOn(text, ',');
   if (parts.size() != 4)
-    return BadInput(where, "expected four counts a,b,c,d separated by commas, got '" + Trim(text) + "'", fix);
+    return BadInput(where, "expected four counts a,b,c,d separated by commas, got '" + std::string(Trim(text)) + "'", fix);
   std::array<int64_t, 4> t{};
   for (size_t i = 0; i < 4; ++i) {
     auto v = ParseCount(where, parts[i], fix);
@@ -117,17 +114,6 @@ std::string Fmt(double v) {
   if (std::isinf(v)) return v > 0 ? "infinite" : "-infinite";
   char buf[32];
   std::snprintf(buf, sizeof buf, "%.4g", v);
-  return buf;
-}
-
-std::string FmtP(const PValue& p) {
-  if (std::isnan(p.p)) return "undefined";
-  char buf[64];
-  if (p.p < 1e-300) {
-    std::snprintf(buf, sizeof buf, "< 1e-300 (log10 p = %.1f)", p.log10_p);
-    return buf;
-  }
-  std::snprintf(buf, sizeof buf, p.p < 0.001 ? "%.3e" : "%.4g", p.p);
   return buf;
 }
 
@@ -156,8 +142,8 @@ std::string Verdict(const PValue& p, double conf, const std::string& shown, cons
   char level[32];
   std::snprintf(level, sizeof level, "%g", alpha);
   if (std::isnan(p.p)) return "The data hold no information on this question.\n";
-  if (p.p < alpha || p.underflowed()) return "At the " + std::string(level) + " level, " + shown + " (p = " + FmtP(p) + ").\n";
-  return "At the " + std::string(level) + " level the test does not show " + not_shown + " (p = " + FmtP(p) +
+  if (p.p < alpha || p.underflowed()) return "At the " + std::string(level) + " level, " + shown + " (" + PEquals(p) + ").\n";
+  return "At the " + std::string(level) + " level the test does not show " + not_shown + " (" + PEquals(p) +
          "); this is not evidence that there is none.\n";
 }
 
@@ -208,7 +194,7 @@ int RunBinom(const Context& ctx, const Options& o) {
             << Verdict(r.p, conf.value(), "the success rate differs from " + Fmt(p0.value()),
                        "a success rate different from " + Fmt(p0.value()))
             << "\n"
-            << Line("estimate x/n", Fmt(r.estimate)) << Line("exact p (" + AlternativeName(alt.value()) + ")", FmtP(r.p))
+            << Line("estimate x/n", Fmt(r.estimate)) << Line("exact p (" + AlternativeName(alt.value()) + ")", FormatP(r.p))
             << Line(Percent(conf.value()) + " CI, Clopper-Pearson (exact)", FmtCi(r.ci))
             << Line(Percent(conf.value()) + " CI, Wilson score", FmtCi(wilson));
   return 0;
@@ -256,9 +242,9 @@ int RunMcNemar(const Context& ctx, const Options& o) {
                              std::to_string(pc.discordant()) + " discordant pairs",
                          "a difference between the arms");
   std::cout << "\n"
-            << Line("exact McNemar p (two-sided)", FmtP(m.exact)) << Line("mid-p", FmtP(m.mid_p))
-            << Line("McNemar X^2 uncorrected", Fmt(m.chi2) + "   p = " + FmtP(m.chi2_p))
-            << Line("McNemar X^2 continuity-corrected", Fmt(m.chi2_corrected) + "   p = " + FmtP(m.chi2_corrected_p))
+            << Line("exact McNemar p (two-sided)", FormatP(m.exact)) << Line("mid-p", FormatP(m.mid_p))
+            << Line("McNemar X^2 uncorrected", Fmt(m.chi2) + "   " + PEquals(m.chi2_p))
+            << Line("McNemar X^2 continuity-corrected", Fmt(m.chi2_corrected) + "   " + PEquals(m.chi2_corrected_p))
             << Line("conditional odds ratio b/c", Fmt(cor.estimate) + "   " + Percent(conf.value()) + " CI " + FmtCi(cor.ci) + " (exact)")
             << Line("net discrimination (b-c)/(a+b+c)", Fmt(net.among_positive.estimate) + "   " + Percent(conf.value()) +
                                                            " CI " + FmtCi(net.among_positive.ci) + " (Newcombe)")
@@ -300,7 +286,7 @@ int RunFisher(const Context& ctx, const Options& o) {
   std::cout << "Fisher's exact test: reference arm " << tab.a << " of " << tab.a + tab.b << " positive, other arm " << tab.c
             << " of " << tab.c + tab.d << " (" << AlternativeName(alt.value()) << ").\n"
             << Verdict(r.p, conf.value(), "the positive rates of the two arms differ", "a difference between the arms") << "\n"
-            << Line("exact p (" + AlternativeName(alt.value()) + ")", FmtP(r.p))
+            << Line("exact p (" + AlternativeName(alt.value()) + ")", FormatP(r.p))
             << Line("conditional MLE odds ratio", Fmt(r.estimate) + "   " + Percent(conf.value()) + " CI " + FmtCi(r.ci) + " (exact)")
             << Line("sample odds ratio ad/bc", Fmt(woolf.estimate) + "   " + Percent(conf.value()) + " CI " + FmtCi(woolf.ci) + " (Woolf)");
   return 0;
@@ -364,14 +350,14 @@ int RunMh(const Context& ctx, const Options& o) {
             << "\n"
             << Line("Mantel-Haenszel odds ratio", Fmt(mh.estimate) + "   " + Percent(conf.value()) + " CI " + FmtCi(mh.ci) +
                                                      " (Robins-Breslow-Greenland)")
-            << Line("CMH X^2 with continuity correction", Fmt(mh.chi2_corrected) + "   p = " + FmtP(mh.chi2_corrected_p))
-            << Line("CMH X^2 without correction", Fmt(mh.chi2) + "   p = " + FmtP(mh.chi2_p));
+            << Line("CMH X^2 with continuity correction", Fmt(mh.chi2_corrected) + "   " + PEquals(mh.chi2_corrected_p))
+            << Line("CMH X^2 without correction", Fmt(mh.chi2) + "   " + PEquals(mh.chi2_p));
   if (exact)
-    std::cout << Line("exact conditional p (two-sided)", FmtP(exact->p))
+    std::cout << Line("exact conditional p (two-sided)", FormatP(exact->p))
               << Line("conditional MLE common odds ratio", Fmt(exact->estimate) + "   " + Percent(conf.value()) + " CI " +
                                                                FmtCi(exact->ci) + " (exact)");
-  std::cout << Line("Breslow-Day homogeneity X^2", Fmt(bd.statistic) + " on " + Fmt(bd.df) + " df   p = " + FmtP(bd.p))
-            << Line("  with Tarone's correction", Fmt(bd.tarone) + "   p = " + FmtP(bd.tarone_p));
+  std::cout << Line("Breslow-Day homogeneity X^2", Fmt(bd.statistic) + " on " + Fmt(bd.df) + " df   " + PEquals(bd.p))
+            << Line("  with Tarone's correction", Fmt(bd.tarone) + "   " + PEquals(bd.tarone_p));
   return 0;
 }
 
@@ -426,16 +412,17 @@ int RunAdjust(const Context& ctx, const Options& o) {
   return 0;
 }
 
-void RegisterCalc(CLI::App& app, Context& ctx) {
-  auto* calc = app.add_subcommand("calc", "Exact statistics on counts you type in (no study needed)");
-  calc->require_subcommand(1);
+}  // namespace
+
+// The calculators on counts; cli/calc_ranks_cmd.cpp adds those on ranks.
+void AddCountCalculators(CLI::App& calc, Context& ctx) {
   auto o = std::make_shared<Options>();
   auto conf = [o](CLI::App* sub) { sub->add_option("--conf", o->conf, "Confidence level (default 0.95)"); };
   auto alternative = [o](CLI::App* sub) {
     sub->add_option("--alternative", o->alternative, "two-sided (default), less or greater");
   };
 
-  auto* binom = calc->add_subcommand("binom", "Exact binomial test with Clopper-Pearson and Wilson intervals");
+  auto* binom = calc.add_subcommand("binom", "Exact binomial test with Clopper-Pearson and Wilson intervals");
   binom->add_option("--x", o->x, "Successes")->required();
   binom->add_option("--n", o->n, "Trials")->required();
   binom->add_option("--p", o->p, "Success probability under the null (default 0.5)");
@@ -443,31 +430,35 @@ void RegisterCalc(CLI::App& app, Context& ctx) {
   conf(binom);
   binom->callback([&ctx, o] { ctx.exit_code = RunBinom(ctx, *o); });
 
-  auto* mcnemar = calc->add_subcommand("mcnemar", "Paired table: exact McNemar, mid-p, conditional odds ratio, net discrimination");
+  auto* mcnemar = calc.add_subcommand("mcnemar", "Paired table: exact McNemar, mid-p, conditional odds ratio, net discrimination");
   mcnemar->add_option("--table", o->table, "a,b,c,d: both positive, reference only, other only, neither")->required();
   conf(mcnemar);
   mcnemar->callback([&ctx, o] { ctx.exit_code = RunMcNemar(ctx, *o); });
 
-  auto* fisher = calc->add_subcommand("fisher", "Unpaired 2x2 table: Fisher's exact test and odds ratios");
+  auto* fisher = calc.add_subcommand("fisher", "Unpaired 2x2 table: Fisher's exact test and odds ratios");
   fisher->add_option("--table", o->table, "a,b,c,d: reference positive, negative; other positive, negative")->required();
   alternative(fisher);
   conf(fisher);
   fisher->callback([&ctx, o] { ctx.exit_code = RunFisher(ctx, *o); });
 
-  auto* mh = calc->add_subcommand("mh", "Stratified 2x2 tables: Mantel-Haenszel, CMH test, Breslow-Day, exact test");
+  auto* mh = calc.add_subcommand("mh", "Stratified 2x2 tables: Mantel-Haenszel, CMH test, Breslow-Day, exact test");
   mh->add_option("--tables", o->tables, "a,b,c,d;a,b,c,d;... one table per stratum")->required();
   conf(mh);
   mh->add_flag("--exact", o->exact, "Exact conditional test, MLE and interval of the common odds ratio");
   mh->callback([&ctx, o] { ctx.exit_code = RunMh(ctx, *o); });
 
-  auto* adjust = calc->add_subcommand("adjust", "Adjust p-values for multiple comparisons (as R's p.adjust)");
+  auto* adjust = calc.add_subcommand("adjust", "Adjust p-values for multiple comparisons (as R's p.adjust)");
   adjust->add_option("--method", o->method, "holm, hochberg, hommel, bonferroni, bh or by")->required();
   adjust->add_option("--p", o->p_list, "p-values separated by commas");
   adjust->add_option("--file", o->file, "A file of p-values (separated by commas, spaces or new lines)");
   adjust->callback([&ctx, o] { ctx.exit_code = RunAdjust(ctx, *o); });
 }
 
-const bool kRegistered = RegisterCommand(80, &RegisterCalc);
+void RegisterCalcCommands(CLI::App& app, Context& ctx) {
+  auto* calc = app.add_subcommand("calc", "Exact statistics on numbers you type in (no study needed)");
+  calc->require_subcommand(1);
+  AddCountCalculators(*calc, ctx);
+  AddRankCalculators(*calc, ctx);
+}
 
-}  // namespace
 }  // namespace twinprobe

@@ -2,8 +2,8 @@
 //   twinprobe calc wilcoxon --x 1.5,2,... [--y 3,1,...] [--paired] [--exact|--normal]
 //                           [--alternative two-sided|less|greater]
 //   twinprobe calc emd --u 1,2,3 --v 2,3 [--u-weights ...] [--v-weights ...]
-// The `calc` command itself belongs to cli/calc_cmd.cpp (order 80); this file
-// adds to it, and creates it only when it is not there.
+// The `calc` group is created by RegisterCalcCommands (cli/calc_cmd.cpp),
+// which calls AddRankCalculators below.
 #include <cmath>
 #include <cstdlib>
 #include <iostream>
@@ -149,16 +149,11 @@ int RunEmd(Context& ctx, const EmdOptions& o) {
   return 0;
 }
 
-void RegisterCalcRanks(CLI::App& app, Context& ctx) {
-  CLI::App* calc = nullptr;
-  try {
-    calc = app.get_subcommand("calc");
-  } catch (const CLI::OptionNotFound&) {
-    calc = app.add_subcommand("calc", "Calculators on numbers you type (no study needed)");
-    calc->require_subcommand(1);
-  }
+}  // namespace
+
+void AddRankCalculators(CLI::App& calc, Context& ctx) {
   auto wo = std::make_shared<WilcoxonOptions>();
-  auto* w = calc->add_subcommand(
+  auto* w = calc.add_subcommand(
       "wilcoxon", "Wilcoxon signed-rank (one sample, or --paired) or rank-sum test, with R's exact/normal rules");
   w->add_option("--x", wo->x, "Values, comma-separated")->required();
   w->add_option("--y", wo->y, "Second sample (rank-sum) or second measurement of each pair (--paired)");
@@ -170,7 +165,7 @@ void RegisterCalcRanks(CLI::App& app, Context& ctx) {
   w->callback([&ctx, wo] { ctx.exit_code = RunWilcoxon(ctx, *wo); });
 
   auto eo = std::make_shared<EmdOptions>();
-  auto* e = calc->add_subcommand("emd", "Earth mover's (1-Wasserstein) distance between two samples, as scipy");
+  auto* e = calc.add_subcommand("emd", "Earth mover's (1-Wasserstein) distance between two samples, as scipy");
   e->add_option("--u", eo->u, "First sample, comma-separated")->required();
   e->add_option("--v", eo->v, "Second sample, comma-separated")->required();
   e->add_option("--u-weights", eo->u_weights, "Weights of the first sample");
@@ -178,7 +173,4 @@ void RegisterCalcRanks(CLI::App& app, Context& ctx) {
   e->callback([&ctx, eo] { ctx.exit_code = RunEmd(ctx, *eo); });
 }
 
-const bool kRegistered = RegisterCommand(81, &RegisterCalcRanks);
-
-}  // namespace
 }  // namespace twinprobe

@@ -228,6 +228,8 @@ int RunImportPairs(Context& ctx, const ImportCmdOptions& o) {
   return s.rows_rejected ? 1 : 0;
 }
 
+}  // namespace
+
 void RegisterCollectCommands(CLI::App& app, Context& ctx) {
   auto sent_probe = std::make_shared<std::string>();
   auto sent_at = std::make_shared<std::string>();
@@ -245,11 +247,11 @@ void RegisterCollectCommands(CLI::App& app, Context& ctx) {
   record->add_option("--channel", ro->channel, "mail, phone, letter or other");
   record->add_option("--note", ro->note, "Free-text note (purge removes notes after the retention period)");
   record->callback([&ctx, ro] { ctx.exit_code = RunRecord(ctx, *ro); });
+}
 
-  auto* import = app.add_subcommand("import", "Import data from CSV files (RFC 4180, UTF-8)");
-  import->require_subcommand(1);
+void AddImportResponses(CLI::App& import, Context& ctx) {
   auto io = std::make_shared<ImportCmdOptions>();
-  auto* outcomes = import->add_subcommand(
+  auto* outcomes = import.add_subcommand(
       "outcomes", "Import responses to planned probes: columns probe,code,received_at[,channel,note]; all or nothing");
   outcomes->add_option("file", io->file, "CSV file")->required();
   outcomes->add_flag("--skip-bad", io->skip_bad, "Land the good rows and write each bad row with its reason to a reject file");
@@ -257,7 +259,7 @@ void RegisterCollectCommands(CLI::App& app, Context& ctx) {
   outcomes->callback([&ctx, io] { ctx.exit_code = RunImportOutcomes(ctx, *io); });
 
   auto po = std::make_shared<ImportCmdOptions>();
-  auto* pairs = import->add_subcommand(
+  auto* pairs = import.add_subcommand(
       "pairs",
       "Import a whole dataset collected elsewhere, one row per probe: columns vacancy,arm,outcome[,sent_at,"
       "responded_at,probe,employer] and stratum columns; creates the study when the folder has none");
@@ -273,7 +275,4 @@ void RegisterCollectCommands(CLI::App& app, Context& ctx) {
   pairs->callback([&ctx, po] { ctx.exit_code = RunImportPairs(ctx, *po); });
 }
 
-const bool kRegistered = RegisterCommand(40, &RegisterCollectCommands);
-
-}  // namespace
 }  // namespace twinprobe

@@ -11,26 +11,6 @@
 #include "templates/embedded.h"
 
 namespace twinprobe {
-namespace {
-
-std::vector<std::pair<int, Registrar>>& Registry() {
-  static std::vector<std::pair<int, Registrar>> registry;
-  return registry;
-}
-
-}  // namespace
-
-bool RegisterCommand(int order, Registrar registrar) {
-  Registry().emplace_back(order, registrar);
-  return true;
-}
-
-void RegisterAllCommands(CLI::App& app, Context& ctx) {
-  auto& r = Registry();
-  std::stable_sort(r.begin(), r.end(), [](const auto& a, const auto& b) { return a.first < b.first; });
-  for (const auto& [order, registrar] : r) registrar(app, ctx);
-}
-
 int ReportError(const Error& error) {
   std::cerr << "twinprobe: " << error.Message() << "\n";
   return static_cast<int>(error.exit_code());

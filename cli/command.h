@@ -1,11 +1,12 @@
 #pragma once
-// What every command shares: the global options, the registry through which
-// each command file adds itself, and the error/exit conventions.
+// What every command shares: the global options, the registration function
+// of each command group, and the error/exit conventions.
 //
 // To add a command: create cli/NAME_cmd.cpp with a Register function that
-// adds a CLI11 subcommand whose callback sets ctx.exit_code, then register it
-// with `static const bool kRegistered = RegisterCommand(ORDER, &RegisterX);`.
-// ORDER places it in `twinprobe --help` (workflow order).
+// adds a CLI11 subcommand whose callback sets ctx.exit_code, declare it below
+// and add it to the list in cli/main.cpp (that list is the order of
+// `twinprobe --help`, workflow order). A subcommand of `import` or `calc` is
+// added by that group's Register function instead.
 #include <CLI/CLI.hpp>
 
 #include <memory>
@@ -24,12 +25,32 @@ struct Context {
   int exit_code = 0;
 };
 
-using Registrar = void (*)(CLI::App& app, Context& ctx);
+// One function per command group; each adds its subcommands to `app`.
+void RegisterStudyCommands(CLI::App& app, Context& ctx);    // init, check, plan (study_cmds.cpp)
+void RegisterFreeze(CLI::App& app, Context& ctx);           // freeze_cmd.cpp
+void RegisterPower(CLI::App& app, Context& ctx);            // power_cmd.cpp
+void RegisterRender(CLI::App& app, Context& ctx);           // render_cmd.cpp
+void RegisterSchedule(CLI::App& app, Context& ctx);         // schedule_cmd.cpp
+void RegisterCollectCommands(CLI::App& app, Context& ctx);  // sent, record (collect_cmds.cpp)
+void RegisterImportCommands(CLI::App& app, Context& ctx);   // import outcomes|pairs|ranks|labels (import_cmds.cpp)
+void RegisterHistory(CLI::App& app, Context& ctx);          // history_cmd.cpp
+void RegisterMailCommand(CLI::App& app, Context& ctx);      // mail_cmd.cpp
+void RegisterReviewCommand(CLI::App& app, Context& ctx);    // review_cmd.cpp
+void RegisterFetchCommands(CLI::App& app, Context& ctx);    // fetch (fetch_cmd.cpp)
+void RegisterAnalyzeCommands(CLI::App& app, Context& ctx);  // analyze, verify (analyze_cmds.cpp)
+void RegisterReport(CLI::App& app, Context& ctx);           // report_cmd.cpp
+void RegisterExport(CLI::App& app, Context& ctx);           // export_cmd.cpp
+void RegisterMonitor(CLI::App& app, Context& ctx);          // monitor_cmd.cpp
+void RegisterCalcCommands(CLI::App& app, Context& ctx);     // calc binom|mcnemar|...|emd (calc_cmd.cpp)
+void RegisterDemo(CLI::App& app, Context& ctx);             // demo_cmd.cpp
+void RegisterEthicsCommands(CLI::App& app, Context& ctx);   // decline, purge (ethics_cmds.cpp)
 
-// Adds a command to the registry; returns true so it can initialise a static.
-bool RegisterCommand(int order, Registrar registrar);
-// Runs every registrar in order.
-void RegisterAllCommands(CLI::App& app, Context& ctx);
+// The parts of the `import` and `calc` groups that live beside related
+// commands; only RegisterImportCommands and RegisterCalcCommands call them.
+void AddImportResponses(CLI::App& import, Context& ctx);  // outcomes, pairs (collect_cmds.cpp)
+void AddImportRanks(CLI::App& import, Context& ctx);      // ranks (import_ranks_cmd.cpp)
+void AddImportLabels(CLI::App& import, Context& ctx);     // labels (fetch_cmd.cpp)
+void AddRankCalculators(CLI::App& calc, Context& ctx);    // wilcoxon, emd (calc_ranks_cmd.cpp)
 
 // Prints "twinprobe: <message>" to stderr and returns the error's exit code.
 int ReportError(const Error& error);

@@ -164,6 +164,8 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
   return 0;
 }
 
+}  // namespace
+
 void RegisterDemo(CLI::App& app, Context& ctx) {
   auto out = std::make_shared<std::string>("twinprobe-demo");
   auto* demo = app.add_subcommand(
@@ -172,7 +174,4 @@ void RegisterDemo(CLI::App& app, Context& ctx) {
   demo->callback([&ctx, out] { ctx.exit_code = RunDemo(ctx, *out); });
 }
 
-const bool kRegistered = RegisterCommand(90, &RegisterDemo);
-
-}  // namespace
 }  // namespace twinprobe

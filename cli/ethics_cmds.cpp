@@ -68,6 +68,8 @@ int RunPurge(Context& ctx, bool dry_run) {
   return 0;
 }
 
+}  // namespace
+
 void RegisterEthicsCommands(CLI::App& app, Context& ctx) {
   auto d = std::make_shared<DeclineOptions>();
   auto* decline = app.add_subcommand(
@@ -86,7 +88,4 @@ void RegisterEthicsCommands(CLI::App& app, Context& ctx) {
   purge->callback([&ctx, dry] { ctx.exit_code = RunPurge(ctx, *dry); });
 }
 
-const bool kRegistered = RegisterCommand(95, &RegisterEthicsCommands);
-
-}  // namespace
 }  // namespace twinprobe

@@ -46,6 +46,8 @@ int RunExport(Context& ctx, const ExportCmdOptions& o) {
   return 0;
 }
 
+}  // namespace
+
 void RegisterExport(CLI::App& app, Context& ctx) {
   auto o = std::make_shared<ExportCmdOptions>();
   auto* cmd = app.add_subcommand(
@@ -59,7 +61,4 @@ void RegisterExport(CLI::App& app, Context& ctx) {
   cmd->callback([&ctx, o] { ctx.exit_code = RunExport(ctx, *o); });
 }
 
-const bool kRegistered = RegisterCommand(75, &RegisterExport);
-
-}  // namespace
 }  // namespace twinprobe

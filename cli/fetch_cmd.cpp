@@ -8,9 +8,9 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
-#include "collector/fetch_progress.h"
 #include "collector/fetch_run.h"
 #include "collector/listing_labels.h"
+#include "core/progress.h"
 #include "planner/design_file.h"
 
 namespace twinprobe {
@@ -125,12 +125,16 @@ int RunFetchCmd(Context& ctx, const FetchCmdOptions& o) {
   const std::string snapshot_dir = StudyPath(ctx, "snapshots");
   // Bad rules fail before the store is opened (or created).
   if (Status ok = CheckFetchable(design.value(), label, o.source); !ok.ok()) return ReportError(ok.error());
-  ProgressBar bar;
+  Progress bar("fetching", 0);
   FetchOptions options;
   options.only_source = o.source;
   options.dry_run = o.dry_run;
   options.cancel = &g_interrupted;
-  options.progress = [&bar](size_t done, size_t total, const std::string& url) { bar.Update(done, total, url); };
+  options.progress = [&bar](size_t done, size_t total, const std::string& url) {
+    bar.SetTotal(static_cast<int64_t>(total));
+    bar.SetDetail(url);
+    bar.Update(static_cast<int64_t>(done));
+  };
   g_interrupted.store(false);
   InterruptGuard guard;
 
@@ -148,7 +152,7 @@ int RunFetchCmd(Context& ctx, const FetchCmdOptions& o) {
     CurlHttpClient client(&g_interrupted);
     report = RunFetch(store.value().get(), design.value(), label, snapshot_dir, client, options);
   }
-  bar.Clear();
+  bar.Finish();
   if (!report.ok()) return ReportError(report.error());
   if (ctx.json) PrintJson(report.value());
   else PrintText(report.value(), snapshot_dir);
@@ -190,6 +194,8 @@ int RunImportLabels(Context& ctx, const LabelsCmdOptions& o) {
   return 0;
 }
 
+}  // namespace
+
 void RegisterFetchCommands(CLI::App& app, Context& ctx) {
   auto o = std::make_shared<FetchCmdOptions>();
   auto* fetch = app.add_subcommand(
@@ -201,17 +207,11 @@ void RegisterFetchCommands(CLI::App& app, Context& ctx) {
   fetch->add_flag("--replay", o->replay,
                   "Re-extract the stored listings from their snapshots with the current rules, without network");
   fetch->callback([&ctx, o] { ctx.exit_code = RunFetchCmd(ctx, *o); });
+}
 
-  // `import labels` joins the import group that cli/collect_cmds.cpp adds.
-  CLI::App* import = nullptr;
-  try {
-    import = app.get_subcommand("import");
-  } catch (const CLI::OptionNotFound&) {
-    import = app.add_subcommand("import", "Import data from CSV files (RFC 4180, UTF-8)");
-    import->require_subcommand(1);
-  }
+void AddImportLabels(CLI::App& import, Context& ctx) {
   auto lo = std::make_shared<LabelsCmdOptions>();
-  auto* labels = import->add_subcommand(
+  auto* labels = import.add_subcommand(
       "labels", "Link listing items to groups: a CSV of item_key plus one column per factor, or --from-profiles");
   labels->add_option("file", lo->file, "CSV file: item_key,FACTOR[,FACTOR…]");
   labels->add_flag("--from-profiles", lo->from_profiles,
@@ -219,7 +219,4 @@ void RegisterFetchCommands(CLI::App& app, Context& ctx) {
   labels->callback([&ctx, lo] { ctx.exit_code = RunImportLabels(ctx, *lo); });
 }
 
-const bool kRegistered = RegisterCommand(55, &RegisterFetchCommands);
-
-}  // namespace
 }  // namespace twinprobe

@@ -42,6 +42,8 @@ int RunFreeze(Context& ctx) {
   return 0;
 }
 
+}  // namespace
+
 void RegisterFreeze(CLI::App& app, Context& ctx) {
   app.add_subcommand("freeze",
                      "Pre-register: store and print the SHA-256 of the design and of the analysis plan; later changes "
@@ -49,7 +51,4 @@ void RegisterFreeze(CLI::App& app, Context& ctx) {
       ->callback([&ctx] { ctx.exit_code = RunFreeze(ctx); });
 }
 
-const bool kRegistered = RegisterCommand(15, &RegisterFreeze);
-
-}  // namespace
 }  // namespace twinprobe

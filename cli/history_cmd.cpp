@@ -112,6 +112,8 @@ int RunHistory(Context& ctx, const std::string& probe) {
   return 0;
 }
 
+}  // namespace
+
 void RegisterHistory(CLI::App& app, Context& ctx) {
   auto probe = std::make_shared<std::string>();
   auto* cmd = app.add_subcommand(
@@ -120,7 +122,4 @@ void RegisterHistory(CLI::App& app, Context& ctx) {
   cmd->callback([&ctx, probe] { ctx.exit_code = RunHistory(ctx, *probe); });
 }
 
-const bool kRegistered = RegisterCommand(45, &RegisterHistory);
-
-}  // namespace
 }  // namespace twinprobe

@@ -44,9 +44,11 @@ int RunImportRanks(Context& ctx, const std::string& file) {
   return 0;
 }
 
-void RegisterImportRanks(CLI::App& app, Context& ctx) {
+}  // namespace
+
+void AddImportRanks(CLI::App& import, Context& ctx) {
   auto file = std::make_shared<std::string>();
-  auto* ranks = app.get_subcommand("import")->add_subcommand(
+  auto* ranks = import.add_subcommand(
       "ranks",
       "Import ranked lists for a listing audit: columns listing,position,item, one column per protected "
       "attribute (e.g. gender,origin), optionally query,location,seen_by,score; all or nothing");
@@ -54,7 +56,4 @@ void RegisterImportRanks(CLI::App& app, Context& ctx) {
   ranks->callback([&ctx, file] { ctx.exit_code = RunImportRanks(ctx, *file); });
 }
 
-const bool kRegistered = RegisterCommand(41, &RegisterImportRanks);
-
-}  // namespace
 }  // namespace twinprobe

@@ -1,9 +1,9 @@
 // `twinprobe mail`: reads the study's mailboxes and logs every new message
 // with its match and suggested code; nothing becomes a response until a
 // person decides with `twinprobe review`.
-#include <unistd.h>
 
 #include <filesystem>
+#include <functional>
 #include <iostream>
 #include <nlohmann/json.hpp>
 
@@ -12,6 +12,7 @@
 #include "collector/mail_intake.h"
 #include "collector/mail_source.h"
 #include "core/meta.h"
+#include "core/progress.h"
 #include "planner/design_file.h"
 #include "planner/mail_section.h"
 
@@ -47,15 +48,12 @@ bool IsLoopback(const std::string& url) {
   return host == "127.0.0.1" || host == "localhost" || host == "[::1]";
 }
 
-// "\rreading URL: 12/40" on a terminal; nothing otherwise.
-void ShowProgress(const std::string& label, size_t done, size_t total) {
-  if (!isatty(STDERR_FILENO)) return;
-  // Redraw about a hundred times in all, not once per message.
-  if (done != total && total > 100 && done % (total / 100) != 0) return;
-  const int width = 30;
-  int filled = total ? static_cast<int>(width * done / total) : width;
-  std::cerr << "\r" << label << " [" << std::string(filled, '#') << std::string(width - filled, ' ') << "] " << done
-            << "/" << total << (done == total ? "\n" : "") << std::flush;
+// Feeds a (done, total) callback of the mail readers into `bar`.
+std::function<void(size_t, size_t)> Feed(Progress& bar) {
+  return [&bar](size_t done, size_t total) {
+    bar.SetTotal(static_cast<int64_t>(total));
+    bar.Update(static_cast<int64_t>(done));
+  };
 }
 
 nlohmann::json NullIfEmpty(const std::string& s) { return s.empty() ? nlohmann::json(nullptr) : nlohmann::json(s); }
@@ -96,15 +94,18 @@ int RunMail(Context& ctx, const MailOptions& o) {
       if (label.rfind("imap://", 0) == 0 && !IsLoopback(s.location))
         Warn(label + " is read without TLS unless the server offers STARTTLS; prefer imaps://");
       ImapOptions options = ImapOptionsFromEnvironment(s.location);
-      options.progress = [&label](size_t done, size_t total) { ShowProgress("reading " + label, done, total); };
+      Progress bar("reading " + label, 0);
+      options.progress = Feed(bar);
       read = ReadImap(options);
+      bar.Finish();
     }
     if (!read.ok()) return ReportError(read.error());
     batches.push_back({s.kind, label, std::move(read.value())});
   }
 
-  auto summary = IngestMail(*store.value(), rules.value(), batches,
-                            [](size_t done, size_t total) { ShowProgress("matching", done, total); });
+  Progress matching("matching", 0);
+  auto summary = IngestMail(*store.value(), rules.value(), batches, Feed(matching));
+  matching.Finish();
   if (!summary.ok()) return ReportError(summary.error());
   const IntakeSummary& sum = summary.value();
 
@@ -165,6 +166,8 @@ int RunMail(Context& ctx, const MailOptions& o) {
   return 0;
 }
 
+}  // namespace
+
 void RegisterMailCommand(CLI::App& app, Context& ctx) {
   auto o = std::make_shared<MailOptions>();
   auto* mail = app.add_subcommand(
@@ -177,7 +180,4 @@ void RegisterMailCommand(CLI::App& app, Context& ctx) {
   mail->callback([&ctx, o] { ctx.exit_code = RunMail(ctx, *o); });
 }
 
-const bool kRegistered = RegisterCommand(45, &RegisterMailCommand);
-
-}  // namespace
 }  // namespace twinprobe

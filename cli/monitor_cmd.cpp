@@ -23,6 +23,7 @@
 #include "analysis/analyze.h"
 #include "cli/command.h"
 #include "core/clock.h"
+#include "report/p_value.h"
 #include "stats/mcnemar.h"
 #include "stats/sequential.h"
 
@@ -111,8 +112,6 @@ std::string Fmt(const char* format, double v) {
   std::snprintf(buf, sizeof buf, format, v);
   return buf;
 }
-
-std::string FormatP(double p) { return p < 0.0001 ? Fmt("%.2e", p) : Fmt("%.4f", p); }
 
 int RunMonitor(Context& ctx, const MonitorOptions& o) {
   stats::Spending spending;
@@ -290,6 +289,8 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
   return 0;
 }
 
+}  // namespace
+
 void RegisterMonitor(CLI::App& app, Context& ctx) {
   auto o = std::make_shared<MonitorOptions>();
   auto* cmd = app.add_subcommand(
@@ -303,7 +304,4 @@ void RegisterMonitor(CLI::App& app, Context& ctx) {
   cmd->callback([&ctx, o] { ctx.exit_code = RunMonitor(ctx, *o); });
 }
 
-const bool kRegistered = RegisterCommand(75, &RegisterMonitor);
-
-}  // namespace
 }  // namespace twinprobe

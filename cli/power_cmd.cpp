@@ -630,6 +630,8 @@ int RunUnpaired(Context& ctx, const UnpairedOptions& o) {
   return 0;
 }
 
+}  // namespace
+
 void RegisterPower(CLI::App& app, Context& ctx) {
   auto* power = app.add_subcommand("power", "Power, sample size and smallest detectable gap before fieldwork");
   power->require_subcommand(1);
@@ -666,7 +668,4 @@ void RegisterPower(CLI::App& app, Context& ctx) {
   unpaired->callback([&ctx, uo] { ctx.exit_code = RunUnpaired(ctx, *uo); });
 }
 
-const bool kRegistered = RegisterCommand(20, &RegisterPower);
-
-}  // namespace
 }  // namespace twinprobe

@@ -1,8 +1,6 @@
 // `twinprobe render`: writes every probe's application documents (Markdown,
 // plain text, HTML) from the templates and the stored plan, after proving
 // once more that the probes of each set differ only in the tested attribute.
-#include <unistd.h>
-
 #include <filesystem>
 #include <iostream>
 #include <set>
@@ -10,6 +8,7 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
+#include "core/progress.h"
 #include "planner/materials.h"
 #include "planner/one_difference.h"
 #include "planner/study_check.h"
@@ -20,30 +19,6 @@ namespace {
 struct RenderOptions {
   std::string out;                  // default: STUDY/materials
   std::vector<std::string> probes;  // only these (default: all)
-};
-
-// A one-line progress bar on stderr, only when stderr is a terminal.
-class ProgressBar {
- public:
-  explicit ProgressBar(std::string label) : label_(std::move(label)), enabled_(isatty(STDERR_FILENO) != 0) {}
-  ~ProgressBar() {
-    if (enabled_ && shown_) std::cerr << "\n";
-  }
-  void Update(size_t done, size_t total) {
-    if (!enabled_ || total == 0) return;
-    int filled = static_cast<int>(30 * done / total);
-    if (filled == last_ && done != total) return;  // redraw only when the bar moves
-    last_ = filled;
-    shown_ = true;
-    std::cerr << "\r" << label_ << " [" << std::string(filled, '#') << std::string(30 - filled, '-') << "] " << done
-              << "/" << total << std::flush;
-  }
-
- private:
-  std::string label_;
-  bool enabled_;
-  bool shown_ = false;
-  int last_ = -1;
 };
 
 int RunRender(Context& ctx, const RenderOptions& o) {
@@ -74,8 +49,12 @@ int RunRender(Context& ctx, const RenderOptions& o) {
                                   "use a probe reference from 'twinprobe schedule' (e.g. P00001)"));
   }
   std::string out = o.out.empty() ? StudyPath(ctx, "materials") : o.out;
-  ProgressBar bar("rendering");
-  auto written = WriteMaterials(out, templates.value(), chosen, [&](size_t done, size_t total) { bar.Update(done, total); });
+  Progress bar("rendering", static_cast<int64_t>(chosen.size()));
+  auto written = WriteMaterials(out, templates.value(), chosen, [&](size_t done, size_t total) {
+    bar.SetTotal(static_cast<int64_t>(total));
+    bar.Update(static_cast<int64_t>(done));
+  });
+  bar.Finish();
   if (!written.ok()) return ReportError(written.error());
   const auto& w = written.value();
   if (ctx.json) {
@@ -88,6 +67,8 @@ int RunRender(Context& ctx, const RenderOptions& o) {
   return 0;
 }
 
+}  // namespace
+
 void RegisterRender(CLI::App& app, Context& ctx) {
   auto o = std::make_shared<RenderOptions>();
   auto* render = app.add_subcommand(
@@ -97,7 +78,4 @@ void RegisterRender(CLI::App& app, Context& ctx) {
   render->callback([&ctx, o] { ctx.exit_code = RunRender(ctx, *o); });
 }
 
-const bool kRegistered = RegisterCommand(20, &RegisterRender);
-
-}  // namespace
 }  // namespace twinprobe

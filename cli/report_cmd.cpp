@@ -10,6 +10,7 @@
 #include "analysis/analyze.h"
 #include "core/audit.h"
 #include "core/clock.h"
+#include "core/text.h"
 #include "planner/design_file.h"
 #include "report/html_report.h"
 #include "report/json_report.h"
@@ -51,9 +52,7 @@ struct ReportOptions {
 
 bool EndsWith(const std::string& s, const std::string& suffix) {
   if (s.size() < suffix.size()) return false;
-  std::string tail = s.substr(s.size() - suffix.size());
-  for (auto& ch : tail) ch = static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
-  return tail == suffix;
+  return Lower(std::string_view(s).substr(s.size() - suffix.size())) == suffix;
 }
 
 Result<Format> ChooseFormat(const Context& ctx, const ReportOptions& o) {
@@ -110,6 +109,8 @@ int RunReport(Context& ctx, const ReportOptions& o) {
   return 0;
 }
 
+}  // namespace
+
 void RegisterReport(CLI::App& app, Context& ctx) {
   auto ro = std::make_shared<ReportOptions>();
   auto* report = app.add_subcommand(
@@ -123,7 +124,4 @@ void RegisterReport(CLI::App& app, Context& ctx) {
   report->callback([&ctx, ro] { ctx.exit_code = RunReport(ctx, *ro); });
 }
 
-const bool kRegistered = RegisterCommand(71, &RegisterReport);
-
-}  // namespace
 }  // namespace twinprobe

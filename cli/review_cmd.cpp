@@ -225,6 +225,8 @@ int RunReview(Context& ctx, const ReviewOptions& o) {
   return 0;
 }
 
+}  // namespace
+
 void RegisterReviewCommand(CLI::App& app, Context& ctx) {
   auto o = std::make_shared<ReviewOptions>();
   auto* review = app.add_subcommand(
@@ -239,7 +241,4 @@ void RegisterReviewCommand(CLI::App& app, Context& ctx) {
   review->callback([&ctx, o] { ctx.exit_code = RunReview(ctx, *o); });
 }
 
-const bool kRegistered = RegisterCommand(46, &RegisterReviewCommand);
-
-}  // namespace
 }  // namespace twinprobe

@@ -126,6 +126,8 @@ int RunSchedule(Context& ctx, const ScheduleOptions& o) {
   return 0;
 }
 
+}  // namespace
+
 void RegisterSchedule(CLI::App& app, Context& ctx) {
   auto o = std::make_shared<ScheduleOptions>();
   auto* schedule = app.add_subcommand("schedule", "List the probes to send and when (probe, vacancy, profile, template, time)");
@@ -134,7 +136,4 @@ void RegisterSchedule(CLI::App& app, Context& ctx) {
   schedule->callback([&ctx, o] { ctx.exit_code = RunSchedule(ctx, *o); });
 }
 
-const bool kRegistered = RegisterCommand(30, &RegisterSchedule);
-
-}  // namespace
 }  // namespace twinprobe

@@ -3,6 +3,7 @@
 #include <filesystem>
 #include <fstream>
 #include <iostream>
+#include <memory>
 #include <set>
 
 #include <nlohmann/json.hpp>
@@ -168,9 +169,26 @@ int RunPlan(Context& ctx) {
   return 0;
 }
 
+}  // namespace
+
 void RegisterStudyCommands(CLI::App& app, Context& ctx) {
-  app.add_subcommand("init", "Create an example study folder (design, vacancies, name pools, templates) to edit")
-      ->callback([&ctx] { ctx.exit_code = RunInit(ctx); });
+  auto dir = std::make_shared<std::string>();
+  auto* init = app.add_subcommand("init", "Create an example study folder (design, vacancies, name pools, templates) to edit");
+  init->add_option("dir", *dir, "The folder to create (the same as --study DIR); default: the --study folder");
+  init->callback([&ctx, dir] {
+    // `init DIR` reads like `git init DIR`; it names the study folder, so it
+    // must not contradict a --study given as well.
+    if (!dir->empty()) {
+      if (ctx.study_dir != "." && ctx.study_dir != *dir) {
+        ctx.exit_code = ReportError(Error{ErrorKind::kUsage, "",
+                                          "init was given two study folders: --study " + ctx.study_dir + " and " + *dir,
+                                          "give the folder once, either as 'init DIR' or as '--study DIR init'"});
+        return;
+      }
+      ctx.study_dir = *dir;
+    }
+    ctx.exit_code = RunInit(ctx);
+  });
   app.add_subcommand("check",
                      "Validate the design, vacancies, name pools and templates, and prove that the probes of every set "
                      "differ only in the tested attribute; writes nothing")
@@ -181,7 +199,4 @@ void RegisterStudyCommands(CLI::App& app, Context& ctx) {
       ->callback([&ctx] { ctx.exit_code = RunPlan(ctx); });
 }
 
-const bool kRegistered = RegisterCommand(10, &RegisterStudyCommands);
-
-}  // namespace
 }  // namespace twinprobe

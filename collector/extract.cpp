@@ -2,6 +2,8 @@
 
 #include <cstring>
 
+#include "core/text.h"
+
 namespace twinprobe {
 namespace {
 
@@ -130,8 +132,7 @@ Result<FieldSpec> ParseFieldRule(std::string_view rule) {
     for (char c : attr)
       if (!(std::isalnum(static_cast<unsigned char>(c)) || c == '-' || c == '_' || c == ':'))
         return BadInput("", std::string(1, '\'').append(attr).append("' is not an attribute name"));
-    f.attribute = std::string(attr);
-    for (char& c : f.attribute) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+    f.attribute = Lower(attr);
   }
   while (!sel.empty() && sel.back() == ' ') sel.remove_suffix(1);
   while (!sel.empty() && sel.front() == ' ') sel.remove_prefix(1);

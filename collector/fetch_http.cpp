@@ -5,6 +5,8 @@
 #include <algorithm>
 #include <cctype>
 
+#include "core/text.h"
+
 namespace twinprobe {
 
 std::string HttpResponse::Header(const std::string& name) const {
@@ -54,8 +56,7 @@ size_t OnHeader(char* data, size_t size, size_t count, void* user) {
   }
   auto colon = line.find(':');
   if (colon == std::string::npos) return n;
-  std::string name = line.substr(0, colon);
-  for (char& c : name) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+  std::string name = Lower(std::string_view(line).substr(0, colon));
   size_t v = colon + 1;
   while (v < line.size() && (line[v] == ' ' || line[v] == '\t')) ++v;
   t->response->headers.emplace_back(name, line.substr(v));

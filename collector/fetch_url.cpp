@@ -6,6 +6,8 @@
 #include <cctype>
 #include <memory>
 
+#include "core/text.h"
+
 namespace twinprobe {
 namespace {
 
@@ -19,11 +21,6 @@ std::optional<std::string> Part(CURLU* u, CURLUPart part, unsigned flags = 0) {
   if (curl_url_get(u, part, &out, flags) != CURLUE_OK || !out) return std::nullopt;
   std::string s(out);
   curl_free(out);
-  return s;
-}
-
-std::string Lower(std::string s) {
-  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
   return s;
 }
 

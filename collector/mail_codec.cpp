@@ -6,6 +6,8 @@
 #include <cerrno>
 #include <vector>
 
+#include "core/text.h"
+
 namespace twinprobe {
 namespace {
 
@@ -23,12 +25,6 @@ int Base64Value(char c) {
   if (c == '+') return 62;
   if (c == '/') return 63;
   return -1;
-}
-
-std::string LowerAscii(std::string_view s) {
-  std::string out(s);
-  for (char& c : out) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return out;
 }
 
 
@@ -200,7 +196,7 @@ bool IsUtf8(std::string_view s) {
 }
 
 std::string ToUtf8(std::string_view bytes, std::string_view charset) {
-  std::string cs = LowerAscii(charset);
+  std::string cs = Lower(charset);
   // RFC 2231 allows "charset*language"; the language is not ours to use.
   if (size_t star = cs.find('*'); star != std::string::npos) cs.resize(star);
   bool ascii = true;

@@ -7,6 +7,8 @@
 #include <memory>
 #include <sstream>
 
+#include "core/text.h"
+
 namespace twinprobe {
 namespace {
 
@@ -20,11 +22,6 @@ size_t Collect(char* data, size_t size, size_t count, void* target) {
 std::string Env(const char* name) {
   const char* v = std::getenv(name);
   return v ? v : "";
-}
-
-std::string Lower(std::string s) {
-  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return s;
 }
 
 // Replaces every occurrence of a secret with "***".

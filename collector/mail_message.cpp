@@ -5,25 +5,13 @@
 
 #include "collector/mail_codec.h"
 #include "collector/mail_html.h"
+#include "core/text.h"
 
 namespace twinprobe {
 namespace {
 
 // Deeper nesting than this is not mail a person wrote; stop there.
 constexpr int kMaxDepth = 16;
-
-std::string Lower(std::string_view s) {
-  std::string out(s);
-  for (char& c : out) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return out;
-}
-
-std::string TrimCopy(std::string_view s) {
-  size_t a = s.find_first_not_of(" \t\r\n");
-  if (a == std::string_view::npos) return "";
-  size_t b = s.find_last_not_of(" \t\r\n");
-  return std::string(s.substr(a, b - a + 1));
-}
 
 void AppendAddresses(std::vector<std::string>& to, const std::vector<std::string>& from) {
   for (const auto& a : from)
@@ -103,7 +91,7 @@ class TextCollector {
     } else if (t == "message/rfc822" || t == "message/global") {
       Attached(e, depth);
     } else if ((t == "text/plain" || t == "text/html") && e.disposition != "attachment") {
-      std::string bytes = DecodeTransfer(e.body, Lower(TrimCopy(e.headers.Get("Content-Transfer-Encoding"))));
+      std::string bytes = DecodeTransfer(e.body, Lower(std::string(Trim(e.headers.Get("Content-Transfer-Encoding")))));
       std::string text = ToUtf8(bytes, e.type.Param("charset"));
       if (t == "text/html") text = HtmlToText(text);
       Append(text);
@@ -152,7 +140,7 @@ class TextCollector {
   }
 
   void Attached(const Entity& e, int depth) {
-    std::string bytes = DecodeTransfer(e.body, Lower(TrimCopy(e.headers.Get("Content-Transfer-Encoding"))));
+    std::string bytes = DecodeTransfer(e.body, Lower(std::string(Trim(e.headers.Get("Content-Transfer-Encoding")))));
     Entity inner = ReadEntity(bytes);
     // The marker tells FreshText that a forwarded message follows.
     std::string block = "-------- Attached message --------\n";
@@ -237,10 +225,10 @@ MailMessage ParseMailMessage(std::string_view raw) {
   MailMessage m;
   Entity top = ReadEntity(raw);
   m.headers = top.headers;
-  std::string id = TrimCopy(m.headers.Get("Message-ID"));
+  std::string id(Trim(m.headers.Get("Message-ID")));
   if (!id.empty() && id.front() == '<') id.erase(0, 1);
   if (!id.empty() && id.back() == '>') id.pop_back();
-  m.message_id = TrimCopy(id);
+  m.message_id = std::string(Trim(id));
   m.subject = DecodeHeaderText(m.headers.Get("Subject"));
   m.from = DecodeHeaderText(m.headers.Get("From"));
   m.to = DecodeHeaderText(m.headers.Get("To"));

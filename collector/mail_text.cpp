@@ -1,6 +1,7 @@
 #include "collector/mail_text.h"
 
 #include "collector/mail_codec.h"
+#include "core/text.h"
 
 #include <locale.h>
 #include <wctype.h>
@@ -74,18 +75,6 @@ uint32_t PreviousCodePoint(std::string_view s, size_t i) {
   return DecodeAt(s, start, len);
 }
 
-std::string LowerAscii(std::string_view s) {
-  std::string out(s);
-  for (char& c : out) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return out;
-}
-
-std::string_view TrimView(std::string_view s) {
-  while (!s.empty() && std::isspace(static_cast<unsigned char>(s.front()))) s.remove_prefix(1);
-  while (!s.empty() && std::isspace(static_cast<unsigned char>(s.back()))) s.remove_suffix(1);
-  return s;
-}
-
 std::vector<std::string_view> Lines(std::string_view text) {
   std::vector<std::string_view> out;
   size_t pos = 0;
@@ -101,29 +90,29 @@ std::vector<std::string_view> Lines(std::string_view text) {
 }
 
 bool StartsWithNoCase(std::string_view s, std::string_view prefix) {
-  return s.size() >= prefix.size() && LowerAscii(s.substr(0, prefix.size())) == prefix;
+  return s.size() >= prefix.size() && twinprobe::Lower(s.substr(0, prefix.size())) == prefix;
 }
 
 // "-----Original Message-----" in any number of dashes and any case.
 bool IsOriginalMessageLine(std::string_view t) {
-  std::string l = LowerAscii(t);
+  std::string l = twinprobe::Lower(t);  // the ASCII one, not Lower(code point)
   size_t a = l.find_first_not_of('-');
   size_t b = l.find_last_not_of('-');
   if (a == std::string::npos || a < 2 || l.size() - 1 - b < 2) return false;
-  return TrimView(std::string_view(l).substr(a, b - a + 1)) == "original message";
+  return Trim(std::string_view(l).substr(a, b - a + 1)) == "original message";
 }
 
 bool IsForwardMarker(std::string_view t) {
-  std::string l = LowerAscii(t);
+  std::string l = twinprobe::Lower(t);  // the ASCII one, not Lower(code point)
   return l.find("forwarded message") != std::string::npos || l.rfind("begin forwarded message", 0) == 0 ||
          l.find("attached message") != std::string::npos;
 }
 
 bool IsHeaderBlockAt(const std::vector<std::string_view>& lines, size_t i) {
-  if (!StartsWithNoCase(TrimView(lines[i]), "from:")) return false;
+  if (!StartsWithNoCase(Trim(lines[i]), "from:")) return false;
   bool subject = false, date = false;
   for (size_t k = i + 1; k < lines.size() && k <= i + 5; ++k) {
-    std::string_view t = TrimView(lines[k]);
+    std::string_view t = Trim(lines[k]);
     while (!t.empty() && t.front() == '*') t.remove_prefix(1);
     subject = subject || StartsWithNoCase(t, "subject:");
     date = date || StartsWithNoCase(t, "sent:") || StartsWithNoCase(t, "date:");
@@ -132,8 +121,8 @@ bool IsHeaderBlockAt(const std::vector<std::string_view>& lines, size_t i) {
 }
 
 bool IsReplyBoundary(const std::vector<std::string_view>& lines, size_t i) {
-  std::string_view t = TrimView(lines[i]);
-  std::string l = LowerAscii(t);
+  std::string_view t = Trim(lines[i]);
+  std::string l = twinprobe::Lower(t);  // the ASCII one, not Lower(code point)
   if (l.size() >= 6 &&
       (l.compare(l.size() - 6, 6, "wrote:") == 0 || (l.size() >= 7 && l.compare(l.size() - 7, 7, "wrote :") == 0)))
     return true;
@@ -143,14 +132,14 @@ bool IsReplyBoundary(const std::vector<std::string_view>& lines, size_t i) {
 }  // namespace
 
 std::string FreshText(std::string_view body, std::string_view subject) {
-  std::string_view s = TrimView(subject);
+  std::string_view s = Trim(subject);
   bool forward_subject = StartsWithNoCase(s, "fw:") || StartsWithNoCase(s, "fwd:") || StartsWithNoCase(s, "fw :");
   auto lines = Lines(body);
   std::string out;
   bool expect_forwarded_header = false;
   bool forward_seen = false;
   for (size_t i = 0; i < lines.size(); ++i) {
-    std::string_view t = TrimView(lines[i]);
+    std::string_view t = Trim(lines[i]);
     if (!t.empty() && t.front() == '>') continue;
     if (IsForwardMarker(t)) {
       expect_forwarded_header = true;

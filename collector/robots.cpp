@@ -3,6 +3,8 @@
 #include <algorithm>
 #include <cctype>
 
+#include "core/text.h"
+
 namespace twinprobe {
 namespace {
 
@@ -52,18 +54,6 @@ std::string Normalise(std::string_view in, bool is_pattern) {
       out += static_cast<char>(c);
     }
   }
-  return out;
-}
-
-std::string_view Trim(std::string_view s) {
-  while (!s.empty() && (s.front() == ' ' || s.front() == '\t')) s.remove_prefix(1);
-  while (!s.empty() && (s.back() == ' ' || s.back() == '\t')) s.remove_suffix(1);
-  return s;
-}
-
-std::string Lower(std::string_view s) {
-  std::string out(s);
-  for (char& c : out) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
   return out;
 }
 

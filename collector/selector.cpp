@@ -6,18 +6,14 @@
 #include <cstring>
 #include <optional>
 
+#include "core/text.h"
+
 namespace twinprobe {
 namespace {
 
 bool IsNameChar(char c) {
   return std::isalnum(static_cast<unsigned char>(c)) || c == '-' || c == '_' ||
          static_cast<unsigned char>(c) >= 0x80;
-}
-
-std::string Lower(std::string_view s) {
-  std::string out(s);
-  for (char& c : out) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return out;
 }
 
 class SelectorParser {

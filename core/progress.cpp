@@ -1,9 +1,11 @@
 #include "core/progress.h"
 
+#include <sys/ioctl.h>
 #include <unistd.h>
 
 #include <cstdio>
 #include <cstdlib>
+#include <cstring>
 #include <iostream>
 
 namespace twinprobe {
@@ -32,10 +34,28 @@ std::string Amount(int64_t n, Progress::Unit unit) {
   return buf;
 }
 
+// A terminal that cannot move the cursor back ("dumb", e.g. an editor's
+// shell buffer) would print every redraw on a line of its own.
+bool StderrTakesABar() {
+  if (!isatty(STDERR_FILENO)) return false;
+  const char* term = std::getenv("TERM");
+  return !(term && std::strcmp(term, "dumb") == 0);
+}
+
+// A line longer than the terminal wraps, and "\r" then redraws only its last
+// row; keep one column free so the cursor never wraps either.
+size_t TerminalColumns() {
+  struct winsize ws {};
+  if (ioctl(STDERR_FILENO, TIOCGWINSZ, &ws) == 0 && ws.ws_col > 10) return ws.ws_col - 1u;
+  return 79;
+}
+
 }  // namespace
 
 Progress::Progress(std::string label, int64_t total, Unit unit)
-    : Progress(std::move(label), total, unit, isatty(STDERR_FILENO) ? &std::cerr : nullptr) {}
+    : Progress(std::move(label), total, unit, StderrTakesABar() ? &std::cerr : nullptr) {
+  if (out_) max_width_ = TerminalColumns();
+}
 
 Progress::Progress(std::string label, int64_t total, Unit unit, std::ostream* out)
     : label_(std::move(label)), total_(total), unit_(unit), out_(out),
@@ -66,6 +86,12 @@ void Progress::Update(int64_t done) {
 
 void Progress::Draw() {
   std::string line = Render(label_, done_, total_, unit_);
+  if (!detail_.empty()) line += "  " + detail_;
+  if (max_width_ && line.size() > max_width_) {
+    size_t cut = max_width_;  // never inside a UTF-8 sequence
+    while (cut > 0 && (static_cast<unsigned char>(line[cut]) & 0xC0) == 0x80) --cut;
+    line.resize(cut);
+  }
   // Pad with spaces so a shorter line fully covers the previous one.
   size_t width = line.size();
   if (width < last_width_) line += std::string(last_width_ - width, ' ');

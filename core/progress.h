@@ -1,8 +1,10 @@
 #pragma once
-// A progress bar for long work (imports, fetching, rendering, permutation
-// tests; docs/architecture.md): drawn on stderr only when stderr is a terminal, quiet
-// otherwise, so logs and pipes stay clean. Redraws at most ten times a
-// second; Update() is cheap enough to call once per row.
+// The one progress bar for long work (imports, fetching, rendering, mail
+// intake, permutation tests): drawn on stderr only when stderr is a terminal
+// (and TERM is not "dumb"), quiet otherwise, so logs and pipes stay clean.
+// It first draws after 0.3 s (TWINPROBE_PROGRESS_DELAY_MS overrides that;
+// 0 draws at once), then at most ten times a second; Update() is cheap
+// enough to call once per row. On a terminal a line is cut to its width.
 //
 //   Progress bar("importing pairs.csv", file_bytes, Progress::Unit::kBytes);
 //   while (...) bar.Update(reader.bytes_consumed());
@@ -29,6 +31,11 @@ class Progress {
   Progress& operator=(const Progress&) = delete;
 
   void Update(int64_t done);
+  // For work whose size is known only once it starts (0 = unknown).
+  void SetTotal(int64_t total) { total_ = total; }
+  // Text shown after the amounts, e.g. the URL being fetched; "" for none.
+  // Takes effect with the next redraw.
+  void SetDetail(std::string detail) { detail_ = std::move(detail); }
   // Draws the last state given to Update() and ends the line (once); call
   // Update(total) first when the work completed. A bar that never drew
   // (quiet, or work shorter than its first redraw delay) prints nothing.
@@ -43,6 +50,7 @@ class Progress {
   void Draw();
 
   std::string label_;
+  std::string detail_;
   int64_t total_;
   Unit unit_;
   std::ostream* out_;
@@ -50,6 +58,7 @@ class Progress {
   bool drawn_ = false;
   bool finished_ = false;
   size_t last_width_ = 0;
+  size_t max_width_ = 0;  // the terminal's columns - 1; 0 = no limit
   std::chrono::milliseconds first_draw_after_;
   std::chrono::steady_clock::time_point started_, last_draw_;
 };

@@ -16,6 +16,7 @@
 #include "planner/profiles.h"
 #include "planner/send_calendar.h"
 #include "planner/source_section.h"
+#include "planner/toml_list.h"
 
 namespace twinprobe {
 namespace fs = std::filesystem;
@@ -30,7 +31,7 @@ const std::vector<std::string>& KeysOf(const std::string& section) {
 }
 
 // Walks the parsed TOML and turns every problem into one positioned error.
-class DesignReader {
+class DesignReader : public TomlErrorSink {
  public:
   DesignReader(const toml::table& root, std::string label, std::string study_dir)
       : root_(root), label_(std::move(label)), dir_(std::move(study_dir)) {}
@@ -47,7 +48,7 @@ class DesignReader {
     if (!node) return {};
     return {static_cast<int>(node->source().begin.line), static_cast<int>(node->source().begin.column)};
   }
-  void Fail(const toml::node* node, std::string what, std::string fix) {
+  void Fail(const toml::node* node, std::string what, std::string fix) override {
     if (!error_) error_ = BadInput(Where(node), std::move(what), std::move(fix));
   }
   void CheckKeys(const toml::table& t, const std::string& section, const std::vector<std::string>& allowed);
@@ -159,27 +160,7 @@ double DesignReader::Real(const toml::table& t, const std::string& section, cons
 std::vector<std::string> DesignReader::Strings(const toml::table& t, const std::string& section,
                                                const std::string& key, bool required,
                                                std::vector<std::string> fallback) {
-  const toml::node* n = t.get(key);
-  if (!n) {
-    if (required) Fail(&t, section + "." + key + " is missing", "add " + key + " = [\"…\", \"…\"]");
-    return fallback;
-  }
-  if (!n->is_array()) {
-    Fail(n, section + "." + key + " must be a list of texts", "write " + key + " = [\"…\", \"…\"]");
-    return fallback;
-  }
-  std::vector<std::string> out;
-  for (const auto& el : *n->as_array()) {
-    if (!el.is_string()) {
-      Fail(&el, section + "." + key + " must hold only texts in quotes", "quote every entry");
-      return fallback;
-    }
-    std::string v(el.as_string()->get());
-    if (std::find(out.begin(), out.end(), v) != out.end())
-      Fail(&el, section + "." + key + " lists '" + v + "' twice", "remove the duplicate");
-    out.push_back(v);
-  }
-  return out;
+  return ReadTextList(t, section, key, *this, required, std::move(fallback));
 }
 
 void DesignReader::CheckFile(const toml::node* node, const std::string& rel, const std::string& what) {

@@ -5,17 +5,14 @@
 #include <vector>
 
 #include "core/suggest.h"
+#include "core/text.h"
+#include "planner/toml_list.h"
 
 namespace twinprobe {
 namespace {
 
 const std::vector<std::string> kMailKeys = {"mbox",          "maildir",   "imap",   "generic_domains",
                                             "excerpt_chars", "negations", "suggest"};
-
-std::string Lower(std::string s) {
-  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return s;
-}
 
 std::string JoinNames(const std::vector<std::string>& names) {
   std::string s;
@@ -24,7 +21,7 @@ std::string JoinNames(const std::vector<std::string>& names) {
 }
 
 // Keeps the first problem with its position, like the design reader does.
-class MailReader {
+class MailReader : public TomlErrorSink {
  public:
   MailReader(std::string label, const OutcomeScheme& scheme) : label_(std::move(label)), scheme_(scheme) {}
 
@@ -36,7 +33,7 @@ class MailReader {
     const auto& b = node->source().begin;
     return label_ + ":" + std::to_string(b.line) + ":" + std::to_string(b.column);
   }
-  void Fail(const toml::node* node, std::string what, std::string fix) {
+  void Fail(const toml::node* node, std::string what, std::string fix) override {
     if (!error_) error_ = BadInput(Where(node), std::move(what), std::move(fix));
   }
   std::vector<std::string> Strings(const toml::table& t, const std::string& section, const std::string& key,
@@ -51,30 +48,7 @@ class MailReader {
 
 std::vector<std::string> MailReader::Strings(const toml::table& t, const std::string& section, const std::string& key,
                                              std::vector<std::string> fallback) {
-  const toml::node* n = t.get(key);
-  if (!n) return fallback;
-  if (!n->is_array()) {
-    Fail(n, section + "." + key + " must be a list of texts", "write " + key + " = [\"…\", \"…\"]");
-    return fallback;
-  }
-  std::vector<std::string> out;
-  for (const auto& el : *n->as_array()) {
-    if (!el.is_string()) {
-      Fail(&el, section + "." + key + " must hold only texts in quotes", "quote every entry");
-      return fallback;
-    }
-    std::string v(el.as_string()->get());
-    if (v.find_first_not_of(" \t") == std::string::npos) {
-      Fail(&el, section + "." + key + " holds an empty text", "remove it or write the words");
-      return fallback;
-    }
-    if (std::find(out.begin(), out.end(), v) != out.end()) {
-      Fail(&el, section + "." + key + " lists '" + v + "' twice", "remove the duplicate");
-      return fallback;
-    }
-    out.push_back(v);
-  }
-  return out;
+  return ReadTextList(t, section, key, *this, false, std::move(fallback));
 }
 
 void MailReader::ReadImap(const toml::table& mail, MailRules& rules) {

@@ -3,6 +3,8 @@
 #include <cctype>
 #include <cstring>
 
+#include "core/text.h"
+
 namespace twinprobe {
 namespace {
 
@@ -15,12 +17,6 @@ struct Block {
   int level = 0;               // heading level, or the item's number
   std::vector<std::string> lines;
 };
-
-std::string_view Trim(std::string_view s) {
-  while (!s.empty() && (s.front() == ' ' || s.front() == '\t')) s.remove_prefix(1);
-  while (!s.empty() && (s.back() == ' ' || s.back() == '\t' || s.back() == '\r')) s.remove_suffix(1);
-  return s;
-}
 
 std::vector<Block> ParseBlocks(std::string_view md) {
   std::vector<Block> blocks;

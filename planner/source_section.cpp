@@ -6,6 +6,8 @@
 #include <sstream>
 
 #include "core/suggest.h"
+#include "core/text.h"
+#include "planner/toml_list.h"
 
 namespace twinprobe {
 namespace {
@@ -17,11 +19,6 @@ const std::vector<std::string> kSourceKeys = {
     "retries",        "backoff_seconds", "retry_after_cap_seconds",      "max_redirects",
     "extract"};
 const std::vector<std::string> kExtractKeys = {"list", "items", "key", "fields", "optional"};
-
-std::string Lower(std::string s) {
-  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return s;
-}
 
 // Host and optional port of an http(s) URL pattern, lower-cased ("host" or
 // "host:port"); nullopt when the pattern is not an absolute http(s) URL.
@@ -59,7 +56,7 @@ bool IsHostEntry(const std::string& h) {
 }
 
 // The same checks and messages as the rest of the design reader.
-class SourceReader {
+class SourceReader : public TomlErrorSink {
  public:
   SourceReader(const toml::table& root, std::string label) : root_(root), label_(std::move(label)) {}
 
@@ -93,7 +90,7 @@ class SourceReader {
     if (!node) return {};
     return {static_cast<int>(node->source().begin.line), static_cast<int>(node->source().begin.column)};
   }
-  void Fail(const toml::node* node, std::string what, std::string fix) {
+  void Fail(const toml::node* node, std::string what, std::string fix) override {
     if (!error_) error_ = BadInput(Where(node), std::move(what), std::move(fix));
   }
   void CheckKeys(const toml::table& t, const std::string& section, const std::vector<std::string>& allowed) {
@@ -120,24 +117,7 @@ class SourceReader {
     return std::string(n->as_string()->get());
   }
   std::vector<std::string> Strings(const toml::table& t, const std::string& key, const std::string& section) {
-    const toml::node* n = t.get(key);
-    std::vector<std::string> out;
-    if (!n) return out;
-    if (!n->is_array()) {
-      Fail(n, section + "." + key + " must be a list of texts", "write " + key + " = [\"…\", \"…\"]");
-      return out;
-    }
-    for (const auto& el : *n->as_array()) {
-      if (!el.is_string()) {
-        Fail(&el, section + "." + key + " must hold only texts in quotes", "quote every entry");
-        return out;
-      }
-      std::string v(el.as_string()->get());
-      if (std::find(out.begin(), out.end(), v) != out.end())
-        Fail(&el, section + "." + key + " lists '" + v + "' twice", "remove the duplicate");
-      out.push_back(v);
-    }
-    return out;
+    return ReadTextList(t, section, key, *this);
   }
   int64_t Integer(const toml::table& t, const std::string& key, int64_t fallback, int64_t min, int64_t max) {
     const toml::node* n = t.get(key);

@@ -13,7 +13,7 @@ namespace {
 std::string TestLine(const stats::IndependenceTest& t) {
   if (t.df == 0) return "no test: the table has a single row or column";
   char buf[160];
-  std::snprintf(buf, sizeof buf, "X2 = %.2f, df = %d, p = %s", t.statistic, t.df, FormatP(t.p()).c_str());
+  std::snprintf(buf, sizeof buf, "X2 = %.2f, df = %d, %s", t.statistic, t.df, PEquals(t.p()).c_str());
   std::string line = buf;
   if (t.p_monte_carlo)
     line += " (Monte Carlo over " + std::to_string(t.replicates) + " tables with these margins: " +

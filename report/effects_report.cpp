@@ -47,16 +47,6 @@ std::string Fmt(double v) {
   return buf;
 }
 
-std::string FmtP(const stats::PValue& p) {
-  if (std::isnan(p.p)) return "undefined";
-  if (p.p < 1e-300) {
-    char buf[64];
-    std::snprintf(buf, sizeof buf, "< 1e-300 (log10 p = %.1f)", p.log10_p);
-    return buf;
-  }
-  return FormatP(p.p);
-}
-
 std::string FmtCi(const stats::Interval& ci) { return "[" + Fmt(ci.low) + ", " + Fmt(ci.high) + "]"; }
 
 std::string Percent(double confidence) { return std::to_string(static_cast<int>(std::lround(confidence * 100))) + "%"; }
@@ -67,9 +57,9 @@ void ComparisonText(std::ostringstream& o, const ArmComparison& c, const Analysi
     const auto& t = c.pairs;
     o << "  " << c.other_label << " vs " << ref << ": " << t.n() << " sets with both (a " << t.a << ", b " << t.b << ", c "
       << t.c << ", d " << t.d << ").\n"
-      << "    exact McNemar p = " << FmtP(c.mcnemar.exact) << " (mid-p " << FmtP(c.mcnemar.mid_p) << "); asymptotic X^2 = "
-      << Fmt(c.mcnemar.chi2) << " (p = " << FmtP(c.mcnemar.chi2_p) << "), with continuity correction "
-      << Fmt(c.mcnemar.chi2_corrected) << " (p = " << FmtP(c.mcnemar.chi2_corrected_p) << ").\n"
+      << "    exact McNemar " << PEquals(c.mcnemar.exact) << " (mid-p " << FormatP(c.mcnemar.mid_p) << "); asymptotic X^2 = "
+      << Fmt(c.mcnemar.chi2) << " (" << PEquals(c.mcnemar.chi2_p) << "), with continuity correction "
+      << Fmt(c.mcnemar.chi2_corrected) << " (" << PEquals(c.mcnemar.chi2_corrected_p) << ").\n"
       << "    conditional odds ratio b/c = " << Fmt(c.conditional_or.estimate) << ", " << cl << " exact CI "
       << FmtCi(c.conditional_or.ci) << ".\n"
       << "    net discrimination (b-c)/(a+b+c) = " << Fmt(c.net.among_positive.estimate) << " " << FmtCi(c.net.among_positive.ci)
@@ -79,7 +69,7 @@ void ComparisonText(std::ostringstream& o, const ArmComparison& c, const Analysi
     const auto& t = c.table;
     o << "  " << c.other_label << " vs " << ref << ": " << t.c << "/" << t.c + t.d << " positive " << FmtCi(c.other_wilson)
       << " vs " << t.a << "/" << t.a + t.b << " " << FmtCi(c.reference_wilson) << " (Wilson " << cl << ").\n"
-      << "    Fisher's exact p = " << FmtP(c.fisher.p) << "; conditional MLE odds ratio (reference vs other) "
+      << "    Fisher's exact " << PEquals(c.fisher.p) << "; conditional MLE odds ratio (reference vs other) "
       << Fmt(c.fisher.estimate) << ", " << cl << " exact CI " << FmtCi(c.fisher.ci) << "; sample odds ratio "
       << Fmt(c.woolf.estimate) << " " << FmtCi(c.woolf.ci) << " (Woolf).\n";
   }
@@ -149,13 +139,13 @@ std::string RenderEffectsText(const AnalysisResult& r) {
       if (paired)
         std::snprintf(line, sizeof line, "  %-12s %-18s %-14s b %4lld  c %4lld  p %-10s adj %-8s OR %s %s\n", s.column.c_str(),
                       s.value.c_str(), c.other_label.c_str(), static_cast<long long>(c.pairs.b),
-                      static_cast<long long>(c.pairs.c), FmtP(c.p).c_str(), Fmt(c.p_adjusted).c_str(),
+                      static_cast<long long>(c.pairs.c), FormatP(c.p).c_str(), Fmt(c.p_adjusted).c_str(),
                       Fmt(c.conditional_or.estimate).c_str(), FmtCi(c.conditional_or.ci).c_str());
       else
         std::snprintf(line, sizeof line, "  %-12s %-18s %-14s %lld/%lld vs %lld/%lld  p %-10s adj %-8s OR %s %s\n",
                       s.column.c_str(), s.value.c_str(), c.other_label.c_str(), static_cast<long long>(c.table.c),
                       static_cast<long long>(c.table.c + c.table.d), static_cast<long long>(c.table.a),
-                      static_cast<long long>(c.table.a + c.table.b), FmtP(c.p).c_str(), Fmt(c.p_adjusted).c_str(),
+                      static_cast<long long>(c.table.a + c.table.b), FormatP(c.p).c_str(), Fmt(c.p_adjusted).c_str(),
                       Fmt(c.fisher.estimate).c_str(), FmtCi(c.fisher.ci).c_str());
       o << line;
     }
@@ -165,11 +155,11 @@ std::string RenderEffectsText(const AnalysisResult& r) {
       << "; arm x outcome tables" << (paired ? ", pairing ignored" : "") << "):\n"
       << "  Mantel-Haenszel odds ratio " << Fmt(a.mh.estimate) << ", " << Percent(r.confidence)
       << " CI (Robins-Breslow-Greenland) " << FmtCi(a.mh.ci) << "; CMH X^2 = " << Fmt(a.mh.chi2_corrected)
-      << " with continuity correction (p = " << FmtP(a.mh.chi2_corrected_p) << "), " << Fmt(a.mh.chi2)
-      << " without (p = " << FmtP(a.mh.chi2_p) << ").\n"
+      << " with continuity correction (" << PEquals(a.mh.chi2_corrected_p) << "), " << Fmt(a.mh.chi2)
+      << " without (" << PEquals(a.mh.chi2_p) << ").\n"
       << "  Breslow-Day test of equal odds ratios: X^2 = " << Fmt(a.breslow_day.statistic) << " on "
-      << Fmt(a.breslow_day.df) << " df (p = " << FmtP(a.breslow_day.p) << "); with Tarone's correction "
-      << Fmt(a.breslow_day.tarone) << " (p = " << FmtP(a.breslow_day.tarone_p) << ").\n";
+      << Fmt(a.breslow_day.df) << " df (" << PEquals(a.breslow_day.p) << "); with Tarone's correction "
+      << Fmt(a.breslow_day.tarone) << " (" << PEquals(a.breslow_day.tarone_p) << ").\n";
   }
   if (paired && !e.across.empty())
     o << "  (Respecting the pairs, Mantel-Haenszel over vacancies reduces to sum(b)/sum(c), the conditional odds\n"

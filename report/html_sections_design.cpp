@@ -137,8 +137,8 @@ std::string DesignBalance(const AnalysisResult& r, const ReportContext&) {
     char test[160];
     if (t.test.df == 0) std::snprintf(test, sizeof test, "no test (a single column)");
     else
-      std::snprintf(test, sizeof test, "X\u00b2 = %.2f, df = %d, p = %s%s", t.test.statistic, t.test.df,
-                    FormatP(t.test.p()).c_str(), t.test.p_monte_carlo ? " (Monte Carlo: small expected counts)" : "");
+      std::snprintf(test, sizeof test, "X\u00b2 = %.2f, df = %d, %s%s", t.test.statistic, t.test.df,
+                    PEquals(t.test.p()).c_str(), t.test.p_monte_carlo ? " (Monte Carlo: small expected counts)" : "");
     o += "<p class=\"note\">" + EscapeHtml(test) + "</p></div>";
   }
   return html::Heading("Balance of the plan") +

@@ -18,17 +18,6 @@ namespace {
 
 std::string Conf(double confidence) { return std::to_string(static_cast<int>(std::lround(confidence * 100))) + "%"; }
 
-// A p-value as the text report prints it (FormatP, or the log10 when it underflowed).
-std::string PText(const stats::PValue& p) {
-  if (std::isnan(p.p)) return "undefined";
-  if (p.p < 1e-300) {
-    char buf[64];
-    std::snprintf(buf, sizeof buf, "< 1e-300 (log10 p = %.1f)", p.log10_p);
-    return buf;
-  }
-  return FormatP(p.p);
-}
-
 std::string PercentInterval(const stats::Estimate& e) {
   if (std::isnan(e.estimate)) return "not estimable";
   return FormatPercent(e.estimate) + " (" + FormatPercent(e.ci.low) + " to " + FormatPercent(e.ci.high) + ")";
@@ -68,13 +57,13 @@ std::string PairedEffects(const AnalysisResult& r, const ReportContext&) {
                                                      c->conditional_or.ci.high)),
                     Cell("how many times more often an unequal pair favoured " + ref + " than " + other +
                          " (exact interval)")});
-  t.rows.push_back({HeadCell("exact McNemar p (two-sided)"), NumCell(PText(c->mcnemar.exact)),
+  t.rows.push_back({HeadCell("exact McNemar p (two-sided)"), NumCell(FormatP(c->mcnemar.exact)),
                     Cell("chance of a split at least this uneven if employers had no preference")});
-  t.rows.push_back({HeadCell("mid-p"), NumCell(PText(c->mcnemar.mid_p)),
+  t.rows.push_back({HeadCell("mid-p"), NumCell(FormatP(c->mcnemar.mid_p)),
                     Cell("the exact p less half the probability of the observed split; less conservative")});
   char chi[96];
-  std::snprintf(chi, sizeof chi, "X\u00B2 = %.3g, p = %s", c->mcnemar.chi2_corrected,
-                PText(c->mcnemar.chi2_corrected_p).c_str());
+  std::snprintf(chi, sizeof chi, "X\u00B2 = %.3g, %s", c->mcnemar.chi2_corrected,
+                PEquals(c->mcnemar.chi2_corrected_p).c_str());
   t.rows.push_back({HeadCell("asymptotic McNemar (continuity corrected)"), NumCell(chi),
                     Cell("the large-sample version, as R's mcnemar.test")});
   return html::Heading("Effect measures") + RenderTable(t);
@@ -100,7 +89,7 @@ std::string ComparisonsForest(const AnalysisResult& r, const ReportContext&) {
     const std::string text = svg::FormatRatioInterval(row.estimate, row.low, row.high);
     desc += " " + row.label + ": " + text + ", adjusted p " + FormatP(c.p_adjusted) + ".";
     chart.rows.push_back(row);
-    t.rows.push_back({HeadCell(row.label), NumCell(text), NumCell(PText(c.p)), NumCell(FormatP(c.p_adjusted))});
+    t.rows.push_back({HeadCell(row.label), NumCell(text), NumCell(FormatP(c.p)), NumCell(FormatP(c.p_adjusted))});
   }
   chart.description = desc;
   return html::Para("Each row compares one group with the reference group " + ref +
@@ -139,12 +128,12 @@ std::string StrataForest(const AnalysisResult& r, const ReportContext&) {
       const auto& c = s.result;
       if (c.paired)
         t.rows.push_back({HeadCell(row.label), NumCell(std::to_string(c.pairs.b)), NumCell(std::to_string(c.pairs.c)),
-                          NumCell(text), NumCell(PText(c.p)), NumCell(FormatP(c.p_adjusted))});
+                          NumCell(text), NumCell(FormatP(c.p)), NumCell(FormatP(c.p_adjusted))});
       else
         t.rows.push_back({HeadCell(row.label),
                           NumCell(std::to_string(c.table.a) + " / " + std::to_string(c.table.a + c.table.b)),
                           NumCell(std::to_string(c.table.c) + " / " + std::to_string(c.table.c + c.table.d)),
-                          NumCell(text), NumCell(PText(c.p)), NumCell(FormatP(c.p_adjusted))});
+                          NumCell(text), NumCell(FormatP(c.p)), NumCell(FormatP(c.p_adjusted))});
     }
     // The summary on the same scale: for pairs the overall conditional odds
     // ratio (Mantel–Haenszel over vacancies reduces to it); for unpaired
@@ -190,9 +179,9 @@ std::string AcrossStrataTable(const AnalysisResult& r, const ReportContext&) {
                "CMH test (corrected)", "Breslow\u2013Day (Tarone)"};
   for (const auto& a : e.across) {
     char cmh[96], bd[128];
-    std::snprintf(cmh, sizeof cmh, "X\u00B2 = %.3g, p = %s", a.mh.chi2_corrected, PText(a.mh.chi2_corrected_p).c_str());
-    std::snprintf(bd, sizeof bd, "X\u00B2 = %.3g on %.0f df, p = %s (%s)", a.breslow_day.statistic, a.breslow_day.df,
-                  PText(a.breslow_day.p).c_str(), PText(a.breslow_day.tarone_p).c_str());
+    std::snprintf(cmh, sizeof cmh, "X\u00B2 = %.3g, %s", a.mh.chi2_corrected, PEquals(a.mh.chi2_corrected_p).c_str());
+    std::snprintf(bd, sizeof bd, "X\u00B2 = %.3g on %.0f df, %s (%s)", a.breslow_day.statistic, a.breslow_day.df,
+                  PEquals(a.breslow_day.p).c_str(), FormatP(a.breslow_day.tarone_p).c_str());
     t.rows.push_back({HeadCell(a.column), Cell(ArmName(a.other_label)), NumCell(std::to_string(a.values)),
                       NumCell(svg::FormatRatioInterval(a.mh.estimate, a.mh.ci.low, a.mh.ci.high)), NumCell(cmh),
                       NumCell(bd)});

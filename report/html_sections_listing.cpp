@@ -32,8 +32,6 @@ std::string StratumName(const ListingComparison& c) {
   return c.location.empty() ? c.query : c.query + " / " + c.location;
 }
 
-std::string PlainP(double p) { return std::isnan(p) ? std::string("not defined") : FormatP(p); }
-
 }  // namespace
 
 std::string ListingOverview(const AnalysisResult& r, const ReportContext&) {
@@ -105,7 +103,7 @@ std::string ListingComparisons(const AnalysisResult& r, const ReportContext&) {
       p.rows.push_back({HeadCell(x.factor), Cell(x.reference + " vs " + x.other), NumCell(std::to_string(x.strata)),
                         NumCell(std::to_string(x.sign.positive)), NumCell(std::to_string(x.sign.negative)),
                         NumCell(FormatP(x.sign.p_value)), NumCell(Fixed(x.wilcoxon.statistic, 0)),
-                        NumCell(PlainP(x.wilcoxon.p_value))});
+                        NumCell(FormatP(x.wilcoxon.p_value))});
     o += RenderTable(p);
   }
   return o;

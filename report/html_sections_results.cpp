@@ -58,7 +58,7 @@ std::string SummaryKeyFigures(const AnalysisResult& r, const ReportContext&) {
                          FormatPercent(net.ci.high));
     }
     o += KeyFigure(PlainP(r.mcnemar_exact_p), "chance of a split this uneven if employers had no preference",
-                   "exact McNemar test, two-sided: p = " + FormatP(r.mcnemar_exact_p));
+                   "exact McNemar test, two-sided: " + PEquals(r.mcnemar_exact_p));
   }
   return o + "</div>";
 }

@@ -144,7 +144,7 @@ std::string Headline(const AnalysisResult& r) {
     const auto& c = r.listings.overall.front();
     return "In " + std::to_string(r.listings.listings) + " ranked lists, " + c.reference + " items " +
            (c.exposure_gap >= 0 ? "received more" : "received less") + " attention than " + c.other +
-           " items (permutation test p = " + FormatP(c.gap_p) + ").";
+           " items (permutation test " + PEquals(c.gap_p) + ").";
   }
   if (r.sets_analysed == 0 || r.arms.empty()) return "No complete set of applications has been analysed yet.";
   if (!r.has_paired) {
@@ -210,7 +210,7 @@ std::vector<SummaryParagraph> ListingOnlySummary(const AnalysisResult& r) {
     char gap[32];
     std::snprintf(gap, sizeof gap, "%+.4f", c.exposure_gap);
     found << "The exposure gap between " << c.reference << " and " << c.other << " items was " << gap
-          << " (permutation test p = " << FormatP(c.gap_p) << "). ";
+          << " (permutation test " << PEquals(c.gap_p) << "). ";
   }
   return {{"What was tested", tested.str()},
           {"What was found", found.str()},

@@ -10,11 +10,12 @@
 namespace twinprobe::svg {
 namespace {
 
-constexpr const char* kRowColour = "#0072B2";  // Okabe–Ito blue
-constexpr const char* kSummaryColour = "#000000";
+// The palette's first series colour (Okabe–Ito blue) for the rows, its
+// black for the summary diamond: colours come only from svg_common.
+constexpr size_t kRowSeries = 0, kSummarySeries = 6;
 
 // A filled arrowhead whose tip is at (x, y), pointing left (dir = -1) or right (+1).
-std::string ArrowHead(double x, double y, int dir, const char* colour) {
+std::string ArrowHead(double x, double y, int dir, const std::string& colour) {
   const double back = x - dir * 9.0;
   return "<path class=\"arrow\" d=\"M" + Coord(x) + " " + Coord(y) + " L" + Coord(back) + " " + Coord(y - 5.5) + " L" +
          Coord(back) + " " + Coord(y + 5.5) + " Z\" fill=\"" + colour + "\"/>";
@@ -95,7 +96,7 @@ std::string RenderForestChart(const ForestChart& c) {
   for (size_t i = 0; i < c.rows.size(); ++i) {
     const ForestRow& r = c.rows[i];
     const double y = top + row_h * (static_cast<double>(i) + 0.5);
-    const char* colour = r.summary ? kSummaryColour : kRowColour;
+    const std::string colour = SeriesColour(r.summary ? kSummarySeries : kRowSeries);
     o += std::string("<g class=\"row") + (r.summary ? " summary" : "") + "\">";
     if (r.summary)
       o += "<line class=\"sep\" x1=\"8\" x2=\"" + Coord(width - 8) + "\" y1=\"" + Coord(y - row_h / 2) + "\" y2=\"" +

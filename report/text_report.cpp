@@ -12,14 +12,6 @@
 
 namespace twinprobe {
 
-std::string FormatP(double p) {
-  char buf[32];
-  if (p < 1e-16) return "< 1e-16";
-  if (p < 0.001) std::snprintf(buf, sizeof buf, "%.2e", p);
-  else std::snprintf(buf, sizeof buf, "%.3g", p);
-  return buf;
-}
-
 std::string FormatPercent(double rate) {
   char buf[32];
   std::snprintf(buf, sizeof buf, "%.1f%%", rate * 100.0);
@@ -168,15 +160,15 @@ std::string RenderListingText(const ListingAudit& a, double alpha, bool heading)
     o << "  " << c.factor << ": " << c.reference << " vs " << c.other << " (" << c.n_reference << " and " << c.n_other
       << " places)\n";
     o << "    exposure gap " << Signed(c.exposure_gap, 4) << " (" << c.reference << " - " << c.other
-      << "), p = " << FormatP(c.gap_p) << "\n";
-    o << "    earth mover's distance " << Fixed(c.emd, 2) << " places, p = " << FormatP(c.emd_p)
-      << "; Mann-Whitney test on positions p = " << FormatP(c.mann_whitney_p) << "\n";
+      << "), " << PEquals(c.gap_p) << "\n";
+    o << "    earth mover's distance " << Fixed(c.emd, 2) << " places, " << PEquals(c.emd_p)
+      << "; Mann-Whitney test on positions " << PEquals(c.mann_whitney_p) << "\n";
     for (const auto& p : a.paired)
       if (p.factor == c.factor && p.other == c.other) {
         o << "    across " << p.strata << " strata the gap favours " << c.reference << " in " << p.sign.positive
-          << ", " << c.other << " in " << p.sign.negative << " (sign test p = " << FormatP(p.sign.p_value)
-          << "); Wilcoxon signed-rank V = " << p.wilcoxon.statistic << ", p = "
-          << (std::isnan(p.wilcoxon.p_value) ? std::string("not defined") : FormatP(p.wilcoxon.p_value)) << "\n";
+          << ", " << c.other << " in " << p.sign.negative << " (sign test " << PEquals(p.sign.p_value)
+          << "); Wilcoxon signed-rank V = " << p.wilcoxon.statistic << ", "
+          << PEquals(p.wilcoxon.p_value) << "\n";
       }
   }
   if (!a.by_stratum.empty()) {
@@ -294,7 +286,7 @@ std::string RenderTextReport(const AnalysisResult& r) {
       << "c = " << t.c << "\n";
     o << "  neither                     d = " << t.d << "\n";
     o << "Exact McNemar test (conditional binomial on the " << Count(t.discordant(), "discordant pair", "discordant pairs")
-      << ", two-sided): p = " << FormatP(r.mcnemar_exact_p) << ".\n";
+      << ", two-sided): " << PEquals(r.mcnemar_exact_p) << ".\n";
     if (t.discordant() == 0)
       o << "No pair was discordant, so the data say nothing about a difference between the arms.\n";
     else if (r.mcnemar_exact_p < r.alpha)

@@ -4,6 +4,7 @@
 #include <string>
 
 #include "analysis/analyze.h"
+#include "report/p_value.h"
 #include "report/report_context.h"
 
 namespace twinprobe {
@@ -13,9 +14,6 @@ std::string RenderTextReport(const AnalysisResult& result);
 // head) and, with --reveal-employers, employer names beside pseudonyms.
 std::string RenderTextReport(const AnalysisResult& result, const ReportContext& context);
 
-// Formats a probability for people: 3 significant digits, "< 1e-16" style
-// below the smallest printable value.
-std::string FormatP(double p);
 std::string FormatPercent(double rate);  // "24.8%"
 
 }  // namespace twinprobe

@@ -34,7 +34,7 @@ TEST_CASE("calc: --json before the command works too, and infinity is written \"
 TEST_CASE("calc: fisher on the tea-tasting table prints one sentence and the numbers") {
   auto r = RunCli({"calc", "fisher", "--table", "3,1,1,3", "--alternative", "greater"});
   REQUIRE(r.exit_code == 0);
-  CHECK(r.out.find("does not show a difference between the arms (p = 0.2429)") != std::string::npos);
+  CHECK(r.out.find("does not show a difference between the arms (p = 0.243)") != std::string::npos);
   CHECK(r.out.find("conditional MLE odds ratio") != std::string::npos);
 }
 
@@ -87,7 +87,7 @@ TEST_CASE("calc: bad input gets one clear line and exit 1") {
 TEST_CASE("calc: a p-value below the smallest double is printed with its log10") {
   auto r = RunCli({"calc", "binom", "--x", "0", "--n", "5000"});
   REQUIRE(r.exit_code == 0);
-  CHECK(r.out.find("< 1e-300 (log10 p = -1504.8)") != std::string::npos);
+  CHECK(r.out.find("< 1e-16 (log10 p = -1504.8)") != std::string::npos);
   auto j = nlohmann::json::parse(RunCli({"calc", "binom", "--x", "0", "--n", "5000", "--json"}).out);
   CHECK(j["p_value"] == 0.0);
   CHECK_THAT(j["log10_p_value"].get<double>(), WithinRel(std::log10(2.0) * (1 - 5000), 1e-12));

@@ -1,7 +1,6 @@
 // URL patterns, the host allowlist and redirect resolution (no network).
 #include <catch2/catch.hpp>
 
-#include "collector/fetch_progress.h"
 #include "collector/fetch_session.h"
 #include "collector/fetch_url.h"
 
@@ -56,8 +55,3 @@ TEST_CASE("fetch url: Retry-After as seconds or as an HTTP-date (RFC 9110 sectio
   CHECK_FALSE(ParseRetryAfter("", 0));
 }
 
-TEST_CASE("fetch progress: the bar shows done/total and is cut to the width") {
-  CHECK(RenderProgress(5, 20, "http://x/", 80) == "[#####...............] 5/20  http://x/");
-  CHECK(RenderProgress(0, 0, "", 80) == "[####################] 0/0");
-  CHECK(RenderProgress(1, 2, std::string(100, 'u'), 30).size() == 30);
-}

@@ -1,5 +1,6 @@
 #include <catch2/catch.hpp>
 
+#include <cstdlib>
 #include <sstream>
 #include <thread>
 
@@ -34,4 +35,19 @@ TEST_CASE("progress: short work draws nothing, long work redraws in place and en
   slow.Finish();  // once only
   const std::string s = out.str();
   CHECK(s == "\rslow [#########---------------]  40%  40 of 100\rslow [########################] 100%  100 of 100\n");
+}
+
+TEST_CASE("progress: a total known late and a detail such as the URL being fetched") {
+  setenv("TWINPROBE_PROGRESS_DELAY_MS", "0", 1);
+  std::ostringstream out;
+  {
+    Progress bar("fetching", 0, Progress::Unit::kCount, &out);
+    bar.SetTotal(4);
+    bar.SetDetail("https://jobs.example/list?page=2");
+    bar.Update(1);
+  }  // the destructor finishes the line
+  unsetenv("TWINPROBE_PROGRESS_DELAY_MS");
+  CHECK(out.str() ==
+        "\rfetching [######------------------]  25%  1 of 4  https://jobs.example/list?page=2"
+        "\rfetching [######------------------]  25%  1 of 4  https://jobs.example/list?page=2\n");
 }
