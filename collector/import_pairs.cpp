@@ -523,10 +523,10 @@ class Lander {
   static constexpr int kBatch = 64;
 
   Lander(Store& store, const Target& t, const Columns& c, size_t vacancies, int64_t seq, const std::string& actor,
-         const std::string& at, int64_t plan_id, std::vector<int64_t> arm_ids, int64_t expected_probes)
+         const std::string& at, int64_t plan_id, std::vector<int64_t> arm_ids)
       : store_(store), t_(t), c_(c), arm_ids_(std::move(arm_ids)), serial_(t.next_serial),
         vacancy_id_(vacancies, 0), probes_in_(vacancies, 0),
-        writer_(store, plan_id, seq, actor, at, kBatch, static_cast<int>(c.strata.size()), expected_probes),
+        writer_(store, plan_id, seq, actor, at, kBatch, static_cast<int>(c.strata.size())),
         next_vacancy_id_(writer_.next_vacancy_id()), next_probe_id_(writer_.next_probe_id()) {}
 
   void Land(const CsvRecord& r, uint32_t v, const Row& row, PairsImportSummary& summary) {
@@ -693,7 +693,7 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
     }
     summary.plan_id = plan_id;
     lander = std::make_unique<Lander>(*store, t, c, book.bad_line.size(), write->seq(), write->actor(), write->at(),
-                                      plan_id, arm_ids, checker.rows() - static_cast<int64_t>(checker.bad_rows().size()));
+                                      plan_id, arm_ids);
   }
   RejectWriter rejects(o.reject_path.empty() ? DefaultRejectPath(path) : o.reject_path, header.value());
   {

@@ -9,11 +9,6 @@ namespace {
 // on a million rows: 32 MiB is as fast as 512 MiB (bench/import).
 constexpr const char* kImportCache = "PRAGMA cache_size = -32768";
 
-// The tables an import fills, whose secondary indexes may be set aside.
-constexpr const char* kImportIndexes =
-    "SELECT name, sql FROM sqlite_master WHERE type = 'index' AND sql IS NOT NULL "
-    "AND tbl_name IN ('vacancy', 'vacancy_stratum', 'probe', 'sending', 'response') ORDER BY name";
-
 std::vector<std::string> Texts(Store& store, const char* sql, int64_t plan_id) {
   std::vector<std::string> out;
   Stmt s = store.Prepare(sql);
@@ -51,13 +46,12 @@ int64_t MaxProbeSerial(Store& store) {
 }
 
 PairsWriter::PairsWriter(Store& store, int64_t plan_id, int64_t seq, const std::string& actor, const std::string& at,
-                         int batch_probes, int strata_per_vacancy, int64_t expected_probes)
+                         int batch_probes, int strata_per_vacancy)
     : store_(store),
       next_vacancy_id_(store.QueryInt("SELECT coalesce(max(id), 0) + 1 FROM vacancy")),
       next_probe_id_(store.QueryInt("SELECT coalesce(max(id), 0) + 1 FROM probe")),
       employer_(store.Prepare("INSERT OR IGNORE INTO employer(key, name) VALUES (?1, ?2)")) {
   store.Exec(kImportCache);
-  if (expected_probes >= next_probe_id_ - 1) SetIndexesAside();
   vacancies_ = std::make_unique<BatchInsert>(
       store, "INSERT INTO vacancy(id, plan_id, ref, employer_key, source, audit_seq) VALUES ",
       "(@, ?1, @, @, 'import', ?2)", std::vector<BatchInsert::Constant>{plan_id, seq}, batch_probes);
@@ -131,37 +125,19 @@ void PairsWriter::FlushAll() {
   for (BatchInsert* b : {vacancies_.get(), strata_.get(), probes_.get(), sendings_.get(), responses_.get()}) b->Flush();
 }
 
-// Why: an index that a bulk insert maintains row by row costs a B-tree
-// descent, a record and often a page split per row and per index; the
-// tables an import fills carry nine such indexes (probe_vacancy, the
-// *_probe and *_seq ones, response_supersedes). CREATE INDEX over the
-// finished table instead reads it once and sorts, which SQLite does far
-// faster (bench/import/RESULTS.md). DDL is transactional in SQLite, so the
-// drop and the rebuild sit inside the import's own transaction: a failed
-// import rolls back to the old indexes, and other connections never see a
-// store without them (they read the last committed state). The index
-// definitions are read from the store itself, so they stay exactly those of
-// core/schema.cpp. The unique constraints' own indexes (vacancy and probe
-// refs, vacancy_stratum's key) cannot be dropped and check every row.
-// A small import into a large study keeps its indexes: rebuilding them
-// would cost more than the rows it adds.
-void PairsWriter::SetIndexesAside() {
-  Stmt q = store_.Prepare(kImportIndexes);
-  while (q.Step()) set_aside_.push_back({q.Text(0), q.Text(1)});
-  for (const Index& index : set_aside_) store_.Exec("DROP INDEX " + index.name);
-}
-
-std::vector<std::string> PairsWriter::indexes_set_aside() const {
-  std::vector<std::string> names;
-  if (!finished_)
-    for (const Index& index : set_aside_) names.push_back(index.name);
-  return names;
-}
-
+// Why the indexes stay: dropping the nine secondary indexes of the filled
+// tables (probe_vacancy, the *_probe and *_seq ones, response_supersedes)
+// before the insert and building them again inside the same transaction
+// was tried on 300,000 rows and saved nothing (2.79 against 2.81 CPU
+// seconds; bench/import/RESULTS.md). The import writes every one of those
+// indexes in key order (ids and audit_seq only grow), so each row appends
+// to the right edge of a B-tree whose path is in the page cache, which
+// costs about what CREATE INDEX's scan and sort cost afterwards. The
+// indexes that do take random keys are the unique constraints' own
+// (vacancy and probe refs), which cannot be dropped.
 void PairsWriter::Finish() {
   if (finished_) return;
   FlushAll();
-  for (const Index& index : set_aside_) store_.Exec(index.sql);
   finished_ = true;
 }
 

@@ -6,10 +6,8 @@
 //
 // Rows are buffered and written in multi-row batches, parents before
 // children, so the immediate foreign-key checks always find the parent.
-// When the import is at least as large as what the tables already hold,
-// their secondary indexes are dropped at the start and built again by
-// Finish(), inside the same transaction (see the .cpp for why): a rollback
-// brings them back as they were, and the commit never sees them missing.
+// Every index is kept up to date row by row; the .cpp says why rebuilding
+// them after the insert was measured and left out.
 // Failures throw StoreError (core/store.h). Call inside the AuditedWrite
 // whose seq the rows carry; Finish() before committing it.
 #include <cstdint>
@@ -52,11 +50,10 @@ int64_t MaxProbeSerial(Store& store);
 class PairsWriter {
  public:
   // `batch_probes`: how many probes a batch holds; `strata_per_vacancy`
-  // sizes the strata batch; `expected_probes`: how many probes the import
-  // will add (decides whether rebuilding the indexes pays). Use inside an
-  // AuditedWrite, which holds the write lock.
+  // sizes the strata batch. Use inside an AuditedWrite, which holds the
+  // write lock.
   PairsWriter(Store& store, int64_t plan_id, int64_t seq, const std::string& actor, const std::string& at,
-              int batch_probes, int strata_per_vacancy, int64_t expected_probes);
+              int batch_probes, int strata_per_vacancy);
   ~PairsWriter();
   PairsWriter(const PairsWriter&) = delete;
   PairsWriter& operator=(const PairsWriter&) = delete;
@@ -77,25 +74,16 @@ class PairsWriter {
   void AddResponse(int64_t probe_id, std::string_view code, std::string_view received_at, bool late);
   // Call after each probe: writes the batches once the probes' one is full.
   void EndProbe();
-  // Writes what is buffered and builds the indexes set aside again; the
-  // rows are then readable through every index.
+  // Writes what is buffered; the rows are then readable.
   void Finish();
-  // The indexes set aside until Finish() (for tests and the benchmark).
-  std::vector<std::string> indexes_set_aside() const;
 
  private:
   void FlushAll();
-  void SetIndexesAside();
-
-  struct Index {
-    std::string name, sql;
-  };
 
   Store& store_;
   int64_t next_vacancy_id_, next_probe_id_;
   Stmt employer_;
   std::unique_ptr<BatchInsert> vacancies_, strata_, probes_, sendings_, responses_;
-  std::vector<Index> set_aside_;  // dropped until Finish()
   bool finished_ = false;
 };
 
