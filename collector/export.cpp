@@ -13,6 +13,7 @@
 #include "core/audit.h"
 #include "core/clock.h"
 #include "core/csv.h"
+#include "core/export_records.h"
 #include "core/meta.h"
 
 namespace twinprobe {
@@ -111,12 +112,8 @@ class JsonSink : public TableSink {
 // "stratum_" prefix.
 std::vector<std::string> StratumNames(Store& store, int64_t plan_id) {
   std::vector<std::string> names = MetaList(store, "strata");
-  Stmt s = store.Prepare(
-      "SELECT DISTINCT vs.name FROM vacancy_stratum vs JOIN vacancy v ON v.id = vs.vacancy_id WHERE v.plan_id = ?1 "
-      "ORDER BY vs.name");
-  s.Bind(1, plan_id);
-  while (s.Step())
-    if (std::find(names.begin(), names.end(), s.Text(0)) == names.end()) names.push_back(s.Text(0));
+  for (const std::string& name : ReadVacancyStratumNames(store, plan_id))
+    if (std::find(names.begin(), names.end(), name) == names.end()) names.push_back(name);
   return names;
 }
 
@@ -131,15 +128,11 @@ std::unordered_map<int64_t, std::vector<std::string>> StrataByVacancy(Store& sto
   std::unordered_map<std::string, size_t> index;
   for (size_t i = 0; i < names.size(); ++i) index[names[i]] = i;
   std::unordered_map<int64_t, std::vector<std::string>> out;
-  Stmt s = store.Prepare(
-      "SELECT vs.vacancy_id, vs.name, vs.value FROM vacancy_stratum vs JOIN vacancy v ON v.id = vs.vacancy_id "
-      "WHERE v.plan_id = ?1");
-  s.Bind(1, plan_id);
-  while (s.Step()) {
-    auto& values = out[s.Int(0)];
+  ForEachVacancyStratum(store, plan_id, [&](int64_t vacancy_id, const std::string& name, const std::string& value) {
+    auto& values = out[vacancy_id];
     values.resize(names.size());
-    values[index.at(s.Text(1))] = s.Text(2);
-  }
+    values[index.at(name)] = value;
+  });
   return out;
 }
 
@@ -162,24 +155,20 @@ Status WriteVacancies(Store& store, int64_t plan_id, const std::vector<std::stri
   for (const auto& n : strata_names) columns.push_back(StratumColumn(n, fixed));
   Status s = sink.Begin("vacancies", columns);
   if (!s.ok()) return s;
-  Stmt q = store.Prepare(
-      "SELECT v.id, v.ref, v.employer_key, e.name, e.contact, v.source, v.opened_on, v.closed_on FROM vacancy v "
-      "LEFT JOIN employer e ON e.key = v.employer_key WHERE v.plan_id = ?1 ORDER BY v.id");
-  q.Bind(1, plan_id);
   std::vector<Cell> cells;
-  while (q.Step()) {
+  ForEachExportVacancy(store, plan_id, [&](const ExportVacancyRow& v) {
     cells.clear();
-    cells.push_back(Cell::Text(q.Text(1)));
-    cells.push_back(Cell::OptText(q.OptText(2)));
+    cells.push_back(Cell::Text(v.ref));
+    cells.push_back(Cell::OptText(v.employer_key));
     if (identities) {
-      cells.push_back(Cell::OptText(q.OptText(3)));
-      cells.push_back(Cell::OptText(q.OptText(4)));
+      cells.push_back(Cell::OptText(v.employer_name));
+      cells.push_back(Cell::OptText(v.employer_contact));
     }
-    for (int c : {5, 6, 7}) cells.push_back(Cell::OptText(q.OptText(c)));
-    AddStrata(cells, strata, q.Int(0), strata_names.size());
+    for (const auto* c : {&v.source, &v.opened_on, &v.closed_on}) cells.push_back(Cell::OptText(*c));
+    AddStrata(cells, strata, v.id, strata_names.size());
     sink.Row(cells);
     ++count;
-  }
+  });
   return sink.End();
 }
 
@@ -195,47 +184,33 @@ Status WriteProbes(Store& store, int64_t plan_id, const OutcomeScheme& scheme,
   for (const auto& n : strata_names) columns.push_back(StratumColumn(n, fixed));
   Status s = sink.Begin("probes", columns);
   if (!s.ok()) return s;
-  // One pass: the newest sending and the current response of each probe
-  // come from correlated lookups on indexed columns.
-  Stmt q = store.Prepare(
-      "SELECT p.id, p.ref, v.ref, a.label, a.is_reference, pr.display_name, pr.mailbox, pr.phone, p.template, "
-      "  p.send_order, p.planned_at, "
-      "  (SELECT s.sent_at FROM sending s WHERE s.probe_id = p.id ORDER BY s.id DESC LIMIT 1), "
-      "  r.code, r.received_at, r.channel, r.flags, "
-      "  (SELECT count(*) FROM response c WHERE c.probe_id = p.id), p.vacancy_id "
-      "FROM probe p JOIN vacancy v ON v.id = p.vacancy_id JOIN arm a ON a.id = p.arm_id "
-      "LEFT JOIN profile pr ON pr.id = p.profile_id "
-      "LEFT JOIN response r ON r.id = (SELECT cr.id FROM current_response cr WHERE cr.probe_id = p.id "
-      "                                ORDER BY cr.id DESC LIMIT 1) "
-      "WHERE p.plan_id = ?1 ORDER BY p.id");
-  q.Bind(1, plan_id);
   std::vector<Cell> cells;
-  while (q.Step()) {
+  ForEachExportProbe(store, plan_id, [&](const ExportProbeRow& p) {
     cells.clear();
-    cells.push_back(Cell::Text(q.Text(1)));
-    cells.push_back(Cell::Text(q.Text(2)));
-    cells.push_back(Cell::Text(q.Text(3)));
-    cells.push_back(Cell::Bool(q.Int(4) != 0));
-    cells.push_back(Cell::OptText(q.OptText(5)));
+    cells.push_back(Cell::Text(p.ref));
+    cells.push_back(Cell::Text(p.vacancy_ref));
+    cells.push_back(Cell::Text(p.arm));
+    cells.push_back(Cell::Bool(p.is_reference));
+    cells.push_back(Cell::OptText(p.profile));
     if (identities) {
-      cells.push_back(Cell::OptText(q.OptText(6)));
-      cells.push_back(Cell::OptText(q.OptText(7)));
+      cells.push_back(Cell::OptText(p.mailbox));
+      cells.push_back(Cell::OptText(p.phone));
     }
-    cells.push_back(Cell::OptText(q.OptText(8)));
-    cells.push_back(Cell::Int(q.Int(9)));
-    cells.push_back(Cell::OptText(q.OptText(10)));
-    cells.push_back(Cell::OptText(q.OptText(11)));
-    const bool answered = !q.IsNull(12);
-    cells.push_back(Cell::OptText(q.OptText(12)));
-    cells.push_back(answered ? Cell::Bool(scheme.is_positive(q.Text(12))) : Cell{});
-    cells.push_back(Cell::OptText(q.OptText(13)));
-    cells.push_back(Cell::OptText(q.OptText(14)));
-    cells.push_back(answered ? Cell::Bool(q.Text(15).find("late") != std::string::npos) : Cell{});
-    cells.push_back(Cell::Int(q.Int(16)));
-    AddStrata(cells, strata, q.Int(17), strata_names.size());
+    cells.push_back(Cell::OptText(p.template_name));
+    cells.push_back(Cell::Int(p.send_order));
+    cells.push_back(Cell::OptText(p.planned_at));
+    cells.push_back(Cell::OptText(p.sent_at));
+    const bool answered = p.code.has_value();
+    cells.push_back(Cell::OptText(p.code));
+    cells.push_back(answered ? Cell::Bool(scheme.is_positive(*p.code)) : Cell{});
+    cells.push_back(Cell::OptText(p.received_at));
+    cells.push_back(Cell::OptText(p.channel));
+    cells.push_back(answered ? Cell::Bool(p.flags.value_or("").find("late") != std::string::npos) : Cell{});
+    cells.push_back(Cell::Int(p.responses));
+    AddStrata(cells, strata, p.vacancy_id, strata_names.size());
     sink.Row(cells);
     ++count;
-  }
+  });
   return sink.End();
 }
 
@@ -247,49 +222,39 @@ Status WriteResponses(Store& store, int64_t plan_id, const OutcomeScheme& scheme
   if (identities) columns.push_back("note");
   Status s = sink.Begin("responses", columns);
   if (!s.ok()) return s;
-  Stmt q = store.Prepare(
-      "SELECT r.id, p.ref, r.code, r.received_at, r.channel, r.origin, r.flags, r.entered_by, r.entered_at, "
-      "  r.supersedes, (SELECT min(n.id) FROM response n WHERE n.supersedes = r.id), r.note, "
-      "  r.id = (SELECT cr.id FROM current_response cr WHERE cr.probe_id = r.probe_id ORDER BY cr.id DESC LIMIT 1) "
-      "FROM response r JOIN probe p ON p.id = r.probe_id WHERE p.plan_id = ?1 ORDER BY r.id");
-  q.Bind(1, plan_id);
   std::vector<Cell> cells;
-  while (q.Step()) {
+  ForEachExportResponse(store, plan_id, [&](const ExportResponseRow& r) {
     cells.clear();
-    cells.push_back(Cell::Int(q.Int(0)));
-    cells.push_back(Cell::Text(q.Text(1)));
-    cells.push_back(Cell::Text(q.Text(2)));
-    cells.push_back(Cell::Bool(scheme.is_positive(q.Text(2))));
-    for (int c : {3, 4, 5}) cells.push_back(Cell::OptText(q.OptText(c)));
-    cells.push_back(q.Text(6).empty() ? Cell{} : Cell::Text(q.Text(6)));
-    cells.push_back(Cell::Text(q.Text(7)));
-    cells.push_back(Cell::Text(q.Text(8)));
-    cells.push_back(q.IsNull(9) ? Cell{} : Cell::Int(q.Int(9)));
-    cells.push_back(q.IsNull(10) ? Cell{} : Cell::Int(q.Int(10)));
-    cells.push_back(Cell::Bool(q.Int(12) != 0));
-    if (identities) cells.push_back(Cell::OptText(q.OptText(11)));
+    cells.push_back(Cell::Int(r.id));
+    cells.push_back(Cell::Text(r.probe_ref));
+    cells.push_back(Cell::Text(r.code));
+    cells.push_back(Cell::Bool(scheme.is_positive(r.code)));
+    for (const auto* c : {&r.received_at, &r.channel, &r.origin}) cells.push_back(Cell::OptText(*c));
+    cells.push_back(r.flags.empty() ? Cell{} : Cell::Text(r.flags));
+    cells.push_back(Cell::Text(r.entered_by));
+    cells.push_back(Cell::Text(r.entered_at));
+    cells.push_back(r.supersedes ? Cell::Int(*r.supersedes) : Cell{});
+    cells.push_back(r.superseded_by ? Cell::Int(*r.superseded_by) : Cell{});
+    cells.push_back(Cell::Bool(r.current));
+    if (identities) cells.push_back(Cell::OptText(r.note));
     sink.Row(cells);
     ++count;
-  }
+  });
   return sink.End();
 }
 
-nlohmann::ordered_json Manifest(Store& store, int64_t plan_id, const OutcomeScheme& scheme,
+nlohmann::ordered_json Manifest(Store& store, const ExportPlanRow& plan, const OutcomeScheme& scheme,
                                 const std::vector<std::string>& strata_names, const ExportOptions& o) {
-  Stmt p = store.Prepare("SELECT kind, origin FROM plan WHERE id = ?1");
-  p.Bind(1, plan_id);
-  p.Step();
   nlohmann::ordered_json arms = nlohmann::ordered_json::array();
-  Stmt a = store.Prepare("SELECT label, is_reference FROM arm WHERE plan_id = ?1 ORDER BY is_reference DESC, id");
-  a.Bind(1, plan_id);
-  while (a.Step()) arms.push_back({{"label", a.Text(0)}, {"reference", a.Int(1) != 0}});
+  for (const ExportArmRow& a : ReadExportArms(store, plan.id))
+    arms.push_back({{"label", a.label}, {"reference", a.is_reference}});
   AuditReport audit = VerifyAudit(store);
   return nlohmann::ordered_json{{"format", "twinprobe-export"},
                                 {"version", kExportVersion},
                                 {"study_id", MetaValue(store, "study_id").value_or("")},
                                 {"title", MetaValue(store, "title").value_or("")},
-                                {"kind", p.Text(0)},
-                                {"plan_origin", p.Text(1)},
+                                {"kind", plan.kind},
+                                {"plan_origin", plan.origin},
                                 {"exported_at", NowIso()},
                                 {"identities", o.identities},
                                 {"arms", arms},
@@ -306,16 +271,17 @@ nlohmann::ordered_json Manifest(Store& store, int64_t plan_id, const OutcomeSche
 
 Result<ExportSummary> ExportStudy(Store& store, const OutcomeScheme& scheme, const std::string& path,
                                   const ExportOptions& o) {
-  int64_t plan_id = store.QueryInt("SELECT id FROM current_plan");
-  if (plan_id == 0)
+  const std::optional<ExportPlanRow> plan = ReadExportPlan(store);
+  if (!plan)
     return BadInput(store.path(), "the store holds no plan yet", "run 'twinprobe plan' or 'twinprobe import pairs' first");
   if (o.format != "csv" && o.format != "json")
     return BadInput("", "unknown export format '" + o.format + "'", "use --format csv or --format json");
+  const int64_t plan_id = plan->id;
   ExportSummary summary;
   summary.path = path;
   const std::vector<std::string> strata_names = StratumNames(store, plan_id);
   const auto strata = StrataByVacancy(store, plan_id, strata_names);
-  nlohmann::ordered_json manifest = Manifest(store, plan_id, scheme, strata_names, o);
+  nlohmann::ordered_json manifest = Manifest(store, *plan, scheme, strata_names, o);
   summary.audit_head = manifest["audit_head"];
 
   auto write_tables = [&](TableSink& sink) -> Status {

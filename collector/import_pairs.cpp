@@ -10,11 +10,11 @@
 #include <unordered_map>
 #include <unordered_set>
 
-#include "collector/batch_insert.h"
 #include "collector/event_time.h"
 #include "collector/import_support.h"
 #include "core/audit.h"
 #include "core/csv.h"
+#include "core/import_pairs_writer.h"
 #include "core/meta.h"
 #include "core/plan_header.h"
 #include "core/progress.h"
@@ -30,9 +30,6 @@ namespace fs = std::filesystem;
 constexpr size_t kMaxArms = 64;
 constexpr uint32_t kNone = std::numeric_limits<uint32_t>::max();
 constexpr const char* kTimeFormat = "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM (UTC)";
-// A larger page cache for the one big transaction (negative: KiB). Measured
-// on a million rows: 32 MiB is as fast as 512 MiB (bench/import).
-constexpr const char* kImportCache = "PRAGMA cache_size = -32768";
 
 const std::vector<std::string> kFixedColumns = {"vacancy", "arm", "outcome", "sent_at", "responded_at",
                                                 "probe", "employer"};
@@ -116,25 +113,22 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
     if (FindColumn(kFixedColumns, s) >= 0)
       return BadInput("", "'" + s + "' is a column of its own and cannot be a stratum", "name other columns with --strata");
   if (store) {
-    Stmt p = store->Prepare("SELECT id, origin, kind FROM current_plan");
-    if (p.Step()) {
-      if (p.Text(1) != "import")
+    if (auto p = ReadImportPlan(*store)) {
+      if (p->origin != "import")
         return BadInput(store->path(),
                         "this study was planned with 'twinprobe plan'; 'import pairs' brings in a whole dataset "
                         "collected elsewhere",
                         "use 'import outcomes' for responses to the planned probes, or import into a new folder");
       t.append = true;
-      t.plan_id = p.Int(0);
-      t.kind = p.Text(2);
+      t.plan_id = p->id;
+      t.kind = p->kind;
     }
   }
   if (t.append) {
-    Stmt a = store->Prepare("SELECT id, label, is_reference FROM arm WHERE plan_id = ?1 ORDER BY id");
-    a.Bind(1, t.plan_id);
-    while (a.Step()) {
-      if (a.Int(2)) t.reference = static_cast<int>(t.arms.size());
-      t.arm_ids.push_back(a.Int(0));
-      t.arms.push_back(a.Text(1));
+    for (const ImportArmRow& a : ReadImportArms(*store, t.plan_id)) {
+      if (a.is_reference) t.reference = static_cast<int>(t.arms.size());
+      t.arm_ids.push_back(a.id);
+      t.arms.push_back(a.label);
     }
     t.scheme = design ? design->outcomes : StoredOutcomeScheme(*store);
     t.has_design = design != nullptr;
@@ -150,14 +144,9 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
     }
     t.strata = stored;
     t.strata_source = "the study (set by its first import)";
-    Stmt v = store->Prepare("SELECT ref FROM vacancy WHERE plan_id = ?1");
-    v.Bind(1, t.plan_id);
-    while (v.Step()) t.existing_vacancies.insert(v.Text(0));
-    Stmt pr = store->Prepare("SELECT ref FROM probe WHERE plan_id = ?1");
-    pr.Bind(1, t.plan_id);
-    while (pr.Step()) t.existing_probes.insert(pr.Text(0));
-    t.next_serial = 1 + store->QueryInt(
-                            "SELECT max(CAST(substr(ref, 2) AS INTEGER)) FROM current_probe WHERE ref GLOB 'P[0-9]*'");
+    for (std::string& ref : ReadVacancyRefs(*store, t.plan_id)) t.existing_vacancies.insert(std::move(ref));
+    for (std::string& ref : ReadProbeRefs(*store, t.plan_id)) t.existing_probes.insert(std::move(ref));
+    t.next_serial = 1 + MaxProbeSerial(*store);
   } else if (design) {
     t.has_design = true;
     t.kind = design->kind;
@@ -537,73 +526,39 @@ class Lander {
          const std::string& at, int64_t plan_id, std::vector<int64_t> arm_ids)
       : store_(store), t_(t), c_(c), arm_ids_(std::move(arm_ids)), serial_(t.next_serial),
         vacancy_id_(vacancies, 0), probes_in_(vacancies, 0),
-        next_vacancy_id_(store.QueryInt("SELECT coalesce(max(id), 0) + 1 FROM vacancy")),
-        next_probe_id_(store.QueryInt("SELECT coalesce(max(id), 0) + 1 FROM probe")),
-        ins_employer_(store.Prepare("INSERT OR IGNORE INTO employer(key, name) VALUES (?1, ?2)")),
-        vacancies_(store, "INSERT INTO vacancy(id, plan_id, ref, employer_key, source, audit_seq) VALUES ",
-                   "(@, ?1, @, @, 'import', ?2)", {plan_id, seq}, kBatch),
-        strata_(store, "INSERT INTO vacancy_stratum(vacancy_id, name, value, audit_seq) VALUES ", "(@, @, @, ?1)",
-                {seq}, kBatch * std::max<int>(1, static_cast<int>(c.strata.size()))),
-        probes_(store, "INSERT INTO probe(id, plan_id, ref, vacancy_id, arm_id, send_order, audit_seq) VALUES ",
-                "(@, ?1, @, @, @, @, ?2)", {plan_id, seq}, kBatch),
-        sendings_(store, "INSERT INTO sending(probe_id, sent_at, entered_by, entered_at, audit_seq) VALUES ",
-                  "(@, @, ?1, ?2, ?3)", {actor, at, seq}, kBatch),
-        responses_(store,
-                   "INSERT INTO response(probe_id, code, received_at, origin, flags, entered_by, entered_at, "
-                   "audit_seq) VALUES ",
-                   "(@, @, @, 'import', @, ?1, ?2, ?3)", {actor, at, seq}, kBatch) {}
+        writer_(store, plan_id, seq, actor, at, kBatch, static_cast<int>(c.strata.size())),
+        next_vacancy_id_(writer_.next_vacancy_id()), next_probe_id_(writer_.next_probe_id()) {}
 
   void Land(const CsvRecord& r, uint32_t v, const Row& row, PairsImportSummary& summary) {
     if (vacancy_id_[v] == 0) {
       vacancy_id_[v] = next_vacancy_id_++;
-      vacancies_.Int(vacancy_id_[v]);
-      vacancies_.Text(r.fields[c_.vacancy]);
-      std::string key = EmployerOf(r);
-      if (key.empty()) vacancies_.Null();
-      else vacancies_.Text(key);
-      vacancies_.EndRow();
-      for (size_t i = 0; i < c_.strata.size(); ++i) {
-        strata_.Int(vacancy_id_[v]);
-        strata_.Text(t_.strata[i]);
-        strata_.Text(r.fields[c_.strata[i]]);
-        strata_.EndRow();
-      }
+      writer_.AddVacancy(vacancy_id_[v], r.fields[c_.vacancy], EmployerOf(r));
+      for (size_t i = 0; i < c_.strata.size(); ++i) writer_.AddStratum(vacancy_id_[v], t_.strata[i], r.fields[c_.strata[i]]);
       ++summary.vacancies_landed;
     }
     const int64_t probe_id = next_probe_id_++;
-    probes_.Int(probe_id);
     if (c_.probe >= 0) {
-      probes_.Text(r.fields[c_.probe]);
+      writer_.AddProbe(probe_id, r.fields[c_.probe], vacancy_id_[v], arm_ids_[static_cast<size_t>(row.arm)],
+                       ++probes_in_[v]);
     } else {
       char ref[24];
       int n = std::snprintf(ref, sizeof ref, "P%05lld", static_cast<long long>(serial_++));
-      probes_.Text(std::string_view(ref, static_cast<size_t>(n)));
+      writer_.AddProbe(probe_id, std::string_view(ref, static_cast<size_t>(n)), vacancy_id_[v],
+                       arm_ids_[static_cast<size_t>(row.arm)], ++probes_in_[v]);
     }
-    probes_.Int(vacancy_id_[v]);
-    probes_.Int(arm_ids_[static_cast<size_t>(row.arm)]);
-    probes_.Int(++probes_in_[v]);
-    probes_.EndRow();
     if (row.sent) {
-      sendings_.Int(probe_id);
-      sendings_.Text(CanonicalEventText(r.fields[c_.sent_at]));
-      sendings_.EndRow();
+      writer_.AddSending(probe_id, CanonicalEventText(r.fields[c_.sent_at]));
       ++summary.sendings;
     }
-    responses_.Int(probe_id);
-    responses_.Text(r.fields[c_.outcome]);
-    if (row.responded) responses_.Text(CanonicalEventText(r.fields[c_.responded_at]));
-    else responses_.Null();
-    responses_.Text(row.late ? "late" : "");
-    responses_.EndRow();
+    writer_.AddResponse(probe_id, r.fields[c_.outcome],
+                        row.responded ? CanonicalEventText(r.fields[c_.responded_at]) : std::string(), row.late);
+    writer_.EndProbe();
     if (row.late) ++summary.late;
     ++summary.rows_landed;
-    if (probes_.full()) Finish();
   }
 
   // Writes what is buffered, parents before children.
-  void Finish() {
-    for (BatchInsert* b : {&vacancies_, &strata_, &probes_, &sendings_, &responses_}) b->Flush();
-  }
+  void Finish() { writer_.Finish(); }
 
  private:
   std::string EmployerOf(const CsvRecord& r) {
@@ -612,7 +567,7 @@ class Lander {
     auto it = employer_keys_.find(name);
     if (it == employer_keys_.end()) {
       it = employer_keys_.emplace(name, EmployerKey(store_, name)).first;
-      ins_employer_.Bind(1, it->second).Bind(2, name).Run();
+      writer_.AddEmployer(it->second, name);
     }
     return it->second;
   }
@@ -624,10 +579,9 @@ class Lander {
   int64_t serial_;
   std::vector<int64_t> vacancy_id_;
   std::vector<int64_t> probes_in_;
+  PairsWriter writer_;
   int64_t next_vacancy_id_, next_probe_id_;
   std::unordered_map<std::string, std::string> employer_keys_;
-  Stmt ins_employer_;
-  BatchInsert vacancies_, strata_, probes_, sendings_, responses_;
 };
 
 // The design a new imported plan is stored with.
@@ -723,14 +677,13 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
   std::unique_ptr<AuditedWrite> write;
   std::unique_ptr<Lander> lander;
   if (any_good) {
-    store->Exec(kImportCache);
     write = std::make_unique<AuditedWrite>(*store, "import pairs");
     if (AlreadyImported(*store, "pairs", sha.value())) {  // another process was quicker
       summary.already_imported = true;
       return summary;
     }
-    int64_t current = store->QueryInt("SELECT id FROM current_plan");
-    if (current != t.plan_id)
+    auto current = ReadImportPlan(*store);
+    if ((current ? current->id : 0) != t.plan_id)
       return BadInput(store_path, "the study changed while the file was checked", "run the import again");
     std::vector<int64_t> arm_ids = t.arm_ids;
     int64_t plan_id = t.plan_id;

@@ -1,15 +1,15 @@
 #pragma once
 // What every CSV import shares: the file's content digest (a second import
-// of the same bytes adds nothing), the record of imported files, and the
-// reject file that --skip-bad writes.
+// of the same bytes adds nothing; the record of imported files is in
+// core/import_files.h) and the reject file that --skip-bad writes.
 #include <cstdint>
 #include <fstream>
 #include <memory>
 #include <string>
 #include <vector>
 
+#include "core/import_files.h"  // IWYU pragma: export
 #include "core/status.h"
-#include "core/store.h"
 
 namespace twinprobe {
 
@@ -17,13 +17,6 @@ namespace twinprobe {
 Result<std::string> FileSha256(const std::string& path);
 // Size in bytes (0 when unknown), for progress bars.
 int64_t FileSize(const std::string& path);
-
-// True when a file of `kind` ("outcomes", "pairs") with this digest was
-// imported into the store before.
-bool AlreadyImported(Store& store, const std::string& kind, const std::string& sha256);
-// Records an imported file under audit entry `seq`.
-void RecordImportFile(Store& store, int64_t seq, const std::string& kind, const std::string& sha256,
-                      const std::string& path, int64_t rows_landed, int64_t rows_rejected);
 
 // Columns a reject file adds in front of the original ones. Importers skip
 // columns named reject_* so a corrected reject file imports as it is.

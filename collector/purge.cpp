@@ -4,6 +4,7 @@
 
 #include "core/audit.h"
 #include "core/clock.h"
+#include "core/purge_records.h"
 
 namespace twinprobe {
 namespace fs = std::filesystem;
@@ -22,19 +23,17 @@ int64_t CountFiles(const fs::path& dir) {
 
 PurgeCounts PlanPurge(Store& store, const std::string& study_dir, int retention_days) {
   PurgeCounts c;
-  c.employers = store.QueryInt("SELECT count(*) FROM employer WHERE name IS NOT NULL OR contact IS NOT NULL");
-  c.secrets = store.QueryInt("SELECT count(*) FROM secret");
-  c.notes = store.QueryInt("SELECT count(*) FROM response WHERE note IS NOT NULL");
-  c.mail_excerpts = store.QueryInt("SELECT count(*) FROM mail_message WHERE excerpt IS NOT NULL");
+  const PurgeableRows rows = CountPurgeableRows(store);
+  c.employers = rows.employers;
+  c.secrets = rows.secrets;
+  c.notes = rows.notes;
+  c.mail_excerpts = rows.mail_excerpts;
   c.snapshot_files = CountFiles(fs::path(study_dir) / "snapshots");
   c.material_files = CountFiles(fs::path(study_dir) / "materials");
-  Stmt end = store.Prepare(
-      "SELECT max(t) FROM (SELECT max(sent_at) AS t FROM sending UNION ALL SELECT max(received_at) FROM response "
-      "UNION ALL SELECT max(fetched_at) FROM listing)");
-  if (end.Step() && !end.IsNull(0)) c.fieldwork_end = end.Text(0);
+  c.fieldwork_end = ReadFieldworkEnd(store).value_or("");
   int64_t end_t = ParseIsoTime(c.fieldwork_end).value_or(0);
   c.retention_ends = FormatIsoTime(end_t + static_cast<int64_t>(retention_days) * 86400);
-  c.already_purged = store.QueryInt("SELECT count(*) FROM meta WHERE key = 'purged_at'") > 0;
+  c.already_purged = WasPurged(store);
   return c;
 }
 
@@ -48,22 +47,15 @@ Result<PurgeCounts> Purge(Store& store, const std::string& study_dir, int retent
                     "with your board's consent");
   {
     // secure_delete overwrites freed pages, so deleted names do not linger in the file.
-    store.Exec("PRAGMA secure_delete = ON");
+    EnableSecureDelete(store);
     AuditedWrite write(store, "purge");
-    store.Exec("DELETE FROM employer");
-    store.Exec("DELETE FROM secret");
-    store.Exec("UPDATE response SET note = NULL WHERE note IS NOT NULL");
-    store.Exec("UPDATE mail_message SET excerpt = NULL WHERE excerpt IS NOT NULL");
-    store.Prepare("INSERT INTO meta(key, value, audit_seq) VALUES ('purged_at', ?1, ?2)")
-        .Bind(1, write.at())
-        .Bind(2, write.seq())
-        .Run();
+    EraseIdentities(store, write.seq(), write.at());
     write.Commit("purge: " + std::to_string(c.employers) + " employer identities, " + std::to_string(c.notes) +
                  " notes, " + std::to_string(c.mail_excerpts) + " mail excerpts, " + std::to_string(c.snapshot_files) +
                  " snapshots, " + std::to_string(c.material_files) + " material files");
   }
   // Old page images may survive in the write-ahead log until a checkpoint.
-  store.Exec("PRAGMA wal_checkpoint(TRUNCATE)");
+  CheckpointLog(store);
   std::error_code ec;
   for (const char* dir : {"snapshots", "materials"}) fs::remove_all(fs::path(study_dir) / dir, ec);
   return c;

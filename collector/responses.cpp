@@ -4,7 +4,8 @@
 
 #include "collector/event_time.h"
 #include "core/audit.h"
-#include "core/sha256.h"
+#include "core/response_records.h"
+#include "core/sending_records.h"
 #include "core/suggest.h"
 
 namespace twinprobe {
@@ -25,31 +26,21 @@ const std::vector<std::string>& ResponseChannels() {
   return channels;
 }
 
-int64_t FindProbe(Store& store, const std::string& probe_ref) {
-  Stmt s = store.Prepare("SELECT id FROM current_probe WHERE ref = ?1");
-  s.Bind(1, probe_ref);
-  return s.Step() ? s.Int(0) : 0;
-}
+int64_t FindProbe(Store& store, const std::string& probe_ref) { return FindCurrentProbe(store, probe_ref); }
 
 ResponseWriter::ResponseWriter(Store& store, const OutcomeScheme& scheme, int64_t seq, std::string actor,
                                std::string at)
-    : store_(store),
-      scheme_(scheme),
+    : scheme_(scheme),
       seq_(seq),
       actor_(std::move(actor)),
       at_(std::move(at)),
-      find_probe_(store.Prepare("SELECT id FROM current_probe WHERE ref = ?1")),
-      last_sending_(store.Prepare("SELECT sent_at FROM sending WHERE probe_id = ?1 ORDER BY id DESC LIMIT 1")),
-      current_(store.Prepare("SELECT id FROM current_response WHERE probe_id = ?1 ORDER BY id DESC LIMIT 1")),
-      insert_(store.Prepare(
-          "INSERT INTO response(probe_id, code, received_at, channel, note, note_sha256, origin, flags, entered_by, "
-          "entered_at, supersedes, audit_seq) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12)")) {}
+      records_(std::make_unique<ResponseRecords>(store)) {}
+
+ResponseWriter::~ResponseWriter() = default;
 
 Result<RecordedResponse> ResponseWriter::Add(const ResponseEntry& e, const std::string& where,
                                              const TimeReading& time) {
-  find_probe_.Bind(1, e.probe_ref);
-  int64_t probe_id = find_probe_.Step() ? find_probe_.Int(0) : 0;
-  find_probe_.Reset();
+  int64_t probe_id = records_->FindProbe(e.probe_ref);
   if (probe_id == 0)
     return BadInput(where, "unknown probe '" + e.probe_ref + "'",
                     "use a probe reference from 'twinprobe schedule' or the plan (e.g. P00001)");
@@ -75,9 +66,7 @@ Result<RecordedResponse> ResponseWriter::Add(const ResponseEntry& e, const std::
     out.received_at = received->text();
   }
 
-  last_sending_.Bind(1, probe_id);
-  if (last_sending_.Step()) out.sent_at = last_sending_.Text(0);
-  last_sending_.Reset();
+  out.sent_at = records_->LastSentAt(probe_id);
   if (out.sent_at.empty()) {
     out.unsent = true;
   } else if (received) {
@@ -89,22 +78,21 @@ Result<RecordedResponse> ResponseWriter::Add(const ResponseEntry& e, const std::
     out.days_after_sending = DaysBetween(sent, *received);
   }
 
-  current_.Bind(1, probe_id);
-  if (current_.Step()) out.superseded = current_.Int(0);
-  current_.Reset();
+  out.superseded = records_->CurrentResponseId(probe_id);
 
-  insert_.Bind(1, probe_id).Bind(2, e.code);
-  if (received) insert_.Bind(3, out.received_at);
-  else insert_.BindNull(3);
-  if (e.channel.empty()) insert_.BindNull(4);
-  else insert_.Bind(4, e.channel);
-  if (e.note.empty()) insert_.BindNull(5).BindNull(6);
-  else insert_.Bind(5, e.note).Bind(6, Sha256Hex(e.note));
-  insert_.Bind(7, e.origin).Bind(8, out.late ? "late" : "").Bind(9, actor_).Bind(10, at_);
-  if (out.superseded) insert_.Bind(11, out.superseded);
-  else insert_.BindNull(11);
-  insert_.Bind(12, seq_).Run();
-  out.response_id = store_.LastInsertId();
+  ResponseRow row;
+  row.probe_id = probe_id;
+  row.code = e.code;
+  if (received) row.received_at = out.received_at;
+  if (!e.channel.empty()) row.channel = e.channel;
+  if (!e.note.empty()) row.note = e.note;
+  row.origin = e.origin;
+  row.flags = out.late ? "late" : "";
+  row.entered_by = actor_;
+  row.entered_at = at_;
+  row.supersedes = out.superseded;
+  row.audit_seq = seq_;
+  out.response_id = records_->Insert(row);
   return out;
 }
 
@@ -137,21 +125,14 @@ Result<SendingRecord> RecordSending(Store& store, const std::string& probe_ref, 
   out.probe_ref = probe_ref;
   out.sent_at = t->text();
 
-  Stmt prev = store.Prepare("SELECT sent_at FROM sending WHERE probe_id = ?1 ORDER BY id DESC LIMIT 1");
-  prev.Bind(1, probe_id);
-  if (prev.Step()) out.previous_sent_at = prev.Text(0);
-  Stmt answered = store.Prepare(
-      "SELECT received_at FROM current_response WHERE probe_id = ?1 AND received_at IS NOT NULL ORDER BY id DESC LIMIT 1");
-  answered.Bind(1, probe_id);
-  if (answered.Step()) {
-    EventTime received = ParseEventTime(answered.Text(0)).value_or(EventTime{});
+  out.previous_sent_at = LastSentAt(store, probe_id);
+  if (auto answered = CurrentResponseReceivedAt(store, probe_id)) {
+    EventTime received = ParseEventTime(*answered).value_or(EventTime{});
     if (IsBefore(received, *t))
-      return BadInput("", probe_ref + " already has a response received " + answered.Text(0) + ", before " + out.sent_at,
+      return BadInput("", probe_ref + " already has a response received " + *answered + ", before " + out.sent_at,
                       "check the date; a probe is sent before it is answered");
   }
-  Stmt ins = store.Prepare(
-      "INSERT INTO sending(probe_id, sent_at, entered_by, entered_at, audit_seq) VALUES (?1, ?2, ?3, ?4, ?5)");
-  ins.Bind(1, probe_id).Bind(2, out.sent_at).Bind(3, write.actor()).Bind(4, write.at()).Bind(5, write.seq()).Run();
+  InsertSending(store, SendingRow{probe_id, out.sent_at, write.actor(), write.at(), write.seq()});
   write.Commit("sent " + probe_ref + " at " + out.sent_at +
                (out.previous_sent_at.empty() ? "" : " (replaces " + out.previous_sent_at + ")"));
   return out;

@@ -8,6 +8,7 @@
 // ("2027-03-04") is stored as midnight and checked as "that day"
 // (collector/event_time.h).
 #include <cstdint>
+#include <memory>
 #include <string>
 #include <vector>
 
@@ -16,6 +17,8 @@
 #include "core/store.h"
 
 namespace twinprobe {
+
+class ResponseRecords;
 
 struct ResponseEntry {
   std::string probe_ref;    // e.g. P00042 (current plan)
@@ -50,6 +53,9 @@ struct RecordedResponse {
 class ResponseWriter {
  public:
   ResponseWriter(Store& store, const OutcomeScheme& scheme, int64_t seq, std::string actor, std::string at);
+  ~ResponseWriter();
+  ResponseWriter(const ResponseWriter&) = delete;
+  ResponseWriter& operator=(const ResponseWriter&) = delete;
 
   // Validates `entry` and adds it. `where` prefixes messages (e.g.
   // "file.csv:12"; "" for the command line). Errors (bad input): unknown
@@ -59,11 +65,10 @@ class ResponseWriter {
   Result<RecordedResponse> Add(const ResponseEntry& entry, const std::string& where, const TimeReading& time = {});
 
  private:
-  Store& store_;
   const OutcomeScheme& scheme_;
   int64_t seq_;
   std::string actor_, at_;
-  Stmt find_probe_, last_sending_, current_, insert_;
+  std::unique_ptr<ResponseRecords> records_;  // its statements, prepared once
 };
 
 // One response through a one-off ResponseWriter (kept for callers that add

@@ -1,4 +1,4 @@
-#include "collector/batch_insert.h"
+#include "core/import_batch.h"
 
 #include <sqlite3.h>
 

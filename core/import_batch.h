@@ -1,7 +1,8 @@
 #pragma once
-// Multi-row INSERT for bulk imports: rows are buffered and written many at
-// a time with one statement ("INSERT ... VALUES (..), (..), ..."), so the
-// per-statement cost (cursors on the table and each index, foreign-key
+// Multi-row INSERT for bulk imports, used inside core by the typed import
+// writers (core/import_pairs_writer.h); other modules call those writers.
+// Rows are buffered and written many at a time with one statement
+// ("INSERT ... VALUES (..), (..), ..."), so the per-statement cost (cursors on the table and each index, foreign-key
 // lookups set up, the statement's halt) is paid once per batch instead of
 // once per row. A million-row import spends most of its time there.
 //

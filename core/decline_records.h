@@ -1,0 +1,34 @@
+#pragma once
+// The store side of declines (collector/declines.h keeps the rules): the
+// append-only decline rows and the positive responses still to decline.
+// SQLite failures throw StoreError (core/store.h).
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace twinprobe {
+
+class Store;
+
+struct DeclineRow {
+  int64_t probe_id = 0;
+  std::string declined_at;
+  std::optional<std::string> channel;
+  std::string entered_by, entered_at;
+  int64_t audit_seq = 0;
+};
+
+void InsertDecline(Store& store, const DeclineRow& row);
+
+// A current probe's current response with no decline recorded yet (whether
+// the code is positive is the caller's rule).
+struct UndeclinedResponse {
+  std::string probe_ref, vacancy_ref, employer_key;
+  std::string profile;  // display name, "" without a profile
+  std::string code, received_at;
+};
+
+std::vector<UndeclinedResponse> ReadUndeclinedResponses(Store& store);
+
+}  // namespace twinprobe

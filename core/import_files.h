@@ -1,0 +1,18 @@
+#pragma once
+// The record of imported files (table import_file): a second import of the
+// same bytes adds nothing. Used by every CSV import.
+#include <cstdint>
+#include <string>
+
+namespace twinprobe {
+
+class Store;
+
+// True when a file of `kind` ("outcomes", "pairs") with this SHA-256 was
+// imported into the store before.
+bool AlreadyImported(Store& store, const std::string& kind, const std::string& sha256);
+// Records an imported file under audit entry `seq`.
+void RecordImportFile(Store& store, int64_t seq, const std::string& kind, const std::string& sha256,
+                      const std::string& path, int64_t rows_landed, int64_t rows_rejected);
+
+}  // namespace twinprobe

@@ -1,0 +1,38 @@
+#pragma once
+// The store side of `purge` (collector/purge.h keeps the retention rule and
+// the files): what identifying data the store still holds, when fieldwork
+// ended, and erasing it. SQLite failures throw StoreError (core/store.h).
+#include <cstdint>
+#include <optional>
+#include <string>
+
+namespace twinprobe {
+
+class Store;
+
+struct PurgeableRows {
+  int64_t employers = 0;      // employer rows with a name or contact
+  int64_t secrets = 0;        // pseudonym secrets
+  int64_t notes = 0;          // response notes
+  int64_t mail_excerpts = 0;  // excerpts of mail messages
+};
+
+PurgeableRows CountPurgeableRows(Store& store);
+// The latest sending, response or listing fetch time; none when the store
+// holds none of them.
+std::optional<std::string> ReadFieldworkEnd(Store& store);
+// True once a purge was recorded (meta key purged_at).
+bool WasPurged(Store& store);
+
+// Turns on overwriting of freed pages (SQLite's secure_delete), so deleted
+// names do not linger in the file. Call before the purge's transaction.
+void EnableSecureDelete(Store& store);
+// Inside the purge's audited write `seq`: empties the employer and secret
+// tables, clears response notes and mail excerpts (their digests stay
+// sealed) and records purged_at = `at`.
+void EraseIdentities(Store& store, int64_t seq, const std::string& at);
+// After the purge committed: old page images may survive in the
+// write-ahead log until a checkpoint, so force one.
+void CheckpointLog(Store& store);
+
+}  // namespace twinprobe
