@@ -107,6 +107,9 @@ FetchSession::Attempt FetchSession::Request(const std::string& url, const UrlPar
     }
     WaitForHost(parts.Authority(), policy.min_interval_seconds);
     a.response = client_->Get(req);
+    // The interval counts from the end of the answer, not the start of the
+    // request: a slow answer then never shortens the host's quiet time.
+    last_request_[parts.Authority()] = Clock::now();
     a.at = NowIso();
     // Every body that arrived is evidence, error pages included.
     if (snapshots_ && (a.response.status > 0 || !a.response.body.empty())) {
