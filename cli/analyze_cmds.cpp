@@ -5,8 +5,8 @@
 
 #include <nlohmann/json.hpp>
 
-#include "analysis/analyze.h"
 #include "cli/command.h"
+#include "cli/report_cmd.h"
 #include "core/audit.h"
 #include "report/json_report.h"
 #include "report/text_report.h"
@@ -20,7 +20,7 @@ Result<AnalysisResult> AnalyzeStudy(Context& ctx) {
   auto settings = LoadStudySettings(ctx, *store.value());
   if (!settings.ok()) return settings.error();
   const auto& design = settings.value().design;
-  return Analyze(*store.value(), settings.value().outcomes, settings.value().analysis, design ? &*design : nullptr);
+  return AnalyzeStore(*store.value(), settings.value().outcomes, settings.value().analysis, design ? &*design : nullptr);
 }
 
 int RunAnalyze(Context& ctx) {

@@ -142,7 +142,7 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
   // board (templates/demo/listings/generate_ranks.py states the model).
   auto ranks = ImportRanksFile(*store.value(), (fs::path(out_dir) / "listings" / "ranks.csv").string());
   if (!ranks.ok()) return ReportError(ranks.error());
-  auto result = Analyze(*store.value(), s.design.outcomes, s.design.analysis, &s.design);
+  auto result = AnalyzeStore(*store.value(), s.design.outcomes, s.design.analysis, &s.design);
   if (!result.ok()) return ReportError(result.error());
 
   fs::create_directories(fs::path(out_dir) / "reports");
