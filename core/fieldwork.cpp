@@ -195,17 +195,22 @@ Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const Fieldwo
     // The current responses: those no correction supersedes; the newest of them gives the outcome.
     const ResponseRow* current = nullptr;
     SentProbe sp{pr.arm, 0, kNone, kNone, false};
-    const std::optional<int64_t> sent_at = first ? ParseIsoTime(first->sent_at) : std::nullopt;
+    // A plain value and a flag, not std::optional: GCC 12 at -O3 warns that
+    // an engaged optional may be read uninitialised here (a false positive).
+    int64_t sent_epoch = 0;
+    bool has_sent_epoch = false;
+    if (first)
+      if (auto t = ParseIsoTime(first->sent_at)) sent_epoch = *t, has_sent_epoch = true;
     for (const auto& r : pr.responses) {
       if (superseded.count(r.id)) continue;
       if (!current || r.id > current->id) current = &r;
       if (!first || r.code == "none") continue;
       const std::optional<int64_t> received = r.received_at ? ParseIsoTime(*r.received_at) : std::nullopt;
-      if (!received || !sent_at) {
+      if (!received || !has_sent_epoch) {
         sp.untimed_response = true;
         continue;
       }
-      const double days = static_cast<double>(*received - *sent_at) / kSecondsPerDay;
+      const double days = static_cast<double>(*received - sent_epoch) / kSecondsPerDay;
       if (std::isnan(sp.first_any_days) || days < sp.first_any_days) sp.first_any_days = days;
       if (scheme.is_positive(r.code) && (std::isnan(sp.first_positive_days) || days < sp.first_positive_days))
         sp.first_positive_days = days;
@@ -222,7 +227,7 @@ Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const Fieldwo
     }
     // Completion time of the set: the latest of its probes' times.
     int64_t at = 0;
-    if (sent_at) at = *sent_at;
+    if (first) at = has_sent_epoch ? sent_epoch : 0;
     else if (current) {
       const auto& when = current->received_at ? current->received_at : current->entered_at;
       at = when ? ParseIsoTime(*when).value_or(0) : 0;

@@ -16,7 +16,7 @@
 // strata values and the same arm/outcome pattern) are counted together, and
 // the balance tables are tallies, so memory grows with strata, arms and
 // outcome patterns, not with probes. Only the per-probe response times
-// (SentProbe: 24 bytes a probe) and, on request, the completion order of
+// (SentProbe: 32 bytes a probe) and, on request, the completion order of
 // the sets for interim monitoring grow with the fieldwork.
 #include <array>
 #include <cstdint>
