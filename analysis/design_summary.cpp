@@ -18,7 +18,7 @@ DesignSummary SummariseDesign(const Fieldwork& f, const StoredDesign& stored) {
     auto it = stored.profiles_by_arm.find(a.id);
     d.arms.push_back({a.label, a.is_reference, it == stored.profiles_by_arm.end() ? 0 : it->second, a.probes_planned});
   }
-  for (const auto& s : stored.strata) d.strata.push_back({s.name, s.value, s.vacancies});
+  for (const auto& s : f.vacancies_by_stratum) d.strata.push_back({s.name, s.value, s.vacancies});
   std::set<std::string> templates;
   for (const auto& [cell, n] : f.balance.templates) templates.insert(cell.second);
   d.templates.assign(templates.begin(), templates.end());

@@ -38,44 +38,60 @@ struct ProbeRows {
   std::vector<ResponseRow> responses;
 };
 
-// Reads the strata of the plan's vacancies in vacancy order, alongside the
-// probes (a merge on vacancy id: both cursors ascend).
-class StrataCursor {
+// Walks the plan's vacancies in id order alongside the probes (a merge on
+// vacancy id: every cursor ascends), with each vacancy's employer key and
+// strata. Every vacancy of the plan is visited, with probes or without, so
+// the vacancy counts per stratum value come from the same pass. The
+// vacancies are read in rowid order ("+plan_id": not through the
+// (plan_id, ref) index, which would sort them in a temporary B-tree).
+class VacancyCursor {
  public:
-  explicit StrataCursor(Store& store)
-      : stmt_(store.Prepare("SELECT vacancy_id, name, value FROM vacancy_stratum ORDER BY vacancy_id, name")) {
-    more_ = stmt_.Step();
+  VacancyCursor(Store& store, int64_t plan_id)
+      : vacancies_(store.Prepare("SELECT id, employer_key FROM vacancy WHERE +plan_id = ?1 ORDER BY id")),
+        strata_(store.Prepare("SELECT vacancy_id, name, value FROM vacancy_stratum ORDER BY vacancy_id, name")) {
+    vacancies_.Bind(1, plan_id);
+    more_vacancies_ = vacancies_.Step();
+    more_strata_ = strata_.Step();
   }
-  std::vector<std::pair<std::string, std::string>> Of(int64_t vacancy_id) {
-    std::vector<std::pair<std::string, std::string>> out;
-    while (more_ && stmt_.Int(0) < vacancy_id) more_ = stmt_.Step();
-    while (more_ && stmt_.Int(0) == vacancy_id) {
-      out.emplace_back(stmt_.Text(1), stmt_.Text(2));
-      more_ = stmt_.Step();
+
+  // Moves to `vacancy_id` (visiting every plan vacancy before it); false
+  // when it is not a vacancy of the plan. Then employer() and strata().
+  bool MoveTo(int64_t vacancy_id) {
+    while (more_vacancies_ && vacancies_.Int(0) < vacancy_id) Visit();
+    if (!more_vacancies_ || vacancies_.Int(0) != vacancy_id) return false;
+    Visit();
+    return true;
+  }
+  void Finish() {
+    while (more_vacancies_) Visit();
+  }
+  const std::string& employer() const { return employer_; }
+  const std::vector<std::pair<std::string, std::string>>& strata() const { return strata_of_; }
+  int64_t visited() const { return visited_; }
+  // (column, value) -> vacancies, over every vacancy visited.
+  const std::map<std::pair<std::string, std::string>, int64_t>& counts() const { return counts_; }
+
+ private:
+  void Visit() {
+    const int64_t id = vacancies_.Int(0);
+    employer_ = vacancies_.IsNull(1) ? std::string() : vacancies_.Text(1);
+    strata_of_.clear();
+    while (more_strata_ && strata_.Int(0) < id) more_strata_ = strata_.Step();
+    while (more_strata_ && strata_.Int(0) == id) {
+      strata_of_.emplace_back(strata_.Text(1), strata_.Text(2));
+      ++counts_[strata_of_.back()];
+      more_strata_ = strata_.Step();
     }
-    return out;
+    ++visited_;
+    more_vacancies_ = vacancies_.Step();
   }
 
- private:
-  Stmt stmt_;
-  bool more_ = false;
-};
-
-class EmployerCursor {
- public:
-  EmployerCursor(Store& store, int64_t plan_id)
-      : stmt_(store.Prepare("SELECT id, employer_key FROM vacancy WHERE plan_id = ?1 ORDER BY id")) {
-    stmt_.Bind(1, plan_id);
-    more_ = stmt_.Step();
-  }
-  std::string Of(int64_t vacancy_id) {
-    while (more_ && stmt_.Int(0) < vacancy_id) more_ = stmt_.Step();
-    return more_ && stmt_.Int(0) == vacancy_id && !stmt_.IsNull(1) ? stmt_.Text(1) : std::string();
-  }
-
- private:
-  Stmt stmt_;
-  bool more_ = false;
+  Stmt vacancies_, strata_;
+  bool more_vacancies_ = false, more_strata_ = false;
+  std::string employer_;
+  std::vector<std::pair<std::string, std::string>> strata_of_;
+  std::map<std::pair<std::string, std::string>, int64_t> counts_;
+  int64_t visited_ = 0;
 };
 
 void AppendShapeKey(std::string& key, const std::vector<SetProbe>& probes) {
@@ -117,11 +133,6 @@ Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const Fieldwo
     }
   }
   f.balance.weekdays.assign(f.arms.size(), {});
-  {
-    Stmt v = store.Prepare("SELECT count(*) FROM vacancy WHERE plan_id = ?1");
-    v.Bind(1, f.plan_id);
-    if (v.Step()) f.vacancies = v.Int(0);
-  }
   // Corrections are few: the ids they supersede fit in memory.
   std::unordered_set<int64_t> superseded;
   {
@@ -137,8 +148,8 @@ Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const Fieldwo
   };
   intern("none");
 
-  StrataCursor strata_cursor(store);
-  EmployerCursor employer_cursor(store, f.plan_id);
+  VacancyCursor vacancy_cursor(store, f.plan_id);
+  static const std::vector<std::pair<std::string, std::string>> kNoStrata;
   std::unordered_map<std::string, size_t> shape_index;
   std::map<std::string, size_t> employer_index;  // key + pattern -> index (sorted by key)
   std::string key;
@@ -149,7 +160,8 @@ Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const Fieldwo
 
   auto finish_set = [&] {
     if (set_vacancy < 0) return;
-    const auto strata = strata_cursor.Of(set_vacancy);
+    const bool known = vacancy_cursor.MoveTo(set_vacancy);
+    const auto& strata = known ? vacancy_cursor.strata() : kNoStrata;
     const bool complete = IsSetComplete(set_probes);
     ++(complete ? f.sets_complete : f.sets_incomplete);
     key.clear();
@@ -164,7 +176,7 @@ Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const Fieldwo
     if (added) f.sets.push_back({set_probes, strata, complete, 0});
     ++f.sets[it->second].count;
     if (complete) {
-      const std::string employer = employer_cursor.Of(set_vacancy);
+      const std::string employer = known ? vacancy_cursor.employer() : std::string();
       if (!employer.empty()) {
         key = employer + '\x1f';
         AppendShapeKey(key, set_probes);
@@ -238,18 +250,23 @@ Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const Fieldwo
     // Balance tallies.
     if (pr.template_path) ++f.balance.templates[{pr.arm, *pr.template_path}];
     ++f.balance.send_orders[{pr.arm, pr.send_order}];
-    const std::optional<std::string>& when = newest ? std::optional<std::string>(newest->sent_at) : pr.planned_at;
-    if (when)
-      if (auto t = ParseIsoTime(*when)) ++f.balance.weekdays[static_cast<size_t>(pr.arm)][static_cast<size_t>(WeekdayOf(*t))];
+    std::optional<int64_t> weekday_time;
+    if (newest == first && has_sent_epoch) weekday_time = sent_epoch;  // one sending: parsed above
+    else if (newest) weekday_time = ParseIsoTime(newest->sent_at);
+    else if (pr.planned_at) weekday_time = ParseIsoTime(*pr.planned_at);
+    if (weekday_time) ++f.balance.weekdays[static_cast<size_t>(pr.arm)][static_cast<size_t>(WeekdayOf(*weekday_time))];
   };
 
   // One pass over the plan's probes in vacancy order, each with its
   // sendings and responses (LEFT JOINs: a probe may have none of either).
+  // "+p.plan_id" keeps SQLite from choosing the (plan_id, ref) index, which
+  // would sort every row in a temporary B-tree; the probe_vacancy index gives
+  // the vacancy order as it is read, so nothing is held but the current set.
   Stmt q = store.Prepare(
       "SELECT p.id, p.vacancy_id, p.arm_id, p.template, p.send_order, p.planned_at, "
       "  s.id, s.sent_at, r.id, r.code, r.received_at, r.entered_at, r.supersedes "
       "FROM probe p LEFT JOIN sending s ON s.probe_id = p.id LEFT JOIN response r ON r.probe_id = p.id "
-      "WHERE p.plan_id = ?1 ORDER BY p.vacancy_id, p.id");
+      "WHERE +p.plan_id = ?1 ORDER BY p.vacancy_id, p.id");
   q.Bind(1, f.plan_id);
   ProbeRows pr;
   while (q.Step()) {
@@ -284,6 +301,9 @@ Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const Fieldwo
   }
   finish_probe(pr);
   finish_set();
+  vacancy_cursor.Finish();
+  f.vacancies = vacancy_cursor.visited();
+  for (const auto& [value, n] : vacancy_cursor.counts()) f.vacancies_by_stratum.push_back({value.first, value.second, n});
 
   // Balance by stratum: the probes of each vacancy, by its stratum values.
   for (const SetShape& s : f.sets)

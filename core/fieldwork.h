@@ -107,6 +107,11 @@ struct Fieldwork {
   std::vector<FieldworkArm> arms;  // reference first, then by id
 
   int64_t vacancies = 0;
+  struct StratumVacancies {
+    std::string name, value;
+    int64_t vacancies = 0;
+  };
+  std::vector<StratumVacancies> vacancies_by_stratum;  // by column, then value
   int64_t probes_planned = 0;
   int64_t probes_sent = 0;
   int64_t responses = 0;             // probes with a current response

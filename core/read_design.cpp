@@ -36,12 +36,6 @@ StoredDesign ReadStoredDesign(Store& store) {
   pr.Bind(1, plan_id);
   while (pr.Step()) d.profiles_by_arm[pr.Int(0)] = pr.Int(1);
 
-  Stmt s = store.Prepare(
-      "SELECT vs.name, vs.value, count(*) FROM vacancy_stratum vs JOIN vacancy v ON v.id = vs.vacancy_id "
-      "WHERE v.plan_id = ?1 GROUP BY vs.name, vs.value ORDER BY vs.name, vs.value");
-  s.Bind(1, plan_id);
-  while (s.Step()) d.strata.push_back({s.Text(0), s.Text(1), s.Int(2)});
-
   Stmt e = store.Prepare(
       "SELECT count(DISTINCT employer_key) FROM vacancy WHERE plan_id = ?1 AND employer_key IS NOT NULL");
   e.Bind(1, plan_id);

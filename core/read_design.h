@@ -1,8 +1,8 @@
 #pragma once
 // What the store remembers of the design beyond the fieldwork
 // (core/fieldwork.h): the study's name, the outcome scheme and strata the
-// plan was made with, the factors and levels, profiles per arm, vacancies
-// per stratum value and the number of employers. Counts and names only;
+// plan was made with, the factors and levels, profiles per arm and the
+// number of employers (vacancies per stratum value: core/fieldwork.h). Counts and names only;
 // nothing here identifies an employer.
 #include <cstdint>
 #include <map>
@@ -21,12 +21,6 @@ struct StoredFactor {
   std::string reference;            // "" when none is marked
 };
 
-struct StoredStratumCount {
-  std::string name;   // stratum column, e.g. "region"
-  std::string value;  // e.g. "Orlinde"
-  int64_t vacancies = 0;
-};
-
 struct StoredDesign {
   std::string study_id;  // "" when the store has none
   std::string title;     // "" when the store has none
@@ -35,7 +29,6 @@ struct StoredDesign {
   std::vector<std::string> strata_columns;  // as stored with the plan
   std::vector<StoredFactor> factors;        // of the current plan, by id
   std::map<int64_t, int64_t> profiles_by_arm;  // arm id -> fictitious applicants
-  std::vector<StoredStratumCount> strata;      // by column, then value
   int64_t employers = 0;  // distinct employer pseudonyms among the plan's vacancies
 };
 
