@@ -1,11 +1,13 @@
 #pragma once
-// Runs the study's analysis on the stored data and returns one plain value
-// holding every number a report shows (report/ never recomputes).
+// Runs the study's analysis on what core's read models return
+// (core/read_study.h) and returns one plain value holding every number a
+// report shows (report/ never recomputes). Pure: no store, no SQL.
 //
 // What counts: the current plan's probes; a probe's outcome is its current
 // response (the newest of a correction chain); a probe with no response is a
 // negative outcome ("none") once it was sent. A set enters the paired table
-// only when every probe of it was sent (or, for imported data, has an outcome).
+// only when it is complete (IsSetComplete in core/fieldwork.h: every probe
+// was sent or, for imported data, has an outcome).
 #include <cstdint>
 #include <optional>
 #include <string>
@@ -17,7 +19,7 @@
 #include "analysis/effects.h"
 #include "core/design.h"
 #include "core/status.h"
-#include "core/store.h"
+#include "core/read_study.h"
 #include "analysis/design_summary.h"
 #include "analysis/employer_outcomes.h"
 #include "analysis/response_times.h"
@@ -80,11 +82,13 @@ struct AnalysisResult {
   PreregistrationStatus preregistration;  // freeze and deviations from it (analysis/deviations.h)
 };
 
-// Requires a plan in the store, or listings (a listing-only store gives kind
-// "listing" and only `listings`). `plan` supplies alpha and the correction.
-// `current_design` (the study.toml in use, nullptr if none) is compared with
-// the frozen design to list deviations.
-Result<AnalysisResult> Analyze(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan,
-                               const Design* current_design = nullptr);
+// Requires a plan in the reading, or listings (a listing-only store gives
+// kind "listing" and only `listings`); fails with a bad-input error naming
+// `store_path` otherwise. `scheme` must be the one the reading was made
+// with. `plan` supplies alpha and the correction. `current_design` (the
+// study.toml in use, nullptr if none) is compared with the frozen design to
+// list deviations.
+Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& store_path, const OutcomeScheme& scheme,
+                               const AnalysisPlan& plan, const Design* current_design = nullptr);
 
 }  // namespace twinprobe

@@ -3,8 +3,8 @@
 #include <algorithm>
 #include <map>
 #include <optional>
+#include <set>
 
-#include "core/clock.h"
 
 namespace twinprobe {
 namespace {
@@ -18,16 +18,9 @@ uint64_t Fnv1a(const std::string& s) {
   return h;
 }
 
-struct ProbeFacts {
-  int arm = 0;
-  std::optional<std::string> template_path;
-  int send_order = 1;
-  std::optional<int> weekday;
-  int64_t vacancy_id = 0;
-};
-
+// One arm x variable table from tallies keyed (arm, column label).
 BalanceTable MakeTable(const std::string& variable, const std::string& title, const std::vector<std::string>& arms,
-                       std::vector<std::string> columns, const std::vector<std::pair<int, std::string>>& cells,
+                       std::vector<std::string> columns, const std::map<std::pair<int, std::string>, int64_t>& tally,
                        uint64_t seed, int replicates) {
   BalanceTable t;
   t.variable = variable;
@@ -35,9 +28,9 @@ BalanceTable MakeTable(const std::string& variable, const std::string& title, co
   t.arms = arms;
   t.columns = std::move(columns);
   t.counts.assign(arms.size(), std::vector<int64_t>(t.columns.size(), 0));
-  for (const auto& [arm, column] : cells) {
-    auto it = std::find(t.columns.begin(), t.columns.end(), column);
-    ++t.counts[arm][it - t.columns.begin()];
+  for (const auto& [cell, n] : tally) {
+    auto it = std::find(t.columns.begin(), t.columns.end(), cell.second);
+    t.counts[static_cast<size_t>(cell.first)][static_cast<size_t>(it - t.columns.begin())] += n;
   }
   for (size_t j = 0; j < t.columns.size(); ++j) {
     int64_t lo = INT64_MAX, hi = 0;
@@ -48,105 +41,55 @@ BalanceTable MakeTable(const std::string& variable, const std::string& title, co
   return t;
 }
 
+// The distinct column labels of a tally, sorted.
+std::vector<std::string> Columns(const std::map<std::pair<int, std::string>, int64_t>& tally) {
+  std::set<std::string> seen;
+  for (const auto& [cell, n] : tally) seen.insert(cell.second);
+  return {seen.begin(), seen.end()};
+}
+
 }  // namespace
 
-BalanceReport ComputeBalance(Store& store, int replicates) {
+BalanceReport ComputeBalance(const Fieldwork& f, int replicates) {
   BalanceReport report;
-  Stmt plan = store.Prepare("SELECT id, coalesce(seed, 0) FROM current_plan");
-  if (!plan.Step()) return report;
+  if (!f.has_plan) return report;
   report.present = true;
-  const int64_t plan_id = plan.Int(0);
-  const uint64_t seed = static_cast<uint64_t>(plan.Int(1));
-
+  if (f.probes_planned == 0) return report;
+  const uint64_t seed = static_cast<uint64_t>(f.seed.value_or(0));
   std::vector<std::string> arms;
-  std::map<int64_t, int> arm_index;
-  Stmt a = store.Prepare("SELECT id, label FROM arm WHERE plan_id = ?1 ORDER BY is_reference DESC, id");
-  a.Bind(1, plan_id);
-  while (a.Step()) {
-    arm_index[a.Int(0)] = static_cast<int>(arms.size());
-    arms.push_back(a.Text(1));
-  }
+  for (const auto& a : f.arms) arms.push_back(a.label);
+  const BalanceTallies& b = f.balance;
 
-  std::vector<ProbeFacts> probes;
-  Stmt q = store.Prepare(
-      "SELECT p.arm_id, p.template, p.send_order, "
-      "  coalesce((SELECT s.sent_at FROM sending s WHERE s.probe_id = p.id ORDER BY s.id DESC LIMIT 1), p.planned_at), "
-      "  p.vacancy_id "
-      "FROM current_probe p ORDER BY p.id");
-  while (q.Step()) {
-    ProbeFacts f;
-    f.arm = arm_index.at(q.Int(0));
-    f.template_path = q.OptText(1);
-    f.send_order = static_cast<int>(q.Int(2));
-    if (auto when = q.OptText(3))
-      if (auto t = ParseIsoTime(*when)) f.weekday = WeekdayOf(*t);
-    f.vacancy_id = q.Int(4);
-    probes.push_back(std::move(f));
-  }
-  if (probes.empty()) return report;
-
-  // arm x template
+  if (!b.templates.empty())
+    report.tables.push_back(
+        MakeTable("template", "arm x template", arms, Columns(b.templates), b.templates, seed, replicates));
   {
-    std::vector<std::pair<int, std::string>> cells;
-    std::vector<std::string> columns;
-    for (const auto& p : probes)
-      if (p.template_path) {
-        cells.emplace_back(p.arm, *p.template_path);
-        if (std::find(columns.begin(), columns.end(), *p.template_path) == columns.end())
-          columns.push_back(*p.template_path);
-      }
-    std::sort(columns.begin(), columns.end());
-    if (!cells.empty())
-      report.tables.push_back(MakeTable("template", "arm x template", arms, columns, cells, seed, replicates));
-  }
-  // arm x send order
-  {
-    std::vector<std::pair<int, std::string>> cells;
+    std::map<std::pair<int, std::string>, int64_t> orders;
     int max_order = 0;
-    for (const auto& p : probes) {
-      cells.emplace_back(p.arm, std::to_string(p.send_order));
-      max_order = std::max(max_order, p.send_order);
+    for (const auto& [cell, n] : b.send_orders) {
+      orders[{cell.first, std::to_string(cell.second)}] += n;
+      max_order = std::max(max_order, cell.second);
     }
     std::vector<std::string> columns;
     for (int k = 1; k <= max_order; ++k) columns.push_back(std::to_string(k));
-    report.tables.push_back(MakeTable("send_order", "arm x send order", arms, columns, cells, seed, replicates));
+    report.tables.push_back(MakeTable("send_order", "arm x send order", arms, columns, orders, seed, replicates));
   }
-  // arm x each stratum
+  for (const auto& [name, tally] : b.strata)
+    if (!tally.empty())
+      report.tables.push_back(MakeTable("stratum:" + name, "arm x " + name, arms, Columns(tally), tally, seed, replicates));
   {
-    std::map<std::string, std::map<int64_t, std::string>> strata;  // name -> vacancy -> value
-    Stmt s = store.Prepare(
-        "SELECT vs.name, vs.vacancy_id, vs.value FROM vacancy_stratum vs JOIN vacancy v ON v.id = vs.vacancy_id "
-        "WHERE v.plan_id = ?1");
-    s.Bind(1, plan_id);
-    while (s.Step()) strata[s.Text(0)][s.Int(1)] = s.Text(2);
-    for (const auto& [name, values] : strata) {
-      std::vector<std::pair<int, std::string>> cells;
-      std::vector<std::string> columns;
-      for (const auto& p : probes) {
-        auto it = values.find(p.vacancy_id);
-        if (it == values.end()) continue;
-        cells.emplace_back(p.arm, it->second);
-        if (std::find(columns.begin(), columns.end(), it->second) == columns.end()) columns.push_back(it->second);
-      }
-      std::sort(columns.begin(), columns.end());
-      if (!cells.empty())
-        report.tables.push_back(MakeTable("stratum:" + name, "arm x " + name, arms, columns, cells, seed, replicates));
-    }
-  }
-  // arm x weekday
-  {
-    std::vector<std::pair<int, std::string>> cells;
+    std::map<std::pair<int, std::string>, int64_t> days;
     bool seen[7] = {};
-    for (const auto& p : probes)
-      if (p.weekday) {
-        cells.emplace_back(p.arm, kWeekdays[*p.weekday]);
-        seen[*p.weekday] = true;
-      }
+    for (size_t arm = 0; arm < b.weekdays.size(); ++arm)
+      for (int d = 0; d < 7; ++d)
+        if (b.weekdays[arm][static_cast<size_t>(d)] > 0) {
+          days[{static_cast<int>(arm), kWeekdays[d]}] += b.weekdays[arm][static_cast<size_t>(d)];
+          seen[d] = true;
+        }
     std::vector<std::string> columns;
     for (int d = 0; d < 7; ++d)
       if (seen[d]) columns.push_back(kWeekdays[d]);
-    if (!cells.empty())
-      report.tables.push_back(MakeTable("weekday", "arm x weekday", arms, columns, cells, seed, replicates));
+    if (!days.empty()) report.tables.push_back(MakeTable("weekday", "arm x weekday", arms, columns, days, seed, replicates));
   }
   return report;
 }

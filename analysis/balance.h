@@ -1,5 +1,5 @@
 #pragma once
-// The balance of the current plan, read from the store: how the arms spread
+// The balance of the current plan (core/fieldwork.h tallies): how the arms spread
 // over templates, send positions, strata and weekdays, each as an arm x
 // variable table with Pearson's test of independence (stats/contingency.h).
 // A well-made plan is balanced by construction (planner/assign.h), so these
@@ -13,7 +13,7 @@
 #include <string>
 #include <vector>
 
-#include "core/store.h"
+#include "core/fieldwork.h"
 #include "stats/contingency.h"
 
 namespace twinprobe {
@@ -33,8 +33,9 @@ struct BalanceReport {
   std::vector<BalanceTable> tables;
 };
 
-// Reads the current plan. `replicates` is B for Monte Carlo p-values (tables
-// with small expected counts); the draws are seeded from the plan's seed.
-BalanceReport ComputeBalance(Store& store, int replicates = 9999);
+// `replicates` is B for Monte Carlo p-values (tables with small expected
+// counts); the draws are seeded from the plan's seed. present = false when
+// the fieldwork has no plan.
+BalanceReport ComputeBalance(const Fieldwork& fieldwork, int replicates = 9999);
 
 }  // namespace twinprobe

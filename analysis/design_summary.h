@@ -3,13 +3,15 @@
 // its reproducibility stamp: factors and levels, arms, strata with their
 // vacancy counts, the design hash and seed of the current plan, and the
 // fieldwork period. Counts only; nothing here identifies an employer.
+// Pure: built from core's read models (core/fieldwork.h, core/read_design.h).
 #include <cstdint>
 #include <string>
 #include <vector>
 
-namespace twinprobe {
+#include "core/fieldwork.h"
+#include "core/read_design.h"
 
-class Store;
+namespace twinprobe {
 
 struct DesignFactorSummary {
   std::string name;
@@ -46,7 +48,7 @@ struct DesignSummary {
   std::string last_sent_at;
 };
 
-// Requires a plan in the store (Analyze checks that first).
-DesignSummary SummariseDesign(Store& store);
+// Empty when the fieldwork has no plan.
+DesignSummary SummariseDesign(const Fieldwork& fieldwork, const StoredDesign& stored);
 
 }  // namespace twinprobe

@@ -4,19 +4,10 @@
 #include <cstdio>
 #include <map>
 
-#include "core/meta.h"
 #include "core/sha256.h"
 
 namespace twinprobe {
 namespace {
-
-// The meta keys planner/freeze.cpp writes (kept in step by tests/analysis/deviations_test.cpp).
-constexpr const char* kAt = "freeze.at";
-constexpr const char* kDesignSha = "freeze.design_sha256";
-constexpr const char* kAnalysisSha = "freeze.analysis_sha256";
-constexpr const char* kAnalysisPlan = "freeze.analysis_plan";
-constexpr const char* kSentBefore = "freeze.sent_before";
-constexpr const char* kResponsesBefore = "freeze.responses_before";
 
 std::map<std::string, std::string> ParsePlanLines(const std::string& text) {
   std::map<std::string, std::string> out;
@@ -52,7 +43,8 @@ std::string Shown(const std::string& v) { return v.empty() ? "(none)" : v; }
 // The analysis plan items in use now: from the design when there is one,
 // else from what the store remembers; alpha, correction and primary from the
 // plan the analysis runs with.
-std::map<std::string, std::string> CurrentItems(Store& store, const Design* current, const AnalysisPlan& used) {
+std::map<std::string, std::string> CurrentItems(const StoredDesign& stored, const Fieldwork& fieldwork,
+                                                const Design* current, const AnalysisPlan& used) {
   std::map<std::string, std::string> items;
   if (current) {
     items = ParsePlanLines(CanonicalAnalysisPlan(*current));
@@ -62,19 +54,20 @@ std::map<std::string, std::string> CurrentItems(Store& store, const Design* curr
       for (size_t i = 0; i < v.size(); ++i) s += (i ? sep : "") + v[i];
       return s;
     };
-    OutcomeScheme scheme = StoredOutcomeScheme(store);
+    const OutcomeScheme& scheme = stored.scheme;
     items["codes"] = join(scheme.codes, ",");
     items["positive"] = join(scheme.positive, ",");
     items["window_days"] = std::to_string(scheme.window_days);
-    items["strata"] = join(MetaList(store, "strata"), ",");
-    Stmt p = store.Prepare("SELECT kind FROM current_plan");
-    if (p.Step()) items["kind"] = p.Text(0);
+    items["strata"] = join(stored.strata_columns, ",");
+    if (fieldwork.has_plan) items["kind"] = fieldwork.kind;
+    // Arms in the order they were stored (by id), as the canonical plan lists them.
+    std::vector<FieldworkArm> by_id = fieldwork.arms;
+    std::sort(by_id.begin(), by_id.end(), [](const FieldworkArm& x, const FieldworkArm& y) { return x.id < y.id; });
     std::vector<std::string> arms;
     std::string reference;
-    Stmt a = store.Prepare("SELECT label, is_reference FROM arm WHERE plan_id = (SELECT max(id) FROM plan) ORDER BY id");
-    while (a.Step()) {
-      arms.push_back(a.Text(0));
-      if (a.Int(1)) reference = a.Text(0);
+    for (const auto& a : by_id) {
+      arms.push_back(a.label);
+      if (a.is_reference) reference = a.label;
     }
     if (!arms.empty()) items["arms"] = join(arms, "|"), items["reference"] = reference;
   }
@@ -92,20 +85,20 @@ bool PreregistrationStatus::IsExploratoryStratum(const std::string& stratum) con
   return frozen && std::find(frozen_strata.begin(), frozen_strata.end(), stratum) == frozen_strata.end();
 }
 
-PreregistrationStatus CheckPreregistration(Store& store, const Design* current, const AnalysisPlan& used) {
+PreregistrationStatus CheckPreregistration(const std::optional<FreezeRecord>& freeze, const StoredDesign& stored,
+                                           const Fieldwork& fieldwork, const Design* current, const AnalysisPlan& used) {
   PreregistrationStatus s;
   if (current) {
     s.current_design_sha256 = Sha256Hex(current->canonical);
     s.current_analysis_sha256 = Sha256Hex(CanonicalAnalysisPlan(*current));
   }
-  auto at = MetaValue(store, kAt);
-  if (!at) return s;
+  if (!freeze) return s;
   s.frozen = true;
-  s.frozen_at = *at;
-  s.design_sha256 = MetaValue(store, kDesignSha).value_or("");
-  s.analysis_sha256 = MetaValue(store, kAnalysisSha).value_or("");
-  const auto frozen = ParsePlanLines(MetaValue(store, kAnalysisPlan).value_or(""));
-  const auto now = CurrentItems(store, current, used);
+  s.frozen_at = freeze->at;
+  s.design_sha256 = freeze->design_sha256;
+  s.analysis_sha256 = freeze->analysis_sha256;
+  const auto frozen = ParsePlanLines(freeze->analysis_plan);
+  const auto now = CurrentItems(stored, fieldwork, current, used);
   auto frozen_item = [&](const std::string& key) {
     auto it = frozen.find(key);
     return it == frozen.end() ? std::string() : it->second;
@@ -115,12 +108,12 @@ PreregistrationStatus CheckPreregistration(Store& store, const Design* current, 
   if (current && s.current_design_sha256 != s.design_sha256)
     s.deviations.push_back({"design_edited", "study.toml was edited after the freeze (frozen design sha256 " +
                                                  Short(s.design_sha256) + ", now " + Short(s.current_design_sha256) + ")"});
-  Stmt plan = store.Prepare("SELECT design_sha256 FROM current_plan");
-  if (plan.Step() && !plan.IsNull(0) && plan.Text(0) != s.design_sha256)
+  // An imported plan has no design hash (stored as NULL, read as "").
+  if (fieldwork.has_plan && !fieldwork.design_sha256.empty() && fieldwork.design_sha256 != s.design_sha256)
     s.deviations.push_back({"plan_from_other_design", "the current plan was made from a design other than the frozen one "
-                                                      "(plan design sha256 " + Short(plan.Text(0)) + ")"});
-  int64_t sent_before = std::stoll(MetaValue(store, kSentBefore).value_or("0"));
-  int64_t responses_before = std::stoll(MetaValue(store, kResponsesBefore).value_or("0"));
+                                                      "(plan design sha256 " + Short(fieldwork.design_sha256) + ")"});
+  const int64_t sent_before = freeze->sent_before;
+  const int64_t responses_before = freeze->responses_before;
   if (sent_before > 0 || responses_before > 0)
     s.deviations.push_back({"frozen_after_fieldwork", "the design was frozen after " + std::to_string(sent_before) +
                                                           " probes were sent and " + std::to_string(responses_before) +

@@ -1,5 +1,5 @@
 #pragma once
-// Pre-registration: what `freeze` stored (planner/freeze.h) compared with the
+// Pre-registration: what `freeze` stored (core/read_freeze.h) compared with the
 // design and analysis plan in use now. Every difference is a deviation; the
 // results it touches are exploratory, not confirmatory.
 //
@@ -16,8 +16,12 @@
 #include <string>
 #include <vector>
 
+#include <optional>
+
 #include "core/design.h"
-#include "core/store.h"
+#include "core/fieldwork.h"
+#include "core/read_design.h"
+#include "core/read_freeze.h"
 
 namespace twinprobe {
 
@@ -46,8 +50,12 @@ struct PreregistrationStatus {
   bool IsExploratoryStratum(const std::string& stratum) const;
 };
 
-// `current` is the design file as it is now (nullptr when the study has none,
-// e.g. imported data); `used` is the analysis plan the analysis runs with.
-PreregistrationStatus CheckPreregistration(Store& store, const Design* current, const AnalysisPlan& used);
+// `freeze` is what the store holds (core/read_freeze.h); `stored` and
+// `fieldwork` are what it remembers of the design and plan (compared when
+// there is no design file); `current` is the design file as it is now
+// (nullptr when the study has none, e.g. imported data); `used` is the
+// analysis plan the analysis runs with.
+PreregistrationStatus CheckPreregistration(const std::optional<FreezeRecord>& freeze, const StoredDesign& stored,
+                                           const Fieldwork& fieldwork, const Design* current, const AnalysisPlan& used);
 
 }  // namespace twinprobe

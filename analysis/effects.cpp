@@ -18,7 +18,7 @@ ArmComparison Compare(const std::vector<const SetOutcome*>& sets, int other, con
         if (arm == other && oth < 0) oth = positive;
       }
       if (ref < 0 || oth < 0) continue;
-      (ref ? (oth ? c.pairs.a : c.pairs.b) : (oth ? c.pairs.c : c.pairs.d)) += 1;
+      (ref ? (oth ? c.pairs.a : c.pairs.b) : (oth ? c.pairs.c : c.pairs.d)) += s->count;
     }
     c.mcnemar = stats::McNemar(c.pairs);
     c.conditional_or = stats::ConditionalOddsRatio(c.pairs, in.confidence);
@@ -27,8 +27,8 @@ ArmComparison Compare(const std::vector<const SetOutcome*>& sets, int other, con
   } else {
     for (const SetOutcome* s : sets)
       for (const auto& [arm, positive] : s->probes) {
-        if (arm == 0) (positive ? c.table.a : c.table.b) += 1;
-        if (arm == other) (positive ? c.table.c : c.table.d) += 1;
+        if (arm == 0) (positive ? c.table.a : c.table.b) += s->count;
+        if (arm == other) (positive ? c.table.c : c.table.d) += s->count;
       }
     c.fisher = stats::FisherTest(c.table, stats::Alternative::kTwoSided, in.confidence);
     c.woolf = stats::WoolfOddsRatio(c.table, in.confidence);

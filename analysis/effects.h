@@ -2,8 +2,8 @@
 // The study's effect estimates and tests beyond the raw paired table: every
 // comparison of an arm with the reference arm, per-stratum results corrected
 // for multiplicity, and Mantel–Haenszel / Breslow–Day across strata.
-// Pure: takes the complete sets as plain values (analysis/analyze.cpp reads
-// them from the store), so tests can build any study shape directly.
+// Pure: takes the complete sets as plain values (analysis/analyze.cpp gets
+// them from core/fieldwork.h), so tests can build any study shape directly.
 //
 // How tables are formed (docs/methods.md, "Analysis of a study"):
 //   paired / sets: for the reference arm R and each other arm X, the sets
@@ -38,11 +38,14 @@
 
 namespace twinprobe {
 
-// One complete set: its probes (arm index into EffectsInput::arm_labels, 0 =
-// reference; positive outcome) and the vacancy's strata (column, value).
+// `count` complete sets of one shape: their probes (arm index into
+// EffectsInput::arm_labels, 0 = reference; positive outcome) and the
+// vacancy's strata (column, value). Sets of the same shape are given once
+// with their count, so the input grows with shapes, not with sets.
 struct SetOutcome {
   std::vector<std::pair<int, bool>> probes;
   std::vector<std::pair<std::string, std::string>> strata;
+  int64_t count = 1;
 };
 
 struct EffectsInput {

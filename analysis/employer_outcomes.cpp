@@ -2,25 +2,19 @@
 
 #include <algorithm>
 
-#include "core/store.h"
-
 namespace twinprobe {
 
-EmployerOutcomes SummariseEmployers(Store& store, const std::map<int64_t, stats::PairedCounts>& pairs) {
+EmployerOutcomes SummariseEmployers(const std::vector<EmployerSets>& sets) {
   EmployerOutcomes out;
-  if (pairs.empty()) return out;
   std::map<std::string, EmployerOutcome> by_key;
-  Stmt q = store.Prepare("SELECT employer_key FROM vacancy WHERE id = ?1");
-  for (const auto& [vacancy_id, one] : pairs) {
-    q.Bind(1, vacancy_id);
-    const bool found = q.Step() && !q.IsNull(0);
-    const std::string key = found ? q.Text(0) : "";
-    q.Reset();
-    if (key.empty()) continue;  // imported pairs may carry no employer
-    EmployerOutcome& e = by_key[key];
-    e.pseudonym = key;
-    ++e.vacancies;
-    e.table.a += one.a, e.table.b += one.b, e.table.c += one.c, e.table.d += one.d;
+  for (const EmployerSets& s : sets) {
+    if (s.probes.size() != 2) continue;
+    bool ref_pos = false, other_pos = false;
+    for (const SetProbe& p : s.probes) (p.arm == 0 ? ref_pos : other_pos) = p.positive;
+    EmployerOutcome& e = by_key[s.employer_key];
+    e.pseudonym = s.employer_key;
+    e.vacancies += s.count;
+    (ref_pos ? (other_pos ? e.table.a : e.table.b) : (other_pos ? e.table.c : e.table.d)) += s.count;
   }
   out.available = !by_key.empty();
   out.employers = static_cast<int64_t>(by_key.size());

@@ -15,9 +15,9 @@
 
 #include "stats/mcnemar.h"
 
-namespace twinprobe {
+#include "core/fieldwork.h"
 
-class Store;
+namespace twinprobe {
 
 struct EmployerOutcome {
   std::string pseudonym;         // e.g. "E-3fa94c01d2"
@@ -35,8 +35,9 @@ struct EmployerOutcomes {
   std::vector<EmployerOutcome> discordant;
 };
 
-// `pairs` maps a vacancy row id to its one-pair table (one cell is 1), as
-// Analyze builds it. Reads only vacancy.employer_key.
-EmployerOutcomes SummariseEmployers(Store& store, const std::map<int64_t, stats::PairedCounts>& pairs);
+// `sets` are the complete sets with an employer key (core/fieldwork.h);
+// only sets of two probes count (arm 0 is the reference). Give none for a
+// design that is not paired.
+EmployerOutcomes SummariseEmployers(const std::vector<EmployerSets>& sets);
 
 }  // namespace twinprobe

@@ -1,8 +1,9 @@
 #pragma once
 // The listing audit: how groups are placed in ranked lists (docs/architecture.md:
-// listing), computed from the store for `analyze` and `report`.
+// listing), computed for `analyze` and `report` from the lists
+// core/read_listings.h reads.
 //
-// Reads every listing whose extraction is 'ok' with its items, and the
+// Uses every listing whose extraction is 'ok' with its items, and the
 // newest label of each item per factor (item_label). A group is a level of
 // one factor ("origin=coastal") or, with several factors, a cell
 // ("gender=f,origin=coastal"). A stratum is a query x location. Permutation
@@ -19,7 +20,7 @@
 
 #include "core/design.h"
 #include "core/status.h"
-#include "core/store.h"
+#include "core/read_listings.h"
 #include "stats/exposure.h"
 #include "stats/permutation.h"
 #include "stats/wilcoxon.h"
@@ -114,12 +115,13 @@ struct ListingAudit {
 };
 
 // Computes the audit (present = false when there is no listing).
-Result<ListingAudit> AnalyzeListings(Store& store, const ListingOptions& options);
+Result<ListingAudit> AnalyzeListings(const ListingData& data, const ListingOptions& options);
 
 // The audit as `analyze` runs it: the study's correction and alpha, the
-// plan's seed (a fixed default without a plan), and a progress bar on a
+// plan's seed (a fixed default without one), and a progress bar on a
 // terminal.
-Result<ListingAudit> AnalyzeStudyListings(Store& store, const AnalysisPlan& plan);
+Result<ListingAudit> AnalyzeStudyListings(const ListingData& data, const AnalysisPlan& plan,
+                                          std::optional<int64_t> plan_seed);
 
 // A progress callback that feeds the one progress bar (core/progress.h) on a
 // terminal, and is an empty function otherwise.

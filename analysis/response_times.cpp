@@ -1,16 +1,13 @@
 #include "analysis/response_times.h"
 
 #include <algorithm>
+#include <cmath>
 #include <map>
 #include <optional>
 
-#include "core/clock.h"
-#include "core/store.h"
 
 namespace twinprobe {
 namespace {
-
-constexpr double kSecondsPerDay = 86400.0;
 
 // The steps of a cumulative share from sorted event times: one point per
 // distinct time, so ties make one step of several probes.
@@ -52,75 +49,31 @@ std::vector<int> MilestoneDays(int window_days) {
   return days;
 }
 
-ResponseTimes ComputeResponseTimes(Store& store, const OutcomeScheme& scheme) {
+ResponseTimes ComputeResponseTimes(const Fieldwork& f, const OutcomeScheme& scheme) {
   ResponseTimes rt;
   rt.window_days = scheme.window_days;
   const double window = static_cast<double>(scheme.window_days);
 
   std::vector<std::pair<int64_t, ArmAccumulator>> arms;
-  Stmt a = store.Prepare(
-      "SELECT id, label, is_reference FROM arm WHERE plan_id = (SELECT id FROM current_plan) "
-      "ORDER BY is_reference DESC, id");
-  while (a.Step()) {
+  for (const auto& a : f.arms) {
     ArmAccumulator acc;
-    acc.out.label = a.Text(1);
-    acc.out.is_reference = a.Int(2) != 0;
-    arms.emplace_back(a.Int(0), std::move(acc));
+    acc.out.label = a.label;
+    acc.out.is_reference = a.is_reference;
+    arms.emplace_back(a.id, std::move(acc));
   }
-  auto arm_of = [&arms](int64_t id) -> ArmAccumulator* {
-    for (auto& [arm_id, acc] : arms)
-      if (arm_id == id) return &acc;
-    return nullptr;
-  };
-
-  // One row per (sent probe, current response); a probe without a response
-  // comes once with NULLs. Times are compared in code, not SQL, so the
-  // store's ISO strings go through the one parser the rest of the tool uses.
-  Stmt q = store.Prepare(
-      "SELECT p.id, p.arm_id, (SELECT min(s.sent_at) FROM sending s WHERE s.probe_id = p.id), "
-      "  r.code, r.received_at, r.id "
-      "FROM current_probe p LEFT JOIN current_response r ON r.probe_id = p.id "
-      "WHERE EXISTS (SELECT 1 FROM sending s WHERE s.probe_id = p.id) "
-      "ORDER BY p.id, r.id");
-  struct ProbeState {
-    int64_t arm_id = 0;
-    std::optional<int64_t> sent;
-    std::optional<double> first_any, first_positive;
-    bool untimed_response = false;
-    std::string current_code = "none";  // newest current response
-  };
-  std::map<int64_t, ProbeState> probes;
-  while (q.Step()) {
-    ProbeState& ps = probes[q.Int(0)];
-    ps.arm_id = q.Int(1);
-    ps.sent = ParseIsoTime(q.Text(2));
-    if (q.IsNull(3)) continue;
-    const std::string code = q.Text(3);
-    ps.current_code = code;
-    if (code == "none") continue;
-    std::optional<int64_t> received = q.IsNull(4) ? std::nullopt : ParseIsoTime(q.Text(4));
-    if (!received || !ps.sent) {
-      ps.untimed_response = true;
-      continue;
-    }
-    const double days = static_cast<double>(*received - *ps.sent) / kSecondsPerDay;
-    if (!ps.first_any || days < *ps.first_any) ps.first_any = days;
-    if (scheme.is_positive(code) && (!ps.first_positive || days < *ps.first_positive)) ps.first_positive = days;
-  }
-
-  for (const auto& [probe_id, ps] : probes) {
-    ArmAccumulator* acc = arm_of(ps.arm_id);
-    if (!acc) continue;
+  for (const SentProbe& ps : f.sent) {
+    ArmAccumulator* acc = &arms[static_cast<size_t>(ps.arm)].second;
+    rt.available = true;
     ++acc->out.probes_sent;
-    ++acc->codes[ps.current_code];
-    if (ps.sent) rt.available = true;
-    if (ps.first_any) {
-      if (*ps.first_any <= window) acc->any_days.push_back(*ps.first_any);
+    ++acc->codes[f.codes[static_cast<size_t>(ps.code)]];
+    if (!std::isnan(ps.first_any_days)) {
+      if (ps.first_any_days <= window) acc->any_days.push_back(ps.first_any_days);
       else ++acc->out.late;
     } else if (ps.untimed_response) {
       ++acc->out.responses_without_time;
     }
-    if (ps.first_positive && *ps.first_positive <= window) acc->positive_days.push_back(*ps.first_positive);
+    if (!std::isnan(ps.first_positive_days) && ps.first_positive_days <= window)
+      acc->positive_days.push_back(ps.first_positive_days);
   }
 
   const std::vector<int> milestone_days = MilestoneDays(scheme.window_days);

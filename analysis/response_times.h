@@ -22,10 +22,9 @@
 #include <vector>
 
 #include "core/design.h"
+#include "core/fieldwork.h"
 
 namespace twinprobe {
-
-class Store;
 
 // One point of a cumulative step curve: by `day`, `count` probes of the arm
 // had their first response, which is `share` of the arm's sent probes.
@@ -70,10 +69,10 @@ struct ResponseTimes {
   std::vector<ArmResponseTimes> arms;  // reference arm first, then by arm id
 };
 
-// Reads the current plan's sent probes and their current responses.
-// Requires a plan in the store (Analyze checks that first). Never fails on
-// data: missing times are counted, not errors.
-ResponseTimes ComputeResponseTimes(Store& store, const OutcomeScheme& scheme);
+// From the sent probes core/fieldwork.h reads (their first response times
+// and current codes). Never fails on data: missing times are counted, not
+// errors.
+ResponseTimes ComputeResponseTimes(const Fieldwork& fieldwork, const OutcomeScheme& scheme);
 
 // The days at which the report tabulates the curves: 1, 2, 3, 7, 14, 21,
 // 28 … up to the window, and the window itself.

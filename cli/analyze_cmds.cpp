@@ -8,6 +8,7 @@
 #include "analysis/analyze.h"
 #include "report/plural.h"
 #include "cli/command.h"
+#include "cli/report_cmd.h"
 #include "core/audit.h"
 #include "report/json_report.h"
 #include "report/text_report.h"
@@ -21,7 +22,7 @@ Result<AnalysisResult> AnalyzeStudy(Context& ctx) {
   auto settings = LoadStudySettings(ctx, *store.value());
   if (!settings.ok()) return settings.error();
   const auto& design = settings.value().design;
-  return Analyze(*store.value(), settings.value().outcomes, settings.value().analysis, design ? &*design : nullptr);
+  return AnalyzeStore(*store.value(), settings.value().outcomes, settings.value().analysis, design ? &*design : nullptr);
 }
 
 int RunAnalyze(Context& ctx) {

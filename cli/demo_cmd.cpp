@@ -131,7 +131,7 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
   auto ranks = ImportRanksFile(*store.value(), (fs::path(out_dir) / "listings" / "ranks.csv").string(),
                                TerminalProgress("import ranks"));
   if (!ranks.ok()) return ReportError(ranks.error());
-  auto result = Analyze(*store.value(), s.design.outcomes, s.design.analysis, &s.design);
+  auto result = AnalyzeStore(*store.value(), s.design.outcomes, s.design.analysis, &s.design);
   if (!result.ok()) return ReportError(result.error());
 
   fs::create_directories(fs::path(out_dir) / "reports");

@@ -7,7 +7,8 @@
 #include <fstream>
 #include <iostream>
 
-#include "analysis/analyze.h"
+#include "core/read_employers.h"
+#include "core/read_study.h"
 #include "core/audit.h"
 #include "core/clock.h"
 #include "core/text.h"
@@ -32,11 +33,14 @@ ReportContext StudyReportContext(const Context& ctx, Store& store, bool reveal_e
     if (design.ok()) rc.ethics_approval = design.value().ethics.approval;
   }
   rc.reveal_employers = reveal_employers;
-  if (reveal_employers) {
-    Stmt q = store.Prepare("SELECT key, name FROM employer WHERE name IS NOT NULL");
-    while (q.Step()) rc.employer_names[q.Text(0)] = q.Text(1);
-  }
+  if (reveal_employers) rc.employer_names = ReadEmployerNames(store);
   return rc;
+}
+
+Result<AnalysisResult> AnalyzeStore(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan,
+                                    const Design* current_design) {
+  const StudyReading reading = ReadStudy(store, scheme);
+  return Analyze(reading, store.path(), scheme, plan, current_design);
 }
 
 namespace {
@@ -77,7 +81,7 @@ int RunReport(Context& ctx, const ReportOptions& o) {
   auto settings = LoadStudySettings(ctx, db);
   if (!settings.ok()) return ReportError(settings.error());
   const auto& design = settings.value().design;  // compared with the frozen design (deviations)
-  auto result = Analyze(db, settings.value().outcomes, settings.value().analysis, design ? &*design : nullptr);
+  auto result = AnalyzeStore(db, settings.value().outcomes, settings.value().analysis, design ? &*design : nullptr);
   if (!result.ok()) return ReportError(result.error());
 
   if (o.reveal_employers) {

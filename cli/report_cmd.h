@@ -2,6 +2,7 @@
 // What `report` and `demo` share: the context a rendered report carries
 // (tool version, time, audit head, ethics approval; employer names only when
 // revealed).
+#include "analysis/analyze.h"
 #include "cli/command.h"
 #include "report/report_context.h"
 
@@ -11,5 +12,10 @@ namespace twinprobe {
 // its ethics approval. With `reveal_employers`, loads the employer table
 // (pseudonym -> name); the caller records that in the audit chain first.
 ReportContext StudyReportContext(const Context& ctx, Store& store, bool reveal_employers);
+
+// Reads the study with core's read models (core/read_study.h) and analyses
+// it (analysis/analyze.h): what `analyze`, `report` and `demo` run.
+Result<AnalysisResult> AnalyzeStore(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan,
+                                    const Design* current_design = nullptr);
 
 }  // namespace twinprobe

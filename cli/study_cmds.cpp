@@ -151,7 +151,7 @@ int RunPlan(Context& ctx) {
     Warn("the design differs from the one frozen at " + frozen->at +
          "; reports will list this plan as a deviation from the pre-registration");
   const auto& sum = summary.value();
-  BalanceReport balance = ComputeBalance(*store.value());
+  BalanceReport balance = ComputeBalance(ReadFieldwork(*store.value(), s.design.outcomes));
   if (ctx.json) {
     std::cout << nlohmann::json{{"plan_id", sum.plan_id},
                                 {"vacancies", sum.vacancies},

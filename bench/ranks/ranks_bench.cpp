@@ -275,7 +275,7 @@ int main(int argc, char** argv) {
     t0 = Clock::now();
     ListingOptions o;
     o.resamples = resamples;
-    auto r = AnalyzeListings(store, o);
+    auto r = AnalyzeListings(ReadListings(store), o);
     if (!r.ok()) return 3;
     const auto& a = r.value();
     int64_t tests = 2 * static_cast<int64_t>(a.overall.size() + a.by_stratum.size()) + (a.widest ? 1 : 0);

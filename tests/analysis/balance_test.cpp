@@ -2,6 +2,7 @@
 
 #include <map>
 
+#include "core/fieldwork.h"
 #include "analysis/balance.h"
 #include "core/clock.h"
 #include "planner/study_fixture.h"
@@ -10,7 +11,7 @@ using namespace twinprobe;
 
 TEST_CASE("balance: the tables count the stored plan's probes, and a balanced plan tests as balanced") {
   testing::StoredDemo demo;
-  BalanceReport b = ComputeBalance(*demo.store, 199);
+  BalanceReport b = ComputeBalance(ReadFieldwork(*demo.store, OutcomeScheme{}), 199);
   REQUIRE(b.present);
   std::map<std::string, const BalanceTable*> by;
   for (const auto& t : b.tables) by[t.variable] = &t;
@@ -53,7 +54,7 @@ TEST_CASE("balance: sending times replace planned ones for the weekday") {
   demo.store->Exec(
       "INSERT INTO sending(probe_id, sent_at, entered_by, entered_at, audit_seq) "
       "SELECT id, '2027-03-07T10:00:00Z', 't', 'x', 99 FROM current_probe WHERE ref = 'P00001'");
-  BalanceReport b = ComputeBalance(*demo.store, 0);
+  BalanceReport b = ComputeBalance(ReadFieldwork(*demo.store, OutcomeScheme{}), 0);
   const BalanceTable* day = nullptr;
   for (const auto& t : b.tables)
     if (t.variable == "weekday") day = &t;
@@ -66,5 +67,5 @@ TEST_CASE("balance: sending times replace planned ones for the weekday") {
 
 TEST_CASE("balance: a store without a plan has no balance") {
   testing::StoredDemo demo(false);
-  CHECK_FALSE(ComputeBalance(*demo.store).present);
+  CHECK_FALSE(ComputeBalance(ReadFieldwork(*demo.store, OutcomeScheme{})).present);
 }

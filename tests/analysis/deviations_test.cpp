@@ -1,5 +1,6 @@
 #include <catch2/catch.hpp>
 
+#include "core/read_study.h"
 #include "analysis/deviations.h"
 #include "core/sha256.h"
 #include "planner/design_file.h"
@@ -24,9 +25,15 @@ std::string Replaced(std::string s, const std::string& from, const std::string& 
 
 }  // namespace
 
+// Reads what the store holds (core's read models) and checks it.
+PreregistrationStatus Check(Store& store, const Design* current, const AnalysisPlan& used) {
+  return CheckPreregistration(ReadFreeze(store), ReadStoredDesign(store), ReadFieldwork(store, OutcomeScheme{}), current,
+                              used);
+}
+
 TEST_CASE("deviations: not frozen means no registration to compare with") {
   testing::StoredDemo demo;
-  auto s = CheckPreregistration(*demo.store, &demo.checked.design, demo.checked.design.analysis);
+  auto s = Check(*demo.store, &demo.checked.design, demo.checked.design.analysis);
   CHECK_FALSE(s.frozen);
   CHECK(s.deviations.empty());
   CHECK(s.current_design_sha256 == Sha256Hex(demo.checked.design.canonical));
@@ -37,7 +44,7 @@ TEST_CASE("deviations: the frozen design analysed as frozen has none") {
   testing::StoredDemo demo;
   auto frozen = FreezeStudy(*demo.store, demo.checked.design);
   REQUIRE(frozen.ok());
-  auto s = CheckPreregistration(*demo.store, &demo.checked.design, demo.checked.design.analysis);
+  auto s = Check(*demo.store, &demo.checked.design, demo.checked.design.analysis);
   CHECK(s.frozen);
   CHECK(s.frozen_at == frozen.value().at);
   CHECK(s.design_sha256 == frozen.value().design_sha256);
@@ -48,7 +55,7 @@ TEST_CASE("deviations: the frozen design analysed as frozen has none") {
   // A comment does not change the canonical design.
   std::string text = testing::ReadFile(demo.study + "/study.toml");
   Design commented = Parse("# reviewed again\n" + text);
-  CHECK(CheckPreregistration(*demo.store, &commented, commented.analysis).deviations.empty());
+  CHECK(Check(*demo.store, &commented, commented.analysis).deviations.empty());
 }
 
 TEST_CASE("deviations: an edited design, an added stratum and another correction are each listed") {
@@ -58,7 +65,7 @@ TEST_CASE("deviations: an edited design, an added stratum and another correction
   text = Replaced(text, "columns = [\"occupation\", \"region\"]", "columns = [\"occupation\", \"region\", \"opened_on\"]");
   text = Replaced(text, "correction = \"holm\"", "correction = \"bh\"");
   Design edited = Parse(text);
-  auto s = CheckPreregistration(*demo.store, &edited, edited.analysis);
+  auto s = Check(*demo.store, &edited, edited.analysis);
   REQUIRE(s.deviations.size() == 3);
   CHECK(s.deviations[0].kind == "design_edited");
   CHECK(s.deviations[0].what == "study.toml was edited after the freeze (frozen design sha256 " +
@@ -79,7 +86,7 @@ TEST_CASE("deviations: the analysis plan in use counts, not only the file") {
   REQUIRE(FreezeStudy(*demo.store, demo.checked.design).ok());
   AnalysisPlan used = demo.checked.design.analysis;
   used.alpha = 0.1;
-  auto s = CheckPreregistration(*demo.store, &demo.checked.design, used);
+  auto s = Check(*demo.store, &demo.checked.design, used);
   REQUIRE(s.deviations.size() == 1);
   CHECK(s.deviations[0].kind == "alpha_changed");
   CHECK(s.deviations[0].what == "alpha is 0.10000000000000001; the frozen plan names 0.050000000000000003");
@@ -91,7 +98,7 @@ TEST_CASE("deviations: without a design file the store's plan is compared") {
   Design other = Parse(Replaced(text, "positive = [\"info_request\", \"invitation\", \"offer\"]",
                                 "positive = [\"invitation\", \"offer\"]"));
   REQUIRE(FreezeStudy(*demo.store, other).ok());
-  auto s = CheckPreregistration(*demo.store, nullptr, demo.checked.design.analysis);
+  auto s = Check(*demo.store, nullptr, demo.checked.design.analysis);
   // The plan was made from the demo design; the freeze registered another one.
   std::vector<std::string> kinds;
   for (const auto& d : s.deviations) kinds.push_back(d.kind);
@@ -121,7 +128,7 @@ TEST_CASE("freeze: stored once, refused the second time, and records fieldwork b
   CHECK(second.error().what == "the study was frozen at " + first.value().at + " (design sha256 " +
                                    first.value().design_sha256 + ") and a pre-registration cannot be replaced");
   CHECK(demo.store->QueryInt("SELECT count(*) FROM meta") == meta_rows);
-  auto s = CheckPreregistration(*demo.store, &demo.checked.design, demo.checked.design.analysis);
+  auto s = Check(*demo.store, &demo.checked.design, demo.checked.design.analysis);
   REQUIRE(s.deviations.size() == 1);
   CHECK(s.deviations[0].kind == "frozen_after_fieldwork");
 }

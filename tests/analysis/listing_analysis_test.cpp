@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "core/read_study.h"
 #include "analysis/analyze.h"
 #include "analysis/listing_analysis.h"
 #include "core/audit.h"
@@ -72,7 +73,7 @@ TEST_CASE("listing analysis: group summaries of two small lists, worked by hand"
   o.discount = stats::DiscountSpec{stats::Discount::kReciprocal};
   o.top_k = 2;
   o.resamples = 99;
-  auto r = AnalyzeListings(*store, o);
+  auto r = AnalyzeListings(ReadListings(*store), o);
   REQUIRE(r.ok());
   const ListingAudit& a = r.value();
   CHECK(a.present);
@@ -107,7 +108,7 @@ TEST_CASE("listing analysis: the plan's reference level wins over the most frequ
                          {{"x1", "origin", "inland"}, {"y1", "origin", "coastal"}, {"y2", "origin", "coastal"}});
   ListingOptions o;
   o.resamples = 9;
-  CHECK(AnalyzeListings(*store, o).value().levels[0].front() == "coastal");  // most places
+  CHECK(AnalyzeListings(ReadListings(*store), o).value().levels[0].front() == "coastal");  // most places
   AuditedWrite w(*store, "plan");
   store->Exec("INSERT INTO plan(origin, kind, created_at, audit_seq) VALUES ('plan', 'paired', 'x', " +
               std::to_string(w.seq()) + ")");
@@ -115,7 +116,7 @@ TEST_CASE("listing analysis: the plan's reference level wins over the most frequ
   store->Exec("INSERT INTO level(factor_id, name, is_reference, audit_seq) VALUES (1, 'inland', 1, " +
               std::to_string(w.seq()) + ")");
   w.Commit("plan");
-  CHECK(AnalyzeListings(*store, o).value().levels[0].front() == "inland");
+  CHECK(AnalyzeListings(ReadListings(*store), o).value().levels[0].front() == "inland");
 }
 
 TEST_CASE("listing analysis: strata, neighbour disparity, paired tests and profile overlap") {
@@ -134,7 +135,7 @@ TEST_CASE("listing analysis: strata, neighbour disparity, paired tests and profi
                          labels);
   ListingOptions o;
   o.resamples = 199;
-  auto r = AnalyzeListings(*store, o);
+  auto r = AnalyzeListings(ReadListings(*store), o);
   REQUIRE(r.ok());
   const ListingAudit& a = r.value();
   CHECK(a.strata == 2);
@@ -170,7 +171,7 @@ TEST_CASE("listing analysis: strata, neighbour disparity, paired tests and profi
 
 TEST_CASE("listing analysis: a store with lists but no plan analyses as kind 'listing'") {
   auto store = StoreWith({{"q", "l", "", {"a", "b"}}}, {{"a", "g", "x"}, {"b", "g", "y"}});
-  auto r = Analyze(*store, OutcomeScheme{}, AnalysisPlan{});
+  auto r = Analyze(ReadStudy(*store, OutcomeScheme{}), store->path(), OutcomeScheme{}, AnalysisPlan{});
   REQUIRE(r.ok());
   CHECK(r.value().kind == "listing");
   CHECK(r.value().listings.present);
@@ -180,7 +181,7 @@ TEST_CASE("listing analysis: a store with lists but no plan analyses as kind 'li
 TEST_CASE("listing analysis: an empty store still says that it holds no plan") {
   auto opened = Store::Open(":memory:", true);
   REQUIRE(opened.ok());
-  auto r = Analyze(*opened.value(), OutcomeScheme{}, AnalysisPlan{});
+  auto r = Analyze(ReadStudy(*opened.value(), OutcomeScheme{}), opened.value()->path(), OutcomeScheme{}, AnalysisPlan{});
   REQUIRE_FALSE(r.ok());
   CHECK(r.error().Message() ==
         ":memory:: the store holds no plan yet \u2014 run 'twinprobe plan' or 'twinprobe import pairs' first");
@@ -226,7 +227,7 @@ TEST_CASE("listing analysis: pages of a fetched list join in order, a gap ends t
   w.Commit("fetched");
   ListingOptions o;
   o.resamples = 9;
-  auto r = AnalyzeListings(store, o);
+  auto r = AnalyzeListings(ReadListings(store), o);
   REQUIRE(r.ok());
   const ListingAudit& a = r.value();
   CHECK(a.listings == 1);

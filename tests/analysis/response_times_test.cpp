@@ -3,6 +3,7 @@
 // follow from the times chosen below, by hand.
 #include <catch2/catch.hpp>
 
+#include "core/read_study.h"
 #include "analysis/design_summary.h"
 #include "analysis/response_times.h"
 #include "core/meta.h"
@@ -14,12 +15,12 @@ using testing::RunCli;
 
 namespace {
 
-struct Fieldwork {
+struct SentStudy {
   testing::TempDir dir;
   std::string study = dir / "s";
   std::vector<std::string> inland, coastal;  // probe refs by arm, in plan order
 
-  Fieldwork() {
+  SentStudy() {
     REQUIRE(RunCli({"--study", study, "init"}).exit_code == 0);
     REQUIRE(RunCli({"--study", study, "plan"}).exit_code == 0);
     auto store = Store::Open(study + "/study.db", false);
@@ -57,7 +58,7 @@ int64_t Code(const ArmResponseTimes& a, const std::string& code) {
 }  // namespace
 
 TEST_CASE("response times: first response per sent probe, censored at the window, corrections respected") {
-  Fieldwork f;
+  SentStudy f;
   // inland: 2.0 days rejection; 0.5 days invitation; rejection at 1 day corrected to invitation at 5 days.
   for (int i = 0; i < 3; ++i) f.Sent(f.inland[i]);
   f.Record(f.inland[0], "rejection", "2027-03-03T09:00");
@@ -72,7 +73,7 @@ TEST_CASE("response times: first response per sent probe, censored at the window
 
   auto store = Store::Open(f.study + "/study.db", false);
   REQUIRE(store.ok());
-  const ResponseTimes rt = ComputeResponseTimes(*store.value(), StoredOutcomeScheme(*store.value()));
+  const ResponseTimes rt = ComputeResponseTimes(ReadFieldwork(*store.value(), StoredOutcomeScheme(*store.value())), StoredOutcomeScheme(*store.value()));
   CHECK(rt.available);
   CHECK(rt.window_days == 28);
   REQUIRE(rt.arms.size() == 2);
@@ -128,7 +129,7 @@ TEST_CASE("response times: first response per sent probe, censored at the window
   CHECK(Code(co, "invitation") == 1);  // the late one keeps its code; it is censored only in time
   CHECK(Code(co, "info_request") == 1);
 
-  const DesignSummary d = SummariseDesign(*store.value());
+  const DesignSummary d = SummariseDesign(ReadFieldwork(*store.value(), OutcomeScheme{}), ReadStoredDesign(*store.value()));
   CHECK(d.first_sent_at == "2027-03-01T09:00:00Z");
   CHECK(d.last_sent_at == "2027-03-01T09:00:00Z");
   CHECK(d.window_days == 28);
@@ -147,7 +148,7 @@ TEST_CASE("response times: nothing sent means not available, and no curve") {
   REQUIRE(RunCli({"--study", study, "plan"}).exit_code == 0);
   auto store = Store::Open(study + "/study.db", false);
   REQUIRE(store.ok());
-  const ResponseTimes rt = ComputeResponseTimes(*store.value(), StoredOutcomeScheme(*store.value()));
+  const ResponseTimes rt = ComputeResponseTimes(ReadFieldwork(*store.value(), StoredOutcomeScheme(*store.value())), StoredOutcomeScheme(*store.value()));
   CHECK_FALSE(rt.available);
   REQUIRE(rt.arms.size() == 2);
   CHECK(rt.arms[0].probes_sent == 0);

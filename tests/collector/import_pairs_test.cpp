@@ -4,6 +4,7 @@
 
 #include <filesystem>
 
+#include "core/read_study.h"
 #include "analysis/analyze.h"
 #include "collector/import_pairs.h"
 #include "collector/collector_fixtures.h"
@@ -99,7 +100,7 @@ TEST_CASE("import pairs: a folder without a design becomes a paired study that a
   OutcomeScheme scheme = StoredOutcomeScheme(st);
   CHECK(scheme.is_positive("1"));
   CHECK_FALSE(scheme.is_positive("0"));
-  auto a = Analyze(st, scheme, AnalysisPlan{});
+  auto a = Analyze(ReadStudy(st, scheme), st.path(), scheme, AnalysisPlan{});
   REQUIRE(a.ok());
   CHECK(a.value().has_paired);
   CHECK(a.value().reference_label == "inland");

@@ -1,0 +1,39 @@
+#pragma once
+// What the store remembers of the design beyond the fieldwork
+// (core/fieldwork.h): the study's name, the outcome scheme and strata the
+// plan was made with, the factors and levels, profiles per arm and the
+// number of employers (vacancies per stratum value: core/fieldwork.h). Counts and names only;
+// nothing here identifies an employer.
+#include <cstdint>
+#include <map>
+#include <string>
+#include <vector>
+
+#include "core/design.h"
+
+namespace twinprobe {
+
+class Store;
+
+struct StoredFactor {
+  std::string name;
+  std::vector<std::string> levels;  // in the order they were declared
+  std::string reference;            // "" when none is marked
+};
+
+struct StoredDesign {
+  std::string study_id;  // "" when the store has none
+  std::string title;     // "" when the store has none
+  OutcomeScheme scheme;  // as stored with the plan (defaults when absent)
+  bool has_window = false;  // the plan stored its observation window
+  std::vector<std::string> strata_columns;  // as stored with the plan
+  std::vector<StoredFactor> factors;        // of the current plan, by id
+  std::map<int64_t, int64_t> profiles_by_arm;  // arm id -> fictitious applicants
+  int64_t employers = 0;  // distinct employer pseudonyms among the plan's vacancies
+};
+
+// Reads the meta table and, when there is a current plan, its factors,
+// profiles, strata and employers.
+StoredDesign ReadStoredDesign(Store& store);
+
+}  // namespace twinprobe

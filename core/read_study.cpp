@@ -1,0 +1,14 @@
+#include "core/read_study.h"
+
+namespace twinprobe {
+
+StudyReading ReadStudy(Store& store, const OutcomeScheme& scheme, const FieldworkOptions& options) {
+  StudyReading r;
+  r.fieldwork = ReadFieldwork(store, scheme, options);
+  r.design = ReadStoredDesign(store);
+  r.freeze = ReadFreeze(store);
+  r.listings = ReadListings(store);
+  return r;
+}
+
+}  // namespace twinprobe

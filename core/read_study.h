@@ -1,0 +1,30 @@
+#pragma once
+// Everything `analyze`, `report` and `monitor` read from the store, as plain
+// values: the fieldwork (core/fieldwork.h), the stored design
+// (core/read_design.h), the freeze (core/read_freeze.h) and the ranked lists
+// (core/read_listings.h). analysis/ computes on this value and never sees the
+// store.
+#include <optional>
+
+#include "core/design.h"
+#include "core/fieldwork.h"
+#include "core/read_design.h"
+#include "core/read_freeze.h"
+#include "core/read_listings.h"
+
+namespace twinprobe {
+
+class Store;
+
+struct StudyReading {
+  Fieldwork fieldwork;
+  StoredDesign design;
+  std::optional<FreezeRecord> freeze;
+  ListingData listings;
+};
+
+// `scheme` decides which response codes are positive (the design's scheme
+// when there is a design file, else the stored one).
+StudyReading ReadStudy(Store& store, const OutcomeScheme& scheme, const FieldworkOptions& options = {});
+
+}  // namespace twinprobe
