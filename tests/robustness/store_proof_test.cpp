@@ -229,3 +229,20 @@ TEST_CASE("issue 23: verify beside a recording writer never says BROKEN") {
   CHECK(runs >= 5);
   CHECK(st.s.Open()->QueryInt("SELECT count(*) FROM response") == 40);
 }
+
+TEST_CASE("issue 23: a command that writes prints the new head in full, text and JSON") {
+  Study st;
+  auto text = st.Record("P00001", "invitation");
+  const std::string head = AuditHead(*st.s.Open());
+  CHECK(text.out.size() > head.size());
+  CHECK(text.out.substr(text.out.rfind("Audit head: ")) == "Audit head: " + head + "\n");
+  auto json = RunCli({"--study", st.s.path, "--json", "record", "P00002", "rejection", "--at", "2027-03-05"}, kEnv);
+  REQUIRE(json.exit_code == 0);
+  auto j = nlohmann::json::parse(json.out);
+  CHECK(j["audit_head"] == AuditHead(*st.s.Open()));
+  CHECK(j["audit_head"] != head);
+  // A command that only reads prints no head.
+  CHECK(RunCli({"--study", st.s.path, "schedule"}).out.find("Audit head") == std::string::npos);
+  auto analysis = nlohmann::json::parse(RunCli({"--study", st.s.path, "--json", "analyze"}).out);
+  CHECK_FALSE(analysis.contains("audit_head"));
+}
