@@ -246,3 +246,32 @@ TEST_CASE("issue 23: a command that writes prints the new head in full, text and
   auto analysis = nlohmann::json::parse(RunCli({"--study", st.s.path, "--json", "analyze"}).out);
   CHECK_FALSE(analysis.contains("audit_head"));
 }
+
+TEST_CASE("issue 23: two first-time imports into one empty folder do not race on creating the schema") {
+  // Each round: two `import pairs` start at once on a folder with no store.
+  for (int round = 0; round < 4; ++round) {
+    testing::TempDir dir;
+    const std::string study = dir / "s";
+    std::string csv = "vacancy,arm,outcome\n";
+    for (int v = 1; v <= 20; ++v)
+      csv += "V" + std::to_string(v) + ",majority,1\nV" + std::to_string(v) + ",minority," + (v % 3 ? "0" : "1") + "\n";
+    testing::WriteFile(dir / "a.csv", csv);
+    testing::WriteFile(dir / "b.csv", csv + "V21,majority,0\nV21,minority,0\n");
+    std::string script;
+    for (const char* f : {"a", "b"})
+      script += "'" + testing::BinaryPath() + "' --study '" + study + "' import pairs '" + dir / f + ".csv" +
+                "' --reference majority >/dev/null 2>'" + dir / f + ".err' & ";
+    script += "wait\n";
+    testing::WriteFile(dir / "race.sh", script);
+    REQUIRE(std::system(("bash '" + dir / "race.sh" + "'").c_str()) == 0);
+    for (const char* f : {"a", "b"}) {
+      const std::string err = testing::ReadFile(dir / f + ".err");
+      INFO(f << ": " << err);
+      CHECK(err.find("already exists") == std::string::npos);
+      CHECK(err.find("not a usable study store") == std::string::npos);
+    }
+    auto v = RunCli({"--study", study, "verify"});
+    INFO(v.out << v.err);
+    CHECK(v.exit_code == 0);
+  }
+}
