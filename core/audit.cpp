@@ -202,6 +202,23 @@ std::string AuditHead(Store& store) {
 }
 
 AuditReport VerifyAudit(Store& store) {
+  // Every table and the chain are read from one snapshot: without it a
+  // writer committing between two reads looks like tampering (report's and
+  // export's "audit intact" stamp said BROKEN beside fieldwork). Inside a
+  // caller's transaction (verify's) that one already holds.
+  const bool own_transaction = sqlite3_get_autocommit(store.handle()) != 0;
+  if (own_transaction) store.Exec("BEGIN");
+  struct EndRead {
+    Store& s;
+    bool active;
+    ~EndRead() {
+      if (!active) return;
+      try {
+        s.Exec("COMMIT");
+      } catch (...) {
+      }
+    }
+  } end_read{store, own_transaction};
   AuditReport report;
   // One ordered pass over each sealed table builds every entry's digest.
   std::map<int64_t, std::vector<std::pair<std::string, std::string>>> parts;
