@@ -275,3 +275,17 @@ TEST_CASE("issue 23: two first-time imports into one empty folder do not race on
     CHECK(v.exit_code == 0);
   }
 }
+
+TEST_CASE("issue 23: a store of an older schema version verifies against that version and is not migrated") {
+  Study st;
+  st.Record("P00001", "invitation");
+  // Exactly what migrations 1 to 3 made: version 4 only added this index.
+  st.Sql("DROP INDEX response_supersedes; PRAGMA user_version = 3");
+  auto j = st.VerifyJson();
+  INFO(j.dump(2));
+  CHECK(j["ok"] == true);
+  CHECK(j["schema_version"] == 3);
+  auto raw = Store::OpenReadOnly(st.s.db());
+  REQUIRE(raw.ok());
+  CHECK(raw.value()->schema_version() == 3);
+}
