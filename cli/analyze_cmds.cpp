@@ -2,6 +2,8 @@
 #include <filesystem>
 #include <fstream>
 #include <iostream>
+#include <memory>
+#include <vector>
 
 #include <nlohmann/json.hpp>
 
@@ -10,6 +12,7 @@
 #include "cli/command.h"
 #include "cli/report_cmd.h"
 #include "core/audit.h"
+#include "core/verify.h"
 #include "report/json_report.h"
 #include "report/text_report.h"
 
@@ -32,33 +35,66 @@ int RunAnalyze(Context& ctx) {
   return 0;
 }
 
-int RunVerify(Context& ctx) {
-  auto store = OpenStudyStore(ctx, false);
-  if (!store.ok()) return ReportError(store.error());
-  AuditReport rep = VerifyAudit(*store.value());
+struct VerifyOptions {
+  std::vector<std::string> heads;
+  std::vector<std::string> witness_files;
+};
+
+// What a problem is about: an entry of the chain, or the store as a whole.
+std::string ProblemPlace(const AuditProblem& p) {
+  return p.seq == 0 ? std::string("the store") : "entry " + std::to_string(p.seq);
+}
+
+int RunVerify(Context& ctx, const VerifyOptions& o) {
+  std::vector<WitnessedHead> witnessed;
+  for (const std::string& h : o.heads) {
+    auto head = ParseHead(h, "--head");
+    if (!head.ok()) return ReportError(head.error());
+    witnessed.push_back({head.value(), "--head", 0});
+  }
+  for (const std::string& f : o.witness_files) {
+    auto heads = ReadWitnessFile(f);
+    if (!heads.ok()) return ReportError(heads.error());
+    witnessed.insert(witnessed.end(), heads.value().begin(), heads.value().end());
+  }
+  auto verified = VerifyStore(StorePath(ctx), std::move(witnessed));
+  if (!verified.ok()) return ReportError(verified.error());
+  const StoreVerification& v = verified.value();
+  const AuditReport& rep = v.audit;
   if (ctx.json) {
     nlohmann::json problems = nlohmann::json::array();
     for (const auto& p : rep.problems)
       problems.push_back({{"seq", p.seq}, {"what", p.what}, {"command", p.command}, {"actor", p.actor},
                           {"at", p.at}, {"summary", p.summary}});
+    nlohmann::json witnessed_json = nlohmann::json::array();
+    for (const auto& w : v.witnessed)
+      witnessed_json.push_back({{"head", w.hash}, {"source", w.source},
+                                {"seq", w.seq == 0 ? nlohmann::json(nullptr) : nlohmann::json(w.seq)}});
     std::cout << nlohmann::json{{"ok", rep.ok()},
                                 {"entries", rep.entries},
                                 {"sealed_rows", rep.sealed_rows},
                                 {"head_hash", rep.head_hash},
+                                {"schema_version", v.schema_version},
+                                {"witnessed", witnessed_json},
                                 {"problems", problems}}
                      .dump(2)
               << "\n";
   } else if (rep.ok()) {
+    // The head in full: a shortened head cannot be compared with a witness's.
     std::cout << "The audit chain is intact: " << Count(rep.entries, "entry", "entries") << " sealing "
-              << Count(rep.sealed_rows, "row", "rows") << "; head " << rep.head_hash.substr(0, 16) << "…\n";
+              << Count(rep.sealed_rows, "row", "rows") << "; head "
+              << (rep.head_hash.empty() ? std::string("(none)") : rep.head_hash) << "\n";
+    for (const auto& w : v.witnessed)
+      std::cout << "  witnessed head " << w.hash << " (" << w.source << ") is entry " << w.seq
+                << ": nothing up to it was removed or rewritten\n";
   } else {
-    std::cout << "The audit chain is BROKEN. First broken link: entry " << rep.problems.front().seq << ": "
-              << rep.problems.front().what << ".\n";
-    if (!rep.problems.front().actor.empty())
-      std::cout << "  entry " << rep.problems.front().seq << " was written by " << rep.problems.front().actor << " at "
-                << rep.problems.front().at << ": " << rep.problems.front().summary << "\n";
+    const AuditProblem& first = rep.problems.front();
+    std::cout << "The audit chain is BROKEN. First broken link: " << ProblemPlace(first) << ": " << first.what << ".\n";
+    if (!first.actor.empty())
+      std::cout << "  entry " << first.seq << " was written by " << first.actor << " at " << first.at << ": "
+                << first.summary << "\n";
     for (size_t i = 1; i < rep.problems.size(); ++i)
-      std::cout << "  also entry " << rep.problems[i].seq << ": " << rep.problems[i].what << "\n";
+      std::cout << "  also " << ProblemPlace(rep.problems[i]) << ": " << rep.problems[i].what << "\n";
   }
   return rep.ok() ? 0 : 1;
 }
@@ -69,8 +105,14 @@ void RegisterAnalyzeCommands(CLI::App& app, Context& ctx) {
   app.add_subcommand("analyze", "Compute callback rates, the paired table and exact tests from the stored data")
       ->callback([&ctx] { ctx.exit_code = RunAnalyze(ctx); });
   // `report` lives in cli/report_cmd.cpp.
-  app.add_subcommand("verify", "Recompute the audit chain and report the first broken link, if any")
-      ->callback([&ctx] { ctx.exit_code = RunVerify(ctx); });
+  auto verify_opts = std::make_shared<VerifyOptions>();
+  CLI::App* verify =
+      app.add_subcommand("verify", "Check the store's schema, its audit chain and every sealed row; report the first broken link");
+  verify->add_option("--head", verify_opts->heads,
+                     "A chain head kept outside the store (64 hex digits); verify proves it is in the chain");
+  verify->add_option("--witness", verify_opts->witness_files,
+                     "A file of chain heads the study's witness keeps (every 64-hex-digit word is one)");
+  verify->callback([&ctx, verify_opts] { ctx.exit_code = RunVerify(ctx, *verify_opts); });
 }
 
 }  // namespace twinprobe

@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "cli/command.h"
+#include "cli/head_output.h"
 #include "core/suggest.h"
 
 namespace twinprobe {
@@ -125,8 +126,10 @@ int main(int argc, char** argv) {
     std::cerr << "twinprobe: " << message << "\n";
     return static_cast<int>(ExitCode::kUsage);
   }
+  HeadOutput head_output(WantsJson(argc, argv));  // prints the new chain head after a write
   try {
     app.parse(argc, argv);
+    head_output.Finish();
   } catch (const CLI::ParseError& e) {
     int code = app.exit(e);  // prints help, version or the usage error
     return code == 0 ? 0 : static_cast<int>(ExitCode::kUsage);

@@ -3,6 +3,7 @@
 #include <cstring>
 
 #include "core/text.h"
+#include "collector/html_bounds.h"
 
 namespace twinprobe {
 namespace {
@@ -87,10 +88,11 @@ std::string ItemFailure(int position, const FieldSpec& f, const std::string& wha
 }
 
 struct GumboDoc {
-  GumboOutput* out;
   explicit GumboDoc(std::string_view html)
-      : out(gumbo_parse_with_options(&kGumboDefaultOptions, html.data(), html.size())) {}
-  ~GumboDoc() { gumbo_destroy_output(&kGumboDefaultOptions, out); }
+      : options(BoundedGumboOptions()), out(gumbo_parse_with_options(&options, html.data(), html.size())) {}
+  ~GumboDoc() { gumbo_destroy_output(&options, out); }
+  GumboOptions options;
+  GumboOutput* out;
   GumboDoc(const GumboDoc&) = delete;
   GumboDoc& operator=(const GumboDoc&) = delete;
 };
@@ -192,6 +194,11 @@ Extraction ExtractListing(std::string_view html, const ListingRules& rules) {
   if (size_t bad = FirstInvalidUtf8(html); bad != std::string_view::npos)
     return fail("malformed page: not valid UTF-8 at byte " + std::to_string(bad));
   GumboDoc doc(html);
+  // The snapshot is kept either way; a page beyond the cap is a failed
+  // extraction, never one walked at any cost.
+  if (int depth = HtmlTreeDepth(doc.out->document); depth > kMaxHtmlDepth)
+    return fail("the page nests elements " + std::to_string(depth) + " deep, beyond the limit of " +
+                std::to_string(kMaxHtmlDepth) + "; it is kept as a snapshot but not extracted");
   const GumboNode* scope = doc.out->document;
   if (rules.has_list) {
     scope = SelectFirst(rules.list, doc.out->document);

@@ -2,6 +2,8 @@
 
 #include <gumbo.h>
 
+#include "collector/html_bounds.h"
+
 namespace twinprobe {
 namespace {
 
@@ -129,10 +131,18 @@ void Walk(const GumboNode* node, TextSink& sink, bool pre) {
 }  // namespace
 
 std::string HtmlToText(std::string_view html) {
-  GumboOutput* out = gumbo_parse_with_options(&kGumboDefaultOptions, html.data(), html.size());
+  const GumboOptions options = BoundedGumboOptions();
+  GumboOutput* out = gumbo_parse_with_options(&options, html.data(), html.size());
   TextSink sink;
-  Walk(out->document, sink, false);
-  gumbo_destroy_output(&kGumboDefaultOptions, out);
+  // Beyond the depth cap the text is not walked (recursively): the mail's
+  // body digest is sealed as usual; the text says why it is not shown.
+  if (HtmlTreeDepth(out->document) > kMaxHtmlDepth)
+    sink.Text(("[this HTML part nests elements deeper than " + std::to_string(kMaxHtmlDepth) +
+               " levels and was not read]").c_str(),
+              false);
+  else
+    Walk(out->document, sink, false);
+  gumbo_destroy_output(&options, out);
   return sink.Take();
 }
 

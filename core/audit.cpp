@@ -9,6 +9,7 @@
 #include <map>
 
 #include "core/clock.h"
+#include "core/committed_head.h"
 #include "core/schema.h"
 #include "core/sha256.h"
 
@@ -134,7 +135,15 @@ std::string ChainHash(const std::string& prev, int64_t seq, const std::string& a
                    summary + "\n" + content);
 }
 
+// Written by Commit, read by the CLI once the command is done (one thread).
+std::string& CommittedHead() {
+  static std::string head;
+  return head;
+}
+
 }  // namespace
+
+std::string LastCommittedHead() { return CommittedHead(); }
 
 std::string CurrentActor() {
   if (const char* a = std::getenv("TWINPROBE_ACTOR"); a && *a) return a;
@@ -157,6 +166,7 @@ std::string AuditedWrite::Commit(const std::string& summary) {
   ins.Bind(1, seq_).Bind(2, at_).Bind(3, actor_).Bind(4, command_).Bind(5, summary).Bind(6, content);
   ins.Bind(7, prev).Bind(8, hash).Run();
   tx_.Commit();
+  CommittedHead() = hash;
   return hash;
 }
 
@@ -192,10 +202,30 @@ std::string AuditHead(Store& store) {
 }
 
 AuditReport VerifyAudit(Store& store) {
+  // Every table and the chain are read from one snapshot: without it a
+  // writer committing between two reads looks like tampering (report's and
+  // export's "audit intact" stamp said BROKEN beside fieldwork). Inside a
+  // caller's transaction (verify's) that one already holds.
+  const bool own_transaction = sqlite3_get_autocommit(store.handle()) != 0;
+  if (own_transaction) store.Exec("BEGIN");
+  struct EndRead {
+    Store& s;
+    bool active;
+    ~EndRead() {
+      if (!active) return;
+      try {
+        s.Exec("COMMIT");
+      } catch (...) {
+      }
+    }
+  } end_read{store, own_transaction};
   AuditReport report;
   // One ordered pass over each sealed table builds every entry's digest.
   std::map<int64_t, std::vector<std::pair<std::string, std::string>>> parts;
   for (const SealedTable& t : SealedTables()) {
+    // A store of an older schema version may not have every table yet (verify
+    // reads without migrating); its schema is checked against that version.
+    if (SealedColumns(store, t).empty()) continue;
     // Rowid order reads the table front to back (an index walk would seek
     // once per row); within an entry that is the order the digest uses.
     RawQuery rows(store, "SELECT audit_seq, " + SealedColumns(store, t) + " FROM \"" + t.name + "\" ORDER BY rowid");

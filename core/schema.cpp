@@ -1,5 +1,8 @@
 #include "core/schema.h"
 
+#include <sqlite3.h>
+
+#include <memory>
 #include <string>
 
 #include "core/store.h"
@@ -288,18 +291,56 @@ struct Migration {
 
 const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigration3}, {4, kMigration4}};
 
+// sqlite_master without SQLite's own objects (sqlite_autoindex_* follow from
+// the tables' SQL, which is compared; sqlite_stat* only guide the planner).
+std::vector<SchemaObject> ReadSchema(sqlite3* db) {
+  Stmt q(db,
+         "SELECT type, name, tbl_name, coalesce(sql, '') FROM sqlite_master WHERE name NOT LIKE 'sqlite\\_%' ESCAPE '\\' "
+         "ORDER BY type, name");
+  std::vector<SchemaObject> out;
+  while (q.Step()) out.push_back({q.Text(0), q.Text(1), q.Text(2), q.Text(3)});
+  return out;
+}
+
 }  // namespace
 
 void Migrate(Store& store) {
-  int current = store.schema_version();
+  // The caller read the version without a lock; another process may have
+  // migrated since (two first imports into one empty folder), so read it
+  // again under the write lock before creating anything.
+  Transaction tx(store);
+  const int current = store.schema_version();
+  if (current >= kSchemaVersion) return;  // rolls back an empty transaction
   for (const Migration& m : kMigrations) {
     if (m.version <= current) continue;
-    Transaction tx(store);
     store.Exec(m.sql);
     store.Exec("PRAGMA user_version = " + std::to_string(m.version));
-    tx.Commit();
   }
+  tx.Commit();
 }
+
+std::vector<SchemaObject> ReferenceSchema(int version) {
+  // A private in-memory database, not a Store: Store::Open would migrate it
+  // to the newest version, and verify needs the schema of the store's own.
+  sqlite3* raw = nullptr;
+  if (sqlite3_open_v2(":memory:", &raw, SQLITE_OPEN_READWRITE, nullptr) != SQLITE_OK) {
+    sqlite3_close(raw);
+    throw StoreError("cannot open an in-memory database");
+  }
+  std::unique_ptr<sqlite3, decltype(&sqlite3_close)> db(raw, &sqlite3_close);
+  for (const Migration& m : kMigrations) {
+    if (m.version > version) break;
+    char* err = nullptr;
+    if (sqlite3_exec(db.get(), m.sql, nullptr, nullptr, &err) != SQLITE_OK) {
+      std::string msg = err ? err : "unknown error";
+      sqlite3_free(err);
+      throw StoreError("migration " + std::to_string(m.version) + ": " + msg);
+    }
+  }
+  return ReadSchema(db.get());
+}
+
+std::vector<SchemaObject> StoredSchema(Store& store) { return ReadSchema(store.handle()); }
 
 const std::vector<SealedTable>& SealedTables() {
   static const std::vector<SealedTable> tables = {

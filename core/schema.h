@@ -11,10 +11,30 @@ class Store;
 
 constexpr int kSchemaVersion = 4;  // bump together with a new migration
 
-// Applies every migration above the store's user_version, each in its own
-// transaction. Throws StoreError on failure (leaving the store at the last
-// version that applied cleanly).
+// Applies every migration above the store's user_version in one write
+// transaction (BEGIN IMMEDIATE) that re-reads the version once it holds the
+// lock: two processes creating the same new store queue, and the second finds
+// the schema made. Throws StoreError on failure (the store keeps its version).
 void Migrate(Store& store);
+
+// One object of the schema as SQLite keeps it in sqlite_master.
+struct SchemaObject {
+  std::string type;  // table | index | view | trigger
+  std::string name;
+  std::string table;  // tbl_name: the table an index or trigger belongs to
+  std::string sql;    // exact text ("" for SQLite's automatic indexes)
+};
+
+// The schema the migrations 1..`version` create, read back from a fresh
+// in-memory database, ordered by type and name. Requires 1 <= version <=
+// kSchemaVersion. verify compares a store's sqlite_master with it byte for
+// byte, so a trigger, view or column added or changed behind the tool's
+// back is found.
+std::vector<SchemaObject> ReferenceSchema(int version);
+
+// The schema objects of `store` (sqlite_master, without SQLite's internal
+// sqlite_* tables), in the same order as ReferenceSchema.
+std::vector<SchemaObject> StoredSchema(Store& store);
 
 // A table whose rows are sealed into the audit chain, with the columns left
 // out of its digest. Left-out columns are those `purge` may clear; each has a

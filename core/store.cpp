@@ -117,6 +117,22 @@ Result<std::unique_ptr<Store>> Store::Open(const std::string& path, bool create)
   return store;
 }
 
+Result<std::unique_ptr<Store>> Store::OpenReadOnly(const std::string& path) {
+  if (!std::filesystem::exists(path))
+    return BadInput(path, "no study store here",
+                    "run 'twinprobe plan' (or 'twinprobe import pairs') first, or pass --study DIR");
+  sqlite3* db = nullptr;
+  if (sqlite3_open_v2(path.c_str(), &db, SQLITE_OPEN_READONLY, nullptr) != SQLITE_OK) {
+    std::string msg = db ? sqlite3_errmsg(db) : "out of memory";
+    sqlite3_close(db);
+    return BadInput(path, "cannot open the study store: " + msg);
+  }
+  std::unique_ptr<Store> store(new Store(db, path));
+  // A reader waits for a writer that is checkpointing, like a writer does.
+  sqlite3_busy_timeout(db, kBusyTimeoutMs);
+  return store;
+}
+
 Store::~Store() { sqlite3_close_v2(db_); }
 
 void Store::Exec(std::string_view sql) {

@@ -69,6 +69,11 @@ class Store {
   // bad-input error if the file is missing and `create` is false, or if it
   // was written by a newer twinprobe.
   static Result<std::unique_ptr<Store>> Open(const std::string& path, bool create);
+  // Opens an existing store for reading only: no migration, no pragma that
+  // writes, and SQLite refuses any write through this handle (verify must
+  // never change what it checks). Fails with a bad-input error if the file is
+  // missing or SQLite cannot read it; it does not check that it is a study store.
+  static Result<std::unique_ptr<Store>> OpenReadOnly(const std::string& path);
   ~Store();
   Store(const Store&) = delete;
   Store& operator=(const Store&) = delete;

@@ -16,7 +16,7 @@ TEST_CASE("cli record: a late response is stored with a warning that says by how
   REQUIRE(RunCli({"--study", s.path, "sent", "P00001", "--at", "2027-03-01T09:00"}).exit_code == 0);
   auto r = RunCli({"--study", s.path, "record", "P00001", "rejection", "--at", "2027-04-15"});
   CHECK(r.exit_code == 0);
-  CHECK(r.out == "Recorded rejection for P00001 at 2027-04-15T00:00:00Z.\n");
+  CHECK(r.out == "Recorded rejection for P00001 at 2027-04-15T00:00:00Z.\n" + testing::HeadLine(s.path));
   CHECK(r.err == "twinprobe: warning: the response came 45 days after P00001 was sent, outside the observation window "
                  "of 28 days; it is stored with the flag 'late'\n");
   auto j = RunCli({"--study", s.path, "--json", "record", "P00001", "rejection", "--at", "2027-04-16"});
@@ -47,7 +47,8 @@ TEST_CASE("cli sent: a second sending time replaces the first, which is kept") {
   auto r = RunCli({"--study", s.path, "sent", "P00003", "--at", "2027-03-02T08:30"});
   CHECK(r.exit_code == 0);
   CHECK(r.out == "Marked P00003 as sent at 2027-03-02T08:30:00Z; this replaces the earlier sending time "
-                 "2027-03-01T00:00:00Z, which is kept.\n");
+                 "2027-03-01T00:00:00Z, which is kept.\n" +
+                     testing::HeadLine(s.path));
 }
 
 TEST_CASE("cli import outcomes: summary, reject file and exit code 1 with --skip-bad") {
@@ -57,7 +58,7 @@ TEST_CASE("cli import outcomes: summary, reject file and exit code 1 with --skip
   auto r = RunCli({"--study", s.path, "import", "outcomes", csv, "--skip-bad"});
   CHECK(r.exit_code == 1);
   CHECK(r.out == "Imported 1 response from " + csv + "; 1 bad row was written with the reasons to " + csv +
-                     ".rejects.csv.\n");
+                     ".rejects.csv.\n" + testing::HeadLine(s.path));
   CHECK(r.err == "twinprobe: warning: the column 'source' is not part of an outcomes file and was ignored\n");
   auto again = RunCli({"--study", s.path, "import", "outcomes", csv, "--skip-bad"});
   CHECK(again.exit_code == 0);
@@ -82,7 +83,8 @@ TEST_CASE("cli import pairs: a folder without a design, then analyze and report 
   INFO(r.err);
   CHECK(r.exit_code == 0);
   CHECK(r.out == "Created a paired study from " + csv + ": 60 probes in 30 vacancies; reference arm majority, "
-                     "compared with minority; strata sector.\nNext: twinprobe --study " + study + " analyze\n");
+                     "compared with minority; strata sector.\nNext: twinprobe --study " + study + " analyze\n" +
+                     testing::HeadLine(study));
   CHECK(r.err.find('\r') == std::string::npos);  // no progress bar when stderr is not a terminal
   CHECK_FALSE(std::filesystem::exists(study + "/study.toml"));
 

@@ -51,7 +51,8 @@ TEST_CASE("import ranks: a folder without a design gets a store, and analyze sho
   INFO(r.err);
   REQUIRE(r.exit_code == 0);
   CHECK(r.out == "Imported 36 listings (720 positions, 12 query x location strata) from " + DemoRanks() +
-                     "; " + std::to_string(2 * DemoItems()) + " item labels by gender, origin.\nRun 'twinprobe analyze' for the listing audit.\n");
+                     "; " + std::to_string(2 * DemoItems()) + " item labels by gender, origin.\nRun 'twinprobe analyze' for the listing audit.\n" +
+                     testing::HeadLine(study));
   CHECK(std::filesystem::exists(dir / "audit/study.db"));
   auto a = RunCli({"--study", study, "--json", "analyze"});
   INFO(a.err);

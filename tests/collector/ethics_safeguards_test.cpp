@@ -64,7 +64,8 @@ TEST_CASE("ethics: recording an invitation prints the decline deadline and the l
                        "employer's response first with 'twinprobe record'\n");
   auto ok = RunCli({"--study", s.path, "decline", "P00001", "--at", "2027-03-04T15:00"});
   CHECK(ok.exit_code == 0);
-  CHECK(ok.out == "Recorded that the invitation to P00001 was declined at 2027-03-04T15:00:00Z.\n");
+  CHECK(ok.out == "Recorded that the invitation to P00001 was declined at 2027-03-04T15:00:00Z.\n" +
+                     testing::HeadLine(s.path));
 }
 
 TEST_CASE("ethics: schedule lists overdue declines first, then those still due, then what to send") {

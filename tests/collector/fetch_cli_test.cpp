@@ -211,7 +211,7 @@ TEST_CASE("fetch cli: import labels links item keys to factor levels, bad levels
   auto r = RunCli({"--study", s.study, "import", "labels", s.dir / "labels.csv"}, kEnv);
   INFO(r.err);
   CHECK(r.exit_code == 0);
-  CHECK(r.out == "Imported 2 labels for 3 items.\n");
+  CHECK(r.out == "Imported 2 labels for 3 items.\n" + testing::HeadLine(s.study));
   CHECK(s.Count("SELECT count(*) FROM item_label WHERE item_key = 'vjx-2301' AND factor = 'origin' AND level = 'coastal'") == 1);
   auto again = RunCli({"--study", s.study, "import", "labels", s.dir / "labels.csv"}, kEnv);
   CHECK(again.out == "This labels file was imported before; nothing was added.\n");

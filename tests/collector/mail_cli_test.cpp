@@ -159,7 +159,7 @@ TEST_CASE("review cli: lists the queue with evidence, and records decisions as r
                            " at 2027-03-04T09:15:00Z from message 1 (confirmed as suggested), a positive callback.\n"
                            "Decline it by 2027-03-05T09:15:00Z (within 24 hours of receipt) with the letter in "
                            "ethics/letters/decline-invitation.md, then run 'twinprobe decline " +
-                           p1 + "'.\n");
+                           p1 + "'.\n" + testing::HeadLine(s.study));
   CHECK(confirm.err == "twinprobe: warning: " + p1 +
                            " has no sending recorded, so the observation window cannot be "
                            "checked \u2014 record it with 'twinprobe sent " +
@@ -172,7 +172,7 @@ TEST_CASE("review cli: lists the queue with evidence, and records decisions as r
   CHECK(a["positive"] == true);
   CHECK(a["decline_by"] == "2027-03-12T09:00:00Z");
   auto dismiss = RunCli({"--study", s.study, "review", "9", "--dismiss"});
-  CHECK(dismiss.out == "Dismissed message 9; no response was recorded.\n");
+  CHECK(dismiss.out == "Dismissed message 9; no response was recorded.\n" + testing::HeadLine(s.study));
 
   auto left = nlohmann::json::parse(RunCli({"--study", s.study, "--json", "review"}).out);
   CHECK(left["waiting"] == 9);

@@ -41,10 +41,12 @@ TEST_CASE("verify: a response code changed in the file is the first broken link,
   CHECK(text.exit_code == 1);
   CHECK(text.out == "The audit chain is BROKEN. First broken link: entry 2: rows written by this entry (record) were "
                     "changed, added or deleted since (tables now holding them: response).\n"
-                    "  entry 2 was written by ana at 2027-03-06T08:00:00Z: record P00001 rejection\n");
+                    "  entry 2 was written by ana at 2027-03-06T08:00:00Z: record P00001 rejection\n"
+                    "  also entry 2: its summary says 'record P00001 rejection' but the rows it sealed say 'record "
+                    "P00001 invitation'\n");
   auto j = r.Verify();
   CHECK(j["ok"] == false);
-  CHECK(j["problems"].size() == 1);
+  CHECK(j["problems"].size() == 2);  // the digest, and the summary that no longer matches the row
   CHECK(j["problems"][0]["seq"] == 2);
   CHECK(j["problems"][0]["actor"] == "ana");
   CHECK(j["problems"][0]["command"] == "record");

@@ -11,6 +11,9 @@
 #include <sstream>
 #include <stdexcept>
 
+#include "core/audit.h"
+#include "core/store.h"
+
 namespace twinprobe::testing {
 namespace fs = std::filesystem;
 
@@ -93,6 +96,12 @@ int WaitCli(int pid) {
   if (WIFEXITED(status)) return WEXITSTATUS(status);
   if (WIFSIGNALED(status)) return -WTERMSIG(status);
   return -1;
+}
+
+std::string HeadLine(const std::string& study_dir) {
+  auto store = Store::OpenReadOnly(study_dir + "/study.db");
+  if (!store.ok()) return "(no store: " + store.error().Message() + ")";
+  return "Audit head: " + AuditHead(*store.value()) + "\n";
 }
 
 }  // namespace twinprobe::testing

@@ -37,6 +37,9 @@ int SpawnCli(const std::vector<std::string>& args, const std::vector<std::string
 int WaitCli(int pid);
 
 std::string ReadFile(const std::string& path);
+// The line every writing command ends its text output with: "Audit head: "
+// and the head of the study's chain (read now), then a newline.
+std::string HeadLine(const std::string& study_dir);
 void WriteFile(const std::string& path, const std::string& content);
 
 // Path of the source tree (for fixtures) and of the built binary.

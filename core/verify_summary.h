@@ -1,0 +1,26 @@
+#pragma once
+// An audit entry's summary is what a reader of the chain (and of `history`)
+// takes the entry to have done: "record P00017 invitation". The rows it
+// sealed must say the same; otherwise something changed them as they were
+// written (a trigger planted in the store, say), and the chain alone would
+// seal the changed rows as faithfully as true ones.
+//
+// For every command whose summary states facts about single rows (record,
+// sent, decline, review), the summary is rebuilt from the sealed rows in the
+// exact wording the command uses, and compared with the stored one;
+// `import outcomes` is checked by its row counts. The wording is a stored
+// format: a change to a summary in collector/ needs the same change here
+// (tests/core/verify_summary_test.cpp writes each through the real command).
+#include <vector>
+
+#include "core/audit.h"
+
+namespace twinprobe {
+
+class Store;
+
+// One problem per entry whose summary disagrees with its rows, with the
+// entry's command, actor, time and summary filled in.
+std::vector<AuditProblem> CheckSummaries(Store& store);
+
+}  // namespace twinprobe

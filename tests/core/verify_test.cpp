@@ -1,0 +1,34 @@
+#include <catch2/catch.hpp>
+
+#include "core/schema.h"
+#include "core/store.h"
+#include "core/verify.h"
+
+using namespace twinprobe;
+
+TEST_CASE("verify: a freshly migrated store has exactly the reference schema") {
+  auto store = Store::Open(":memory:", true);
+  REQUIRE(store.ok());
+  CHECK(SchemaDifferences(*store.value(), kSchemaVersion).empty());
+  // The reference of an older version lacks what later migrations add.
+  CHECK(SchemaDifferences(*store.value(), 3) ==
+        std::vector<std::string>{"the store holds an index 'response_supersedes' on response that twinprobe does not create"});
+}
+
+TEST_CASE("verify: a trigger added to a table is named with its table") {
+  auto store = Store::Open(":memory:", true);
+  store.value()->Exec("CREATE TRIGGER t AFTER INSERT ON sending BEGIN SELECT 1; END");
+  CHECK(SchemaDifferences(*store.value(), kSchemaVersion) ==
+        std::vector<std::string>{"the store holds a trigger 't' on sending that twinprobe does not create"});
+}
+
+TEST_CASE("verify: a head is 64 hex digits, lowercased") {
+  const std::string upper(64, 'A');
+  REQUIRE(ParseHead(upper, "--head").ok());
+  CHECK(ParseHead(upper, "--head").value() == std::string(64, 'a'));
+  auto short_head = ParseHead("abc", "--head");
+  REQUIRE_FALSE(short_head.ok());
+  CHECK(short_head.error().Message() ==
+        "--head: 'abc' is not a chain head (a head is 64 hex digits) \u2014 copy the full head that a writing command "
+        "or 'twinprobe verify' printed");
+}
