@@ -7,9 +7,8 @@
 // for a whole employer turns its (b_e, c_e) into (c_e, b_e). The test
 // statistic is T = sum_e (b_e - c_e) = sum(b) - sum(c), and its null
 // distribution is that of sum_e s_e (b_e - c_e) with independent fair signs
-// s_e (a cluster sign-flip randomisation test; Fisher 1935, The Design of
-// Experiments, section 21; for clustered matched pairs see Good 2005,
-// Permutation, Parametric and Bootstrap Tests of Hypotheses, section 3.7).
+// s_e (a cluster sign-flip randomisation test in the sense of Fisher 1935,
+// The Design of Experiments).
 // With one pair per employer it is the exact McNemar (sign) test.
 #include <cstdint>
 #include <vector>

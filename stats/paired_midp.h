@@ -22,7 +22,7 @@ Interval MidPBinomialInterval(int64_t x, int64_t n, double conf, Alternative alt
 // The conditional odds ratio b / c with the mid-p interval of b successes in
 // b + c trials mapped through p / (1 - p) (the transformed mid-p interval of
 // Fagerland, Lydersen & Laake 2017, Statistical Analysis of Contingency
-// Tables, section 8.7; the exact version is ConditionalOddsRatio in
+// Tables, chapter 8; the exact version is ConditionalOddsRatio in
 // stats/paired.h). b + c = 0 gives NaN throughout; c = 0 < b an infinite
 // estimate and upper limit. Requires counts >= 0, 0 < conf < 1.
 Estimate ConditionalOddsRatioMidP(const DiscordantCounts& t, double conf,
