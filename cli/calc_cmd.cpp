@@ -198,6 +198,15 @@ std::string Verdict(const PValue& p, double conf, const std::string& test, const
          "); this is not evidence for it.\n";
 }
 
+// Wilson's and Woolf's one-sided bounds come from their two-sided form at
+// 2 conf - 1, which needs conf > 0.5 (a one-sided bound below 50% would sit
+// on the wrong side of the estimate anyway).
+Status CheckOneSidedConf(Alternative a, double conf, const std::string& text) {
+  if (a != Alternative::kTwoSided && conf <= 0.5)
+    return BadInput("--conf", "a one-sided interval needs a confidence level above 0.5, got " + Trim(text), "e.g. --conf 0.95");
+  return Status();
+}
+
 // ---- the calculators ----
 
 struct Options {
@@ -222,6 +231,7 @@ int RunBinom(const Context& ctx, const Options& o) {
   if (!alt.ok()) return Fail(alt.error());
   auto conf = ParseConf(o.conf);
   if (!conf.ok()) return Fail(conf.error());
+  if (auto st = CheckOneSidedConf(alt.value(), conf.value(), o.conf); !st.ok()) return Fail(st.error());
   auto r = stats::BinomTest(x.value(), n.value(), p0.value(), alt.value(), conf.value());
   // Wilson's interval is two-sided by construction; a one-sided test gets
   // the matching one-sided bound.
@@ -331,6 +341,7 @@ int RunFisher(const Context& ctx, const Options& o) {
   if (!conf.ok()) return Fail(conf.error());
   stats::Table2x2 tab{t.value()[0], t.value()[1], t.value()[2], t.value()[3]};
   if (tab.n() == 0) return Fail(BadInput("--table", "the table is empty", fix));
+  if (auto st = CheckOneSidedConf(alt.value(), conf.value(), o.conf); !st.ok()) return Fail(st.error());
   auto r = stats::FisherTest(tab, alt.value(), conf.value());
   const bool one_sided = alt.value() != Alternative::kTwoSided;
   auto woolf = stats::WoolfOddsRatio(tab, one_sided ? 2 * conf.value() - 1 : conf.value());

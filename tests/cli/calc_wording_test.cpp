@@ -198,3 +198,12 @@ TEST_CASE("calc wording: bad input to the paired calculators gets one clear line
                      "b,c separated by ';', e.g. --employers \"3,0;1,1;0,2;4,1\"\n");
   CHECK(empty.out.empty());
 }
+
+TEST_CASE("calc wording: a one-sided interval at a level of 50% or less is refused, not printed on the wrong side") {
+  auto r = RunCli({"calc", "binom", "--x", "3", "--n", "10", "--alternative", "less", "--conf", "0.4"});
+  CHECK(r.exit_code == 1);
+  CHECK(r.err == "twinprobe: --conf: a one-sided interval needs a confidence level above 0.5, got 0.4 \u2014 e.g. --conf 0.95\n");
+  auto f = RunCli({"calc", "fisher", "--table", "3,1,1,3", "--alternative", "greater", "--conf", "0.5"});
+  CHECK(f.exit_code == 1);
+  CHECK(f.out.empty());
+}
