@@ -11,7 +11,8 @@ using twinprobe::testing::RunCli;
 using Catch::Matchers::WithinRel;
 
 TEST_CASE("calc: mcnemar --json after the subcommand gives the documented keys") {
-  // Agresti's approval table (METHODS.md 7.1): exact p 3.7159e-05, mid-p 2.8934e-05.
+  // Agresti's presidential approval table (Agresti 1990, Categorical Data Analysis, p. 350; R's
+  // mcnemar.test help page): exact p 3.7159e-05, mid-p 2.8934e-05 (computed, binom.test in R).
   auto r = RunCli({"calc", "mcnemar", "--table", "794,150,86,570", "--json"});
   INFO(r.err);
   REQUIRE(r.exit_code == 0);
