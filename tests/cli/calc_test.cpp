@@ -11,7 +11,8 @@ using twinprobe::testing::RunCli;
 using Catch::Matchers::WithinRel;
 
 TEST_CASE("calc: mcnemar --json after the subcommand gives the documented keys") {
-  // Agresti (2002) section 10.1 approval table; R 4.2.2: exact p 3.7159e-05, mid-p 2.8934e-05.
+  // Agresti's presidential approval table (Agresti 1990, Categorical Data Analysis, p. 350; R's
+  // mcnemar.test help page): exact p 3.7159e-05, mid-p 2.8934e-05 (computed, binom.test in R).
   auto r = RunCli({"calc", "mcnemar", "--table", "794,150,86,570", "--json"});
   INFO(r.err);
   REQUIRE(r.exit_code == 0);
@@ -32,9 +33,12 @@ TEST_CASE("calc: --json before the command works too, and infinity is written \"
 }
 
 TEST_CASE("calc: fisher on the tea-tasting table prints one sentence and the numbers") {
+  // Fisher (1935), the lady tasting tea: one-sided p = 0.2429 (R's
+  // fisher.test help page, alternative = "greater").
   auto r = RunCli({"calc", "fisher", "--table", "3,1,1,3", "--alternative", "greater"});
   REQUIRE(r.exit_code == 0);
-  CHECK(r.out.find("does not show a difference between the arms (p = 0.243)") != std::string::npos);
+  CHECK(r.out.find("does not reject a positive rate in the reference arm no higher than the other arm's (p = 0.243)") !=
+        std::string::npos);
   CHECK(r.out.find("conditional MLE odds ratio") != std::string::npos);
 }
 
@@ -91,4 +95,34 @@ TEST_CASE("calc: a p-value below the smallest double is printed with its log10")
   auto j = nlohmann::json::parse(RunCli({"calc", "binom", "--x", "0", "--n", "5000", "--json"}).out);
   CHECK(j["p_value"] == 0.0);
   CHECK_THAT(j["log10_p_value"].get<double>(), WithinRel(std::log10(2.0) * (1 - 5000), 1e-12));
+}
+
+TEST_CASE("calc: the paired calculators' --json carries the estimate, interval, method and p-values") {
+  // Cavo et al. (2012) [[59, 6], [16, 80]], the worked example of Fagerland,
+  // Lydersen & Laake (2017), Statistical Analysis of Contingency Tables,
+  // ch. 8: ratio 0.8667, Bonett-Price 95% CI 0.7579 to 0.9910.
+  auto ratio = nlohmann::json::parse(RunCli({"calc", "ratio", "--table", "59,6,16,80", "--json"}).out);
+  CHECK_THAT(ratio["estimate"].get<double>(), WithinRel(65.0 / 75.0, 1e-15));
+  CHECK_THAT(ratio["conf_int"][0].get<double>(), Catch::Matchers::WithinAbs(0.7579, 0.00005));
+  CHECK_THAT(ratio["conf_int"][1].get<double>(), Catch::Matchers::WithinAbs(0.9910, 0.00005));
+  CHECK(ratio["conf_int_method"] == "Bonett-Price hybrid Wilson score");
+  CHECK(ratio["conf_int_sidedness"] == "two-sided");
+  auto h = nlohmann::json::parse(RunCli({"calc", "homogeneity", "--strata", "3,0;1,4;5,1", "--json"}).out);
+  CHECK(h["test"] == "Fisher's exact test of the strata x (b, c) table");
+  CHECK(h["small_expected"] == true);
+  CHECK(h["p_value"] == h["exact_p_value"]);
+  CHECK(h["df"] == 2);
+  CHECK(h["pooled_odds_ratio"]["estimate"] == 1.8);
+  // R: binom.test(9, 14)$p.value = 0.4239501953125 (exact McNemar on the pooled pairs).
+  CHECK_THAT(h["pooled_mcnemar_p_value"].get<double>(), WithinRel(0.4239501953125, 1e-12));
+  auto eq = nlohmann::json::parse(RunCli({"calc", "equivalence", "--table", "59,6,16,80", "--margin", "0.1", "--json"}).out);
+  CHECK(eq["equivalent"] == false);
+  CHECK(eq["conf_level"] == 0.9);
+  CHECK(eq["p_value"] == eq["p_value_lower"]);
+  auto emp = nlohmann::json::parse(RunCli({"calc", "employers", "--employers", "10,0;1,0;1,0;0,2", "--json"}).out);
+  CHECK(emp["method"] == "exact");
+  CHECK(emp["statistic"] == 10);
+  CHECK_THAT(emp["p_value"].get<double>(), WithinRel(10.0 / 16.0, 1e-15));
+  CHECK_THAT(emp["pair_level_p_value"].get<double>(), WithinRel(212.0 / 16384.0, 1e-12));
+  CHECK(emp["decisions_differ"] == true);
 }
