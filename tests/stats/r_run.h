@@ -32,18 +32,30 @@ inline RValues ParseRValues(const std::string& text) {
   return values;
 }
 
-// Writes `input` to a temporary IN.tsv, runs `Rscript SCRIPT IN.tsv OUT.txt
-// ARGS` in tests/reference/models/ and returns OUT.txt's values.
-inline RValues RunRScript(const std::string& script, const std::string& input, const std::string& args = "") {
-  REQUIRE(std::system("command -v Rscript >/dev/null 2>&1") == 0);
+// Writes `input` to a temporary IN.tsv, runs `INTERPRETER SCRIPT IN.tsv
+// OUT.txt ARGS` in tests/reference/models/ and returns OUT.txt's values.
+inline RValues RunReferenceScript(const std::string& interpreter, const std::string& script, const std::string& input,
+                                  const std::string& args) {
   TempDir dir;
   WriteFile(dir / "in.tsv", input);
-  const std::string cmd = "cd '" + SourceDir() + "/tests/reference/models' && Rscript " + script + " '" +
+  const std::string cmd = "cd '" + SourceDir() + "/tests/reference/models' && " + interpreter + " " + script + " '" +
                           (dir / "in.tsv") + "' '" + (dir / "out.txt") + "' " + args + " 2>'" + (dir / "err.txt") + "'";
   const int rc = std::system(cmd.c_str());
   INFO(ReadFile(dir / "err.txt"));
   REQUIRE(rc == 0);
   return ParseRValues(ReadFile(dir / "out.txt"));
+}
+
+inline RValues RunRScript(const std::string& script, const std::string& input, const std::string& args = "") {
+  REQUIRE(std::system("command -v Rscript >/dev/null 2>&1") == 0);
+  return RunReferenceScript("Rscript", script, input, args);
+}
+
+// The same with Debian's python3 (python3-scipy, python3-statsmodels), by
+// its full path so that another python3 earlier on PATH is not picked up.
+inline RValues RunPythonScript(const std::string& script, const std::string& input, const std::string& args = "") {
+  REQUIRE(std::system("test -x /usr/bin/python3") == 0);
+  return RunReferenceScript("/usr/bin/python3", script, input, args);
 }
 
 }  // namespace twinprobe::testing
