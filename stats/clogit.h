@@ -67,11 +67,6 @@ double ClogitLogLikelihood(const MatchedSetsData& data, const std::vector<double
 // Likelihood-ratio test of a nested model: 2 (ll_full - ll_reduced) on
 // (p_full - p_reduced) df, chi-square upper tail. Used for a main effect or
 // an interaction: fit the model with and without its columns.
-struct LikelihoodRatio {
-  double statistic = 0;
-  int df = 0;
-  double p = 1;
-};
 LikelihoodRatio CompareNested(const ClogitFit& full, const ClogitFit& reduced);
 
 // Wald interval of coefficient j on the log-odds scale (exponentiate for the

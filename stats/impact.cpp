@@ -75,4 +75,22 @@ ImpactRatio ImpactRatioOf(int64_t x1, int64_t n1, int64_t x2, int64_t n2, double
   return r;
 }
 
+std::vector<ImpactRatio> ImpactRatios(const std::vector<int64_t>& positives, const std::vector<int64_t>& totals,
+                                      int reference, double conf) {
+  size_t ref = 0;
+  if (reference == kHighestRate) {
+    // Compare x_i / n_i in whole numbers: x_i n_ref > x_ref n_i.
+    for (size_t i = 1; i < totals.size(); ++i)
+      if (static_cast<double>(positives[i]) * static_cast<double>(totals[ref]) >
+          static_cast<double>(positives[ref]) * static_cast<double>(totals[i]))
+        ref = i;
+  } else {
+    ref = static_cast<size_t>(reference);
+  }
+  std::vector<ImpactRatio> out;
+  for (size_t i = 0; i < totals.size(); ++i)
+    out.push_back(ImpactRatioOf(positives[i], totals[i], positives[ref], totals[ref], conf));
+  return out;
+}
+
 }  // namespace twinprobe::stats

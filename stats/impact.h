@@ -25,6 +25,7 @@
 //   confint_proportions_2indep(compare = "ratio", method = "score",
 //   correction = False).
 #include <cstdint>
+#include <vector>
 
 #include "stats/binomial.h"
 
@@ -42,5 +43,14 @@ struct ImpactRatio {
 // n_i >= 1, 0 < conf < 1, and x1 + x2 > 0 (with no positive at all there is no
 // ratio to estimate; every field is then NaN).
 ImpactRatio ImpactRatioOf(int64_t x1, int64_t n1, int64_t x2, int64_t n2, double conf);
+
+// Every group's impact ratio against one comparison group: `reference` (an
+// index), or, with kHighestRate, the group with the highest selection rate
+// (the first of equals), as 29 CFR 1607.4(D) reads it. Returns one entry per
+// group (the comparison group's own ratio is 1). Requires equal lengths,
+// n_i >= 1, 0 <= x_i <= n_i.
+inline constexpr int kHighestRate = -1;
+std::vector<ImpactRatio> ImpactRatios(const std::vector<int64_t>& positives, const std::vector<int64_t>& totals,
+                                      int reference, double conf);
 
 }  // namespace twinprobe::stats

@@ -256,6 +256,15 @@ LogisticFit FitLogisticFixed(const LogisticData& data, int fixed, double value) 
   return Finish(c, s, m, static_cast<int>(x.rows()), static_cast<int>(rest.cols()), HasIntercept(rest));
 }
 
+LikelihoodRatio CompareNested(const LogisticFit& full, const LogisticFit& reduced) {
+  LikelihoodRatio lr;
+  lr.df = reduced.df_residual - full.df_residual;
+  lr.statistic = reduced.deviance - full.deviance;
+  if (lr.df > 0)
+    lr.p = boost::math::cdf(boost::math::complement(boost::math::chi_squared(lr.df), std::max(0.0, lr.statistic)));
+  return lr;
+}
+
 Interval WaldInterval(const LogisticFit& fit, int j, double conf) {
   const double z = boost::math::quantile(boost::math::normal(), 1 - (1 - conf) / 2);
   const auto k = static_cast<size_t>(j);

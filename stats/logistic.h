@@ -85,6 +85,19 @@ Interval WaldInterval(const LogisticFit& fit, int j, double conf);
 // the estimate in SE units). Requires fit.ok() from FitLogistic(data).
 Interval ProfileInterval(const LogisticData& data, const LogisticFit& fit, int j, double conf);
 
+// A likelihood-ratio test of a nested model (chi-square upper tail).
+struct LikelihoodRatio {
+  double statistic = 0;
+  int df = 0;
+  double p = 1;
+};
+
+// The reduced model's deviance minus the full model's, on the difference in
+// residual df: e.g. a 3-level group's overall adjusted test, fitting with and
+// without its two indicator columns (R: anova(reduced, full, test = "LRT")).
+// Requires both fits ok() on the same rows.
+LikelihoodRatio CompareNested(const LogisticFit& full, const LogisticFit& reduced);
+
 // The column index of `name`, or -1.
 int CoefficientIndex(const LogisticData& data, const std::string& name);
 

@@ -58,6 +58,19 @@ TEST_CASE("cochran q: 6 sets of 4 arms, Q and p from the definition") {
   CHECK_THAT(*q.p_exact, WithinRel(r["p_exact"][0], 1e-12));  // R: mean over every arrangement
 }
 
+TEST_CASE("cochran q: the NAG Library's G08ALF worked example") {
+  // NAG Library Manual (Mark 26.2), routine G08ALF, example program results:
+  // 12 blocks x 3 treatments, "Cochrans Q test statistic = 2.8000, Degrees of
+  // freedom = 2.0, Upper-tail probability = 0.2466".
+  const std::vector<std::vector<int>> sets = {{1, 1, 1}, {1, 1, 1}, {0, 1, 0}, {1, 1, 0}, {0, 0, 0}, {1, 1, 1},
+                                              {1, 1, 1}, {1, 1, 0}, {0, 0, 1}, {0, 1, 0}, {1, 1, 1}, {1, 1, 1}};
+  const auto q = stats::CochranQTest(sets);
+  CHECK_THAT(q.statistic, WithinAbs(2.8, 5e-5));
+  CHECK(q.df == 2);
+  CHECK_THAT(q.p_asymptotic, WithinAbs(0.2466, 5e-5));
+  CHECK(q.positives == std::vector<int64_t>{8, 10, 7});
+}
+
 TEST_CASE("cochran q: small 3-arm tables, exact permutation p agrees with R listing every arrangement") {
   for (uint64_t seed : {1, 2, 3, 4}) {
     const auto sets = DrawSets(seed, 12, {0.2, 0.35, 0.5});

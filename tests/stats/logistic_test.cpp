@@ -89,6 +89,22 @@ TEST_CASE("logistic: 400 applications, group and covariates, agree with R glm an
   CheckAgainstR(DrawApplications(20261202, 400), 0.95);
 }
 
+TEST_CASE("logistic: the group's overall likelihood-ratio test agrees with R anova") {
+  const auto d = DrawApplications(20261202, 400);
+  stats::LogisticData reduced = d;
+  reduced.names = {"(Intercept)", "experience", "degree"};
+  for (auto& row : reduced.x) row = {row[0], row[3], row[4]};
+  const auto full_fit = stats::FitLogistic(d), reduced_fit = stats::FitLogistic(reduced);
+  REQUIRE(full_fit.ok());
+  REQUIRE(reduced_fit.ok());
+  const auto lr = stats::CompareNested(full_fit, reduced_fit);
+  auto r = testing::RunRScript("logistic.R", Tsv(d), "0.95 2,3");
+  // anova(glm(... without the group), glm(...), test = "LRT"): Deviance, Df, Pr(>Chi)
+  CHECK_THAT(lr.statistic, WithinRel(r["lr"][0], 1e-9));
+  CHECK(lr.df == r["lr"][1]);
+  CHECK_THAT(lr.p, WithinRel(r["lr"][2], 1e-9));
+}
+
 TEST_CASE("logistic: a second draw at 90% agrees with R glm and confint") {
   CheckAgainstR(DrawApplications(7, 250), 0.90);
 }

@@ -88,3 +88,16 @@ TEST_CASE("impact ratio: the four-fifths reading is a rule of thumb on the estim
   CHECK(std::isnan(none.ratio));
   CHECK(std::isnan(none.koopman_score.low));
 }
+
+TEST_CASE("impact ratio: against the group with the highest selection rate") {
+  // Rates 30/100, 45/150 (equal, the first is kept), 12/80, 50/125 (the highest).
+  const auto ratios = stats::ImpactRatios({30, 45, 12, 50}, {100, 150, 80, 125}, stats::kHighestRate, 0.95);
+  REQUIRE(ratios.size() == 4);
+  CHECK_THAT(ratios[3].ratio, WithinRel(1.0, 1e-15));
+  CHECK_THAT(ratios[0].ratio, WithinRel(0.3 / 0.4, 1e-14));
+  CHECK_THAT(ratios[2].ratio, WithinRel(0.15 / 0.4, 1e-14));
+  CHECK(ratios[0].below_four_fifths);
+  const auto against_first = stats::ImpactRatios({30, 45, 12, 50}, {100, 150, 80, 125}, 0, 0.95);
+  CHECK_THAT(against_first[1].ratio, WithinRel(1.0, 1e-14));
+  CHECK_FALSE(against_first[1].below_four_fifths);
+}

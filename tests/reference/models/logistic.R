@@ -1,5 +1,5 @@
 # Reference values for stats/logistic.h, run live by tests/stats/logistic_test.cpp.
-#   Rscript logistic.R IN.tsv OUT.txt CONF
+#   Rscript logistic.R IN.tsv OUT.txt CONF [DROP]
 # IN.tsv: columns s (successes), m (trials), then one column per coefficient
 # (the design matrix as given, intercept column included). Writes one line per
 # quantity: "key v1 v2 ...", 17 significant digits.
@@ -55,4 +55,13 @@ put("profile_high", hi)
 mass <- suppressMessages(confint(fit, level = conf))
 put("confint_low_r", mass[, 1])
 put("confint_high_r", mass[, 2])
+# DROP: comma-separated 1-based columns left out of a nested model; its
+# likelihood-ratio test against the full model, as anova(..., test = "LRT").
+if (length(args) > 3) {
+  drop <- as.integer(strsplit(args[4], ",")[[1]])
+  R <- X[, -drop, drop = FALSE]
+  red <- glm(cbind(d$s, d$m - d$s) ~ R - 1, family = binomial, control = ctl)
+  a <- anova(red, fit, test = "LRT")
+  put("lr", c(a$Deviance[2], a$Df[2], a[["Pr(>Chi)"]][2]))
+}
 close(out)
