@@ -3,11 +3,14 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <cstdint>
+#include <limits>
 #include <map>
 
 #include <Eigen/Dense>
 #include <boost/math/distributions/chi_squared.hpp>
 #include <boost/math/distributions/normal.hpp>
+#include <boost/math/tools/roots.hpp>
 
 namespace twinprobe::stats {
 namespace {
@@ -21,6 +24,7 @@ constexpr double kSeparatedSpan = 30.0;
 // One informative set: its covariate rows and which are positive.
 struct Set {
   MatrixXd x;  // n x p
+  VectorXd offset;  // fixed part of each row's linear predictor (0 unless a coefficient is held fixed)
   std::vector<int> positive;
   int d = 0;
 };
@@ -35,7 +39,7 @@ struct Value {
 // recursion over B(k, m), k = 0..d, updated in place for m = 1..n.
 void AddSet(const Set& s, const VectorXd& beta, bool derivatives, Value& v) {
   const Eigen::Index n = s.x.rows(), p = s.x.cols();
-  const VectorXd eta = s.x * beta;
+  const VectorXd eta = s.x * beta + s.offset;
   // Shift by the largest eta so every weight is at most 1 (B stays below
   // C(n, d)); the shift cancels between numerator and denominator.
   const double shift = eta.maxCoeff();
@@ -119,6 +123,7 @@ bool Build(const MatchedSetsData& d, std::vector<Set>& sets, std::string& why) {
     for (size_t i : members) s.d += d.outcome[i];
     if (s.d == 0 || s.d == static_cast<int>(members.size())) continue;  // no information
     s.x.resize(static_cast<Eigen::Index>(members.size()), p);
+    s.offset = VectorXd::Zero(static_cast<Eigen::Index>(members.size()));
     for (size_t r = 0; r < members.size(); ++r) {
       for (Eigen::Index j = 0; j < p; ++j)
         s.x(static_cast<Eigen::Index>(r), j) = d.x[members[r]][static_cast<size_t>(j)];
@@ -158,10 +163,43 @@ double ClogitLogLikelihood(const MatchedSetsData& data, const std::vector<double
       .loglik;
 }
 
+namespace {
+
+ClogitFit Fit(const MatchedSetsData& data, std::vector<Set> sets);
+
+}  // namespace
+
 ClogitFit FitClogit(const MatchedSetsData& data) {
   ClogitFit f;
   std::vector<Set> sets;
   if (!Build(data, sets, f.message)) return f;
+  return Fit(data, std::move(sets));
+}
+
+ClogitFit FitClogitFixed(const MatchedSetsData& data, int fixed, double value) {
+  ClogitFit f;
+  std::vector<Set> sets;
+  if (!Build(data, sets, f.message)) return f;
+  if (fixed < 0 || fixed >= static_cast<int>(data.names.size())) {
+    f.message = "no coefficient " + std::to_string(fixed);
+    return f;
+  }
+  MatchedSetsData rest = data;
+  rest.names.erase(rest.names.begin() + fixed);
+  for (Set& s : sets) {
+    s.offset = s.x.col(fixed) * value;
+    MatrixXd kept(s.x.rows(), s.x.cols() - 1);
+    for (Eigen::Index j = 0, k = 0; j < s.x.cols(); ++j)
+      if (j != fixed) kept.col(k++) = s.x.col(j);
+    s.x = std::move(kept);
+  }
+  return Fit(rest, std::move(sets));
+}
+
+namespace {
+
+ClogitFit Fit(const MatchedSetsData& data, std::vector<Set> sets) {
+  ClogitFit f;
   f.sets = static_cast<int>(sets.size());
   const auto p = static_cast<Eigen::Index>(data.names.size());
   f.df = static_cast<int>(p);
@@ -198,7 +236,7 @@ ClogitFit FitClogit(const MatchedSetsData& data) {
     v = next;
     double span = 0;
     for (const Set& s : sets) {
-      const VectorXd eta = s.x * beta;
+      const VectorXd eta = s.x * beta + s.offset;
       span = std::max(span, eta.maxCoeff() - eta.minCoeff());
     }
     if (span > 2 * kSeparatedSpan) break;
@@ -239,6 +277,38 @@ ClogitFit FitClogit(const MatchedSetsData& data) {
   f.wald_statistic = beta.dot(Eigen::LDLT<MatrixXd>(cov).solve(beta));
   f.wald_p = boost::math::cdf(boost::math::complement(chi, std::max(0.0, f.wald_statistic)));
   return f;
+}
+
+}  // namespace
+
+Interval ClogitProfileInterval(const MatchedSetsData& data, const ClogitFit& fit, int j, double conf) {
+  const auto k = static_cast<size_t>(j);
+  const double beta = fit.coefficients[k], se = fit.standard_errors[k];
+  const double cutoff = std::sqrt(boost::math::quantile(boost::math::chi_squared(1.0), conf));
+  // Signed root of twice the drop in log likelihood, increasing in b; a
+  // fixed-value fit that separates counts as beyond the cut-off.
+  auto root = [&](double b) {
+    ClogitFit g = FitClogitFixed(data, j, b);
+    const double drop = g.ok() ? std::max(0.0, 2 * (fit.log_likelihood - g.log_likelihood))
+                               : std::numeric_limits<double>::infinity();
+    return (b < beta ? -1.0 : 1.0) * std::sqrt(drop);
+  };
+  auto solve = [&](int side) {
+    double inner = beta, outer = beta;
+    for (double t = 1;; t *= 1.5) {
+      if (t > 40) return side * std::numeric_limits<double>::infinity();
+      outer = beta + side * t * se;
+      if (side * root(outer) >= cutoff) break;
+      inner = outer;
+    }
+    auto f = [&](double b) { return root(b) - side * cutoff; };
+    std::uintmax_t iters = 200;
+    auto tol = [](double a, double b) { return std::abs(a - b) <= 1e-11 * std::max(1.0, std::abs(a)); };
+    const double lo = std::min(inner, outer), hi = std::max(inner, outer);
+    auto r = boost::math::tools::toms748_solve(f, lo, hi, f(lo), f(hi), tol, iters);
+    return (r.first + r.second) / 2;
+  };
+  return {solve(-1), solve(+1)};
 }
 
 LikelihoodRatio CompareNested(const ClogitFit& full, const ClogitFit& reduced) {

@@ -69,6 +69,17 @@ double ClogitLogLikelihood(const MatchedSetsData& data, const std::vector<double
 // an interaction: fit the model with and without its columns.
 LikelihoodRatio CompareNested(const ClogitFit& full, const ClogitFit& reduced);
 
+// The same model with coefficient `fixed` held at `value` (an offset) and
+// the others refitted; used by the profile interval.
+ClogitFit FitClogitFixed(const MatchedSetsData& data, int fixed, double value);
+
+// Likelihood-ratio (profile) interval of coefficient j on the log-odds
+// scale: the b where 2 (ll_hat - max ll with beta_j = b) = qchisq(conf, 1),
+// each limit solved to 1e-11 (TOMS 748) as stats/logistic.h's
+// ProfileInterval; -inf / +inf when not reached within 40 SE. Requires
+// fit.ok() from FitClogit(data).
+Interval ClogitProfileInterval(const MatchedSetsData& data, const ClogitFit& fit, int j, double conf);
+
 // Wald interval of coefficient j on the log-odds scale (exponentiate for the
 // odds ratio).
 Interval ClogitWaldInterval(const ClogitFit& fit, int j, double conf);

@@ -103,11 +103,14 @@ TEST_CASE("clogit: 3-level within factor by between factor agrees with R clogit 
   for (auto& row : main.x) row.resize(2);
   const auto reduced = stats::FitClogit(main);
   REQUIRE(reduced.ok());
-  auto r = testing::RunRScript("clogit.R", Tsv(d), "3,4");
+  auto r = testing::RunRScript("clogit.R", Tsv(d), "3,4 0.95");
   for (size_t j = 0; j < 4; ++j) {
     INFO(d.names[j]);
     Near(fit.coefficients[j], r["coef"][j]);        // coef(clogit(y ~ X + strata(set), method = "exact"))
     Near(fit.standard_errors[j], r["se"][j]);       // sqrt(diag(vcov(fit)))
+    const auto profile = stats::ClogitProfileInterval(d, fit, static_cast<int>(j), 0.95);
+    Near(profile.low, r["profile_low"][j]);          // uniroot(tol = 1e-12) on clogit(... + offset(b x_j))
+    Near(profile.high, r["profile_high"][j]);
   }
   Near(fit.log_likelihood_null, r["loglik"][0], 1e-10);  // fit$loglik[1]
   Near(fit.log_likelihood, r["loglik"][1], 1e-10);       // fit$loglik[2]
@@ -125,8 +128,11 @@ TEST_CASE("clogit: the trend slope on age scores agrees with R clogit exact") {
   const auto d = DrawSets(11, 180, true);
   const auto fit = stats::FitClogit(d);
   REQUIRE(fit.ok());
-  auto r = testing::RunRScript("clogit.R", Tsv(d), "0");
+  auto r = testing::RunRScript("clogit.R", Tsv(d), "0 0.9");
   Near(fit.coefficients[0], r["coef"][0]);
+  const auto profile = stats::ClogitProfileInterval(d, fit, 0, 0.9);
+  Near(profile.low, r["profile_low"][0]);  // uniroot(tol = 1e-12) on clogit(y ~ offset(b x) + strata(set))
+  Near(profile.high, r["profile_high"][0]);
   Near(fit.standard_errors[0], r["se"][0]);
   Near(fit.log_likelihood, r["loglik"][1], 1e-10);
   Near(fit.lr_p, r["lr_p"][0]);
