@@ -15,16 +15,17 @@
 // sum R_i^2 are fixed, so Q orders the arrangements as sum_j C_j^2 does; the
 // exact p is P(sum C_j^2 >= observed), from the distribution of the column
 // totals built set by set. That distribution is symmetric in the arms, so
-// only sorted column totals are kept; when more than kMaxExactStates of them
-// would be needed the exact p is left out (the asymptotic one is then
-// reliable: many informative sets).
+// only sorted column totals are kept. The cost is bounded: when building it
+// would take more than kMaxExactWork state updates (summed over the sets)
+// the exact p is left out (there are then many informative sets, and the
+// asymptotic p is reliable).
 #include <cstdint>
 #include <optional>
 #include <vector>
 
 namespace twinprobe::stats {
 
-inline constexpr int64_t kMaxExactStates = 50000;
+inline constexpr double kMaxExactWork = 5e5;
 
 struct CochranQ {
   int k = 0;

@@ -92,6 +92,13 @@ TEST_CASE("cochran q: 300 vacancies of 3 arms agree with R's definition") {
   CHECK_THAT(q.p_asymptotic, WithinRel(r["p"][0], 1e-10));
 }
 
+TEST_CASE("cochran q: a large table leaves the exact p out and keeps the asymptotic one") {
+  const auto q = stats::CochranQTest(DrawSets(12, 1000, {0.3, 0.25, 0.2}));
+  CHECK_FALSE(q.p_exact);
+  CHECK(q.p_asymptotic < 1);
+  CHECK(q.informative_sets > 300);
+}
+
 TEST_CASE("cochran q: with two arms Q is McNemar's uncorrected statistic") {
   const auto sets = DrawSets(8, 200, {0.3, 0.2});
   stats::PairedCounts t;
