@@ -11,15 +11,16 @@
 //   the table has probability prod_i C(n_i, x_i) / C(N, S); the p-value is
 //   the sum over every table with a probability at most the observed one
 //   times (1 + 1e-7), R's fisher.test(cbind(x, n - x)) definition. Tables
-//   are enumerated; when more than kMaxKByTwoTables exist the exact p is
-//   left out.
+//   are enumerated; when the bound on their number (the product of every
+//   row's range but the last) exceeds kMaxKByTwoTables the exact p is left
+//   out.
 #include <cstdint>
 #include <optional>
 #include <vector>
 
 namespace twinprobe::stats {
 
-inline constexpr double kMaxKByTwoTables = 2e7;
+inline constexpr double kMaxKByTwoTables = 5e6;
 
 struct KByTwoTest {
   double chi2 = 0;
@@ -27,7 +28,7 @@ struct KByTwoTest {
   double p_chi2 = 1;
   double min_expected = 0;   // smallest expected count (the chi-square is doubtful below 5)
   std::optional<double> p_exact;
-  double tables = 0;         // how many tables share the margins
+  double tables = 0;         // upper bound on the tables sharing the margins (see above)
 };
 
 // Requires equal lengths >= 2, n_i >= 1, 0 <= x_i <= n_i.
