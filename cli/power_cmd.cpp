@@ -1,8 +1,9 @@
-// `twinprobe power paired|unpaired`: power, sample size and minimum
+// `twinprobe power paired|unpaired|sets`: power, sample size and minimum
 // detectable effect before fieldwork. Pure calculation: reads no study and
 // writes nothing except the optional --plot SVG. The numbers come from
-// stats/power_paired.h, stats/power_unpaired.h and stats/power_fisher.h; this file only checks the
+// stats/power_paired.h, stats/power_unpaired.h, stats/power_fisher.h and stats/power_sets.h; this file only checks the
 // inputs, picks what to solve for and words the answer.
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <fstream>
@@ -16,6 +17,7 @@
 #include "report/svg_power.h"
 #include "stats/power_fisher.h"
 #include "stats/power_paired.h"
+#include "stats/power_sets.h"
 #include "stats/power_unpaired.h"
 
 namespace twinprobe {
@@ -462,30 +464,49 @@ struct UnpairedOptions {
   double p1 = 0, p2 = 0;
   int64_t n = 0;
   bool exact = false;
+  // The plan's shape: other arm's vacancies over the reference arm's, the
+  // sidedness of the test and whether both tails count (R's strict = TRUE).
+  double ratio = 1;
+  std::string alternative = "two-sided";
+  bool strict = false;
   CLI::Option *p1_opt, *p2_opt, *n_opt;
+  int sides() const { return alternative == "one-sided" ? 1 : 2; }
 };
 
-json UnpairedTable(const std::vector<int64_t>& sizes, double p1, double p2, double alpha, bool exact) {
+// The normal-approximation power of the plan's test for n reference-arm
+// vacancies.
+double UnpairedNormal(const UnpairedOptions& o, double n, double p2, double alpha) {
+  return stats::NormalTwoProportionPower(n, o.p1, p2, alpha, o.sides(), o.strict, o.ratio);
+}
+
+// The other arm's vacancies for n in the reference arm (rounded up).
+int64_t OtherArm(const UnpairedOptions& o, double n) {
+  return static_cast<int64_t>(std::ceil(o.ratio * n - 1e-9));
+}
+
+json UnpairedTable(const std::vector<int64_t>& sizes, const UnpairedOptions& o, double alpha) {
   json rows = json::array();
   for (int64_t n : sizes) {
-    json row{{"n_per_arm", n}, {"normal", stats::NormalTwoProportionPower(static_cast<double>(n), p1, p2, alpha)}};
-    row["power"] = exact ? stats::FisherExactPower(n, p1, p2, alpha) : row["normal"].get<double>();
+    json row{{"n_per_arm", n}, {"normal", UnpairedNormal(o, static_cast<double>(n), o.p2, alpha)}};
+    if (o.ratio != 1) row["n_other"] = OtherArm(o, static_cast<double>(n));
+    row["power"] = o.exact ? stats::FisherExactPower(n, o.p1, o.p2, alpha) : row["normal"].get<double>();
     rows.push_back(row);
   }
   return rows;
 }
 
-std::string RenderUnpairedTable(const json& rows, bool exact) {
+std::string RenderUnpairedTable(const json& rows, bool exact, bool unequal) {
   std::ostringstream o;
-  o << "\n  vacancies per arm   " << (exact ? "Fisher exact   normal approx." : "power") << "\n";
+  o << "\n  " << (unequal ? "reference-arm vacancies" : "vacancies per arm") << "   "
+    << (exact ? "Fisher exact   normal approx." : "power") << "\n";
   for (const auto& r : rows) {
     char line[96];
     if (exact)
       std::snprintf(line, sizeof line, "  %17s   %12.3f   %13.3f\n", Count(r["n_per_arm"].get<int64_t>()).c_str(),
                     r["power"].get<double>(), r["normal"].get<double>());
     else
-      std::snprintf(line, sizeof line, "  %17s   %5.3f\n", Count(r["n_per_arm"].get<int64_t>()).c_str(),
-                    r["power"].get<double>());
+      std::snprintf(line, sizeof line, unequal ? "  %23s   %5.3f\n" : "  %17s   %5.3f\n",
+                    Count(r["n_per_arm"].get<int64_t>()).c_str(), r["power"].get<double>());
     o << line;
   }
   if (exact) o << "Fisher exact: the power of the two-sided Fisher test the analysis runs, by enumeration.\n";
@@ -493,15 +514,16 @@ std::string RenderUnpairedTable(const json& rows, bool exact) {
   return o.str();
 }
 
-Status PlotUnpaired(const std::string& path, double p1, double p2, double alpha, int64_t x_max,
-                    std::optional<double> target, int64_t marker, bool exact) {
+Status PlotUnpaired(const std::string& path, const UnpairedOptions& o, double alpha, int64_t x_max,
+                    std::optional<double> target, int64_t marker) {
+  const double p1 = o.p1, p2 = o.p2;
+  const bool exact = o.exact;
   PowerCurveChart chart;
   chart.title = "Power for callback rates " + Pct(p1) + " vs " + Pct(p2) + " (alpha " + Short(alpha) + ")";
-  chart.x_label = "Vacancies per arm (one probe each)";
+  chart.x_label = o.ratio != 1 ? "Reference-arm vacancies (one probe each)" : "Vacancies per arm (one probe each)";
   PowerCurveSeries normal{"normal approx.", {}, exact}, fisher{"Fisher exact", {}, false};
   for (int64_t n : CurveSizes(x_max))
-    normal.xy.emplace_back(static_cast<double>(n),
-                           stats::NormalTwoProportionPower(static_cast<double>(n), p1, p2, alpha));
+    normal.xy.emplace_back(static_cast<double>(n), UnpairedNormal(o, static_cast<double>(n), p2, alpha));
   if (exact) {
     // Each exact point enumerates the outcomes: 60 points are enough for a curve.
     const int64_t step = std::max<int64_t>(1, x_max / 60);
@@ -526,19 +548,44 @@ int RunUnpaired(Context& ctx, const UnpairedOptions& o) {
   if (o.n_opt->count() && o.n < 2)
     return ReportError(BadInput("--n", "the number of vacancies per arm must be at least 2, got " + std::to_string(o.n),
                                 "give the vacancies per arm the budget allows"));
+  if (o.alternative != "one-sided" && o.alternative != "two-sided")
+    return ReportError(Usage("--alternative must be one-sided or two-sided, got '" + o.alternative + "'",
+                             "use --alternative one-sided for a plan that tests one direction only"));
+  if (o.strict && o.sides() == 1)
+    return ReportError(Usage("--strict counts the far tail of a two-sided test, and a one-sided test has none",
+                             "leave out --strict, or use --alternative two-sided"));
+  if (!(o.ratio > 0.0 && std::isfinite(o.ratio)))
+    return ReportError(BadInput("--ratio",
+                                "the ratio of the other arm's vacancies to the reference arm's must be positive, got " +
+                                    Short(o.ratio),
+                                "e.g. --ratio 2 when the other arm gets twice as many vacancies"));
+  if (o.exact && (o.ratio != 1 || o.sides() == 1 || o.strict))
+    return ReportError(Usage("--exact covers equal arms and the two-sided Fisher test only",
+                             "leave out --exact (normal approximation), or --ratio, --alternative and --strict"));
   const bool has_n = o.n_opt->count() > 0, has_power = o.common.power_opt->count() > 0;
   const double alpha = o.common.alpha_each();
+  const bool unequal = o.ratio != 1;
+  const std::string sided = o.sides() == 1 ? "one-sided" : o.strict ? "two-sided, both tails counted" : "two-sided";
   json j{{"design", "unpaired"},
          {"test", o.exact ? "Fisher's exact test, two-sided (exact power by enumeration)"
-                          : "two proportions, normal approximation (as R's power.prop.test), two-sided"},
+                          : "two proportions, normal approximation (as R's power.prop.test), " + sided},
          {"alpha", o.common.alpha},
          {"comparisons", o.common.comparisons},
          {"alpha_per_comparison", alpha},
+         {"alternative", o.alternative},
+         {"strict", o.strict},
+         {"ratio", o.ratio},
          {"p1", o.p1}};
   std::ostringstream text;
   text << "Unpaired design: one probe per vacancy, two independent arms; "
-       << (o.exact ? "Fisher's exact test" : "normal approximation") << ", two-sided alpha " << Short(alpha) << ".\n"
-       << CorrectionSentence(o.common);
+       << (o.exact ? "Fisher's exact test" : "normal approximation") << ", " << (o.sides() == 1 ? "one" : "two")
+       << "-sided alpha " << Short(alpha) << ".\n";
+  if (o.strict)
+    text << "Both tails count as finding the gap (R's strict = TRUE): a result in the wrong direction counts too.\n";
+  if (unequal)
+    text << "The other arm gets " << Short(o.ratio) << " times the reference arm's vacancies (--ratio " << Short(o.ratio)
+         << ").\n";
+  text << CorrectionSentence(o.common);
   if (!o.p2_opt->count()) {
     if (!(has_n && has_power))
       return ReportError(Usage("--p2 missing", "give --p2, or give --n and --power for the smallest detectable p2"));
@@ -546,14 +593,15 @@ int RunUnpaired(Context& ctx, const UnpairedOptions& o) {
       return ReportError(Usage("--exact is not available for the smallest detectable p2",
                                "leave out --exact (normal approximation), or try candidate values with --p2 and --n"));
     const double n = static_cast<double>(o.n);
-    auto below = stats::NormalTwoProportionDetectable(n, o.p1, alpha, o.common.power, false);
-    auto above = stats::NormalTwoProportionDetectable(n, o.p1, alpha, o.common.power, true);
+    auto below = stats::NormalTwoProportionDetectable(n, o.p1, alpha, o.common.power, false, o.sides(), o.strict, o.ratio);
+    auto above = stats::NormalTwoProportionDetectable(n, o.p1, alpha, o.common.power, true, o.sides(), o.strict, o.ratio);
     j["n_per_arm"] = o.n;
     j["target_power"] = o.common.power;
     j["detectable_p2_below"] = below ? json(*below) : json(nullptr);
     j["detectable_p2_above"] = above ? json(*above) : json(nullptr);
-    text << "\nWith " << Count(o.n) << " vacancies per arm and " << Level(o.common.power)
-         << " power, the other arm's callback rate must be ";
+    text << "\nWith " << Count(o.n) << (unequal ? " reference-arm vacancies (" + Count(OtherArm(o, n)) + " in the other)"
+                                                 : std::string(" vacancies per arm"))
+         << " and " << Level(o.common.power) << " power, the other arm's callback rate must be ";
     if (below) text << "at most " << Pct(*below);
     if (below && above) text << " or ";
     if (above) text << "at least " << Pct(*above);
@@ -571,17 +619,26 @@ int RunUnpaired(Context& ctx, const UnpairedOptions& o) {
     text << "Callback rates " << Pct(o.p1) << " (reference arm) and " << Pct(o.p2) << " (other arm).\n";
     int64_t base = o.n;
     if (has_n) {
-      const double normal = stats::NormalTwoProportionPower(static_cast<double>(o.n), o.p1, o.p2, alpha);
+      const double normal = UnpairedNormal(o, static_cast<double>(o.n), o.p2, alpha);
       const double power = o.exact ? stats::FisherExactPower(o.n, o.p1, o.p2, alpha) : normal;
+      const int64_t other = OtherArm(o, static_cast<double>(o.n));
       j["n_per_arm"] = o.n;
+      if (unequal) j["n_other"] = other, j["applications"] = o.n + other;
       j["power"] = power;
       j["normal"] = {{"power", normal}};
-      text << "\nWith " << Count(o.n) << " vacancies per arm (" << Count(2 * o.n) << " applications), the study has a "
-           << Pct(power) << " chance of showing this gap at the " << Level(alpha) << " level, if it is real";
+      if (unequal)
+        text << "\nWith " << Count(o.n) << " vacancies for the reference arm and " << Count(other) << " for the other ("
+             << Count(o.n + other) << " applications), the study has a " << Pct(power)
+             << " chance of showing this gap at the " << Level(alpha) << " level, if it is real";
+      else
+        text << "\nWith " << Count(o.n) << " vacancies per arm (" << Count(2 * o.n)
+             << " applications), the study has a " << Pct(power) << " chance of showing this gap at the "
+             << Level(alpha) << " level, if it is real";
       if (o.exact) text << " (normal approximation: " << Pct(normal) << ")";
       text << ".\n";
     } else {
-      const double n_normal = stats::NormalTwoProportionSampleSize(o.p1, o.p2, alpha, o.common.power);
+      const double n_normal =
+          stats::NormalTwoProportionSampleSize(o.p1, o.p2, alpha, o.common.power, o.sides(), o.strict, o.ratio);
       j["target_power"] = o.common.power;
       j["normal"] = {{"n", static_cast<int64_t>(std::ceil(n_normal))}, {"n_unrounded", n_normal}};
       if (o.exact) {
@@ -612,22 +669,198 @@ int RunUnpaired(Context& ctx, const UnpairedOptions& o) {
         base = static_cast<int64_t>(std::ceil(n_normal));
         j["n"] = base;
         j["n_unrounded"] = n_normal;
-        j["applications"] = 2 * base;
-        text << "\nTo show this gap with " << Level(o.common.power) << " power at the " << Level(alpha)
-             << " level, test " << Count(base) << " vacancies per arm (" << Count(2 * base)
-             << " applications in all; unrounded " << Fmt("%.2f", n_normal) << ").\n";
+        if (unequal) {
+          const int64_t other = OtherArm(o, n_normal);
+          j["n_other"] = other;
+          j["n_other_unrounded"] = o.ratio * n_normal;
+          j["applications"] = base + other;
+          text << "\nTo show this gap with " << Level(o.common.power) << " power at the " << Level(alpha)
+               << " level, test " << Count(base) << " vacancies for the reference arm and " << Count(other)
+               << " for the other (" << Count(base + other) << " applications in all; unrounded "
+               << Fmt("%.2f", n_normal) << " and " << Fmt("%.2f", o.ratio * n_normal) << ").\n";
+        } else {
+          j["applications"] = 2 * base;
+          text << "\nTo show this gap with " << Level(o.common.power) << " power at the " << Level(alpha)
+               << " level, test " << Count(base) << " vacancies per arm (" << Count(2 * base)
+               << " applications in all; unrounded " << Fmt("%.2f", n_normal) << ").\n";
+        }
       }
     }
-    j["table"] = UnpairedTable(TableSizes(base), o.p1, o.p2, alpha, o.exact);
-    text << RenderUnpairedTable(j["table"], o.exact);
+    j["table"] = UnpairedTable(TableSizes(base), o, alpha);
+    text << RenderUnpairedTable(j["table"], o.exact, unequal);
     if (!o.common.plot.empty())
-      if (Status s = PlotUnpaired(o.common.plot, o.p1, o.p2, alpha, 2 * base,
-                                  has_power ? std::optional<double>(o.common.power) : std::nullopt, base, o.exact);
+      if (Status s = PlotUnpaired(o.common.plot, o, alpha, 2 * base,
+                                  has_power ? std::optional<double>(o.common.power) : std::nullopt, base);
           !s.ok())
         return ReportError(s.error());
   }
   std::cout << (ctx.json ? j.dump(2) + "\n" : text.str());
   return 0;
+}
+
+// ------------------------------------------------------------------ sets --
+
+struct SetsOptions {
+  std::vector<double> rates;
+  int64_t vacancies = 0;
+  double power = 0.8, alpha = 0.05;
+  uint64_t seed = 1;
+  int replicates = 10000;
+  CLI::Option *rates_opt, *vacancies_opt, *power_opt;
+};
+
+// At most this many arms: 2^k outcome patterns per vacancy are simulated.
+constexpr int kMaxSetsArms = 8;
+
+std::string ArmName(size_t i, double rate) { return "arm " + std::to_string(i + 1) + " (" + Pct(rate) + ")"; }
+
+Status CheckSets(const SetsOptions& o) {
+  if (!o.rates_opt->count())
+    return Usage("--rates is required", "give each arm's expected callback rate, e.g. --rates 0.12,0.09,0.07");
+  if (o.rates.size() < 2 || o.rates.size() > static_cast<size_t>(kMaxSetsArms))
+    return BadInput("--rates",
+                    "a sets design needs 2 to " + std::to_string(kMaxSetsArms) + " arms, got " +
+                        std::to_string(o.rates.size()),
+                    "give one callback rate per arm, separated by commas, e.g. --rates 0.12,0.09,0.07");
+  for (size_t i = 0; i < o.rates.size(); ++i)
+    if (!(o.rates[i] > 0.0 && o.rates[i] < 1.0))
+      return BadInput("--rates",
+                      "rate " + std::to_string(i + 1) + " must be between 0 and 1 (exclusive), got " + Short(o.rates[i]),
+                      "give callback rates as shares, e.g. 0.12 for 12%");
+  if (std::all_of(o.rates.begin(), o.rates.end(), [&](double r) { return r == o.rates[0]; }))
+    return BadInput("--rates", "every arm has the same callback rate, so no number of vacancies can show a difference",
+                    "give the smallest differences worth detecting");
+  if (Status s = CheckOpenUnit("--alpha", o.alpha, "alpha", "0.05"); !s.ok()) return s;
+  if (o.power_opt->count())
+    if (Status s = CheckOpenUnit("--power", o.power, "the target power", "0.8"); !s.ok()) return s;
+  if (o.vacancies_opt->count() == o.power_opt->count())
+    return Usage(o.vacancies_opt->count() ? "give --vacancies or --power, not both" : "nothing to solve for",
+                 "give --vacancies N to get the power, or --power P to get the number of vacancies");
+  if (o.vacancies_opt->count() && (o.vacancies < 1 || o.vacancies > 1'000'000))
+    return BadInput("--vacancies", "the number of vacancies must be between 1 and 1,000,000, got " +
+                                       std::to_string(o.vacancies),
+                    "give the number of vacancies (sets of one probe per arm) the budget allows");
+  if (o.replicates < 100 || o.replicates > 1'000'000)
+    return BadInput("--replicates", "simulated studies must be between 100 and 1,000,000, got " +
+                                        std::to_string(o.replicates),
+                    "the default, 10000, gives a Monte Carlo standard error below half a point");
+  return {};
+}
+
+int RunSets(Context& ctx, const SetsOptions& o) {
+  if (Status s = CheckSets(o); !s.ok()) return ReportError(s.error());
+  const int64_t k = static_cast<int64_t>(o.rates.size());
+  const int64_t pairs = k * (k - 1) / 2;
+  const stats::SmallestGap gap = stats::SmallestPairwiseGap(o.rates);
+  const double alpha_pair = o.alpha / static_cast<double>(pairs);
+  const auto first = static_cast<size_t>(gap.first), second = static_cast<size_t>(gap.second);
+  json j{{"design", "sets"},
+         {"arms", k},
+         {"rates", o.rates},
+         {"alpha", o.alpha},
+         {"model", "outcomes independent within a vacancy"},
+         {"overall", {{"test", "Cochran's Q, chi-square on " + std::to_string(k - 1) + " df"}}},
+         {"pairwise",
+          {{"test", "exact McNemar, two-sided"},
+           {"arms", {gap.first + 1, gap.second + 1}},
+           {"alpha", alpha_pair},
+           {"correction", "Bonferroni over " + std::to_string(pairs) + " pairs (the first step of Holm)"}}}};
+  std::ostringstream text;
+  text << "Sets design: each vacancy receives one probe of each of " << k << " arms, callback rates ";
+  for (size_t i = 0; i < o.rates.size(); ++i) text << (i ? ", " : "") << Pct(o.rates[i]);
+  text << ", outcomes independent within a vacancy.\n"
+       << "Overall test: Cochran's Q, chi-square on " << k - 1 << " df, alpha " << Short(o.alpha) << ".\n"
+       << "Smallest pairwise gap: " << ArmName(first, o.rates[first]) << " against " << ArmName(second, o.rates[second])
+       << ", exact McNemar at alpha " << Fmt("%.4g", alpha_pair) << " (" << Short(o.alpha) << " / " << pairs
+       << " pairs: Bonferroni, the first step of Holm).\n";
+  if (o.vacancies_opt->count()) {
+    const stats::SetsPower p = stats::PowerForSets(o.vacancies, o.rates, o.alpha, o.seed, o.replicates);
+    j["vacancies"] = o.vacancies;
+    j["applications"] = o.vacancies * k;
+    j["overall"]["power"] = p.overall;
+    j["overall"]["method"] = p.overall_exact ? "exact" : "simulation";
+    if (!p.overall_exact) {
+      j["overall"]["replicates"] = p.replicates;
+      j["overall"]["standard_error"] = p.overall_se;
+      j["overall"]["seed"] = o.seed;
+    }
+    j["pairwise"]["power"] = p.pairwise;
+    text << "\nWith " << Count(o.vacancies) << " vacancies (" << Count(o.vacancies * k) << " applications):\n"
+         << "  overall test: " << Pct(p.overall) << " power";
+    if (p.overall_exact)
+      text << " (exact, summed over every outcome)\n";
+    else
+      text << " (simulated: " << Count(p.replicates) << " studies, seed " << o.seed << ", Monte Carlo standard error "
+           << Fmt("%.2f", 100 * p.overall_se) << " points)\n";
+    text << "  smallest pairwise gap: " << Pct(p.pairwise) << " power (exact)\n";
+  } else {
+    const int search_replicates = std::min(o.replicates, 4000);
+    const stats::SetsSampleSize size =
+        stats::SampleSizeForSets(o.rates, o.alpha, o.power, o.seed, search_replicates);
+    j["target_power"] = o.power;
+    text << "\nTo reach " << Level(o.power) << " power:\n";
+    if (size.overall_found) {
+      const stats::SetsPower at = stats::PowerForSets(size.overall, o.rates, o.alpha, o.seed, o.replicates, false);
+      j["overall"]["vacancies"] = size.overall;
+      j["overall"]["applications"] = size.overall * k;
+      j["overall"]["method"] = "simulation";
+      j["overall"]["search_replicates"] = search_replicates;
+      j["overall"]["power_at_vacancies"] = at.overall;
+      j["overall"]["standard_error"] = at.overall_se;
+      j["overall"]["replicates"] = at.replicates;
+      j["overall"]["seed"] = o.seed;
+      text << "  overall test: " << Count(size.overall) << " vacancies (" << Count(size.overall * k)
+           << " applications), found by bisection on simulated power (" << Count(search_replicates)
+           << " studies per step, seed " << o.seed << "); there " << Pct(at.overall) << " power ("
+           << Count(at.replicates) << " studies, Monte Carlo standard error " << Fmt("%.2f", 100 * at.overall_se)
+           << " points)\n";
+    } else {
+      j["overall"]["vacancies"] = nullptr;
+      text << "  overall test: not reached with up to 200,000 vacancies\n";
+    }
+    if (size.pairwise_found) {
+      j["pairwise"]["vacancies"] = size.pairwise;
+      j["pairwise"]["applications"] = size.pairwise * k;
+      text << "  smallest pairwise gap: " << Count(size.pairwise) << " vacancies (" << Count(size.pairwise * k)
+           << " applications), exact\n";
+    } else {
+      j["pairwise"]["vacancies"] = nullptr;
+      text << "  smallest pairwise gap: not reached with up to 200,000 vacancies\n";
+    }
+    if (size.overall_found && size.pairwise_found) {
+      const int64_t both = std::max(size.overall, size.pairwise);
+      j["vacancies"] = both;
+      j["applications"] = both * k;
+      text << "A plan for both needs " << Count(both) << " vacancies (" << Count(both * k) << " applications).\n";
+    }
+  }
+  text << "Vacancies that call everyone back more readily make a set's outcomes alike; with the same rates that raises "
+          "the power of these within-set tests, so the numbers above are conservative.\n";
+  std::cout << (ctx.json ? j.dump(2) + "\n" : text.str());
+  return 0;
+}
+
+void RegisterPowerSets(CLI::App* power, Context& ctx) {
+  auto so = std::make_shared<SetsOptions>();
+  auto* sets = power->add_subcommand(
+      "sets", "Sets design (one probe of each of k arms per vacancy): Cochran's Q and the smallest pairwise gap");
+  so->rates_opt = sets->add_option("--rates", so->rates, "Each arm's expected callback rate, e.g. 0.12,0.09,0.07")
+                      ->delimiter(',');
+  so->vacancies_opt = sets->add_option("--vacancies", so->vacancies, "Number of vacancies: solve for power");
+  so->power_opt = sets->add_option("--power", so->power, "Target power: solve for the number of vacancies");
+  sets->add_option("--alpha", so->alpha, "Two-sided significance level (default 0.05)");
+  sets->add_option("--seed", so->seed, "Seed of the simulation (default 1)");
+  sets->add_option("--replicates", so->replicates, "Simulated studies when the power is not summed exactly (default 10000)");
+  sets->callback([&ctx, so] { ctx.exit_code = RunSets(ctx, *so); });
+}
+
+void AddUnpairedPlanOptions(CLI::App* unpaired, UnpairedOptions& o) {
+  unpaired->add_option("--ratio", o.ratio,
+                       "Other arm's vacancies over the reference arm's, N2/N1 (default 1; --n and the answer count "
+                       "the reference arm)");
+  unpaired->add_option("--alternative", o.alternative, "one-sided or two-sided (default two-sided)");
+  unpaired->add_flag("--strict", o.strict,
+                     "Count both tails of the two-sided test as power (R's power.prop.test strict = TRUE)");
 }
 
 }  // namespace
@@ -664,8 +897,10 @@ void RegisterPower(CLI::App& app, Context& ctx) {
   uo->n_opt = unpaired->add_option("--n", uo->n, "Vacancies per arm: solve for power");
   unpaired->add_flag("--exact", uo->exact,
                      "Exact power of Fisher's test (by enumeration) beside the normal approximation");
+  AddUnpairedPlanOptions(unpaired, *uo);
   AddCommonOptions(unpaired, uo->common);
   unpaired->callback([&ctx, uo] { ctx.exit_code = RunUnpaired(ctx, *uo); });
+  RegisterPowerSets(power, ctx);
 }
 
 }  // namespace twinprobe

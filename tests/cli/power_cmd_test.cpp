@@ -5,6 +5,7 @@
 
 #include "stats/power_fisher.h"
 #include "stats/power_paired.h"
+#include "stats/power_sets.h"
 #include "stats/power_unpaired.h"
 #include "testing/testing.h"
 
@@ -173,4 +174,143 @@ TEST_CASE("power cli: asking for nothing, or for two things at once, is a usage 
   CHECK(half.exit_code == 2);
   CHECK(half.err == "twinprobe: --p10 and --p01 go together \u2014 give both discordant shares, e.g. --p10 0.05 --p01 "
                     "0.02\n");
+}
+
+TEST_CASE("power cli: unpaired with unequal arms and a one-sided test") {
+  auto r = RunCli({"--json", "power", "unpaired", "--p1", "0.12", "--p2", "0.07", "--power", "0.8", "--ratio", "2",
+                   "--alternative", "one-sided"});
+  INFO(r.err);
+  REQUIRE(r.exit_code == 0);
+  auto j = nlohmann::json::parse(r.out);
+  const double n = stats::NormalTwoProportionSampleSize(0.12, 0.07, 0.05, 0.8, 1, false, 2);
+  CHECK_THAT(j["n_unrounded"].get<double>(), WithinRel(n, 1e-12));
+  CHECK(j["n"] == 310);
+  CHECK(j["n_other"] == 619);
+  CHECK(j["applications"] == 929);
+  CHECK(j["alternative"] == "one-sided");
+  CHECK(j["test"] == "two proportions, normal approximation (as R's power.prop.test), one-sided");
+  auto text = RunCli({"power", "unpaired", "--p1", "0.12", "--p2", "0.07", "--power", "0.8", "--ratio", "2",
+                      "--alternative", "one-sided"});
+  REQUIRE(text.exit_code == 0);
+  CHECK(text.out.rfind("Unpaired design: one probe per vacancy, two independent arms; normal approximation, one-sided "
+                       "alpha 0.05.\nThe other arm gets 2 times the reference arm's vacancies (--ratio 2).\n",
+                       0) == 0);
+  CHECK(text.out.find("To show this gap with 80% power at the 5% level, test 310 vacancies for the reference arm and "
+                      "619 for the other (929 applications in all; unrounded 309.48 and 618.95).\n") !=
+        std::string::npos);
+  CHECK(text.out.find("  reference-arm vacancies   power\n                      155   0.560\n") != std::string::npos);
+  CHECK(text.out.find("\n                      310   0.801\n") != std::string::npos);
+}
+
+TEST_CASE("power cli: unpaired strict power counts both tails as R's strict = TRUE") {
+  auto r = RunCli({"--json", "power", "unpaired", "--p1", "0.12", "--p2", "0.07", "--n", "300", "--strict"});
+  INFO(r.err);
+  REQUIRE(r.exit_code == 0);
+  auto j = nlohmann::json::parse(r.out);
+  CHECK_THAT(j["power"].get<double>(),
+             WithinRel(stats::NormalTwoProportionPower(300, 0.12, 0.07, 0.05, 2, true), 1e-14));
+  CHECK(j["strict"] == true);
+  auto text = RunCli({"power", "unpaired", "--p1", "0.12", "--p2", "0.07", "--n", "300", "--strict"});
+  CHECK(text.out.find("Both tails count as finding the gap (R's strict = TRUE): a result in the wrong direction counts "
+                      "too.\n") != std::string::npos);
+  CHECK(text.out.find("With 300 vacancies per arm (600 applications), the study has a 55.1% chance of showing this gap "
+                      "at the 5% level, if it is real.\n") != std::string::npos);
+}
+
+TEST_CASE("power cli: sets power for a budget, exact for a small study") {
+  auto r = RunCli({"--json", "power", "sets", "--rates", "0.2,0.5,0.6", "--vacancies", "12"});
+  INFO(r.err);
+  REQUIRE(r.exit_code == 0);
+  auto j = nlohmann::json::parse(r.out);
+  CHECK(j["applications"] == 36);
+  CHECK(j["overall"]["method"] == "exact");
+  CHECK_THAT(j["overall"]["power"].get<double>(),
+             WithinRel(stats::ExactCochranPower(12, {0.2, 0.5, 0.6}, 0.05), 1e-14));
+  CHECK(j["pairwise"]["arms"] == nlohmann::json({2, 3}));
+  CHECK_THAT(j["pairwise"]["power"].get<double>(),
+             WithinRel(stats::McNemarExactPower(12, {0.5 * 0.4, 0.6 * 0.5}, 0.05 / 3), 1e-14));
+  auto text = RunCli({"power", "sets", "--rates", "0.2,0.5,0.6", "--vacancies", "12"});
+  CHECK(text.out ==
+        "Sets design: each vacancy receives one probe of each of 3 arms, callback rates 20.0%, 50.0%, 60.0%, outcomes "
+        "independent within a vacancy.\n"
+        "Overall test: Cochran's Q, chi-square on 2 df, alpha 0.05.\n"
+        "Smallest pairwise gap: arm 2 (50.0%) against arm 3 (60.0%), exact McNemar at alpha 0.01667 (0.05 / 3 pairs: "
+        "Bonferroni, the first step of Holm).\n"
+        "\n"
+        "With 12 vacancies (36 applications):\n"
+        "  overall test: 42.8% power (exact, summed over every outcome)\n"
+        "  smallest pairwise gap: 0.9% power (exact)\n"
+        "Vacancies that call everyone back more readily make a set's outcomes alike; with the same rates that raises "
+        "the power of these within-set tests, so the numbers above are conservative.\n");
+}
+
+TEST_CASE("power cli: sets power by simulation carries its seed and Monte Carlo error") {
+  auto r = RunCli({"--json", "power", "sets", "--rates", "0.12,0.09,0.07", "--vacancies", "500", "--seed", "3",
+                   "--replicates", "2000"});
+  REQUIRE(r.exit_code == 0);
+  auto j = nlohmann::json::parse(r.out);
+  CHECK(j["overall"]["method"] == "simulation");
+  CHECK(j["overall"]["seed"] == 3);
+  CHECK(j["overall"]["replicates"] == 2000);
+  const double p = stats::SimulatedCochranPower(500, {0.12, 0.09, 0.07}, 0.05, 3, 2000);
+  CHECK_THAT(j["overall"]["power"].get<double>(), WithinRel(p, 1e-15));
+  CHECK_THAT(j["overall"]["standard_error"].get<double>(), WithinRel(std::sqrt(p * (1 - p) / 2000), 1e-12));
+}
+
+TEST_CASE("power cli: sets sample size for both goals") {
+  auto r = RunCli({"--json", "power", "sets", "--rates", "0.30,0.15,0.10", "--power", "0.8"});
+  INFO(r.err);
+  REQUIRE(r.exit_code == 0);
+  auto j = nlohmann::json::parse(r.out);
+  const auto size = stats::SampleSizeForSets({0.30, 0.15, 0.10}, 0.05, 0.8, 1, 4000);
+  CHECK(j["overall"]["vacancies"] == size.overall);
+  CHECK(j["pairwise"]["vacancies"] == size.pairwise);
+  CHECK(j["vacancies"] == std::max(size.overall, size.pairwise));
+  CHECK(j["applications"] == 3 * std::max(size.overall, size.pairwise));
+  auto text = RunCli({"power", "sets", "--rates", "0.30,0.15,0.10", "--power", "0.8"});
+  CHECK(text.out.find("  smallest pairwise gap: 950 vacancies (2,850 applications), exact\n"
+                      "A plan for both needs 950 vacancies (2,850 applications).\n") != std::string::npos);
+}
+
+TEST_CASE("power cli: sets and unpaired plan options refuse what they cannot do") {
+  struct Case {
+    std::vector<std::string> args;
+    int exit_code;
+    std::string err;
+  };
+  const std::vector<Case> cases = {
+      {{"power", "sets", "--rates", "0.1", "--vacancies", "100"}, 1,
+       "twinprobe: --rates: a sets design needs 2 to 8 arms, got 1 \u2014 give one callback rate per arm, separated by "
+       "commas, e.g. --rates 0.12,0.09,0.07\n"},
+      {{"power", "sets", "--rates", "0.1,1.2", "--vacancies", "100"}, 1,
+       "twinprobe: --rates: rate 2 must be between 0 and 1 (exclusive), got 1.2 \u2014 give callback rates as shares, "
+       "e.g. 0.12 for 12%\n"},
+      {{"power", "sets", "--rates", "0.1,0.1,0.1", "--power", "0.8"}, 1,
+       "twinprobe: --rates: every arm has the same callback rate, so no number of vacancies can show a difference "
+       "\u2014 give the smallest differences worth detecting\n"},
+      {{"power", "sets", "--rates", "0.1,0.2"}, 2,
+       "twinprobe: nothing to solve for \u2014 give --vacancies N to get the power, or --power P to get the number of "
+       "vacancies\n"},
+      {{"power", "sets", "--vacancies", "10"}, 2,
+       "twinprobe: --rates is required \u2014 give each arm's expected callback rate, e.g. --rates 0.12,0.09,0.07\n"},
+      {{"power", "unpaired", "--p1", "0.1", "--p2", "0.07", "--n", "100", "--alternative", "sideways"}, 2,
+       "twinprobe: --alternative must be one-sided or two-sided, got 'sideways' \u2014 use --alternative one-sided for "
+       "a plan that tests one direction only\n"},
+      {{"power", "unpaired", "--p1", "0.1", "--p2", "0.07", "--n", "100", "--alternative", "one-sided", "--strict"}, 2,
+       "twinprobe: --strict counts the far tail of a two-sided test, and a one-sided test has none \u2014 leave out "
+       "--strict, or use --alternative two-sided\n"},
+      {{"power", "unpaired", "--p1", "0.1", "--p2", "0.07", "--n", "100", "--ratio", "0"}, 1,
+       "twinprobe: --ratio: the ratio of the other arm's vacancies to the reference arm's must be positive, got 0 "
+       "\u2014 e.g. --ratio 2 when the other arm gets twice as many vacancies\n"},
+      {{"power", "unpaired", "--p1", "0.1", "--p2", "0.07", "--n", "100", "--ratio", "2", "--exact"}, 2,
+       "twinprobe: --exact covers equal arms and the two-sided Fisher test only \u2014 leave out --exact (normal "
+       "approximation), or --ratio, --alternative and --strict\n"},
+  };
+  for (const auto& c : cases) {
+    auto r = RunCli(c.args);
+    INFO(c.args[1] << " " << c.args[2] << " " << c.args[3]);
+    CHECK(r.exit_code == c.exit_code);
+    CHECK(r.err == c.err);
+    CHECK(r.out.empty());
+  }
 }
