@@ -30,6 +30,11 @@ struct FreezeRecord {
   std::string audit_hash;        // head of the audit chain after the freeze (set by FreezeStudy only)
 };
 
+// Writes the freeze keys of `r` (all but audit_hash) as meta rows sealed
+// under audit entry `seq`. Requires: inside that entry's AuditedWrite, and no
+// freeze stored yet (the caller checks with ReadFreeze).
+void WriteFreeze(Store& store, const FreezeRecord& r, int64_t seq);
+
 // The stored freeze, if any (audit_hash left empty).
 std::optional<FreezeRecord> ReadFreeze(Store& store);
 

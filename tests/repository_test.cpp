@@ -88,10 +88,8 @@ TEST_CASE("repository: cli does not call the SQLite API") {
   RequireNone(all);
 }
 
-// Hidden while SQL statements still move into core/: run it with
-//   build/tests/twinprobe_tests "[.sql-outside-core]"
-// to list every statement left, and drop the '.' from the tag once it passes.
-TEST_CASE("repository: SQL statements only in core", "[.sql-outside-core]") {
+// Only core/ speaks SQL: a statement elsewhere is named with file and line.
+TEST_CASE("repository: SQL statements only in core", "[sql-outside-core]") {
   std::vector<std::string> all;
   for (const auto& f : RepositoryFiles())
     for (auto& finding : FindSqlOutsideCore(f.path, f.text)) all.push_back(std::move(finding));
