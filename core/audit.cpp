@@ -9,6 +9,7 @@
 #include <map>
 
 #include "core/clock.h"
+#include "core/desk_actor.h"
 #include "core/schema.h"
 #include "core/sha256.h"
 
@@ -137,6 +138,7 @@ std::string ChainHash(const std::string& prev, int64_t seq, const std::string& a
 }  // namespace
 
 std::string CurrentActor() {
+  if (!DeskActor().empty()) return DeskActor();  // a desk member (core/desk_actor.h)
   if (const char* a = std::getenv("TWINPROBE_ACTOR"); a && *a) return a;
   if (const char* u = std::getenv("USER"); u && *u) return u;
   return "unknown";
