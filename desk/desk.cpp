@@ -65,7 +65,7 @@ DeskResponse Redirect(const std::string& location) {
 
 DeskResponse ErrorPage(int status, const std::string& study_title, const std::string& what) {
   PageFrame f{status == 404 ? "Not found" : "Refused", study_title, "", "", ""};
-  return HtmlResponse(status, RenderPage(f, "<p>" + UserText(what) + "</p><p><a href=\"/\">Back to the desk</a></p>"));
+  return HtmlResponse(status, RenderPage(f, NoticeBox("error", what) + "<p><a href=\"/\">Back to the desk</a></p>"));
 }
 
 Result<std::unique_ptr<Desk>> Desk::Open(const DeskOptions& options) {

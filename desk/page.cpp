@@ -54,7 +54,7 @@ table.data td.check { width: 2.5em; }
 }
 )CSS";
 
-std::string Describedby(const FieldSpec& f) {
+std::string Describedby(const FormField& f) {
   std::string ids;
   if (!f.hint.empty()) ids += f.id + "-hint";
   if (!f.error.empty()) ids += (ids.empty() ? "" : " ") + f.id + "-refused";
@@ -62,13 +62,13 @@ std::string Describedby(const FieldSpec& f) {
   return " aria-describedby=\"" + ids + "\"" + (f.error.empty() ? "" : " aria-invalid=\"true\"");
 }
 
-std::string LabelAndHint(const FieldSpec& f) {
+std::string LabelAndHint(const FormField& f) {
   std::string h = "<label for=\"" + EscapeHtml(f.id) + "\">" + EscapeHtml(f.label) + "</label>";
   if (!f.hint.empty()) h += "<span class=\"hint\" id=\"" + EscapeHtml(f.id) + "-hint\">" + EscapeHtml(f.hint) + "</span>";
   return h;
 }
 
-std::string Refusal(const FieldSpec& f) {
+std::string Refusal(const FormField& f) {
   if (f.error.empty()) return "";
   return "<span class=\"refused\" id=\"" + EscapeHtml(f.id) + "-refused\" role=\"alert\">" + UserText(f.error) +
          "</span>";
@@ -105,14 +105,14 @@ std::string CsrfInput(const std::string& token) {
   return "<input type=\"hidden\" name=\"csrf\" value=\"" + EscapeHtml(token) + "\">";
 }
 
-std::string InputField(const FieldSpec& f) {
+std::string InputField(const FormField& f) {
   return "<div class=\"field\">" + LabelAndHint(f) + "<input type=\"" + EscapeHtml(f.type) + "\" id=\"" +
          EscapeHtml(f.id) + "\" name=\"" + EscapeHtml(f.id) + "\" value=\"" + EscapeHtml(f.value) +
          "\" autocomplete=\"" + EscapeHtml(f.autocomplete) + "\"" + (f.required ? " required" : "") + Describedby(f) +
          ">" + Refusal(f) + "</div>";
 }
 
-std::string SelectField(const FieldSpec& f, const std::vector<std::string>& options, const std::string& empty_label) {
+std::string SelectField(const FormField& f, const std::vector<std::string>& options, const std::string& empty_label) {
   std::string h = "<div class=\"field\">" + LabelAndHint(f) + "<select id=\"" + EscapeHtml(f.id) + "\" name=\"" +
                   EscapeHtml(f.id) + "\"" + (f.required ? " required" : "") + Describedby(f) + ">";
   if (!empty_label.empty())
@@ -124,7 +124,7 @@ std::string SelectField(const FieldSpec& f, const std::vector<std::string>& opti
   return h + "</select>" + Refusal(f) + "</div>";
 }
 
-std::string TextAreaField(const FieldSpec& f) {
+std::string TextAreaField(const FormField& f) {
   return "<div class=\"field\">" + LabelAndHint(f) + "<textarea id=\"" + EscapeHtml(f.id) + "\" name=\"" +
          EscapeHtml(f.id) + "\"" + Describedby(f) + ">" + EscapeHtml(f.value) + "</textarea>" + Refusal(f) + "</div>";
 }

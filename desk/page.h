@@ -22,7 +22,7 @@ std::string RenderPage(const PageFrame& frame, const std::string& body_html);
 // <input type=hidden name=csrf>.
 std::string CsrfInput(const std::string& token);
 
-struct FieldSpec {
+struct FormField {
   std::string id;     // also the form name
   std::string label;  // plain text
   std::string value;  // plain text
@@ -34,14 +34,14 @@ struct FieldSpec {
 };
 // A labelled input; an error is shown beside it and tied to it with
 // aria-describedby, and the field is marked aria-invalid.
-std::string InputField(const FieldSpec& f);
+std::string InputField(const FormField& f);
 
 // A labelled <select>; `options` are values shown as themselves, "" shows
 // `empty_label`.
-std::string SelectField(const FieldSpec& f, const std::vector<std::string>& options, const std::string& empty_label);
+std::string SelectField(const FormField& f, const std::vector<std::string>& options, const std::string& empty_label);
 
 // A labelled <textarea>.
-std::string TextAreaField(const FieldSpec& f);
+std::string TextAreaField(const FormField& f);
 
 // A message box: kind "ok" (what landed) or "error" (what was refused).
 std::string NoticeBox(const std::string& kind, const std::string& text);

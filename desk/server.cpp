@@ -4,6 +4,8 @@
 
 #include <iostream>
 
+#include "desk/routes.h"
+
 namespace twinprobe {
 namespace {
 
@@ -74,6 +76,19 @@ Result<std::unique_ptr<DeskServer>> DeskServer::Bind(Desk& desk, const ServeOpti
   };
   srv.Get(".*", handle);
   srv.Post(".*", handle);
+  // Refusals httplib makes itself (a body over the cap: 413) get a page that
+  // says what happened instead of an empty one. Desk pages keep their own.
+  srv.set_error_handler([](const httplib::Request&, httplib::Response& res) {
+    if (!res.body.empty()) return;
+    std::string what = res.status == 413
+                           ? "The form was too large for the desk (a note can hold about 8,000 characters). Nothing "
+                             "was recorded; go back, shorten it and send it again."
+                           : "The desk could not read this request (HTTP " + std::to_string(res.status) +
+                                 "). Nothing was recorded.";
+    DeskResponse page = ErrorPage(res.status, "", what);
+    for (auto& [k, v] : DeskSecurityHeaders()) res.headers.emplace(k, v);
+    res.set_content(page.body, page.content_type.c_str());
+  });
   srv.set_exception_handler([](const httplib::Request&, httplib::Response& res, std::exception_ptr ep) {
     std::string what = "unknown error";
     try {

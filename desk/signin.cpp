@@ -42,7 +42,7 @@ DeskResponse Desk::SignInPage(const DeskRequest& request, const std::string& mem
   const bool first_use = Param(request, "step") == "set" || (!member.empty() && error.empty());
   std::string token = RandomHex(32);
   std::string body;
-  FieldSpec who{"member", "Your name", member, "as the study's design lists the field team", "", "text", "off", true};
+  FormField who{"member", "Your name", member, "as the study's design lists the field team", "", "text", "off", true};
   if (!first_use) {
     body += "<p>Sign in with your name and passphrase. Everything you enter is recorded under your name.</p>";
     body += "<form method=\"post\" action=\"/signin\"><input type=\"hidden\" name=\"signin\" value=\"" + token + "\">";
