@@ -85,6 +85,9 @@ DeskResponse Desk::Handle(const DeskRequest& request) {
     const std::string study_title = design_.title.empty() ? design_.study_id : design_.title;
     if (request.method != "GET" && request.method != "POST")
       return ErrorPage(405, study_title, "this desk only answers GET and POST");
+    // Browsers ask for an icon on their own; the desk has none, and sending
+    // that request to the sign-in page would only start another form.
+    if (request.path == "/favicon.ico") return ErrorPage(404, study_title, "The desk has no icon.");
     if (request.path == "/signin") return request.method == "POST" ? SignIn(request) : SignInPage(request, "", "");
 
     // Everything else needs a live session.

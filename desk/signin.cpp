@@ -40,7 +40,15 @@ std::string Plural(int64_t n, const char* one, const char* many) {
 // step "" shows the sign-in form; "set" the form for a first passphrase.
 DeskResponse Desk::SignInPage(const DeskRequest& request, const std::string& member, const std::string& error) {
   const bool first_use = Param(request, "step") == "set" || (!member.empty() && error.empty());
-  std::string token = RandomHex(32);
+  // One token per browser while it signs in: a second sign-in page (another
+  // tab, or the browser fetching a favicon and being sent here) must not
+  // invalidate the form already open.
+  std::string token;
+  if (auto c = request.cookies.find(kSignInCookie); c != request.cookies.end() && c->second.size() == 64 &&
+                                                   c->second.find_first_not_of("0123456789abcdef") == std::string::npos)
+    token = c->second;
+  else
+    token = RandomHex(32);
   std::string body;
   FormField who{"member", "Your name", member, "as the study's design lists the field team", "", "text", "off", true};
   if (!first_use) {
