@@ -44,7 +44,7 @@ DeskResponse DeclinesPage(const PageRequest& r, const std::string& notice_html, 
                         d.probe_ref == refused_probe ? refusal : "", "text", "off", false}) +
             SelectField({"channel-" + d.probe_ref, "Channel", "", "", "", "text", "off", false}, ResponseChannels(),
                         "not known") +
-            "<div class=\"field\"><button type=\"submit\">Declined</button></div></form></section>";
+            "<div class=\"field action\"><button type=\"submit\">Declined</button></div></form></section>";
   }
   return HtmlResponse(refusal.empty() ? 200 : 400, RenderPage(r.Frame("Declines", "declines"), body));
 }

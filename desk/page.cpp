@@ -35,19 +35,26 @@ a:focus, button:focus, input:focus, select:focus, textarea:focus { outline: 3px 
 .notice.ok { border-left: 5px solid #009E73; background: #eef8f4; }
 .notice.error { border-left: 5px solid var(--warn); background: #fff4ec; }
 .visually-hidden { position: absolute; width: 1px; height: 1px; overflow: hidden; clip: rect(0 0 0 0); white-space: nowrap; }
-.scroll { overflow-x: auto; max-width: 100%; }
+/* position: relative keeps the visually hidden labels inside the scrolling
+   box; without it they widened a 360-pixel page to 880 pixels. */
+.scroll { overflow-x: auto; max-width: 100%; position: relative; }
+.scroll table.data td { white-space: nowrap; }
+.scroll table.data td.wrap, .scroll table.data td.pre { white-space: normal; min-width: 16em; }
 table.data td.check { width: 2.5em; }
-.superseded { color: var(--muted); text-decoration: line-through; }
+.superseded td { color: var(--muted); }
+.superseded td.struck { text-decoration: line-through; }
 .tag { display: inline-block; font-size: 12px; padding: 0 6px; border: 1px solid var(--rule); border-radius: 3px; }
 .tag.current { border-color: #009E73; color: #00694d; }
 .tag.overdue { border-color: var(--warn); color: #a03000; font-weight: bold; }
-.pre { white-space: pre-wrap; overflow-wrap: anywhere; }
-.row { display: flex; flex-wrap: wrap; gap: 0 18px; align-items: flex-end; }
-.row .field { flex: 1 1 14em; }
+.pre { white-space: pre-wrap; overflow-wrap: break-word; }
+.row { display: flex; flex-wrap: wrap; gap: 0 18px; align-items: flex-start; }
+.row .field { flex: 0 1 20em; }
+.row .field.action { flex: 0 0 auto; align-self: flex-end; }
 @media (max-width: 600px) {
   body { padding: 10px 10px 30px; font-size: 15px; }
   h1 { font-size: 22px; }
   h2 { font-size: 18px; margin-top: 24px; }
+  .keyfig { flex-basis: 40%; padding: 8px 10px; }
   .keyfig .big { font-size: 24px; }
   table.data { font-size: 13px; }
   table.data th, table.data td { padding: 4px 6px; }

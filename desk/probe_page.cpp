@@ -43,8 +43,8 @@ DeskResponse ProbePage(const PageRequest& r) {
         details = UserText(e.channel);
       }
       body += std::string("<tr") + (e.superseded_by ? " class=\"superseded\"" : "") + "><td class=\"num\">" +
-              std::to_string(e.audit_seq) + "</td><td>" + EscapeHtml(what) + "</td><td>" + EscapeHtml(e.at) +
-              "</td><td>" + details + "</td><td>" + UserText(e.entered_by) + "</td><td>" + EscapeHtml(e.entered_at) +
+              std::to_string(e.audit_seq) + "</td><td class=\"struck\">" + EscapeHtml(what) + "</td><td>" + EscapeHtml(e.at) +
+              "</td><td class=\"wrap\">" + details + "</td><td>" + UserText(e.entered_by) + "</td><td>" + EscapeHtml(e.entered_at) +
               "</td></tr>";
     }
     body += "</tbody></table></div>";

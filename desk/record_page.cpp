@@ -36,7 +36,7 @@ std::string FindForm(const std::string& query, const std::string& error) {
   return "<form method=\"get\" action=\"/record\" class=\"row\">" +
          InputField({"find", "Find a probe", query, "probe (P00042), vacancy reference or profile name", error,
                      "search", "off", false}) +
-         "<div class=\"field\"><button type=\"submit\">Find</button></div></form>";
+         "<div class=\"field action\"><button type=\"submit\">Find</button></div></form>";
 }
 
 // Probes whose reference, vacancy or profile contains `query` (any case).
@@ -80,7 +80,7 @@ std::string Responses(const ProbeHistory& h) {
                         : e.superseded_by ? "superseded by response " + std::to_string(e.superseded_by)
                                           : "";
     rows += std::string("<tr") + (e.superseded_by ? " class=\"superseded\"" : "") + "><td class=\"num\">" +
-            std::to_string(e.id) + "</td><td>" + UserText(e.code) + "</td><td>" + EscapeHtml(e.at) + "</td><td>" +
+            std::to_string(e.id) + "</td><td class=\"struck\">" + UserText(e.code) + "</td><td>" + EscapeHtml(e.at) + "</td><td>" +
             UserText(e.channel) + "</td><td class=\"pre\">" + UserText(e.note) + "</td><td>" + UserText(e.entered_by) +
             "</td><td>" + state + (e.supersedes ? " (supersedes " + std::to_string(e.supersedes) + ")" : "") +
             "</td></tr>";

@@ -101,7 +101,7 @@ std::string TodayBody(const PageRequest& r, const std::string& notice_html, cons
   h += "<div class=\"row\">" +
        InputField({"sent_at", "Sent at (UTC)", at_value, "YYYY-MM-DD or YYYY-MM-DDTHH:MM; leave empty for now", at_error,
                    "text", "off", false}) +
-       "<div class=\"field\"><button type=\"submit\">Mark the ticked probes as sent</button></div></div></form>";
+       "<div class=\"field action\"><button type=\"submit\">Mark the ticked probes as sent</button></div></div></form>";
   return h;
 }
 

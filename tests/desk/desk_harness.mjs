@@ -10,9 +10,9 @@ import puppeteer from 'puppeteer-core';
 
 export const NOW = '2027-03-01T12:00:00Z';  // the demo's first sending day
 
-export function twinprobe(bin, study, args) {
+export function twinprobe(bin, study, args, actor = 'setup') {
   const r = spawnSync(bin, ['--study', study, ...args], {
-    encoding: 'utf8', env: { ...process.env, TWINPROBE_NOW: NOW, TWINPROBE_ACTOR: 'setup' } });
+    encoding: 'utf8', env: { ...process.env, TWINPROBE_NOW: NOW, TWINPROBE_ACTOR: actor } });
   if (r.status !== 0) throw new Error(`twinprobe ${args.join(' ')} failed (${r.status}): ${r.stderr}`);
   return r.stdout;
 }
