@@ -118,6 +118,7 @@ DeskResponse Desk::Handle(const DeskRequest& request) {
     const bool post = request.method == "POST";
     if (request.path == "/" || request.path == "/today") return post ? MarkSent(page) : TodayPage(page);
     if (request.path == "/record") return post ? RecordEntry(page) : RecordPage(page);
+    if (request.path == "/mail") return post ? MailDecision(page) : MailPage(page);
     if (request.path == "/declines") return post ? DeclineEntry(page) : DeclinesPage(page);
     if (request.path == "/probe" && !post) return ProbePage(page);
     if (request.path == "/study" && !post) return StudyPage(page);

@@ -55,6 +55,7 @@ table.data td.check { width: 2.5em; }
   h1 { font-size: 22px; }
   h2 { font-size: 18px; margin-top: 24px; }
   .keyfig { flex-basis: 40%; padding: 8px 10px; }
+  .row .field { flex: 1 1 100%; }
   .keyfig .big { font-size: 24px; }
   table.data { font-size: 13px; }
   table.data th, table.data td { padding: 4px 6px; }
@@ -97,7 +98,7 @@ std::string RenderPage(const PageFrame& frame, const std::string& body_html) {
   h += "</header>\n";
   if (!frame.member.empty()) {
     static const std::pair<const char*, const char*> kNav[] = {
-        {"today", "Today"}, {"record", "Record"}, {"declines", "Declines"}, {"study", "Study"}};
+        {"today", "Today"}, {"record", "Record"}, {"mail", "Mail"}, {"declines", "Declines"}, {"study", "Study"}};
     h += "<nav class=\"desk\" aria-label=\"Desk\"><ul>";
     for (const auto& [key, label] : kNav)
       h += std::string("<li><a href=\"/") + key + "\"" + (frame.active == key ? " aria-current=\"page\"" : "") + ">" +

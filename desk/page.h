@@ -11,7 +11,7 @@ namespace twinprobe {
 struct PageFrame {
   std::string title;         // plain text
   std::string study_title;   // plain text
-  std::string active;        // nav item: today | record | declines | study | ""
+  std::string active;        // nav item: today | record | mail | declines | study | ""
   std::string member;        // signed-in member ("" before sign-in)
   std::string csrf;          // for the sign-out form
 };

@@ -44,6 +44,8 @@ DeskResponse RecordEntry(const PageRequest& r);
 DeskResponse DeclinesPage(const PageRequest& r, const std::string& notice_html = "",
                           const std::string& refused_probe = "", const std::string& refusal = "");
 DeskResponse DeclineEntry(const PageRequest& r);
+DeskResponse MailPage(const PageRequest& r);
+DeskResponse MailDecision(const PageRequest& r);
 DeskResponse ProbePage(const PageRequest& r);
 DeskResponse StudyPage(const PageRequest& r);
 

@@ -3,12 +3,12 @@
 // (CTest runs it as "desk: browser" against the built binary).
 //
 // A member signs in, marks three probes sent, records a response and its
-// correction, declines the invitation, and sees each in the probe's history
-// and in `twinprobe history` and `verify`; a hostile note comes back as text;
+// correction, confirms a mail suggestion, declines the invitation, and sees
+// each in the probe's history and in `twinprobe history` and `verify`; a hostile note comes back as text;
 // a form without its CSRF token is refused; two members record at once and
 // both entries land.
 import assert from 'node:assert/strict';
-import { makeStudy, startDesk, launchBrowser, signIn, text, twinprobe } from './desk_harness.mjs';
+import { makeStudy, makeMailStudy, startDesk, launchBrowser, signIn, text, twinprobe } from './desk_harness.mjs';
 
 const bin = process.argv[2];
 if (!bin) {
@@ -145,6 +145,28 @@ async function main() {
     assert.match(twinprobe(bin, study, ['history', due[2]]), /Bo Lind +response \d+: invitation/);
     assert.match(twinprobe(bin, study, ['verify']), /^The audit chain is intact: 11 entries/);
     console.log('ok two members recorded at once and both entries landed');
+
+    // Mail: confirm a suggestion in the review queue of the mail fixture study.
+    const mail = makeMailStudy(bin);
+    const mailDesk = await startDesk(bin, mail.study, '2027-03-06T12:00:00Z');
+    try {
+      const m = await (await browser.createBrowserContext()).newPage();
+      await m.setJavaScriptEnabled(false);
+      await signIn(m, mailDesk.url, 'Ada Moss', 'meadow lantern river');
+      await m.goto(mailDesk.url + 'mail');
+      assert.match(await text(m, 'main'), /12 messages wait for a decision/);
+      await m.select('#decision-1', 'confirm');
+      await submit(m, 'form:has(input[name=message][value="1"]) button');
+      assert.equal(await text(m, '.notice.ok'),
+        'Recorded invitation for P00001 at 2027-03-04T09:15:00Z from message 1 (confirmed as suggested), a positive callback.');
+      assert.match(twinprobe(bin, mail.study, ['history', 'P00001']),
+        /Ada Moss +response 1: invitation \(positive\), received 2027-03-04T09:15:00Z by mail, from mail-review; current/);
+      assert.match(twinprobe(bin, mail.study, ['verify']), /^The audit chain is intact/);
+      console.log('ok confirmed a mail suggestion');
+    } finally {
+      await mailDesk.stop();
+      mail.cleanup();
+    }
 
     assert.deepEqual(dialogs, []);
   } finally {

@@ -19,19 +19,16 @@
 
 namespace twinprobe::testing {
 
-// The Veldmark demo, planned, with [team] members Ada Moss and Bo Lind; the
-// clock is pinned to the first sending day.
-struct DeskStudy {
-  PlannedStudy study;
+// The desk of the study in `path`, served in this process on a free
+// 127.0.0.1 port with the clock pinned to `now`.
+struct ServedDesk {
   std::unique_ptr<Desk> desk;
   std::unique_ptr<DeskServer> server;
   std::thread thread;
 
-  DeskStudy() {
-    setenv("TWINPROBE_NOW", "2027-03-01T12:00:00Z", 1);
-    WriteFile(study.path + "/study.toml",
-              ReadFile(study.path + "/study.toml") + "\n[team]\nmembers = [\"Ada Moss\", \"Bo Lind\"]\n");
-    auto d = Desk::Open(DeskOptions{study.path, false});
+  ServedDesk(const std::string& path, const std::string& now) {
+    setenv("TWINPROBE_NOW", now.c_str(), 1);
+    auto d = Desk::Open(DeskOptions{path, false});
     INFO((d.ok() ? "" : d.error().Message()));
     REQUIRE(d.ok());
     desk = std::move(d).value();
@@ -40,12 +37,25 @@ struct DeskStudy {
     server = std::move(s).value();
     thread = std::thread([this] { server->Run(); });
   }
-  ~DeskStudy() {
+  ~ServedDesk() {
     server->Stop();
     thread.join();
     unsetenv("TWINPROBE_NOW");
   }
   std::string url() const { return server->url(); }
+};
+
+// Appends [team] members = ["Ada Moss", "Bo Lind"] to DIR/study.toml; returns DIR.
+inline std::string WithTeam(const std::string& dir) {
+  WriteFile(dir + "/study.toml", ReadFile(dir + "/study.toml") + "\n[team]\nmembers = [\"Ada Moss\", \"Bo Lind\"]\n");
+  return dir;
+}
+
+// The Veldmark demo, planned, with its field team, on the first sending day.
+struct DeskStudy {
+  PlannedStudy study;
+  ServedDesk served{WithTeam(study.path), "2027-03-01T12:00:00Z"};
+  std::string url() const { return served.url(); }
 };
 
 struct HttpReply {

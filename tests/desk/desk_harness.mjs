@@ -3,9 +3,10 @@
 // it on a free 127.0.0.1 port, and Debian's chromium driven headless through
 // the DevTools protocol by puppeteer-core.
 import { spawn, spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, appendFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, appendFileSync, rmSync, cpSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { join, dirname } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import puppeteer from 'puppeteer-core';
 
 export const NOW = '2027-03-01T12:00:00Z';  // the demo's first sending day
@@ -28,10 +29,24 @@ export function makeStudy(bin) {
   return { dir, study, cleanup: () => rmSync(dir, { recursive: true, force: true }) };
 }
 
+// The mail fixture study (tests/fixtures/mail/study: 10 probes, an mbox and
+// a Maildir of invented employers' replies), planned, its mail read into the
+// review queue, with the same team.
+export function makeMailStudy(bin) {
+  const dir = mkdtempSync(join(tmpdir(), 'twinprobe-desk-mail-'));
+  const study = join(dir, 'mail-study');
+  const here = dirname(fileURLToPath(import.meta.url));
+  cpSync(join(here, '..', 'fixtures', 'mail', 'study'), study, { recursive: true });
+  twinprobe(bin, study, ['plan']);
+  twinprobe(bin, study, ['mail']);
+  appendFileSync(join(study, 'study.toml'), '\n[team]\nmembers = ["Ada Moss", "Bo Lind"]\n');
+  return { dir, study, cleanup: () => rmSync(dir, { recursive: true, force: true }) };
+}
+
 // Starts `twinprobe desk --port 0` and resolves with its address.
-export function startDesk(bin, study) {
+export function startDesk(bin, study, now = NOW) {
   const child = spawn(bin, ['--study', study, 'desk', '--port', '0'], {
-    env: { ...process.env, TWINPROBE_NOW: NOW }, stdio: ['ignore', 'pipe', 'inherit'] });
+    env: { ...process.env, TWINPROBE_NOW: now }, stdio: ['ignore', 'pipe', 'inherit'] });
   return new Promise((resolve, reject) => {
     let out = '';
     child.on('exit', (code) => reject(new Error(`desk exited early with ${code}: ${out}`)));

@@ -3,7 +3,7 @@
 // Not a test: run it by hand after changing a page, and look at the result.
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { makeStudy, startDesk, launchBrowser, signIn, twinprobe } from './desk_harness.mjs';
+import { makeStudy, makeMailStudy, startDesk, launchBrowser, signIn, twinprobe } from './desk_harness.mjs';
 
 const [bin, out] = process.argv.slice(2);
 if (!bin || !out) {
@@ -48,6 +48,21 @@ try {
       await page.screenshot({ path: join(out, `${name}-${width}.png`), fullPage: true });
       if (name === 'signin') await signIn(page, desk.url, 'Ada Moss', 'meadow lantern river');
     }
+  }
+  // The Mail page, on the mail fixture study's review queue.
+  const mail = makeMailStudy(bin);
+  const mailDesk = await startDesk(bin, mail.study, '2027-03-06T12:00:00Z');
+  try {
+    const m = await (await browser.createBrowserContext()).newPage();
+    await signIn(m, mailDesk.url, 'Ada Moss', 'meadow lantern river');
+    for (const width of [1280, 360]) {
+      await m.setViewport({ width, height: width === 360 ? 740 : 900 });
+      await m.goto(mailDesk.url + 'mail');
+      await m.screenshot({ path: join(out, `mail-${width}.png`), clip: { x: 0, y: 0, width, height: width === 360 ? 1600 : 1100 } });
+    }
+  } finally {
+    await mailDesk.stop();
+    mail.cleanup();
   }
 } finally {
   await browser.close();
