@@ -72,9 +72,11 @@ int RunDesk(Context& ctx, const DeskCmdOptions& o) {
 
 void RegisterDesk(CLI::App& app, Context& ctx) {
   auto o = std::make_shared<DeskCmdOptions>();
-  auto* cmd = app.add_subcommand("desk", "Serve the field team's web desk on this machine (sent, record, declines)");
+  auto* cmd = app.add_subcommand(
+      "desk", "Serve the field team's web desk on this machine (sent, record, mail review, declines, history)");
   cmd->add_option("--port", o->port, "TCP port (default 8470; 0 picks a free one)")->check(CLI::Range(0, 65535));
-  cmd->add_option("--bind", o->bind, "Address to listen on (default 127.0.0.1; another needs --tls-cert and --tls-key)");
+  cmd->add_option("--bind", o->bind,
+                  "Address to listen on (default 127.0.0.1; another needs --tls-cert and --tls-key)");
   cmd->add_option("--tls-cert", o->tls_cert, "PEM certificate, to serve over HTTPS");
   cmd->add_option("--tls-key", o->tls_key, "PEM private key of the certificate");
   cmd->callback([&ctx, o] { ctx.exit_code = RunDesk(ctx, *o); });

@@ -16,8 +16,9 @@ DeskResponse DeclinesPage(const PageRequest& r, const std::string& notice_html, 
   std::string body = notice_html;
   const int hours = r.design.ethics.decline_within_hours;
   if (hours <= 0) {
-    body += "<p class=\"absent\">The design sets no decline deadline ([ethics] decline_within_hours), so nothing is "
-            "listed here.</p>";
+    body +=
+        "<p class=\"absent\">The design sets no decline deadline ([ethics] decline_within_hours), so nothing is "
+        "listed here.</p>";
     return HtmlResponse(200, RenderPage(r.Frame("Declines", "declines"), body));
   }
   auto pending = PendingDeclines(r.store, r.design.outcomes, hours, NowEpoch());
@@ -52,11 +53,11 @@ DeskResponse DeclinesPage(const PageRequest& r, const std::string& notice_html, 
 DeskResponse DeclineEntry(const PageRequest& r) {
   const std::string probe = r.Param("probe");
   DeskActorScope actor(r.session.member);
-  auto d = RecordDecline(r.store, r.design.outcomes, probe, r.Param("declined_at-" + probe),
-                         r.Param("channel-" + probe));
+  auto d =
+      RecordDecline(r.store, r.design.outcomes, probe, r.Param("declined_at-" + probe), r.Param("channel-" + probe));
   if (!d.ok()) return DeclinesPage(r, "", probe, RefusalText(d.error()));
-  return DeclinesPage(r, NoticeBox("ok", "Recorded that the invitation to " + probe + " was declined at " + d.value() +
-                                             "."));
+  return DeclinesPage(
+      r, NoticeBox("ok", "Recorded that the invitation to " + probe + " was declined at " + d.value() + "."));
 }
 
 }  // namespace twinprobe

@@ -22,8 +22,8 @@
 namespace twinprobe {
 
 struct DeskRequest {
-  std::string method;  // GET | POST (anything else is refused)
-  std::string path;    // decoded, without the query
+  std::string method;                              // GET | POST (anything else is refused)
+  std::string path;                                // decoded, without the query
   std::multimap<std::string, std::string> params;  // the query (GET) or the form body (POST)
   std::map<std::string, std::string> cookies;
 };

@@ -31,41 +31,44 @@ std::string Evidence(const ReviewItem& i) {
 std::string ItemSection(const PageRequest& r, const ReviewItem& i, const Refusal& refusal) {
   const std::string n = std::to_string(i.message);
   const bool refused = refusal.message == i.message;
-  std::string h = "<section class=\"mail\"><h2>Message " + n + " <span class=\"tag\">" + UserText(i.status) +
-                  "</span></h2><dl class=\"facts\"><dt>From</dt><dd>" + UserText(i.from) + "</dd><dt>Subject</dt><dd>" +
-                  UserText(i.subject) + "</dd><dt>Date</dt><dd>" + EscapeHtml(i.date.empty() ? "none" : i.date) +
-                  "</dd><dt>Probe</dt><dd>" +
-                  (i.probe_ref.empty() ? "<span class=\"absent\">not matched</span>"
-                                       : "<a href=\"/probe?id=" + UrlEncode(i.probe_ref) + "\">" + UserText(i.probe_ref) +
-                                             "</a>") +
-                  "</dd><dt>Why</dt><dd>" + UserText(i.reason) + "</dd>";
+  std::string h =
+      "<section class=\"mail\"><h2>Message " + n + " <span class=\"tag\">" + UserText(i.status) +
+      "</span></h2><dl class=\"facts\"><dt>From</dt><dd>" + UserText(i.from) + "</dd><dt>Subject</dt><dd>" +
+      UserText(i.subject) + "</dd><dt>Date</dt><dd>" + EscapeHtml(i.date.empty() ? "none" : i.date) +
+      "</dd><dt>Probe</dt><dd>" +
+      (i.probe_ref.empty() ? "<span class=\"absent\">not matched</span>"
+                           : "<a href=\"/probe?id=" + UrlEncode(i.probe_ref) + "\">" + UserText(i.probe_ref) + "</a>") +
+      "</dd><dt>Why</dt><dd>" + UserText(i.reason) + "</dd>";
   if (!i.candidates.empty()) {
     h += "<dt>Candidates</dt><dd>";
     for (size_t k = 0; k < i.candidates.size(); ++k) h += (k ? ", " : "") + UserText(i.candidates[k]);
     h += "</dd>";
   }
-  h += "<dt>Suggested</dt><dd>" + (i.suggested_code.empty() ? "<span class=\"absent\">nothing</span>"
-                                                             : UserText(i.suggested_code)) +
+  h += "<dt>Suggested</dt><dd>" +
+       (i.suggested_code.empty() ? "<span class=\"absent\">nothing</span>" : UserText(i.suggested_code)) +
        "</dd></dl><h3>Evidence</h3>" + Evidence(i);
-  if (i.purged) h += "<p class=\"absent\">The text was removed by purge.</p>";
-  else if (!i.excerpt.empty()) h += "<h3>Excerpt</h3><div class=\"pre note\">" + UserText(i.excerpt) + "</div>";
+  if (i.purged)
+    h += "<p class=\"absent\">The text was removed by purge.</p>";
+  else if (!i.excerpt.empty())
+    h += "<h3>Excerpt</h3><div class=\"pre note\">" + UserText(i.excerpt) + "</div>";
 
   std::vector<std::string> decisions = {"code", "dismiss"};
   if (!i.suggested_code.empty()) decisions.insert(decisions.begin(), "confirm");
   const std::string chosen = refused ? r.Param("decision-" + n) : "";
-  h += "<form method=\"post\" action=\"/mail\">" + CsrfInput(r.session.csrf) +
-       "<input type=\"hidden\" name=\"message\" value=\"" + n + "\"><div class=\"row\">" +
-       SelectField({"decision-" + n, "Decision", chosen,
-                    "confirm: the suggested code; code: the one you choose; dismiss: nothing",
-                    refused ? refusal.text : "", "text", "off", true},
-                   decisions, "Choose") +
-       SelectField({"code-" + n, "Code (for 'code')", refused ? r.Param("code-" + n) : "", "", "", "text", "off", false},
-                   r.design.outcomes.codes, "none chosen") +
-       InputField({"probe-" + n, "Probe", refused ? r.Param("probe-" + n) : i.probe_ref,
-                   "assigns the message to this probe", "", "text", "off", false}) +
-       InputField({"at-" + n, "Received at (UTC)", refused ? r.Param("at-" + n) : "",
-                   "leave empty for the message's date", "", "text", "off", false}) +
-       "<div class=\"field action\"><button type=\"submit\">Decide</button></div></div></form></section>";
+  h +=
+      "<form method=\"post\" action=\"/mail\">" + CsrfInput(r.session.csrf) +
+      "<input type=\"hidden\" name=\"message\" value=\"" + n + "\"><div class=\"row\">" +
+      SelectField({"decision-" + n, "Decision", chosen,
+                   "confirm: the suggested code; code: the one you choose; dismiss: nothing",
+                   refused ? refusal.text : "", "text", "off", true},
+                  decisions, "Choose") +
+      SelectField({"code-" + n, "Code (for 'code')", refused ? r.Param("code-" + n) : "", "", "", "text", "off", false},
+                  r.design.outcomes.codes, "none chosen") +
+      InputField({"probe-" + n, "Probe", refused ? r.Param("probe-" + n) : i.probe_ref,
+                  "assigns the message to this probe", "", "text", "off", false}) +
+      InputField({"at-" + n, "Received at (UTC)", refused ? r.Param("at-" + n) : "",
+                  "leave empty for the message's date", "", "text", "off", false}) +
+      "<div class=\"field action\"><button type=\"submit\">Decide</button></div></div></form></section>";
   return h;
 }
 
@@ -73,8 +76,9 @@ DeskResponse Page(const PageRequest& r, int status, const std::string& notice, c
   std::string body = notice;
   auto queue = LoadReviewQueue(r.store, false);
   if (queue.empty())
-    body += "<p class=\"absent\">No message waits for review. Mail is read into the store with <code>twinprobe "
-            "mail</code>.</p>";
+    body +=
+        "<p class=\"absent\">No message waits for review. Mail is read into the store with <code>twinprobe "
+        "mail</code>.</p>";
   else
     body += "<p>" + std::to_string(queue.size()) + (queue.size() == 1 ? " message waits" : " messages wait") +
             " for a decision, oldest first. Read the evidence before confirming a suggestion.</p>";
@@ -100,7 +104,7 @@ DeskResponse MailDecision(const PageRequest& r) {
   const std::string decision = r.Param("decision-" + n);
   ReviewRequest req;
   req.message = message;
-  req.action = decision == "confirm" ? ReviewAction::kConfirm
+  req.action = decision == "confirm"   ? ReviewAction::kConfirm
                : decision == "dismiss" ? ReviewAction::kDismiss
                                        : ReviewAction::kCode;
   req.code = r.Param("code-" + n);

@@ -72,7 +72,8 @@ std::string Describedby(const FormField& f) {
 
 std::string LabelAndHint(const FormField& f) {
   std::string h = "<label for=\"" + EscapeHtml(f.id) + "\">" + EscapeHtml(f.label) + "</label>";
-  if (!f.hint.empty()) h += "<span class=\"hint\" id=\"" + EscapeHtml(f.id) + "-hint\">" + EscapeHtml(f.hint) + "</span>";
+  if (!f.hint.empty())
+    h += "<span class=\"hint\" id=\"" + EscapeHtml(f.id) + "-hint\">" + EscapeHtml(f.hint) + "</span>";
   return h;
 }
 
@@ -85,11 +86,13 @@ std::string Refusal(const FormField& f) {
 }  // namespace
 
 std::string RenderPage(const PageFrame& frame, const std::string& body_html) {
-  std::string h = "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n"
-                  "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n"
-                  "<title>" + EscapeHtml(frame.title) + " \xe2\x80\x94 desk</title>\n<style>" + ReportCss() + kDeskCss +
-                  "</style>\n</head>\n<body>\n<header class=\"desk\"><span class=\"study\">" +
-                  UserText(frame.study_title) + "</span>";
+  std::string h =
+      "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n"
+      "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n"
+      "<title>" +
+      EscapeHtml(frame.title) + " \xe2\x80\x94 desk</title>\n<style>" + ReportCss() + kDeskCss +
+      "</style>\n</head>\n<body>\n<header class=\"desk\"><span class=\"study\">" + UserText(frame.study_title) +
+      "</span>";
   if (!frame.member.empty()) {
     h += "<span class=\"who\">Signed in as&nbsp;<strong>" + UserText(frame.member) +
          "</strong><form class=\"inline\" method=\"post\" action=\"/signout\">" + CsrfInput(frame.csrf) +
@@ -146,7 +149,8 @@ std::string UrlEncode(const std::string& text) {
   static const char* hex = "0123456789ABCDEF";
   std::string out;
   for (unsigned char c : text) {
-    if (std::isalnum(c) || c == '-' || c == '_' || c == '.' || c == '~') out += static_cast<char>(c);
+    if (std::isalnum(c) || c == '-' || c == '_' || c == '.' || c == '~')
+      out += static_cast<char>(c);
     else {
       out += '%';
       out += hex[c >> 4];

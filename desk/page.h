@@ -9,11 +9,11 @@
 namespace twinprobe {
 
 struct PageFrame {
-  std::string title;         // plain text
-  std::string study_title;   // plain text
-  std::string active;        // nav item: today | record | mail | declines | study | ""
-  std::string member;        // signed-in member ("" before sign-in)
-  std::string csrf;          // for the sign-out form
+  std::string title;        // plain text
+  std::string study_title;  // plain text
+  std::string active;       // nav item: today | record | mail | declines | study | ""
+  std::string member;       // signed-in member ("" before sign-in)
+  std::string csrf;         // for the sign-out form
 };
 
 // A whole HTML document around `body_html` (already HTML).

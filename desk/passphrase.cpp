@@ -54,8 +54,9 @@ std::string Pbkdf2Sha256Hex(std::string_view passphrase, std::string_view salt, 
 
 Status CheckNewPassphrase(std::string_view passphrase, std::string_view repeated, const std::string& field) {
   if (passphrase.size() < kPassphraseMinLength)
-    return BadInput(field, "the passphrase has " + std::to_string(passphrase.size()) + " characters, fewer than " +
-                               std::to_string(kPassphraseMinLength),
+    return BadInput(field,
+                    "the passphrase has " + std::to_string(passphrase.size()) + " characters, fewer than " +
+                        std::to_string(kPassphraseMinLength),
                     "choose a longer one, for example four unrelated words");
   if (passphrase.size() > kPassphraseMaxLength)
     return BadInput(field, "the passphrase is longer than " + std::to_string(kPassphraseMaxLength) + " characters",

@@ -16,16 +16,17 @@ DeskResponse ProbePage(const PageRequest& r) {
                      UserText(h.employer_key) + "</dd><dt>Arm</dt><dd>" + UserText(h.arm) +
                      "</dd><dt>Profile</dt><dd>" + UserText(h.profile) + "</dd><dt>Planned</dt><dd>" +
                      EscapeHtml(h.planned_at) + "</dd>";
-  for (const auto& [name, value] : h.strata)
-    body += "<dt>" + UserText(name) + "</dt><dd>" + UserText(value) + "</dd>";
+  for (const auto& [name, value] : h.strata) body += "<dt>" + UserText(name) + "</dt><dd>" + UserText(value) + "</dd>";
   body += "</dl><p><a href=\"/record?probe=" + UrlEncode(h.probe) + "\">Enter a response for " + EscapeHtml(h.probe) +
           "</a></p><h2>History</h2>";
-  if (h.events.empty()) body += "<p class=\"absent\">Nothing recorded yet.</p>";
+  if (h.events.empty())
+    body += "<p class=\"absent\">Nothing recorded yet.</p>";
   else {
-    body += "<div class=\"scroll\"><table class=\"data\"><caption>In the order it was entered</caption><thead><tr>"
-            "<th scope=\"col\">Audit entry</th><th scope=\"col\">What</th><th scope=\"col\">When (UTC)</th>"
-            "<th scope=\"col\">Details</th><th scope=\"col\">Entered by</th><th scope=\"col\">Entered at</th>"
-            "</tr></thead><tbody>";
+    body +=
+        "<div class=\"scroll\"><table class=\"data\"><caption>In the order it was entered</caption><thead><tr>"
+        "<th scope=\"col\">Audit entry</th><th scope=\"col\">What</th><th scope=\"col\">When (UTC)</th>"
+        "<th scope=\"col\">Details</th><th scope=\"col\">Entered by</th><th scope=\"col\">Entered at</th>"
+        "</tr></thead><tbody>";
     for (const HistoryEvent& e : h.events) {
       std::string what = e.kind, details;
       if (e.kind == "response") {
@@ -43,9 +44,9 @@ DeskResponse ProbePage(const PageRequest& r) {
         details = UserText(e.channel);
       }
       body += std::string("<tr") + (e.superseded_by ? " class=\"superseded\"" : "") + "><td class=\"num\">" +
-              std::to_string(e.audit_seq) + "</td><td class=\"struck\">" + EscapeHtml(what) + "</td><td>" + EscapeHtml(e.at) +
-              "</td><td class=\"wrap\">" + details + "</td><td>" + UserText(e.entered_by) + "</td><td>" + EscapeHtml(e.entered_at) +
-              "</td></tr>";
+              std::to_string(e.audit_seq) + "</td><td class=\"struck\">" + EscapeHtml(what) + "</td><td>" +
+              EscapeHtml(e.at) + "</td><td class=\"wrap\">" + details + "</td><td>" + UserText(e.entered_by) +
+              "</td><td>" + EscapeHtml(e.entered_at) + "</td></tr>";
     }
     body += "</tbody></table></div>";
   }

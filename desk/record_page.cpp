@@ -56,8 +56,8 @@ std::string Matches(const PageRequest& r, const std::string& query) {
     if (shown++ >= kMaxMatches) continue;
     body += "<tr><td><a href=\"/record?probe=" + UrlEncode(p.probe) + "\">" + UserText(p.probe) + "</a></td><td>" +
             UserText(p.vacancy) + "</td><td>" + UserText(p.employer) + "</td><td>" + UserText(p.arm) + "</td><td>" +
-            UserText(p.profile) + "</td><td>" + (p.sent_at.empty() ? "<span class=\"absent\">not sent</span>"
-                                                                    : EscapeHtml(p.sent_at)) +
+            UserText(p.profile) + "</td><td>" +
+            (p.sent_at.empty() ? "<span class=\"absent\">not sent</span>" : EscapeHtml(p.sent_at)) +
             "</td><td><a href=\"/probe?id=" + UrlEncode(p.probe) + "\">history</a></td></tr>";
   }
   if (n == 0) return "<p class=\"absent\">No probe matches '" + UserText(query) + "'.</p>";
@@ -76,14 +76,14 @@ std::string Responses(const ProbeHistory& h) {
   for (size_t i = 0; i < h.events.size(); ++i) {
     const HistoryEvent& e = h.events[i];
     if (e.kind != "response") continue;
-    std::string state = e.current ? "<span class=\"tag current\">current</span>"
+    std::string state = e.current         ? "<span class=\"tag current\">current</span>"
                         : e.superseded_by ? "superseded by response " + std::to_string(e.superseded_by)
                                           : "";
     rows += std::string("<tr") + (e.superseded_by ? " class=\"superseded\"" : "") + "><td class=\"num\">" +
-            std::to_string(e.id) + "</td><td class=\"struck\">" + UserText(e.code) + "</td><td>" + EscapeHtml(e.at) + "</td><td>" +
-            UserText(e.channel) + "</td><td class=\"pre\">" + UserText(e.note) + "</td><td>" + UserText(e.entered_by) +
-            "</td><td>" + state + (e.supersedes ? " (supersedes " + std::to_string(e.supersedes) + ")" : "") +
-            "</td></tr>";
+            std::to_string(e.id) + "</td><td class=\"struck\">" + UserText(e.code) + "</td><td>" + EscapeHtml(e.at) +
+            "</td><td>" + UserText(e.channel) + "</td><td class=\"pre\">" + UserText(e.note) + "</td><td>" +
+            UserText(e.entered_by) + "</td><td>" + state +
+            (e.supersedes ? " (supersedes " + std::to_string(e.supersedes) + ")" : "") + "</td></tr>";
   }
   if (rows.empty()) return "<p class=\"absent\">No response recorded yet.</p>";
   return "<div class=\"scroll\"><table class=\"data\"><caption>Responses, oldest first</caption><thead><tr>"
@@ -106,24 +106,24 @@ std::string ProbeSection(const PageRequest& r, const ProbeHistory& h, const Entr
                      EscapeHtml(h.probe) + "</a></p>";
   body += "<h2>Responses</h2>" + Responses(h);
   const bool correcting = h.current_response >= 0;
-  body += std::string("<h2>") + (correcting ? "Enter a correction or a later response" : "Enter the response") +
-          "</h2>";
+  body +=
+      std::string("<h2>") + (correcting ? "Enter a correction or a later response" : "Enter the response") + "</h2>";
   if (correcting)
     body += "<p class=\"note\">A new entry supersedes the current response; the old one stays in the store.</p>";
   auto err = [&](const char* f) { return form.field == f ? form.error : std::string(); };
   body += "<form method=\"post\" action=\"/record\">" + CsrfInput(r.session.csrf) +
           "<input type=\"hidden\" name=\"probe\" value=\"" + EscapeHtml(h.probe) + "\">";
   if (!err("probe").empty()) body += NoticeBox("error", err("probe"));
-  body += "<div class=\"row\">" +
-          SelectField({"code", "Response", form.entry.code, "", err("code"), "text", "off", true},
-                      r.design.outcomes.codes, "Choose a code") +
-          InputField({"received_at", "Received at (UTC)", form.entry.received_at,
-                      "YYYY-MM-DD or YYYY-MM-DDTHH:MM; leave empty for now", err("received_at"), "text", "off", false}) +
-          SelectField({"channel", "Channel", form.entry.channel, "", err("channel"), "text", "off", false},
-                      ResponseChannels(), "not known") +
-          "</div>" +
-          TextAreaField({"note", "Note", form.entry.note, "what was said, kept with the response", "", "text"}) +
-          "<button type=\"submit\">Record response</button></form>";
+  body +=
+      "<div class=\"row\">" +
+      SelectField({"code", "Response", form.entry.code, "", err("code"), "text", "off", true}, r.design.outcomes.codes,
+                  "Choose a code") +
+      InputField({"received_at", "Received at (UTC)", form.entry.received_at,
+                  "YYYY-MM-DD or YYYY-MM-DDTHH:MM; leave empty for now", err("received_at"), "text", "off", false}) +
+      SelectField({"channel", "Channel", form.entry.channel, "", err("channel"), "text", "off", false},
+                  ResponseChannels(), "not known") +
+      "</div>" + TextAreaField({"note", "Note", form.entry.note, "what was said, kept with the response", "", "text"}) +
+      "<button type=\"submit\">Record response</button></form>";
   return body;
 }
 
@@ -134,8 +134,10 @@ DeskResponse Page(const PageRequest& r, int status, const std::string& notice, c
   body += FindForm(query, "");
   if (!probe.empty()) {
     auto h = LoadHistory(r.store, r.design.outcomes, probe);
-    if (!h.ok()) body += NoticeBox("error", RefusalText(h.error()));
-    else body += ProbeSection(r, h.value(), form);
+    if (!h.ok())
+      body += NoticeBox("error", RefusalText(h.error()));
+    else
+      body += ProbeSection(r, h.value(), form);
   } else if (!query.empty()) {
     body += Matches(r, query);
   }
@@ -154,8 +156,8 @@ DeskResponse RecordPage(const PageRequest& r) {
 
 DeskResponse RecordEntry(const PageRequest& r) {
   EntryForm form;
-  form.entry = ResponseEntry{r.Param("probe"), r.Param("code"), r.Param("received_at"), r.Param("channel"),
-                             r.Param("note"), "desk"};
+  form.entry = ResponseEntry{r.Param("probe"),   r.Param("code"), r.Param("received_at"),
+                             r.Param("channel"), r.Param("note"), "desk"};
   DeskActorScope actor(r.session.member);
   auto recorded = RecordResponse(r.store, r.design.outcomes, form.entry);
   if (!recorded.ok()) {

@@ -80,11 +80,11 @@ Result<std::unique_ptr<DeskServer>> DeskServer::Bind(Desk& desk, const ServeOpti
   // says what happened instead of an empty one. Desk pages keep their own.
   srv.set_error_handler([](const httplib::Request&, httplib::Response& res) {
     if (!res.body.empty()) return;
-    std::string what = res.status == 413
-                           ? "The form was too large for the desk (a note can hold about 8,000 characters). Nothing "
-                             "was recorded; go back, shorten it and send it again."
-                           : "The desk could not read this request (HTTP " + std::to_string(res.status) +
-                                 "). Nothing was recorded.";
+    std::string what =
+        res.status == 413
+            ? "The form was too large for the desk (a note can hold about 8,000 characters). Nothing "
+              "was recorded; go back, shorten it and send it again."
+            : "The desk could not read this request (HTTP " + std::to_string(res.status) + "). Nothing was recorded.";
     DeskResponse page = ErrorPage(res.status, "", what);
     for (auto& [k, v] : DeskSecurityHeaders()) res.headers.emplace(k, v);
     res.set_content(page.body, page.content_type.c_str());

@@ -15,7 +15,7 @@ constexpr size_t kMaxRequestBodyBytes = 64 * 1024;  // the largest form is a not
 
 struct ServeOptions {
   std::string bind = "127.0.0.1";
-  int port = 8470;           // 0: any free port
+  int port = 8470;                // 0: any free port
   std::string tls_cert, tls_key;  // both or neither (PEM files)
 };
 

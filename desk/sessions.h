@@ -16,7 +16,7 @@ namespace twinprobe {
 
 struct DeskSession {
   std::string member;
-  std::string csrf;  // hex, 64 characters
+  std::string csrf;                    // hex, 64 characters
   int64_t started = 0, last_seen = 0;  // epoch seconds
 };
 

@@ -44,8 +44,9 @@ DeskResponse Desk::SignInPage(const DeskRequest& request, const std::string& mem
   // tab, or the browser fetching a favicon and being sent here) must not
   // invalidate the form already open.
   std::string token;
-  if (auto c = request.cookies.find(kSignInCookie); c != request.cookies.end() && c->second.size() == 64 &&
-                                                   c->second.find_first_not_of("0123456789abcdef") == std::string::npos)
+  if (auto c = request.cookies.find(kSignInCookie);
+      c != request.cookies.end() && c->second.size() == 64 &&
+      c->second.find_first_not_of("0123456789abcdef") == std::string::npos)
     token = c->second;
   else
     token = RandomHex(32);
@@ -58,21 +59,23 @@ DeskResponse Desk::SignInPage(const DeskRequest& request, const std::string& mem
     body += SelectField(who, design_.team, "Choose your name");
     body += InputField({"passphrase", "Passphrase", "", "", "", "password", "current-password", false});
     body += "<button type=\"submit\">Sign in</button></form>";
-    body += "<p class=\"note\">First time here? Choose your name and leave the passphrase empty: you will be asked to "
-            "set one.</p>";
+    body +=
+        "<p class=\"note\">First time here? Choose your name and leave the passphrase empty: you will be asked to "
+        "set one.</p>";
   } else {
-    body += "<p><strong>" + UserText(member) +
-            "</strong> has no passphrase yet. Choose one of at least " + std::to_string(kPassphraseMinLength) +
+    body += "<p><strong>" + UserText(member) + "</strong> has no passphrase yet. Choose one of at least " +
+            std::to_string(kPassphraseMinLength) +
             " characters; only a salted hash of it is kept in the study's store.</p>";
     body += "<form method=\"post\" action=\"/signin\"><input type=\"hidden\" name=\"signin\" value=\"" + token +
             "\"><input type=\"hidden\" name=\"step\" value=\"set\"><input type=\"hidden\" name=\"member\" value=\"" +
             EscapeHtml(member) + "\">";
     body += InputField({"new_passphrase", "New passphrase", "", "", error, "password", "new-password", true});
-    body += InputField({"repeat_passphrase", "The same passphrase again", "", "", "", "password", "new-password", true});
+    body +=
+        InputField({"repeat_passphrase", "The same passphrase again", "", "", "", "password", "new-password", true});
     body += "<button type=\"submit\">Set passphrase and sign in</button></form>";
   }
-  PageFrame frame{first_use ? "Set your passphrase" : "Sign in", design_.title.empty() ? design_.study_id : design_.title,
-                  "", "", ""};
+  PageFrame frame{first_use ? "Set your passphrase" : "Sign in",
+                  design_.title.empty() ? design_.study_id : design_.title, "", "", ""};
   DeskResponse r = HtmlResponse(error.empty() ? 200 : 400, RenderPage(frame, body));
   r.headers.push_back({"Set-Cookie", Cookie(kSignInCookie, token, options_.secure_cookies)});
   return r;
@@ -88,13 +91,16 @@ DeskResponse Desk::SignIn(const DeskRequest& request) {
                      "sign-in page again.");
   const std::string member = Param(request, "member");
   if (std::find(design_.team.begin(), design_.team.end(), member) == design_.team.end())
-    return SignInPage(request, "", member.empty() ? "choose your name from the list"
-                                                  : "'" + member + "' is not in the study's [team] — ask whoever "
-                                                                   "keeps study.toml to add you");
+    return SignInPage(request, "",
+                      member.empty() ? "choose your name from the list"
+                                     : "'" + member +
+                                           "' is not in the study's [team] — ask whoever "
+                                           "keeps study.toml to add you");
   const int64_t now = NowEpoch();
   if (int64_t wait = throttle_.WaitSeconds(member, now); wait > 0)
-    return SignInPage(request, member, "too many wrong passphrases for " + member + " — wait " +
-                                       Plural(wait, "second", "seconds") + ", then try again");
+    return SignInPage(request, member,
+                      "too many wrong passphrases for " + member + " — wait " + Plural(wait, "second", "seconds") +
+                          ", then try again");
 
   const std::string db = (std::filesystem::path(options_.study_dir) / "study.db").string();
   auto opened = Store::Open(db, false);
@@ -103,8 +109,7 @@ DeskResponse Desk::SignIn(const DeskRequest& request) {
   auto stored = ReadPassphrase(store, member);
 
   if (Param(request, "step") == "set") {
-    if (stored)
-      return SignInPage(DeskRequest{}, "", member + " already has a passphrase — sign in with it");
+    if (stored) return SignInPage(DeskRequest{}, "", member + " already has a passphrase — sign in with it");
     const std::string pass = Param(request, "new_passphrase");
     if (Status s = CheckNewPassphrase(pass, Param(request, "repeat_passphrase"), ""); !s.ok())
       return SignInPage(request, member, RefusalText(s.error()));
@@ -123,9 +128,9 @@ DeskResponse Desk::SignIn(const DeskRequest& request) {
     if (!stored) return SignInPage(request, member, "");  // first use: ask for a passphrase
     if (!PassphraseMatches(*stored, Param(request, "passphrase"))) {
       throttle_.Failed(member, now);
-      return SignInPage(request, member, "wrong passphrase for " + member + " — wait " +
-                                         Plural(throttle_.WaitSeconds(member, now), "second", "seconds") +
-                                         " before the next try");
+      return SignInPage(request, member,
+                        "wrong passphrase for " + member + " — wait " +
+                            Plural(throttle_.WaitSeconds(member, now), "second", "seconds") + " before the next try");
     }
   }
   throttle_.Succeeded(member);

@@ -14,12 +14,15 @@ namespace fs = std::filesystem;
 namespace {
 
 std::string ContentType(const std::string& ext) {
-  static const std::map<std::string, std::string> kTypes = {
-      {".html", "text/html; charset=utf-8"}, {".htm", "text/html; charset=utf-8"},
-      {".md", "text/plain; charset=utf-8"},  {".txt", "text/plain; charset=utf-8"},
-      {".csv", "text/plain; charset=utf-8"}, {".json", "application/json"},
-      {".svg", "image/svg+xml"},             {".png", "image/png"},
-      {".pdf", "application/pdf"}};
+  static const std::map<std::string, std::string> kTypes = {{".html", "text/html; charset=utf-8"},
+                                                            {".htm", "text/html; charset=utf-8"},
+                                                            {".md", "text/plain; charset=utf-8"},
+                                                            {".txt", "text/plain; charset=utf-8"},
+                                                            {".csv", "text/plain; charset=utf-8"},
+                                                            {".json", "application/json"},
+                                                            {".svg", "image/svg+xml"},
+                                                            {".png", "image/png"},
+                                                            {".pdf", "application/pdf"}};
   auto it = kTypes.find(ext);
   return it == kTypes.end() ? "application/octet-stream" : it->second;
 }
@@ -41,7 +44,8 @@ Result<ServedFile> ResolveStudyFile(const std::string& study_dir, const std::str
     start = slash + 1;
   }
   if (parts.size() < 2 || (parts[0] != "materials" && parts[0] != "reports"))
-    return BadInput(url_path, "only files under materials/ and reports/ are served", "open files from the desk's links");
+    return BadInput(url_path, "only files under materials/ and reports/ are served",
+                    "open files from the desk's links");
   for (const std::string& p : parts)
     if (p.empty() || p[0] == '.' || p.find('\\') != std::string::npos || p.find('\0') != std::string::npos)
       return BadInput(url_path, "the path has an empty, hidden or parent part", "open files from the desk's links");
@@ -50,12 +54,14 @@ Result<ServedFile> ResolveStudyFile(const std::string& study_dir, const std::str
   for (size_t i = 0; i < parts.size(); ++i) {
     at /= parts[i];
     struct stat st;
-    if (lstat(at.c_str(), &st) != 0) return BadInput(url_path, "no such file", "render the materials or the report first");
+    if (lstat(at.c_str(), &st) != 0)
+      return BadInput(url_path, "no such file", "render the materials or the report first");
     if (S_ISLNK(st.st_mode))
       return BadInput(url_path, "the path goes through a symbolic link, which the desk does not follow",
                       "copy the file into the study folder instead of linking it");
     const bool last = i + 1 == parts.size();
-    if (last && !S_ISREG(st.st_mode)) return BadInput(url_path, "not a regular file", "open files from the desk's links");
+    if (last && !S_ISREG(st.st_mode))
+      return BadInput(url_path, "not a regular file", "open files from the desk's links");
     if (!last && !S_ISDIR(st.st_mode)) return BadInput(url_path, "no such file", "open files from the desk's links");
     if (last && st.st_size > kMaxServedBytes)
       return BadInput(url_path, "the file is larger than the desk serves", "open it from the study folder");
@@ -77,7 +83,8 @@ DeskResponse ServeStudyFile(const std::string& study_dir, const std::string& url
   ::close(fd);
   r.content_type = file.value().content_type;
   // A served document runs no script and loads nothing, whatever it holds.
-  r.headers.push_back({"Content-Security-Policy", "sandbox; default-src 'none'; style-src 'unsafe-inline'; img-src data:"});
+  r.headers.push_back(
+      {"Content-Security-Policy", "sandbox; default-src 'none'; style-src 'unsafe-inline'; img-src data:"});
   return r;
 }
 

@@ -45,16 +45,19 @@ DeskResponse StudyPage(const PageRequest& r) {
   body += "<h2>Latest report</h2>";
   const std::string report = LatestReport(r.study_dir);
   if (report.empty())
-    body += "<p class=\"absent\">No HTML report in reports/ yet. Whoever runs the analysis makes one with "
-            "<code>twinprobe report --out reports/report.html</code>.</p>";
+    body +=
+        "<p class=\"absent\">No HTML report in reports/ yet. Whoever runs the analysis makes one with "
+        "<code>twinprobe report --out reports/report.html</code>.</p>";
   else
     body += "<p><a href=\"/files/reports/" + UrlEncode(report) + "\">" + UserText(report) + "</a></p>";
   body += "<h2>The record</h2><dl class=\"facts\"><dt>Study</dt><dd>" + UserText(r.design.study_id) +
-          "</dd><dt>Audit entries</dt><dd>" + std::to_string(f.entries) + "</dd><dt>Chain head</dt><dd class=\"hash\">" +
-          EscapeHtml(AuditHead(r.store)) + "</dd><dt>Field team</dt><dd>";
+          "</dd><dt>Audit entries</dt><dd>" + std::to_string(f.entries) +
+          "</dd><dt>Chain head</dt><dd class=\"hash\">" + EscapeHtml(AuditHead(r.store)) +
+          "</dd><dt>Field team</dt><dd>";
   for (size_t i = 0; i < r.design.team.size(); ++i) body += (i ? ", " : "") + UserText(r.design.team[i]);
-  body += "</dd></dl><p class=\"note\">Analysis stays with the commands: <code>twinprobe analyze</code>, "
-          "<code>twinprobe report</code>, and <code>twinprobe verify</code> to check the audit chain.</p>";
+  body +=
+      "</dd></dl><p class=\"note\">Analysis stays with the commands: <code>twinprobe analyze</code>, "
+      "<code>twinprobe report</code>, and <code>twinprobe verify</code> to check the audit chain.</p>";
   return HtmlResponse(200, RenderPage(r.Frame("Study", "study"), body));
 }
 

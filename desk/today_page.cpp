@@ -1,8 +1,7 @@
 // Today: what to send (as `schedule`), each with its rendered material, and
 // a "sent at" form for one or several probes (as `sent`).
-#include <filesystem>
-
 #include <algorithm>
+#include <filesystem>
 
 #include "collector/declines.h"
 #include "collector/responses.h"
@@ -15,7 +14,7 @@
 namespace twinprobe {
 namespace {
 
-constexpr size_t kMaxDueRows = 200;   // a page, not the whole plan
+constexpr size_t kMaxDueRows = 200;  // a page, not the whole plan
 constexpr size_t kUpcomingRows = 10;
 
 std::string ShortTime(const std::string& iso) {
@@ -65,8 +64,8 @@ std::string TodayBody(const PageRequest& r, const std::string& notice_html, cons
     for (const auto& d : pending) overdue += d.overdue;
     if (overdue)
       h += "<p class=\"banner\"><strong>Overdue:</strong> " + std::to_string(overdue) +
-           (overdue == 1 ? " invitation or offer was" : " invitations or offers were") +
-           " not declined within " + std::to_string(hours) + " hours. <a href=\"/declines\">Decline now</a>.</p>";
+           (overdue == 1 ? " invitation or offer was" : " invitations or offers were") + " not declined within " +
+           std::to_string(hours) + " hours. <a href=\"/declines\">Decline now</a>.</p>";
     else if (!pending.empty())
       h += "<p class=\"notice ok\">" + std::to_string(pending.size()) +
            (pending.size() == 1 ? " invitation or offer" : " invitations or offers") +
@@ -84,7 +83,8 @@ std::string TodayBody(const PageRequest& r, const std::string& notice_html, cons
        ". Send each with its material, then tick it and say when it went out.</p>";
   h += "<form method=\"post\" action=\"/today\">" + CsrfInput(r.session.csrf);
   h += "<h2>Due by the end of today</h2>";
-  if (due == 0) h += "<p class=\"absent\">Nothing is due.</p>";
+  if (due == 0)
+    h += "<p class=\"absent\">Nothing is due.</p>";
   else {
     h += "<div class=\"scroll\"><table class=\"data\"><caption>Due probes, oldest first</caption>" +
          std::string(kProbeHead) + "<tbody>" + ProbeRows(r, rows.value(), 0, std::min(due, kMaxDueRows), checked) +
@@ -94,13 +94,14 @@ std::string TodayBody(const PageRequest& r, const std::string& notice_html, cons
            " more are due; they appear here once these are marked sent.</p>";
   }
   if (due < rows.value().size()) {
-    h += "<h2>Coming up</h2><div class=\"scroll\"><table class=\"data\"><caption>The next probes in the plan</caption>" +
-         std::string(kProbeHead) + "<tbody>" + ProbeRows(r, rows.value(), due, due + kUpcomingRows, checked) +
-         "</tbody></table></div>";
+    h +=
+        "<h2>Coming up</h2><div class=\"scroll\"><table class=\"data\"><caption>The next probes in the plan</caption>" +
+        std::string(kProbeHead) + "<tbody>" + ProbeRows(r, rows.value(), due, due + kUpcomingRows, checked) +
+        "</tbody></table></div>";
   }
   h += "<div class=\"row\">" +
-       InputField({"sent_at", "Sent at (UTC)", at_value, "YYYY-MM-DD or YYYY-MM-DDTHH:MM; leave empty for now", at_error,
-                   "text", "off", false}) +
+       InputField({"sent_at", "Sent at (UTC)", at_value, "YYYY-MM-DD or YYYY-MM-DDTHH:MM; leave empty for now",
+                   at_error, "text", "off", false}) +
        "<div class=\"field action\"><button type=\"submit\">Mark the ticked probes as sent</button></div></div></form>";
   return h;
 }
@@ -115,9 +116,10 @@ DeskResponse MarkSent(const PageRequest& r) {
   const std::vector<std::string> probes = r.Params("probe");
   const std::string at = r.Param("sent_at");
   if (probes.empty())
-    return HtmlResponse(400, RenderPage(r.Frame("Today", "today"),
-                                        TodayBody(r, NoticeBox("error", "Tick at least one probe; nothing was recorded."),
-                                                  at, "", {})));
+    return HtmlResponse(
+        400,
+        RenderPage(r.Frame("Today", "today"),
+                   TodayBody(r, NoticeBox("error", "Tick at least one probe; nothing was recorded."), at, "", {})));
   DeskActorScope actor(r.session.member);
   std::string landed;
   for (const std::string& probe : probes) {
@@ -126,8 +128,8 @@ DeskResponse MarkSent(const PageRequest& r) {
     if (!s.ok()) {
       std::string notice = landed.empty() ? "" : NoticeBox("ok", landed);
       notice += NoticeBox("error", probe + " was not marked sent: " + RefusalText(s.error()));
-      return HtmlResponse(400, RenderPage(r.Frame("Today", "today"),
-                                          TodayBody(r, notice, at, RefusalText(s.error()), probes)));
+      return HtmlResponse(
+          400, RenderPage(r.Frame("Today", "today"), TodayBody(r, notice, at, RefusalText(s.error()), probes)));
     }
     const SendingRecord& v = s.value();
     landed += (landed.empty() ? "" : " ") + std::string("Marked ") + v.probe_ref + " as sent at " + v.sent_at +

@@ -5,11 +5,10 @@
 #include <sys/wait.h>
 #include <unistd.h>
 
+#include <catch2/catch.hpp>
 #include <chrono>
 #include <regex>
 #include <thread>
-
-#include <catch2/catch.hpp>
 
 #include "collector/collector_fixtures.h"
 
@@ -35,12 +34,14 @@ TEST_CASE("desk cli: another address than 127.0.0.1 needs TLS, and a design with
   AddTeam(s);
   auto open = RunCli({"--study", s.path, "desk", "--bind", "0.0.0.0"});
   CHECK(open.exit_code == 2);
-  CHECK(open.err == "twinprobe: --bind 0.0.0.0: the desk serves another address than 127.0.0.1 only over TLS \u2014 "
-                    "add --tls-cert FILE --tls-key FILE, or leave out --bind to serve this machine only\n");
+  CHECK(open.err ==
+        "twinprobe: --bind 0.0.0.0: the desk serves another address than 127.0.0.1 only over TLS \u2014 "
+        "add --tls-cert FILE --tls-key FILE, or leave out --bind to serve this machine only\n");
   auto half = RunCli({"--study", s.path, "desk", "--tls-cert", "cert.pem"});
   CHECK(half.exit_code == 2);
-  CHECK(half.err == "twinprobe: --tls-cert and --tls-key go together \u2014 give both (PEM files), or neither to serve "
-                    "plain HTTP on 127.0.0.1\n");
+  CHECK(half.err ==
+        "twinprobe: --tls-cert and --tls-key go together \u2014 give both (PEM files), or neither to serve "
+        "plain HTTP on 127.0.0.1\n");
 }
 
 TEST_CASE("desk cli: prints its loopback address and stops cleanly on SIGTERM") {
@@ -64,8 +65,9 @@ TEST_CASE("desk cli: prints its loopback address and stops cleanly on SIGTERM") 
     std::this_thread::sleep_for(std::chrono::milliseconds(50));
     out = testing::ReadFile(out_path);
   }
-  CHECK(std::regex_match(out, std::regex("Desk for .* at http://127\\.0\\.0\\.1:[0-9]+/ \\(open it in a browser; Ctrl-C "
-                                         "stops it\\)\n")));
+  CHECK(
+      std::regex_match(out, std::regex("Desk for .* at http://127\\.0\\.0\\.1:[0-9]+/ \\(open it in a browser; Ctrl-C "
+                                       "stops it\\)\n")));
   REQUIRE(kill(pid, SIGTERM) == 0);
   int status = 0;
   REQUIRE(waitpid(pid, &status, 0) == pid);

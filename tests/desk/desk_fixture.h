@@ -4,14 +4,13 @@
 // browser. Header-only (tests/CMakeLists.txt builds *_test.cpp).
 #include <curl/curl.h>
 
+#include <catch2/catch.hpp>
 #include <memory>
 #include <regex>
 #include <string>
 #include <thread>
 #include <utility>
 #include <vector>
-
-#include <catch2/catch.hpp>
 
 #include "collector/collector_fixtures.h"
 #include "desk/desk.h"
@@ -95,10 +94,14 @@ class DeskClient {
   // Signs in as `member`, setting `passphrase` first when the desk asks.
   void SignIn(const std::string& member, const std::string& passphrase) {
     HttpReply page = Get("/signin");
-    HttpReply r = Post("/signin", {{"signin", Hidden(page.body, "signin")}, {"member", member}, {"passphrase", passphrase}});
+    HttpReply r =
+        Post("/signin", {{"signin", Hidden(page.body, "signin")}, {"member", member}, {"passphrase", passphrase}});
     if (r.status == 200 && r.body.find("has no passphrase yet") != std::string::npos)
-      r = Post("/signin", {{"signin", Hidden(r.body, "signin")}, {"step", "set"}, {"member", member},
-                           {"new_passphrase", passphrase}, {"repeat_passphrase", passphrase}});
+      r = Post("/signin", {{"signin", Hidden(r.body, "signin")},
+                           {"step", "set"},
+                           {"member", member},
+                           {"new_passphrase", passphrase},
+                           {"repeat_passphrase", passphrase}});
     REQUIRE(r.status == 303);
     REQUIRE(r.location == "/today");
   }

@@ -25,17 +25,26 @@ TEST_CASE("desk http: a first sign-in sets a passphrase and the entries land und
     CHECK(stored->hash_hex.find("meadow") == std::string::npos);
     CHECK(store->QueryInt("SELECT count(*) FROM audit WHERE command = 'desk passphrase' AND actor = 'Ada Moss'") == 1);
   }
-  auto sent = ada.Post("/today", {{"csrf", ada.csrf()}, {"probe", "P00001"}, {"probe", "P00003"},
-                                  {"sent_at", "2027-03-01T10:05"}});
+  auto sent = ada.Post(
+      "/today", {{"csrf", ada.csrf()}, {"probe", "P00001"}, {"probe", "P00003"}, {"sent_at", "2027-03-01T10:05"}});
   CHECK(sent.status == 200);
   CHECK(ClassText(sent.body, "notice ok") ==
         "Marked P00001 as sent at 2027-03-01T10:05:00Z. Marked P00003 as sent at 2027-03-01T10:05:00Z.");
-  auto recorded = ada.Post("/record", {{"csrf", ada.csrf()}, {"probe", "P00001"}, {"code", "invitation"},
-                                       {"received_at", "2027-03-01T11:30"}, {"channel", "phone"}, {"note", "call back"}});
+  auto recorded = ada.Post("/record", {{"csrf", ada.csrf()},
+                                       {"probe", "P00001"},
+                                       {"code", "invitation"},
+                                       {"received_at", "2027-03-01T11:30"},
+                                       {"channel", "phone"},
+                                       {"note", "call back"}});
   CHECK(recorded.status == 200);
-  CHECK(ClassText(recorded.body, "notice ok") == "Recorded invitation for P00001 at 2027-03-01T11:30:00Z (positive callback).");
-  auto corrected = ada.Post("/record", {{"csrf", ada.csrf()}, {"probe", "P00001"}, {"code", "rejection"},
-                                        {"received_at", "2027-03-01T11:30"}, {"channel", "phone"}, {"note", ""}});
+  CHECK(ClassText(recorded.body, "notice ok") ==
+        "Recorded invitation for P00001 at 2027-03-01T11:30:00Z (positive callback).");
+  auto corrected = ada.Post("/record", {{"csrf", ada.csrf()},
+                                        {"probe", "P00001"},
+                                        {"code", "rejection"},
+                                        {"received_at", "2027-03-01T11:30"},
+                                        {"channel", "phone"},
+                                        {"note", ""}});
   CHECK(ClassText(corrected.body, "notice ok") ==
         "Recorded rejection for P00001 at 2027-03-01T11:30:00Z; it supersedes response 1, which is kept.");
   CHECK(corrected.body.find("superseded by response 2") != std::string::npos);
@@ -56,13 +65,18 @@ TEST_CASE("desk http: a refused response shows record's message beside its field
   DeskClient ada(s.url());
   ada.SignIn("Ada Moss", "meadow lantern river");
   const std::string before = testing::FingerprintOf(s.study.db());
-  auto r = ada.Post("/record", {{"csrf", ada.csrf()}, {"probe", "P00002"}, {"code", "invitation"},
-                                {"received_at", "yesterday"}, {"channel", ""}, {"note", ""}});
+  auto r = ada.Post("/record", {{"csrf", ada.csrf()},
+                                {"probe", "P00002"},
+                                {"code", "invitation"},
+                                {"received_at", "yesterday"},
+                                {"channel", ""},
+                                {"note", ""}});
   CHECK(r.status == 400);
   CHECK(ClassText(r.body, "refused") ==
         "'yesterday' is not a date or time \u2014 write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM (UTC)");
   CHECK(r.body.find("id=\"received_at\" name=\"received_at\" value=\"yesterday\" autocomplete=\"off\" "
-                    "aria-describedby=\"received_at-hint received_at-refused\" aria-invalid=\"true\"") != std::string::npos);
+                    "aria-describedby=\"received_at-hint received_at-refused\" aria-invalid=\"true\"") !=
+        std::string::npos);
   auto code = ada.Post("/record", {{"csrf", ada.csrf()}, {"probe", "P00002"}, {"code", "invitaton"}});
   CHECK(ClassText(code.body, "refused") ==
         "'invitaton' is not a response code of this study (did you mean 'invitation'?) \u2014 use one of: none, "
@@ -89,7 +103,8 @@ TEST_CASE("desk http: a form without its CSRF token or from a signed-out browser
   CHECK(ClassText(forged.body, "notice error") ==
         "This form did not come from this desk (its security token is missing or wrong); nothing was recorded. Open "
         "the page again and resend.");
-  CHECK(ada.Post("/record", {{"csrf", std::string(64, '0')}, {"probe", "P00001"}, {"code", "invitation"}}).status == 403);
+  CHECK(ada.Post("/record", {{"csrf", std::string(64, '0')}, {"probe", "P00001"}, {"code", "invitation"}}).status ==
+        403);
   DeskClient stranger(s.url());
   auto r = stranger.Post("/record", {{"csrf", ada.csrf()}, {"probe", "P00001"}, {"code", "invitation"}});
   CHECK(r.status == 403);
@@ -109,16 +124,18 @@ TEST_CASE("desk http: a wrong passphrase makes the next try wait, and strangers 
   ada.SignIn("Ada Moss", "meadow lantern river");
   DeskClient guesser(s.url());
   auto page = guesser.Get("/signin");
-  auto wrong = guesser.Post("/signin", {{"signin", DeskClient::Hidden(page.body, "signin")}, {"member", "Ada Moss"},
-                                        {"passphrase", "meadow lantern"}});
+  auto wrong = guesser.Post(
+      "/signin",
+      {{"signin", DeskClient::Hidden(page.body, "signin")}, {"member", "Ada Moss"}, {"passphrase", "meadow lantern"}});
   CHECK(wrong.status == 400);
   CHECK(ClassText(wrong.body, "refused") == "wrong passphrase for Ada Moss \u2014 wait 1 second before the next try");
-  auto again = guesser.Post("/signin", {{"signin", DeskClient::Hidden(wrong.body, "signin")}, {"member", "Ada Moss"},
+  auto again = guesser.Post("/signin", {{"signin", DeskClient::Hidden(wrong.body, "signin")},
+                                        {"member", "Ada Moss"},
                                         {"passphrase", "meadow lantern river"}});
   CHECK(ClassText(again.body, "refused") ==
         "too many wrong passphrases for Ada Moss \u2014 wait 1 second, then try again");
-  auto stranger = guesser.Post("/signin", {{"signin", DeskClient::Hidden(again.body, "signin")},
-                                           {"member", "Mallory"}, {"passphrase", "x"}});
+  auto stranger = guesser.Post(
+      "/signin", {{"signin", DeskClient::Hidden(again.body, "signin")}, {"member", "Mallory"}, {"passphrase", "x"}});
   CHECK(ClassText(stranger.body, "refused") ==
         "'Mallory' is not in the study's [team] \u2014 ask whoever keeps study.toml to add you");
 }
@@ -147,14 +164,16 @@ TEST_CASE("desk http: an oversized request body is refused before it is read") {
   const std::string before = testing::FingerprintOf(s.study.db());
   // Debian's cpp-httplib caps a form at 8 KiB, every other body at the desk's 64 KiB.
   for (size_t size : {9 * 1024, 70 * 1024}) {
-    auto r = ada.Post("/record", {{"csrf", ada.csrf()}, {"probe", "P00001"}, {"code", "rejection"},
-                                  {"note", std::string(size, 'x')}});
+    auto r =
+        ada.Post("/record",
+                 {{"csrf", ada.csrf()}, {"probe", "P00001"}, {"code", "rejection"}, {"note", std::string(size, 'x')}});
     CHECK(r.status == 413);
     CHECK(ClassText(r.body, "notice error") ==
           "The form was too large for the desk (a note can hold about 8,000 characters). Nothing was recorded; go "
           "back, shorten it and send it again.");
   }
   CHECK(testing::FingerprintOf(s.study.db()) == before);
-  CHECK(ada.Post("/record", {{"csrf", ada.csrf()}, {"probe", "P00001"}, {"code", "rejection"},
-                             {"note", std::string(7000, 'x')}}).status == 200);
+  CHECK(ada.Post("/record",
+                 {{"csrf", ada.csrf()}, {"probe", "P00001"}, {"code", "rejection"}, {"note", std::string(7000, 'x')}})
+            .status == 200);
 }

@@ -20,21 +20,22 @@ TEST_CASE("desk mail: a suggestion confirmed on the desk lands under the member'
   auto queue = ada.Get("/mail");
   CHECK(queue.status == 200);
   CHECK(queue.body.find("12 messages wait for a decision") != std::string::npos);
-  CHECK(queue.body.find("<bdi>invitation</bdi>: \u201c<bdi>invite you to an interview</bdi>\u201d in the <bdi>body</bdi>") !=
+  CHECK(queue.body.find(
+            "<bdi>invitation</bdi>: \u201c<bdi>invite you to an interview</bdi>\u201d in the <bdi>body</bdi>") !=
         std::string::npos);
 
   const std::string before = testing::FingerprintOf(s.study + "/study.db");
   auto no_decision = ada.Post("/mail", {{"csrf", ada.csrf()}, {"message", "1"}});
   CHECK(no_decision.status == 400);
   CHECK(ClassText(no_decision.body, "refused") == "choose a decision \u2014 confirm, code or dismiss");
-  auto ambiguous = ada.Post("/mail", {{"csrf", ada.csrf()}, {"message", "10"}, {"decision-10", "code"},
-                                      {"code-10", "rejection"}});
+  auto ambiguous =
+      ada.Post("/mail", {{"csrf", ada.csrf()}, {"message", "10"}, {"decision-10", "code"}, {"code-10", "rejection"}});
   CHECK(ambiguous.status == 400);
   CHECK(ambiguous.body.find("id=\"decision-10-refused\"") != std::string::npos);
   CHECK(testing::FingerprintOf(s.study + "/study.db") == before);
 
-  auto confirmed = ada.Post("/mail", {{"csrf", ada.csrf()}, {"message", "1"}, {"decision-1", "confirm"},
-                                      {"probe-1", "P00001"}});
+  auto confirmed =
+      ada.Post("/mail", {{"csrf", ada.csrf()}, {"message", "1"}, {"decision-1", "confirm"}, {"probe-1", "P00001"}});
   CHECK(confirmed.status == 200);
   CHECK(ClassText(confirmed.body, "notice ok") ==
         "Recorded invitation for P00001 at 2027-03-04T09:15:00Z from message 1 (confirmed as suggested), a positive "

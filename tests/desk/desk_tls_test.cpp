@@ -2,10 +2,9 @@
 // with the openssl tool, served on 127.0.0.1, cookies marked Secure.
 #include <curl/curl.h>
 
+#include <catch2/catch.hpp>
 #include <cstdlib>
 #include <thread>
-
-#include <catch2/catch.hpp>
 
 #include "desk/desk_fixture.h"
 
@@ -46,7 +45,7 @@ TEST_CASE("desk tls: serves HTTPS with Secure cookies, and refuses a certificate
   curl_easy_setopt(curl, CURLOPT_URL, url.c_str());
   curl_easy_setopt(curl, CURLOPT_NOPROXY, "*");
   curl_easy_setopt(curl, CURLOPT_CAINFO, cert.c_str());  // trust exactly this certificate
-  curl_easy_setopt(curl, CURLOPT_SSL_VERIFYHOST, 0L);     // its name is an address, not a host
+  curl_easy_setopt(curl, CURLOPT_SSL_VERIFYHOST, 0L);    // its name is an address, not a host
   curl_easy_setopt(curl, CURLOPT_HEADERFUNCTION, &Append);
   curl_easy_setopt(curl, CURLOPT_HEADERDATA, &headers);
   curl_easy_setopt(curl, CURLOPT_WRITEFUNCTION, &Append);

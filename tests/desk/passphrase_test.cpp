@@ -1,7 +1,7 @@
 // desk/passphrase.h: PBKDF2-HMAC-SHA-256 and the passphrase rules.
-#include <catch2/catch.hpp>
-
 #include "desk/passphrase.h"
+
+#include <catch2/catch.hpp>
 
 using namespace twinprobe;
 

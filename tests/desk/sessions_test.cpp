@@ -1,7 +1,7 @@
 // desk/sessions.h: session expiry and the sign-in brake.
-#include <catch2/catch.hpp>
-
 #include "desk/sessions.h"
+
+#include <catch2/catch.hpp>
 
 using namespace twinprobe;
 
@@ -15,7 +15,7 @@ TEST_CASE("desk sessions: a session ends after 30 idle minutes or 12 hours, whic
   CHECK(s->csrf.size() == 64);
   CHECK(s->csrf != id);
   CHECK_FALSE(t.Find(id, 1000 + 29 * 60 + 30 * 60 + 1));  // idle too long
-  CHECK_FALSE(t.Find(id, 1000));                           // and forgotten
+  CHECK_FALSE(t.Find(id, 1000));                          // and forgotten
 
   const std::string busy = t.Start("Bo Lind", 0);
   int64_t now = 0;

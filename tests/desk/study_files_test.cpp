@@ -1,9 +1,9 @@
 // desk/study_files.h: which files the desk serves.
-#include <catch2/catch.hpp>
+#include "desk/study_files.h"
 
+#include <catch2/catch.hpp>
 #include <filesystem>
 
-#include "desk/study_files.h"
 #include "testing/testing.h"
 
 using namespace twinprobe;
@@ -34,8 +34,9 @@ TEST_CASE("desk files: only regular files under materials and reports, never thr
   CHECK(message("/files/materials/../study.db") ==
         "/files/materials/../study.db: the path has an empty, hidden or parent part \u2014 open files from the desk's "
         "links");
-  CHECK(message("/files/materials/.hidden") ==
-        "/files/materials/.hidden: the path has an empty, hidden or parent part \u2014 open files from the desk's links");
+  CHECK(
+      message("/files/materials/.hidden") ==
+      "/files/materials/.hidden: the path has an empty, hidden or parent part \u2014 open files from the desk's links");
   CHECK(message("/files/materials//P00001.html") ==
         "/files/materials//P00001.html: the path has an empty, hidden or parent part \u2014 open files from the desk's "
         "links");

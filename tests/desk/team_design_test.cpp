@@ -31,8 +31,9 @@ TEST_CASE("desk team: an unusable, repeated or unknown entry names its place in 
   const int line = static_cast<int>(std::count(base.begin(), base.end(), '\n')) + 1;
   auto at = [&](int col) { return "study.toml:" + std::to_string(line) + ":" + std::to_string(col) + ": "; };
   CHECK(ParseDesign(base + "members = [\"Ada Moss\", \" Bo\"]\n", "study.toml", "").error().Message() ==
-        at(24) + "[team].members holds ' Bo', which is not a usable name \u2014 write each member as 1 to 60 printable "
-                 "characters without leading or trailing spaces");
+        at(24) +
+            "[team].members holds ' Bo', which is not a usable name \u2014 write each member as 1 to 60 printable "
+            "characters without leading or trailing spaces");
   CHECK(ParseDesign(base + "members = [\"Ada Moss\", \"Ada Moss\"]\n", "study.toml", "").error().Message() ==
         at(24) + "[team].members lists 'Ada Moss' twice \u2014 remove the duplicate");
   CHECK(ParseDesign(base + "members = []\n", "study.toml", "").error().Message() ==
