@@ -34,6 +34,7 @@ void RegisterSchedule(CLI::App& app, Context& ctx);         // schedule_cmd.cpp
 void RegisterCollectCommands(CLI::App& app, Context& ctx);  // sent, record (collect_cmds.cpp)
 void RegisterImportCommands(CLI::App& app, Context& ctx);   // import outcomes|pairs|ranks|labels (import_cmds.cpp)
 void RegisterHistory(CLI::App& app, Context& ctx);          // history_cmd.cpp
+void RegisterDesk(CLI::App& app, Context& ctx);             // desk (desk_cmd.cpp)
 void RegisterMailCommand(CLI::App& app, Context& ctx);      // mail_cmd.cpp
 void RegisterReviewCommand(CLI::App& app, Context& ctx);    // review_cmd.cpp
 void RegisterFetchCommands(CLI::App& app, Context& ctx);    // fetch (fetch_cmd.cpp)

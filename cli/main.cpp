@@ -27,6 +27,7 @@ constexpr Registrar kCommandGroups[] = {
     &RegisterCollectCommands,  // sent, record
     &RegisterImportCommands,   // import outcomes|pairs|ranks|labels
     &RegisterHistory,          // history
+    &RegisterDesk,             // desk
     &RegisterMailCommand,      // mail
     &RegisterReviewCommand,    // review
     &RegisterFetchCommands,    // fetch

@@ -10,6 +10,7 @@
 
 #include "core/clock.h"
 #include "core/committed_head.h"
+#include "core/desk_actor.h"
 #include "core/schema.h"
 #include "core/sha256.h"
 
@@ -146,6 +147,7 @@ std::string& CommittedHead() {
 std::string LastCommittedHead() { return CommittedHead(); }
 
 std::string CurrentActor() {
+  if (!DeskActor().empty()) return DeskActor();  // a desk member (core/desk_actor.h)
   if (const char* a = std::getenv("TWINPROBE_ACTOR"); a && *a) return a;
   if (const char* u = std::getenv("USER"); u && *u) return u;
   return "unknown";

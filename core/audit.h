@@ -15,7 +15,8 @@
 
 namespace twinprobe {
 
-// Who is writing: $TWINPROBE_ACTOR, else $USER, else "unknown".
+// Who is writing: the desk member of this thread (core/desk_actor.h), else
+// $TWINPROBE_ACTOR, else $USER, else "unknown".
 std::string CurrentActor();
 
 class AuditedWrite {

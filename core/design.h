@@ -171,6 +171,10 @@ struct Design {
   EthicsBlock ethics;
   std::vector<Source> sources;
   MailRules mail;
+  // [team] members: the field team, by the names they sign in to the desk
+  // with (desk/). Not part of the canonical text: who does the fieldwork is
+  // not part of the design that `freeze` fixes.
+  std::vector<std::string> team;
   std::string canonical;  // canonical text of the design (hashed by freeze)
 };
 

@@ -284,12 +284,32 @@ constexpr const char* kMigration4 = R"SQL(
 CREATE INDEX response_supersedes ON response(supersedes);
 )SQL";
 
+// Version 5: the desk (desk/). Each member of the design's [team] sets a
+// passphrase on first use; only a salted PBKDF2 hash is stored. A new
+// passphrase is a new row (the newest per member counts), so the table stays
+// append-only and is sealed like every other: a slipped-in hash is found by
+// `verify`.
+constexpr const char* kMigration5DeskPassphrase = R"SQL(
+CREATE TABLE desk_passphrase(
+  id INTEGER PRIMARY KEY,
+  member TEXT NOT NULL,                   -- as written in [team] members
+  scheme TEXT NOT NULL,                   -- 'pbkdf2-sha256'
+  iterations INTEGER NOT NULL,
+  salt TEXT NOT NULL,                     -- hex
+  hash TEXT NOT NULL,                     -- hex
+  set_at TEXT NOT NULL,
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX desk_passphrase_member ON desk_passphrase(member);
+CREATE INDEX desk_passphrase_seq ON desk_passphrase(audit_seq);
+)SQL";
+
 struct Migration {
   int version;
   const char* sql;
 };
 
-const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigration3}, {4, kMigration4}};
+const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigration3}, {4, kMigration4},
+                               {5, kMigration5DeskPassphrase}};
 
 // sqlite_master without SQLite's own objects (sqlite_autoindex_* follow from
 // the tables' SQL, which is compared; sqlite_stat* only guide the planner).
@@ -351,6 +371,7 @@ const std::vector<SealedTable>& SealedTables() {
       {"fetch_log", {}},     {"mail_message", {"excerpt"}}, {"review_decision", {}},
       {"decline", {}},
       {"listing_replay", {}},
+      {"desk_passphrase", {}},
   };
   return tables;
 }

@@ -74,6 +74,7 @@ class DesignReader : public TomlErrorSink {
   void ReadSchedule(Design& d);
   void ReadOutcomes(Design& d);
   void ReadRest(Design& d);
+  void ReadTeam(Design& d);
 
   const toml::table& root_;
   std::string label_;
@@ -637,6 +638,28 @@ void DesignReader::ReadRest(Design& d) {
   }
 }
 
+// [team] members = ["Ada Moss", …]: the people who may sign in to the desk.
+// A name is what the store records as entered_by, so it must be printable
+// text of reasonable length.
+void DesignReader::ReadTeam(Design& d) {
+  const toml::table* t = Table(root_, "team", false);
+  if (!t) return;
+  CheckKeys(*t, "[team]", KeysOf("[team]"));
+  d.team = Strings(*t, "[team]", "members", true);
+  const toml::array* arr = t->get("members") ? t->get("members")->as_array() : nullptr;
+  for (size_t i = 0; arr && i < d.team.size() && i < arr->size(); ++i) {
+    const std::string& name = d.team[i];
+    const toml::node* at = arr->get(i);
+    const bool control = std::any_of(name.begin(), name.end(), [](char c) {
+      return static_cast<unsigned char>(c) < 0x20 || c == 0x7f;
+    });
+    if (name.empty() || name.size() > 60 || control || name.front() == ' ' || name.back() == ' ')
+      Fail(at, "[team].members holds '" + name + "', which is not a usable name",
+           "write each member as 1 to 60 printable characters without leading or trailing spaces");
+  }
+  if (arr && arr->empty()) Fail(arr, "[team].members is empty", "name at least one member, or leave out [team]");
+}
+
 Result<Design> DesignReader::Read() {
   CheckKeys(root_, "the design", KeysOf("the design"));
   Design d;
@@ -651,14 +674,18 @@ Result<Design> DesignReader::Read() {
   if (!error_) ReadSchedule(d);
   if (!error_) ReadOutcomes(d);
   if (!error_) ReadRest(d);
+  if (!error_) ReadTeam(d);
   if (!error_)
     if (Status s = ReadSources(root_, label_, d); !s.ok()) error_ = s.error();
   if (Status mail = error_ ? Status() : ReadMailSection(root_, label_, d); !mail.ok()) error_ = mail.error();
   if (error_) return *error_;
   // Canonical form: the parsed tables as JSON with keys in sorted order
   // (toml++ keeps tables ordered), so comments and layout do not change it.
+  // [team] is left out: adding a member mid-study changes no design.
+  toml::table canonical = root_;
+  canonical.erase("team");
   std::ostringstream os;
-  os << toml::json_formatter{root_};
+  os << toml::json_formatter{canonical};
   d.canonical = os.str();
   return d;
 }
@@ -669,7 +696,7 @@ const std::vector<DesignSectionKeys>& KnownDesignKeys() {
   static const std::vector<DesignSectionKeys> kKeys{
       {"the design",
        {"study", "factor", "arms", "profiles", "templates", "vacancies", "schedule", "outcomes", "strata", "analysis",
-        "ethics", "source", "mail"}},
+        "ethics", "source", "mail", "team"}},
       {"[study]", {"id", "title", "seed", "kind"}},
       {"[[factor]]", {"name", "levels", "reference", "fields"}},
       {"[arms]", {"include", "list"}},
@@ -682,6 +709,7 @@ const std::vector<DesignSectionKeys>& KnownDesignKeys() {
       {"[strata]", {"columns"}},
       {"[analysis]", {"primary", "correction", "alpha", "looks"}},
       {"[ethics]", {"approval", "retention_days", "decline_within_hours", "cap_per_employer"}},
+      {"[team]", {"members"}},
   };
   return kKeys;
 }
