@@ -5,6 +5,7 @@
 #include "collector/event_time.h"
 #include "collector/responses.h"
 #include "core/audit.h"
+#include "core/audit_summaries.h"
 #include "core/clock.h"
 #include "core/decline_records.h"
 #include "core/response_records.h"
@@ -61,7 +62,7 @@ Result<DeclineRecord> RecordDecline(Store& store, const OutcomeScheme& scheme, c
   DeclineRow row{probe_id, out.declined_at, std::nullopt, write.actor(), write.at(), write.seq()};
   if (!channel.empty()) row.channel = channel;
   InsertDecline(store, row);
-  write.Commit("decline " + probe_ref + " at " + out.declined_at);
+  write.Commit(DeclineSummary(probe_ref, out.declined_at));
   return out;
 }
 
