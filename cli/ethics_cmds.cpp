@@ -22,8 +22,18 @@ int RunDecline(Context& ctx, const DeclineOptions& o) {
   if (!settings.ok()) return ReportError(settings.error());
   auto r = RecordDecline(*store.value(), settings.value().outcomes, o.probe, o.at, o.channel);
   if (!r.ok()) return ReportError(r.error());
-  if (ctx.json) std::cout << nlohmann::json{{"probe", o.probe}, {"declined_at", r.value()}}.dump(2) << "\n";
-  else std::cout << "Recorded that the invitation to " << o.probe << " was declined at " << r.value() << ".\n";
+  const DeclineRecord& d = r.value();
+  if (ctx.json)
+    std::cout << nlohmann::json{{"probe", o.probe}, {"code", d.code}, {"declined_at", d.declined_at},
+                                {"already_declined", d.already}}
+                     .dump(2)
+              << "\n";
+  else if (d.already)
+    std::cout << "The " << PositiveResponseWords(d.code) << " to " << o.probe << " was already declined at "
+              << d.declined_at << "; nothing recorded.\n";
+  else
+    std::cout << "Recorded that the " << PositiveResponseWords(d.code) << " to " << o.probe << " was declined at "
+              << d.declined_at << ".\n";
   return 0;
 }
 

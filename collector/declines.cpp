@@ -2,33 +2,68 @@
 
 #include <algorithm>
 
+#include "collector/event_time.h"
 #include "collector/responses.h"
 #include "core/audit.h"
+#include "core/audit_summaries.h"
 #include "core/clock.h"
 #include "core/decline_records.h"
 #include "core/response_records.h"
+#include "core/sending_records.h"
 
 namespace twinprobe {
 
-Result<std::string> RecordDecline(Store& store, const OutcomeScheme& scheme, const std::string& probe_ref,
-                                  const std::string& declined_at, const std::string& channel) {
+std::string PositiveResponseWords(const std::string& code) {
+  if (code == "invitation" || code == "offer") return code;
+  if (code == "info_request") return "request for information";
+  return "'" + code + "' response";
+}
+
+Result<DeclineRecord> RecordDecline(Store& store, const OutcomeScheme& scheme, const std::string& probe_ref,
+                                    const std::string& declined_at, const std::string& channel) {
   AuditedWrite write(store, "decline");
   int64_t probe_id = FindProbe(store, probe_ref);
   if (probe_id == 0)
     return BadInput("", "unknown probe '" + probe_ref + "'", "use a probe reference from 'twinprobe schedule'");
-  std::optional<std::string> code = CurrentResponseCode(store, probe_id);
-  if (!code || !scheme.is_positive(*code))
-    return BadInput("", "probe '" + probe_ref + "' has no invitation or offer to decline",
-                    "record the employer's response first with 'twinprobe record'");
   std::string at = declined_at.empty() ? write.at() : declined_at;
-  auto t = ParseIsoTime(at);
-  if (!t) return BadInput("", "'" + at + "' is not a time", "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM");
-  at = FormatIsoTime(*t);
-  DeclineRow row{probe_id, at, std::nullopt, write.actor(), write.at(), write.seq()};
+  auto t = ParseEventTime(at);
+  if (!t)
+    return BadInput("", "'" + at + "' is not a time",
+                    "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM (UTC, or with an offset such as +01:00)");
+  std::optional<std::string> code = CurrentResponseCode(store, probe_id);
+  if (!code)
+    return BadInput("", "probe '" + probe_ref + "' has no response recorded, so there is nothing to decline",
+                    "record the employer's response first with 'twinprobe record'");
+  std::optional<std::string> received_at = CurrentResponseReceivedAt(store, probe_id);
+  if (!scheme.is_positive(*code)) {
+    std::string positive;
+    for (const auto& c : scheme.codes)
+      if (scheme.is_positive(c)) positive += (positive.empty() ? "" : ", ") + c;
+    return BadInput("", "the current response to " + probe_ref + " is '" + *code + "'" +
+                            (received_at ? " (received " + *received_at + ")" : "") + ", which needs no decline",
+                    "only a positive response (" + positive +
+                        ") is declined; if the employer answered again, record that first with 'twinprobe record'");
+  }
+  DeclineRecord out{probe_ref, *code, t->text(), false};
+  if (auto first = FirstDeclinedAt(store, probe_id)) {
+    out.declined_at = *first;
+    out.already = true;
+    return out;  // nothing written; the transaction rolls back
+  }
+  if (received_at) {
+    // A decline answers a response that has arrived; compared by day when
+    // either time is a date alone, as a response is checked against its sending.
+    EventTime received = ParseEventTime(*received_at).value_or(EventTime{});
+    if (IsBefore(*t, received))
+      return BadInput("", "the decline time " + out.declined_at + " is before the " + PositiveResponseWords(*code) +
+                              " to " + probe_ref + " was received (" + *received_at + ")",
+                      "check the date; a decline answers a response already received");
+  }
+  DeclineRow row{probe_id, out.declined_at, std::nullopt, write.actor(), write.at(), write.seq()};
   if (!channel.empty()) row.channel = channel;
   InsertDecline(store, row);
-  write.Commit("decline " + probe_ref + " at " + at);
-  return at;
+  write.Commit(DeclineSummary(probe_ref, out.declined_at));
+  return out;
 }
 
 std::vector<PendingDecline> PendingDeclines(Store& store, const OutcomeScheme& scheme, int decline_within_hours,

@@ -13,11 +13,26 @@
 
 namespace twinprobe {
 
-// Records that the invitation to `probe_ref` was declined at `declined_at`
-// (ISO; "" = now). Fails for an unknown probe, an unreadable time, or a probe
-// whose current response is not positive (nothing to decline).
-Result<std::string> RecordDecline(Store& store, const OutcomeScheme& scheme, const std::string& probe_ref,
-                                  const std::string& declined_at, const std::string& channel);
+struct DeclineRecord {
+  std::string probe_ref;
+  std::string code;         // the positive response declined, e.g. "invitation"
+  std::string declined_at;  // as stored; the earlier time when `already`
+  bool already = false;     // the probe was declined before: nothing written
+};
+
+// Records that the positive response to `probe_ref` was declined at
+// `declined_at` (ISO, offsets allowed; "" = now). A probe declined before is
+// reported with `already` set and its first time, and nothing is written.
+// Errors (bad input, store unchanged): unknown probe, unreadable time, no
+// response recorded, a current response that is not positive (named, with
+// its time), a decline before the response was received (compared by day
+// when either is a date alone, collector/event_time.h).
+Result<DeclineRecord> RecordDecline(Store& store, const OutcomeScheme& scheme, const std::string& probe_ref,
+                                    const std::string& declined_at, const std::string& channel);
+
+// How messages name a positive response: "invitation", "offer",
+// "request for information" (info_request), else the code in quotes.
+std::string PositiveResponseWords(const std::string& code);
 
 struct PendingDecline {
   std::string probe_ref;

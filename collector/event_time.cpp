@@ -19,6 +19,9 @@ std::optional<EventTime> ParseEventTime(std::string_view text) {
 }
 
 std::string CanonicalEventText(std::string_view text) {
+  // An offset needs arithmetic (and may change the day): the slow path.
+  if (text.size() > 16 && (text.back() != 'Z') && (text[text.size() - 6] == '+' || text[text.size() - 6] == '-'))
+    return ParseEventTime(text)->text();
   if (text.size() < 11 || text[10] == 'Z') return std::string(text.substr(0, 10)) + "T00:00:00Z";
   std::string out;
   out.reserve(20);

@@ -6,6 +6,7 @@
 #include "collector/import_support.h"
 #include "collector/responses.h"
 #include "core/audit.h"
+#include "core/audit_summaries.h"
 #include "core/csv.h"
 #include "core/progress.h"
 #include "core/suggest.h"
@@ -117,8 +118,7 @@ Result<ImportSummary> ImportOutcomes(Store& store, const OutcomeScheme& scheme, 
   summary.rows_rejected = rejects.rows();
   if (summary.rows_rejected) summary.reject_path = rejects.path();
   RecordImportFile(store, write.seq(), "outcomes", sha.value(), path, summary.rows_landed, summary.rows_rejected);
-  summary.audit_hash = write.Commit("import outcomes " + path + ": " + std::to_string(summary.rows_landed) +
-                                    " rows landed, " + std::to_string(summary.rows_rejected) + " rejected");
+  summary.audit_hash = write.Commit(ImportOutcomesSummary(path, summary.rows_landed, summary.rows_rejected));
   return summary;
 }
 

@@ -4,6 +4,7 @@
 
 #include "collector/responses.h"
 #include "core/audit.h"
+#include "core/audit_summaries.h"
 #include "core/mail_log.h"
 #include "core/mail_reviews.h"
 
@@ -106,7 +107,7 @@ Result<ReviewOutcome> DecideReview(Store& store, const OutcomeScheme& scheme, co
       return BadInput("", "--probe and --at do not go with --dismiss", "dismiss the message alone, or confirm it");
     out.decision = ReviewDecision::kDismissed;
     InsertReviewDecision(store, write.seq(), req.message, out.decision, std::nullopt, write.actor(), write.at());
-    out.audit_hash = write.Commit("review message " + n + ": dismissed (no response recorded)");
+    out.audit_hash = write.Commit(ReviewDismissedSummary(req.message));
     return out;
   }
 
@@ -150,8 +151,7 @@ Result<ReviewOutcome> DecideReview(Store& store, const OutcomeScheme& scheme, co
   }
   InsertReviewDecision(store, write.seq(), req.message, out.decision, out.response_id, write.actor(), write.at());
   out.audit_hash = write.Commit(
-      "review message " + n + ": " + std::string(ReviewDecisionName(out.decision)) + " " + out.code + " for " +
-      out.probe_ref + (out.superseded ? " (supersedes response " + std::to_string(out.superseded) + ")" : ""));
+      ReviewRecordedSummary(req.message, ReviewDecisionName(out.decision), out.code, out.probe_ref, out.superseded));
   return out;
 }
 

@@ -4,6 +4,7 @@
 
 #include "collector/event_time.h"
 #include "core/audit.h"
+#include "core/audit_summaries.h"
 #include "core/response_records.h"
 #include "core/sending_records.h"
 #include "core/suggest.h"
@@ -108,8 +109,7 @@ Result<RecordedResponse> RecordResponse(Store& store, const OutcomeScheme& schem
   auto r = AddResponse(store, scheme, entry, write.seq(), write.actor(), write.at(), "");
   if (!r.ok()) return r.error();
   const RecordedResponse& v = r.value();
-  write.Commit("record " + entry.probe_ref + " " + entry.code + (v.late ? " (late)" : "") +
-               (v.superseded ? " (supersedes response " + std::to_string(v.superseded) + ")" : ""));
+  write.Commit(RecordSummary(entry.probe_ref, entry.code, v.late, v.superseded));
   return r;
 }
 
@@ -133,8 +133,7 @@ Result<SendingRecord> RecordSending(Store& store, const std::string& probe_ref, 
                       "check the date; a probe is sent before it is answered");
   }
   InsertSending(store, SendingRow{probe_id, out.sent_at, write.actor(), write.at(), write.seq()});
-  write.Commit("sent " + probe_ref + " at " + out.sent_at +
-               (out.previous_sent_at.empty() ? "" : " (replaces " + out.previous_sent_at + ")"));
+  write.Commit(SentSummary(probe_ref, out.sent_at, out.previous_sent_at));
   return out;
 }
 

@@ -73,13 +73,27 @@ std::optional<int64_t> ParseIsoTime(std::string_view s) {
       pos += 3;
     }
   }
-  if (pos < s.size() && s[pos] == 'Z') ++pos;
+  // A time of day may carry its UTC offset ("09:14+01:00", ISO 8601 section
+  // 4.2.5.1): field teams in other time zones write local time, and the
+  // store keeps UTC, so the offset is subtracted below.
+  int offset_seconds = 0;
+  if (pos < s.size() && s[pos] == 'Z') {
+    ++pos;
+  } else if (pos > 10 && pos < s.size() && (s[pos] == '+' || s[pos] == '-')) {
+    int oh, om;
+    if (!Digits(s, pos + 1, 2, oh) || pos + 3 >= s.size() || s[pos + 3] != ':' || !Digits(s, pos + 4, 2, om) ||
+        oh > 14 || om > 59)
+      return std::nullopt;
+    offset_seconds = (s[pos] == '+' ? 1 : -1) * (oh * 3600 + om * 60);
+    pos += 6;
+  }
   if (pos != s.size()) return std::nullopt;
   static const int kDaysIn[] = {31, 29, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
   if (mo < 1 || mo > 12 || d < 1 || d > kDaysIn[mo - 1] || h > 23 || mi > 59 || se > 59) return std::nullopt;
   bool leap = (y % 4 == 0 && y % 100 != 0) || y % 400 == 0;
   if (mo == 2 && d == 29 && !leap) return std::nullopt;
-  return DaysFromCivil(y, static_cast<unsigned>(mo), static_cast<unsigned>(d)) * 86400 + h * 3600 + mi * 60 + se;
+  return DaysFromCivil(y, static_cast<unsigned>(mo), static_cast<unsigned>(d)) * 86400 + h * 3600 + mi * 60 + se -
+         offset_seconds;
 }
 
 std::string FormatIsoTime(int64_t t) {

@@ -12,6 +12,13 @@ void InsertDecline(Store& store, const DeclineRow& row) {
   ins.Bind(5, row.entered_at).Bind(6, row.audit_seq).Run();
 }
 
+std::optional<std::string> FirstDeclinedAt(Store& store, int64_t probe_id) {
+  Stmt q = store.Prepare("SELECT declined_at FROM decline WHERE probe_id = ?1 ORDER BY id LIMIT 1");
+  q.Bind(1, probe_id);
+  if (!q.Step()) return std::nullopt;
+  return q.Text(0);
+}
+
 std::vector<UndeclinedResponse> ReadUndeclinedResponses(Store& store) {
   std::vector<UndeclinedResponse> out;
   Stmt q = store.Prepare(

@@ -21,6 +21,11 @@ struct DeclineRow {
 
 void InsertDecline(Store& store, const DeclineRow& row);
 
+// When the probe was first declined; none when it never was. One decline
+// answers the probe (ReadUndeclinedResponses counts any), so a second is
+// reported as already done rather than stored.
+std::optional<std::string> FirstDeclinedAt(Store& store, int64_t probe_id);
+
 // A current probe's current response with no decline recorded yet (whether
 // the code is positive is the caller's rule).
 struct UndeclinedResponse {

@@ -1,75 +1,91 @@
 #include "core/verify_summary.h"
 
+#include <optional>
 #include <string>
 
+#include "core/audit_summaries.h"
 #include "core/store.h"
 
 namespace twinprobe {
 namespace {
 
 // A query per command that returns, for each of its entries: seq, at, actor,
-// summary as stored, then the summary rebuilt from the sealed rows (NULL
-// when the rows cannot be one such entry, e.g. two responses under a record).
+// summary as stored, whether the entry sealed exactly one row of its kind
+// (else it cannot be one such entry, e.g. two responses under a record),
+// then the facts its summary states. `rebuild` words them with the same
+// function the command calls (core/audit_summaries.h); nullopt when the
+// rows cannot make the summary (e.g. a response of no probe).
 struct SummaryRule {
   const char* command;
   const char* sql;
+  std::optional<std::string> (*rebuild)(const Stmt& q);
 };
 
-// Every rule keeps to the wording of the command that writes the entry:
-//   record    collector/responses.cpp RecordResponse
-//   sent      collector/responses.cpp RecordSending
-//   decline   collector/declines.cpp RecordDecline
-//   review    collector/mail_review.cpp Review
-//   import outcomes  collector/import_outcomes.cpp ImportOutcomes
+int64_t IntOr0(const Stmt& q, int col) { return q.IsNull(col) ? 0 : q.Int(col); }
+
 constexpr SummaryRule kRules[] = {
     {"record", R"SQL(
 SELECT a.seq, a.at, a.actor, a.summary,
-  (SELECT CASE WHEN count(*) = 1 THEN
-     'record ' || max(p.ref) || ' ' || max(r.code) ||
-     CASE WHEN max(r.flags) = 'late' THEN ' (late)' ELSE '' END ||
-     CASE WHEN max(r.supersedes) IS NOT NULL THEN ' (supersedes response ' || max(r.supersedes) || ')' ELSE '' END
-   END
-   FROM response r LEFT JOIN probe p ON p.id = r.probe_id WHERE r.audit_seq = a.seq)
-FROM audit a WHERE a.command = 'record' ORDER BY a.seq)SQL"},
+  (SELECT count(*) FROM response x WHERE x.audit_seq = a.seq) = 1, p.ref, r.code, r.flags, r.supersedes
+FROM audit a
+LEFT JOIN response r ON r.id = (SELECT max(x.id) FROM response x WHERE x.audit_seq = a.seq)
+LEFT JOIN probe p ON p.id = r.probe_id
+WHERE a.command = 'record' ORDER BY a.seq)SQL",
+     [](const Stmt& q) -> std::optional<std::string> {
+       if (q.IsNull(5)) return std::nullopt;
+       return RecordSummary(q.Text(5), q.Text(6), !q.IsNull(7) && q.Text(7) == "late", IntOr0(q, 8));
+     }},
     {"sent", R"SQL(
 SELECT a.seq, a.at, a.actor, a.summary,
-  CASE WHEN (SELECT count(*) FROM sending s WHERE s.audit_seq = a.seq) = 1 THEN
-    (SELECT 'sent ' || p.ref || ' at ' || s.sent_at ||
-            coalesce(' (replaces ' || (SELECT e.sent_at FROM sending e WHERE e.probe_id = s.probe_id AND e.id < s.id
-                                       ORDER BY e.id DESC LIMIT 1) || ')', '')
-     FROM sending s LEFT JOIN probe p ON p.id = s.probe_id WHERE s.audit_seq = a.seq)
-  END
-FROM audit a WHERE a.command = 'sent' ORDER BY a.seq)SQL"},
+  (SELECT count(*) FROM sending x WHERE x.audit_seq = a.seq) = 1, p.ref, s.sent_at,
+  (SELECT e.sent_at FROM sending e WHERE e.probe_id = s.probe_id AND e.id < s.id ORDER BY e.id DESC LIMIT 1)
+FROM audit a
+LEFT JOIN sending s ON s.id = (SELECT max(x.id) FROM sending x WHERE x.audit_seq = a.seq)
+LEFT JOIN probe p ON p.id = s.probe_id
+WHERE a.command = 'sent' ORDER BY a.seq)SQL",
+     [](const Stmt& q) -> std::optional<std::string> {
+       if (q.IsNull(5)) return std::nullopt;
+       return SentSummary(q.Text(5), q.Text(6), q.IsNull(7) ? "" : q.Text(7));
+     }},
     {"decline", R"SQL(
 SELECT a.seq, a.at, a.actor, a.summary,
-  (SELECT CASE WHEN count(*) = 1 THEN 'decline ' || max(p.ref) || ' at ' || max(d.declined_at) END
-   FROM decline d LEFT JOIN probe p ON p.id = d.probe_id WHERE d.audit_seq = a.seq)
-FROM audit a WHERE a.command = 'decline' ORDER BY a.seq)SQL"},
+  (SELECT count(*) FROM decline x WHERE x.audit_seq = a.seq) = 1, p.ref, d.declined_at
+FROM audit a
+LEFT JOIN decline d ON d.id = (SELECT max(x.id) FROM decline x WHERE x.audit_seq = a.seq)
+LEFT JOIN probe p ON p.id = d.probe_id
+WHERE a.command = 'decline' ORDER BY a.seq)SQL",
+     [](const Stmt& q) -> std::optional<std::string> {
+       if (q.IsNull(5)) return std::nullopt;
+       return DeclineSummary(q.Text(5), q.Text(6));
+     }},
+    // A review either dismissed its message and recorded no response, or
+    // recorded exactly the one response its decision names.
     {"review", R"SQL(
 SELECT a.seq, a.at, a.actor, a.summary,
-  CASE WHEN (SELECT count(*) FROM review_decision d WHERE d.audit_seq = a.seq) = 1 THEN
-    (SELECT CASE
-       WHEN d.decision = 'dismissed' AND d.response_id IS NULL
-            AND NOT EXISTS (SELECT 1 FROM response x WHERE x.audit_seq = a.seq)
-         THEN 'review message ' || d.mail_message_id || ': dismissed (no response recorded)'
-       WHEN (SELECT count(*) FROM response x WHERE x.audit_seq = a.seq) = 1
-         THEN (SELECT 'review message ' || d.mail_message_id || ': ' || d.decision || ' ' || r.code || ' for ' ||
-                      p.ref || coalesce(' (supersedes response ' || r.supersedes || ')', '')
-               FROM response r LEFT JOIN probe p ON p.id = r.probe_id
-               WHERE r.audit_seq = a.seq AND r.id = d.response_id)
-     END
-     FROM review_decision d WHERE d.audit_seq = a.seq)
-  END
-FROM audit a WHERE a.command = 'review' ORDER BY a.seq)SQL"},
+  (SELECT count(*) FROM review_decision x WHERE x.audit_seq = a.seq) = 1, d.mail_message_id, d.decision,
+  d.response_id IS NULL, (SELECT count(*) FROM response x WHERE x.audit_seq = a.seq),
+  r.id IS NOT NULL, r.code, p.ref, r.supersedes
+FROM audit a
+LEFT JOIN review_decision d ON d.id = (SELECT max(x.id) FROM review_decision x WHERE x.audit_seq = a.seq)
+LEFT JOIN response r ON r.id = d.response_id AND r.audit_seq = a.seq
+LEFT JOIN probe p ON p.id = r.probe_id
+WHERE a.command = 'review' ORDER BY a.seq)SQL",
+     [](const Stmt& q) -> std::optional<std::string> {
+       const int64_t responses = q.Int(8);
+       if (q.Text(6) == "dismissed" && q.Int(7) && responses == 0) return ReviewDismissedSummary(q.Int(5));
+       if (responses != 1 || !q.Int(9) || q.IsNull(11)) return std::nullopt;
+       return ReviewRecordedSummary(q.Int(5), q.Text(6), q.Text(10), q.Text(11), IntOr0(q, 12));
+     }},
     {"import outcomes", R"SQL(
 SELECT a.seq, a.at, a.actor, a.summary,
-  (SELECT CASE WHEN count(*) = 1 THEN
-     'import outcomes ' || max(f.path) || ': ' ||
-     (SELECT count(*) FROM response r WHERE r.audit_seq = a.seq) || ' rows landed, ' || max(f.rows_rejected) ||
-     ' rejected'
-   END
-   FROM import_file f WHERE f.audit_seq = a.seq AND f.kind = 'outcomes')
-FROM audit a WHERE a.command = 'import outcomes' ORDER BY a.seq)SQL"},
+  (SELECT count(*) FROM import_file x WHERE x.audit_seq = a.seq AND x.kind = 'outcomes') = 1, f.path,
+  (SELECT count(*) FROM response r WHERE r.audit_seq = a.seq), f.rows_rejected
+FROM audit a
+LEFT JOIN import_file f ON f.id = (SELECT max(x.id) FROM import_file x WHERE x.audit_seq = a.seq AND x.kind = 'outcomes')
+WHERE a.command = 'import outcomes' ORDER BY a.seq)SQL",
+     [](const Stmt& q) -> std::optional<std::string> {
+       return ImportOutcomesSummary(q.Text(5), q.Int(6), q.Int(7));
+     }},
 };
 
 }  // namespace
@@ -80,11 +96,12 @@ std::vector<AuditProblem> CheckSummaries(Store& store) {
     Stmt q = store.Prepare(rule.sql);
     while (q.Step()) {
       const std::string stored = q.Text(3);
-      if (!q.IsNull(4) && q.Text(4) == stored) continue;
-      AuditProblem p(q.Int(0), q.IsNull(4) ? "its summary says '" + stored +
-                                                 "' but the rows it sealed are not one such " + rule.command
-                                           : "its summary says '" + stored + "' but the rows it sealed say '" +
-                                                 q.Text(4) + "'");
+      std::optional<std::string> rebuilt = q.Int(4) ? rule.rebuild(q) : std::nullopt;
+      if (rebuilt && *rebuilt == stored) continue;
+      AuditProblem p(q.Int(0), !rebuilt ? "its summary says '" + stored +
+                                              "' but the rows it sealed are not one such " + rule.command
+                                        : "its summary says '" + stored + "' but the rows it sealed say '" +
+                                              *rebuilt + "'");
       p.command = rule.command;
       p.at = q.Text(1);
       p.actor = q.Text(2);

@@ -9,8 +9,9 @@
 // sent, decline, review), the summary is rebuilt from the sealed rows in the
 // exact wording the command uses, and compared with the stored one;
 // `import outcomes` is checked by its row counts. The wording is a stored
-// format: a change to a summary in collector/ needs the same change here
-// (tests/core/verify_summary_test.cpp writes each through the real command).
+// format with one definition, core/audit_summaries.h, which the commands
+// and this check both call (tests/core/verify_test.cpp writes each through
+// the real command).
 #include <vector>
 
 #include "core/audit.h"

@@ -49,6 +49,8 @@ TEST_CASE("ethics: check refuses a design without a cap per employer") {
 TEST_CASE("ethics: recording an invitation prints the decline deadline and the letter, decline clears it") {
   Study s;
   REQUIRE(RunCli({"--study", s.path, "plan"}).exit_code == 0);
+  for (const char* probe : {"P00001", "P00002", "P00003"})
+    REQUIRE(RunCli({"--study", s.path, "sent", probe, "--at", "2027-03-01"}).exit_code == 0);
   auto r = RunCli({"--study", s.path, "record", "P00001", "invitation", "--at", "2027-03-04T10:00"});
   REQUIRE(r.exit_code == 0);
   CHECK(r.out.find("Decline it by 2027-03-05T10:00:00Z (within 24 hours of receipt) with the letter in "
@@ -60,8 +62,9 @@ TEST_CASE("ethics: recording an invitation prints the decline deadline and the l
   CHECK(rejection.out.find("Decline it") == std::string::npos);
   auto nothing = RunCli({"--study", s.path, "decline", "P00003"});
   CHECK(nothing.exit_code == 1);
-  CHECK(nothing.err == "twinprobe: probe 'P00003' has no invitation or offer to decline \u2014 record the "
-                       "employer's response first with 'twinprobe record'\n");
+  CHECK(nothing.err == "twinprobe: the current response to P00003 is 'rejection' (received 2027-03-06T00:00:00Z), "
+                       "which needs no decline \u2014 only a positive response (info_request, invitation, offer) is "
+                       "declined; if the employer answered again, record that first with 'twinprobe record'\n");
   auto ok = RunCli({"--study", s.path, "decline", "P00001", "--at", "2027-03-04T15:00"});
   CHECK(ok.exit_code == 0);
   CHECK(ok.out == "Recorded that the invitation to P00001 was declined at 2027-03-04T15:00:00Z.\n" +
@@ -71,6 +74,8 @@ TEST_CASE("ethics: recording an invitation prints the decline deadline and the l
 TEST_CASE("ethics: schedule lists overdue declines first, then those still due, then what to send") {
   Study s;
   REQUIRE(RunCli({"--study", s.path, "plan"}).exit_code == 0);
+  for (const char* probe : {"P00001", "P00002", "P00003"})
+    REQUIRE(RunCli({"--study", s.path, "sent", probe, "--at", "2027-03-01"}).exit_code == 0);
   REQUIRE(RunCli({"--study", s.path, "record", "P00002", "offer", "--at", "2027-03-06T08:00"}).exit_code == 0);
   REQUIRE(RunCli({"--study", s.path, "record", "P00001", "invitation", "--at", "2027-03-04T10:00"}).exit_code == 0);
   REQUIRE(RunCli({"--study", s.path, "record", "P00003", "rejection", "--at", "2027-03-04T10:00"}).exit_code == 0);

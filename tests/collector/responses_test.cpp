@@ -37,7 +37,8 @@ TEST_CASE("event time: a date alone is compared by day, a full time by second") 
   CHECK_FALSE(ParseEventTime("2027-02-29"));
   CHECK_FALSE(ParseEventTime("04/03/2027"));
   for (const char* text : {"2027-03-04", "2027-03-04Z", "2027-03-04T09:14", "2027-03-04 09:14", "2027-03-04T09:14:07Z",
-                           "2027-03-04T09:14Z"})
+                           "2027-03-04T09:14Z", "2027-03-04T09:14+01:00", "2027-03-04T00:14:07+02:00",
+                           "2027-03-04T23:14-03:30"})
     CHECK(CanonicalEventText(text) == ParseEventTime(text)->text());
 }
 

@@ -6,6 +6,8 @@
 //   name    what is wrong
 //   edit    {file, from, to | to_hex}: replace the first `from` in a fixture file
 //   write   {file, text | hex}: write a file (text is written as Latin-1 bytes)
+//   before  commands that must succeed first (e.g. a sending and a response
+//           for a decline case); the store is compared after them
 //   args    the command ("$S" is the study folder)
 //   stderr  the exact message ("$S" is the study folder)
 // The fixture is tests/robustness/fixture_study, planned once.
@@ -69,7 +71,7 @@ TEST_CASE("bad-input battery: every malformed input gets its exact message, exit
   REQUIRE(testing::RunCli({"--study", base, "plan"}).exit_code == 0);
 
   auto cases = nlohmann::json::parse(testing::ReadFile(testing::SourceDir() + "/tests/robustness/bad_input_battery.json"));
-  REQUIRE(cases.size() >= 125);  // 68 design, CSV and command cases; 57 listing and mail cases
+  REQUIRE(cases.size() >= 130);  // 73 design, CSV and command cases; 57 listing and mail cases
   int n = 0;
   for (const auto& c : cases) {
     std::string study = dir / ("case" + std::to_string(n++));
@@ -89,6 +91,15 @@ TEST_CASE("bad-input battery: every malformed input gets its exact message, exit
       const auto& w = c["write"];
       testing::WriteFile(study + "/" + w["file"].get<std::string>(),
                          w.contains("hex") ? FromHex(w["hex"]) : Latin1(w["text"]));
+    }
+    if (c.contains("before")) {
+      for (const auto& command : c["before"]) {
+        std::vector<std::string> setup = {"--study", study};
+        for (const auto& a : command) setup.push_back(ReplaceAll(a, "$S", study));
+        auto done = testing::RunCli(setup);
+        INFO(c["name"].get<std::string>() << ": " << done.err);
+        REQUIRE(done.exit_code == 0);
+      }
     }
     std::vector<std::string> args = {"--study", study};
     for (const auto& a : c["args"]) args.push_back(ReplaceAll(a, "$S", study));

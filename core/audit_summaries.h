@@ -1,0 +1,36 @@
+#pragma once
+// The wording of the audit summaries that `verify` rebuilds from the rows
+// they seal (core/verify_summary.h). One function per summary: the command
+// that writes the entry and `verify` both call it, so the stored format has
+// one definition. Never change a wording: stores written before keep it, and
+// `verify` would call their entries changed.
+#include <cstdint>
+#include <string>
+#include <string_view>
+
+namespace twinprobe {
+
+// `record`: "record P00017 invitation (late) (supersedes response 12)";
+// `superseded` 0 when it replaces nothing.
+std::string RecordSummary(std::string_view probe_ref, std::string_view code, bool late, int64_t superseded);
+
+// `sent`: "sent P00017 at 2027-03-01T09:14:00Z (replaces 2027-02-28T00:00:00Z)";
+// `replaces` "" for a probe's first sending.
+std::string SentSummary(std::string_view probe_ref, std::string_view sent_at, std::string_view replaces);
+
+// `decline`: "decline P00017 at 2027-03-04T15:30:00Z".
+std::string DeclineSummary(std::string_view probe_ref, std::string_view declined_at);
+
+// `review` that dismissed a message: "review message 7: dismissed (no response recorded)".
+std::string ReviewDismissedSummary(int64_t message_id);
+
+// `review` that recorded a response: "review message 7: confirmed invitation
+// for P00017 (supersedes response 12)"; `decision` as stored
+// (core/stored_codes.h ReviewDecision).
+std::string ReviewRecordedSummary(int64_t message_id, std::string_view decision, std::string_view code,
+                                  std::string_view probe_ref, int64_t superseded);
+
+// `import outcomes`: "import outcomes FILE: 3 rows landed, 1 rejected".
+std::string ImportOutcomesSummary(std::string_view path, int64_t rows_landed, int64_t rows_rejected);
+
+}  // namespace twinprobe
