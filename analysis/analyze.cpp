@@ -2,6 +2,8 @@
 
 #include <map>
 
+#include "analysis/listing_reference.h"
+
 namespace twinprobe {
 namespace {
 
@@ -21,7 +23,7 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   r.correction = plan.correction;
   if (!f.has_plan) {
     // A listing audit needs no plan: `import ranks` alone makes a store.
-    auto listings = AnalyzeStudyListings(reading.listings, plan, std::nullopt);
+    auto listings = AnalyzeStudyListings(WithListingReference(reading.listings, current_design), plan, std::nullopt);
     if (!listings.ok()) return listings.error();
     if (!listings.value().present)
       return BadInput(store_path, "the store holds no plan yet", "run 'twinprobe plan' or 'twinprobe import pairs' first");

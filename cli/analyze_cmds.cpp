@@ -13,6 +13,7 @@
 #include "cli/report_cmd.h"
 #include "core/audit.h"
 #include "core/verify.h"
+#include "report/chain_warning.h"
 #include "report/json_report.h"
 #include "report/text_report.h"
 
@@ -31,7 +32,11 @@ Result<AnalysisResult> AnalyzeStudy(Context& ctx) {
 int RunAnalyze(Context& ctx) {
   auto r = AnalyzeStudy(ctx);
   if (!r.ok()) return ReportError(r.error());
-  std::cout << (ctx.json ? RenderJsonReport(r.value()) : RenderTextReport(r.value()));
+  // A broken chain is said first, as verify would say it (issue 24).
+  ReportContext chain;
+  ReadChainState(StorePath(ctx), chain);
+  std::cout << (ctx.json ? WithChainWarningJson(RenderJsonReport(r.value()), chain)
+                         : WithChainWarningText(RenderTextReport(r.value()), chain));
   return 0;
 }
 
@@ -39,11 +44,6 @@ struct VerifyOptions {
   std::vector<std::string> heads;
   std::vector<std::string> witness_files;
 };
-
-// What a problem is about: an entry of the chain, or the store as a whole.
-std::string ProblemPlace(const AuditProblem& p) {
-  return p.seq == 0 ? std::string("the store") : "entry " + std::to_string(p.seq);
-}
 
 int RunVerify(Context& ctx, const VerifyOptions& o) {
   std::vector<WitnessedHead> witnessed;

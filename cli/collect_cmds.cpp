@@ -5,6 +5,7 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
+#include "cli/near_duplicate_output.h"
 #include "collector/import_outcomes.h"
 #include "collector/import_pairs.h"
 #include "collector/responses.h"
@@ -183,6 +184,7 @@ int RunImportPairs(Context& ctx, const ImportCmdOptions& o) {
   if (!r.ok()) return ReportError(r.error());
   const PairsImportSummary& s = r.value();
   WarnIgnoredColumns(s.ignored_columns, "a pairs file");
+  WarnNearDuplicates(s.near_duplicates, "row", "rows");
   if (!s.already_imported) {
     auto store = OpenStudyStore(ctx, false);
     if (!store.ok()) return ReportError(store.error());

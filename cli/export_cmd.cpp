@@ -5,6 +5,7 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
+#include "report/plural.h"
 #include "collector/export.h"
 
 namespace twinprobe {
@@ -31,6 +32,19 @@ int RunExport(Context& ctx, const ExportCmdOptions& o) {
   if (o.identities)
     Warn("the export holds employer names and contacts, profile mailboxes and notes: personal data; keep it as "
          "safe as the store and delete it when your retention period ends");
+  if (s.listing_only) {  // a listing audit: ranked lists, no vacancies or probes
+    if (ctx.json)
+      std::cout << nlohmann::json{{"path", s.path},         {"format", o.format},
+                                  {"identities", o.identities}, {"listing_places", s.listing_places},
+                                  {"audit_head", s.audit_head}}
+                       .dump(2)
+                << "\n";
+    else
+      std::cout << "Exported " << Count(s.listing_places, "place", "places") << " in ranked lists to " << s.path
+                << (o.format == "csv" ? " (listings.csv, manifest.json)" : "") << "; audit head "
+                << s.audit_head.substr(0, 16) << "\u2026\n";
+    return 0;
+  }
   if (ctx.json) {
     std::cout << nlohmann::json{{"path", s.path},           {"format", o.format},     {"identities", o.identities},
                                 {"vacancies", s.vacancies}, {"probes", s.probes},     {"responses", s.responses},

@@ -11,6 +11,7 @@
 #include "collector/fetch_run.h"
 #include "collector/listing_labels.h"
 #include "core/progress.h"
+#include "core/ethics_gate.h"
 #include "planner/design_file.h"
 
 namespace twinprobe {
@@ -123,7 +124,9 @@ int RunFetchCmd(Context& ctx, const FetchCmdOptions& o) {
   if (!design.ok()) return ReportError(design.error());
   const std::string label = DesignPath(ctx.study_dir);
   const std::string snapshot_dir = StudyPath(ctx, "snapshots");
-  // Bad rules fail before the store is opened (or created).
+  // The same ethics gate as check and plan, then the rules; both fail
+  // before the store is opened (or created).
+  if (Status gate = CheckEthicsGate(design.value(), label); !gate.ok()) return ReportError(gate.error());
   if (Status ok = CheckFetchable(design.value(), label, o.source); !ok.ok()) return ReportError(ok.error());
   Progress bar("fetching", 0);
   FetchOptions options;

@@ -12,7 +12,9 @@
 #include "core/audit.h"
 #include "core/clock.h"
 #include "core/text.h"
+#include "core/verify.h"
 #include "planner/design_file.h"
+#include "report/chain_warning.h"
 #include "report/html_report.h"
 #include "report/json_report.h"
 #include "report/text_report.h"
@@ -20,14 +22,25 @@
 namespace twinprobe {
 namespace fs = std::filesystem;
 
+void ReadChainState(const std::string& store_path, ReportContext& rc) {
+  auto verified = VerifyStore(store_path, {});
+  if (!verified.ok()) {  // not a store verify could read: as broken as it gets
+    rc.audit_intact = false;
+    rc.audit_problem = verified.error().what;
+    return;
+  }
+  const StoreVerification& v = verified.value();
+  rc.audit_head = v.audit.head_hash;
+  rc.audit_entries = v.audit.entries;
+  rc.audit_intact = v.ok();
+  rc.audit_problem = FirstBrokenLink(v);
+}
+
 ReportContext StudyReportContext(const Context& ctx, Store& store, bool reveal_employers) {
   ReportContext rc;
   rc.tool_version = TWINPROBE_VERSION;
   rc.generated_at = NowIso();
-  AuditReport audit = VerifyAudit(store);
-  rc.audit_head = audit.head_hash;
-  rc.audit_entries = audit.entries;
-  rc.audit_intact = audit.ok();
+  ReadChainState(store.path(), rc);
   if (fs::exists(DesignPath(ctx.study_dir))) {
     auto design = LoadDesign(ctx.study_dir);
     if (design.ok()) rc.ethics_approval = design.value().ethics.approval;
@@ -95,8 +108,8 @@ int RunReport(Context& ctx, const ReportOptions& o) {
   std::string body;
   switch (format.value()) {
     case Format::kHtml: body = RenderHtmlReport(result.value(), rc); break;
-    case Format::kJson: body = RenderJsonReport(result.value(), rc); break;
-    case Format::kText: body = RenderTextReport(result.value(), rc); break;
+    case Format::kJson: body = WithChainWarningJson(RenderJsonReport(result.value(), rc), rc); break;
+    case Format::kText: body = WithChainWarningText(RenderTextReport(result.value(), rc), rc); break;
   }
   if (o.out.empty()) {
     std::cout << body;

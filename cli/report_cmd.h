@@ -8,10 +8,15 @@
 
 namespace twinprobe {
 
-// Reads the audit chain (VerifyAudit) and, when the study has a design file,
+// Reads the audit chain (ReadChainState) and, when the study has a design file,
 // its ethics approval. With `reveal_employers`, loads the employer table
 // (pseudonym -> name); the caller records that in the audit chain first.
 ReportContext StudyReportContext(const Context& ctx, Store& store, bool reveal_employers);
+
+// Fills the audit fields of `rc` (head, entries, intact, first problem) with
+// what `verify` (core/verify.h) finds in the store at `store_path`, so a
+// report never calls intact what verify calls broken.
+void ReadChainState(const std::string& store_path, ReportContext& rc);
 
 // Reads the study with core's read models (core/read_study.h) and analyses
 // it (analysis/analyze.h): what `analyze`, `report` and `demo` run.

@@ -10,6 +10,7 @@
 
 #include "analysis/balance.h"
 #include "cli/command.h"
+#include "cli/near_duplicate_output.h"
 #include "core/sha256.h"
 #include "planner/freeze.h"
 #include "planner/plan_store.h"
@@ -80,6 +81,7 @@ int RunCheck(Context& ctx) {
   auto study = CheckStudy(ctx.study_dir);
   if (!study.ok()) return ReportError(study.error());
   const auto& s = study.value();
+  WarnNearDuplicates(s.near_duplicates, "vacancy", "vacancies");
   if (s.design.kind == "listing") {
     if (ctx.json)
       std::cout << nlohmann::json{{"ok", true}, {"study_id", s.design.study_id}, {"kind", s.design.kind},
@@ -140,6 +142,7 @@ int RunPlan(Context& ctx) {
   auto study = CheckStudy(ctx.study_dir);
   if (!study.ok()) return ReportError(study.error());
   const auto& s = study.value();
+  WarnNearDuplicates(s.near_duplicates, "vacancy", "vacancies");
   auto proof = ProveStudy(ctx.study_dir, s);
   if (!proof.ok()) return ReportError(proof.error());
   if (!proof.value().report.ok()) return ReportLeaks(proof.value().report);

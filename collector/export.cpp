@@ -15,6 +15,7 @@
 #include "core/csv.h"
 #include "core/export_records.h"
 #include "core/meta.h"
+#include "core/read_listings.h"
 
 namespace twinprobe {
 namespace {
@@ -267,24 +268,78 @@ nlohmann::ordered_json Manifest(Store& store, const ExportPlanRow& plan, const O
                                 {"audit_intact", audit.ok()}};
 }
 
+// A listing audit's store holds ranked lists and no plan: one table, one
+// row per place in a list, with each item's level of every factor.
+Status WriteListings(const ListingData& d, TableSink& sink, int64_t& count) {
+  std::vector<std::string> columns = {"listing", "query", "location", "seen_by", "position", "item"};
+  for (const auto& f : d.factors) columns.push_back(f);
+  Status s = sink.Begin("listings", columns);
+  if (!s.ok()) return s;
+  std::vector<Cell> cells;
+  for (size_t l = 0; l < d.listings.size(); ++l) {
+    const ListingList& list = d.listings[l];
+    const auto& [query, location] = d.strata[static_cast<size_t>(list.stratum)];
+    for (int32_t a : list.appearances) {
+      const ListingAppearance& place = d.appearances[static_cast<size_t>(a)];
+      cells.clear();
+      cells.push_back(Cell::Int(static_cast<int64_t>(l) + 1));
+      cells.push_back(query.empty() ? Cell{} : Cell::Text(query));
+      cells.push_back(location.empty() ? Cell{} : Cell::Text(location));
+      cells.push_back(list.seen_by.empty() ? Cell{} : Cell::Text(list.seen_by));
+      cells.push_back(Cell::Int(place.position));
+      cells.push_back(Cell::Text(d.item_keys[static_cast<size_t>(place.item)]));
+      const std::vector<int32_t>& levels = d.item_level[static_cast<size_t>(place.item)];
+      for (size_t f = 0; f < d.factors.size(); ++f)
+        cells.push_back(f < levels.size() && levels[f] >= 0 ? Cell::Text(d.levels[f][static_cast<size_t>(levels[f])])
+                                                            : Cell{});
+      sink.Row(cells);
+      ++count;
+    }
+  }
+  return sink.End();
+}
+
+nlohmann::ordered_json ListingManifest(Store& store, const ListingData& d, const ExportOptions& o) {
+  nlohmann::ordered_json factors = nlohmann::ordered_json::array();
+  for (size_t f = 0; f < d.factors.size(); ++f) factors.push_back({{"name", d.factors[f]}, {"levels", d.levels[f]}});
+  AuditReport audit = VerifyAudit(store);
+  return nlohmann::ordered_json{{"format", "twinprobe-export"},
+                                {"version", kExportVersion},
+                                {"study_id", MetaValue(store, "study_id").value_or("")},
+                                {"title", MetaValue(store, "title").value_or("")},
+                                {"kind", "listing"},
+                                {"exported_at", NowIso()},
+                                {"identities", o.identities},
+                                {"factors", factors},
+                                {"lists", d.listings.size()},
+                                {"audit_entries", audit.entries},
+                                {"audit_head", audit.head_hash},
+                                {"audit_intact", audit.ok()}};
+}
+
 }  // namespace
 
 Result<ExportSummary> ExportStudy(Store& store, const OutcomeScheme& scheme, const std::string& path,
                                   const ExportOptions& o) {
   const std::optional<ExportPlanRow> plan = ReadExportPlan(store);
-  if (!plan)
+  // A listing audit has ranked lists and no plan (issue 24): it exports them.
+  const ListingData listings = plan ? ListingData{} : ReadListings(store);
+  if (!plan && listings.listings.empty())
     return BadInput(store.path(), "the store holds no plan yet", "run 'twinprobe plan' or 'twinprobe import pairs' first");
   if (o.format != "csv" && o.format != "json")
     return BadInput("", "unknown export format '" + o.format + "'", "use --format csv or --format json");
-  const int64_t plan_id = plan->id;
+  const int64_t plan_id = plan ? plan->id : 0;
   ExportSummary summary;
   summary.path = path;
-  const std::vector<std::string> strata_names = StratumNames(store, plan_id);
+  summary.listing_only = !plan;
+  const std::vector<std::string> strata_names = plan ? StratumNames(store, plan_id) : std::vector<std::string>{};
   const auto strata = StrataByVacancy(store, plan_id, strata_names);
-  nlohmann::ordered_json manifest = Manifest(store, *plan, scheme, strata_names, o);
+  nlohmann::ordered_json manifest =
+      plan ? Manifest(store, *plan, scheme, strata_names, o) : ListingManifest(store, listings, o);
   summary.audit_head = manifest["audit_head"];
 
   auto write_tables = [&](TableSink& sink) -> Status {
+    if (!plan) return WriteListings(listings, sink, summary.listing_places);
     Status s = WriteVacancies(store, plan_id, strata_names, strata, o.identities, sink, summary.vacancies);
     if (s.ok()) s = WriteProbes(store, plan_id, scheme, strata_names, strata, o.identities, sink, summary.probes);
     if (s.ok()) s = WriteResponses(store, plan_id, scheme, o.identities, sink, summary.responses);
@@ -298,8 +353,13 @@ Result<ExportSummary> ExportStudy(Store& store, const OutcomeScheme& scheme, con
     CsvSink sink(path);
     Status s = write_tables(sink);
     if (!s.ok()) return s.error();
-    manifest["files"] = {{"vacancies", "vacancies.csv"}, {"probes", "probes.csv"}, {"responses", "responses.csv"}};
-    manifest["rows"] = {{"vacancies", summary.vacancies}, {"probes", summary.probes}, {"responses", summary.responses}};
+    if (!plan) {
+      manifest["files"] = {{"listings", "listings.csv"}};
+      manifest["rows"] = {{"listings", summary.listing_places}};
+    } else {
+      manifest["files"] = {{"vacancies", "vacancies.csv"}, {"probes", "probes.csv"}, {"responses", "responses.csv"}};
+      manifest["rows"] = {{"vacancies", summary.vacancies}, {"probes", summary.probes}, {"responses", summary.responses}};
+    }
     std::string manifest_path = (fs::path(path) / "manifest.json").string();
     std::ofstream out(manifest_path, std::ios::binary | std::ios::trunc);
     out << manifest.dump(2) << "\n";

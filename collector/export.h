@@ -34,13 +34,18 @@ struct ExportSummary {
   int64_t vacancies = 0;
   int64_t probes = 0;
   int64_t responses = 0;
+  bool listing_only = false;   // a listing audit: the ranked lists, no plan
+  int64_t listing_places = 0;  // rows of listings.csv (one per place in a list)
   std::string audit_head;
 };
 
 // Writes the export to `path`: for csv a folder (created; files in it are
 // replaced) holding vacancies.csv, probes.csv, responses.csv and
-// manifest.json; for json a single file. Errors: no plan in the store, an
-// unwritable path (bad input).
+// manifest.json; for json a single file. A listing audit's store (ranked
+// lists, no plan) gives listings.csv instead: one row per place in a list
+// (listing, query, location, seen_by, position, item, one column per
+// factor). Errors: neither a plan nor a list in the store, an unwritable
+// path (bad input).
 Result<ExportSummary> ExportStudy(Store& store, const OutcomeScheme& scheme, const std::string& path,
                                   const ExportOptions& options);
 

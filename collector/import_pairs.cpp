@@ -16,6 +16,7 @@
 #include "core/csv.h"
 #include "core/import_pairs_writer.h"
 #include "core/meta.h"
+#include "core/near_duplicates.h"
 #include "core/plan_header.h"
 #include "core/progress.h"
 #include "core/pseudonym.h"
@@ -144,6 +145,12 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
     }
     t.strata = stored;
     t.strata_source = "the study (set by its first import)";
+    // --id names a new study; on a later import it would be dropped without
+    // a word, so a different id is refused like a different --strata.
+    const std::string stored_id = MetaValue(*store, "study_id").value_or("");
+    if (!o.study_id.empty() && o.study_id != stored_id)
+      return BadInput("", "--id " + o.study_id + " differs from the study's id (" + stored_id + ")",
+                      "a later import joins the study of the first; leave --id out");
     for (std::string& ref : ReadVacancyRefs(*store, t.plan_id)) t.existing_vacancies.insert(std::move(ref));
     for (std::string& ref : ReadProbeRefs(*store, t.plan_id)) t.existing_probes.insert(std::move(ref));
     t.next_serial = 1 + MaxProbeSerial(*store);
@@ -276,6 +283,10 @@ struct Book {
   std::vector<int32_t> missing_arm;              // an arm without a row, -1 if none
   std::vector<Interner> stratum_values;
   Interner employers;
+  // Good rows per stratum value and employer id, for the near-duplicate
+  // warning (core/near_duplicates.h).
+  std::vector<std::vector<int64_t>> stratum_rows;
+  std::vector<int64_t> employer_rows;
   std::unordered_map<std::string, int64_t> probe_line;
 
   uint32_t Add(const std::string& ref) {
@@ -309,6 +320,7 @@ class Checker {
   Checker(Target& t, const Columns& c, const std::string& path, bool skip_bad)
       : t_(t), c_(c), path_(path), skip_bad_(skip_bad) {
     book_.stratum_values.resize(c.strata.size());
+    book_.stratum_rows.resize(c.strata.size());
     book_.stratum.resize(c.strata.size());
     book_.arm_line.assign(t.arms.size(), {});
     values_.resize(c.strata.size());
@@ -404,6 +416,15 @@ std::optional<Error> Checker::Examine(const CsvRecord& r, uint32_t& v) {
                 "give each probe its own reference");
   }
   // The row is good: remember it.
+  for (size_t i = 0; i < c_.strata.size(); ++i) {
+    std::vector<int64_t>& rows = book_.stratum_rows[i];
+    if (rows.size() <= values[i]) rows.resize(values[i] + 1, 0);
+    ++rows[values[i]];
+  }
+  if (employer != kNone) {
+    if (book_.employer_rows.size() <= employer) book_.employer_rows.resize(employer + 1, 0);
+    ++book_.employer_rows[employer];
+  }
   if (row.arm < 0) {
     row.arm = static_cast<int>(t_.arms.size());
     t_.arms.push_back(r.fields[c_.arm]);
@@ -616,6 +637,20 @@ std::string PartnerReason(const std::string& ref, int64_t bad_line) {
          ") is bad, so the whole set is left out";
 }
 
+// Spellings of one value that differ only in case or spaces, among the
+// good rows' strata, employers and (when the file names the arms) arms.
+std::vector<NearDuplicate> NearDuplicatesOf(const Book& book, const Target& t) {
+  SpellingTally tally;
+  for (size_t i = 0; i < book.stratum_rows.size(); ++i)
+    for (uint32_t id = 0; id < book.stratum_rows[i].size(); ++id)
+      if (book.stratum_rows[i][id] > 0) tally.Add(t.strata[i], book.stratum_values[i].Name(id), book.stratum_rows[i][id]);
+  for (uint32_t id = 0; id < book.employer_rows.size(); ++id)
+    if (book.employer_rows[id] > 0) tally.Add("employer", book.employers.Name(id), book.employer_rows[id]);
+  if (t.discover)
+    for (size_t a = 0; a < t.arms.size(); ++a) tally.Add("arm", t.arms[a], t.arm_rows[a]);
+  return tally.NearDuplicates();
+}
+
 }  // namespace
 
 Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Design* design, const std::string& path,
@@ -661,6 +696,7 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
   }
   if (auto err = checker.Finish(o)) return *err;
   Book& book = checker.book();
+  summary.near_duplicates = NearDuplicatesOf(book, t);
   bool any_good = false;
   for (size_t v = 0; v < book.bad_line.size() && !any_good; ++v)
     any_good = book.bad_line[v] == 0 && book.missing_arm[v] < 0;

@@ -33,6 +33,7 @@
 #include <vector>
 
 #include "core/design.h"
+#include "core/near_duplicates.h"
 #include "core/status.h"
 
 namespace twinprobe {
@@ -61,6 +62,9 @@ struct PairsImportSummary {
   int64_t late = 0;                // responses flagged 'late'
   std::string reject_path;         // "" when no row was rejected
   std::vector<std::string> ignored_columns;
+  // Values of a stratum, employer or arm column that differ only in case or
+  // spaces (each spelling lands as a value of its own); the command warns.
+  std::vector<NearDuplicate> near_duplicates;
   std::string audit_hash;
 };
 

@@ -13,20 +13,25 @@ bool HasContact(const std::string& user_agent) {
 
 Status CheckEthicsGate(const Design& d, const std::string& label) {
   const EthicsBlock& e = d.ethics;
+  // A listing audit sends no applications: there is no invitation to
+  // decline and no employer to spare, so it needs approval, retention and
+  // each source's permission (allowlist, identified collector) only.
+  const bool listing = d.kind == "listing";
   if (!e.present)
     return BadInput(label, "the design has no [ethics] section",
-                    std::string("add [ethics] with approval, retention_days, decline_within_hours and "
-                                "cap_per_employer") + kSee);
+                    std::string(listing ? "add [ethics] with approval and retention_days"
+                                        : "add [ethics] with approval, retention_days, decline_within_hours and "
+                                          "cap_per_employer") + kSee);
   if (e.approval.empty())
     return BadInput(label, "[ethics].approval is missing",
                     std::string("enter the reference of your ethics review board's approval") + kSee);
   if (e.retention_days <= 0)
     return BadInput(label, "[ethics].retention_days is missing",
                     std::string("state how many days identifying data is kept after fieldwork") + kSee);
-  if (e.decline_within_hours <= 0)
+  if (!listing && e.decline_within_hours <= 0)
     return BadInput(label, "[ethics].decline_within_hours is missing",
                     std::string("state within how many hours every invitation is declined") + kSee);
-  if (e.cap_per_employer <= 0)
+  if (!listing && e.cap_per_employer <= 0)
     return BadInput(label, "[ethics].cap_per_employer is missing",
                     std::string("state the most probes any one employer may receive") + kSee);
   for (const Source& s : d.sources) {

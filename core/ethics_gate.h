@@ -13,7 +13,10 @@ namespace twinprobe {
 // `label` (the design file's path): no [ethics] section; no approval
 // reference; no retention period; no decline deadline; no cap per employer;
 // and for each declared web source, no host allowlist or no identifying
-// User-Agent with a contact (an e-mail address or a URL).
+// User-Agent with a contact (an e-mail address or a URL). A listing audit
+// (kind = "listing") sends nothing to decline and no employer to cap, so it
+// is asked for approval, retention and its sources' permission only.
+// `check`, `plan` and `fetch` all call this one gate.
 Status CheckEthicsGate(const Design& design, const std::string& label);
 
 // The decline deadline (UTC seconds) for an invitation received at

@@ -105,6 +105,16 @@ std::vector<std::string> SchemaDifferences(Store& store, int version) {
   return out;
 }
 
+std::string ProblemPlace(const AuditProblem& p) {
+  return p.seq == 0 ? std::string("the store") : "entry " + std::to_string(p.seq);
+}
+
+std::string FirstBrokenLink(const StoreVerification& v) {
+  if (v.audit.problems.empty()) return "";
+  const AuditProblem& first = v.audit.problems.front();
+  return ProblemPlace(first) + ": " + first.what;
+}
+
 Result<StoreVerification> VerifyStore(const std::string& path, std::vector<WitnessedHead> witnessed) {
   struct stat st{};
   if (::stat(path.c_str(), &st) != 0)

@@ -47,6 +47,14 @@ Result<std::vector<WitnessedHead>> ReadWitnessFile(const std::string& path);
 // a store written by a newer twinprobe. Never writes to the file.
 Result<StoreVerification> VerifyStore(const std::string& path, std::vector<WitnessedHead> witnessed);
 
+// Where a problem is: "entry N", or "the store" for one about the store as
+// a whole (seq 0: its schema, a witnessed head).
+std::string ProblemPlace(const AuditProblem& problem);
+
+// The first broken link as `verify` names it, e.g. "entry 2: rows written by
+// this entry (record) were changed, …"; "" when nothing is broken.
+std::string FirstBrokenLink(const StoreVerification& verification);
+
 // The schema differences of `store` against ReferenceSchema(version), one
 // sentence each, e.g. "the store holds a trigger 'x' on table response that
 // twinprobe does not create". Empty when they agree.

@@ -15,6 +15,12 @@ Result<CheckedStudy> CheckStudy(const std::string& study_dir) {
   auto vacancies = ReadVacancies(study_dir, s.design);
   if (!vacancies.ok()) return vacancies.error();
   s.vacancies = std::move(vacancies).value();
+  SpellingTally tally;
+  for (const Vacancy& v : s.vacancies) {
+    for (const std::string& stratum : s.design.strata) tally.Add(stratum, v.strata.at(stratum));
+    tally.Add("employer", v.employer);
+  }
+  s.near_duplicates = tally.NearDuplicates();
   auto pools = ReadNamePools(study_dir, s.design);
   if (!pools.ok()) return pools.error();
   s.pools = std::move(pools).value();

@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "core/design.h"
+#include "core/near_duplicates.h"
 #include "core/status.h"
 #include "planner/assign.h"
 #include "planner/materials.h"
@@ -21,6 +22,9 @@ struct CheckedStudy {
   Design design;
   std::vector<Vacancy> vacancies;
   std::vector<NameList> pools;
+  // Stratum or employer values of the vacancies file that differ only in
+  // case or spaces (counted in vacancies); `check` and `plan` warn.
+  std::vector<NearDuplicate> near_duplicates;
 };
 
 // Reads and validates the study folder; the first problem found is returned.

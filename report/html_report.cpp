@@ -1,5 +1,6 @@
 #include "report/html_report.h"
 
+#include "report/chain_warning.h"
 #include "report/html_escape.h"
 #include "report/html_sections.h"
 #include "report/html_style.h"
@@ -22,8 +23,8 @@ std::string Masthead(const AnalysisResult& r, const ReportContext& ctx) {
          "--reveal-employers, which is recorded in the study's audit chain. Share it only with people entitled to "
          "see the names.</p>";
   if (!ctx.audit_intact)
-    o += "<p class=\"banner\" role=\"note\"><strong>The study's audit chain is broken.</strong> Stored data changed "
-         "outside twinprobe; run 'twinprobe verify' before relying on these numbers.</p>";
+    o += "<p class=\"banner\" role=\"note\"><strong>" + std::string(kBrokenChainLead) + "</strong> " +
+         EscapeHtml(BrokenChainDetail(ctx)) + "</p>";
   return o + "</header>";
 }
 

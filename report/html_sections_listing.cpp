@@ -5,6 +5,7 @@
 #include <cmath>
 #include <cstdio>
 
+#include "analysis/strongest_evidence.h"
 #include "report/html_escape.h"
 #include "report/html_parts.h"
 #include "report/html_sections.h"
@@ -113,10 +114,8 @@ std::string ListingStrata(const AnalysisResult& r, const ReportContext&) {
   const ListingAudit& a = r.listings;
   if (a.by_stratum.empty()) return "";
   const bool adjusted = a.by_stratum.front().gap_p_adjusted.has_value();
-  std::vector<const ListingComparison*> rows;
-  for (const auto& c : a.by_stratum) rows.push_back(&c);
+  const std::vector<const ListingComparison*> rows = StrongestEvidence(a);  // ties in adjusted p by raw p
   auto key = [&](const ListingComparison* c) { return adjusted ? *c->gap_p_adjusted : c->gap_p; };
-  std::stable_sort(rows.begin(), rows.end(), [&](auto* x, auto* y) { return key(x) < key(y); });
   int64_t below = 0;
   for (auto* c : rows) below += key(c) < r.alpha;
   HtmlTable t;

@@ -13,7 +13,8 @@ struct ReportContext {
   std::string generated_at;     // UTC ISO 8601
   std::string audit_head;       // hash of the newest audit entry when the report was made
   int64_t audit_entries = 0;
-  bool audit_intact = true;     // VerifyAudit found no broken link
+  bool audit_intact = true;     // verify (core/verify.h) found no broken link
+  std::string audit_problem;    // the first broken link as verify names it ("" when intact)
   std::string ethics_approval;  // [ethics].approval of the design file ("" when unknown)
   // Only with `report --reveal-employers` (recorded in the audit chain):
   // pseudonym -> employer name. Empty means pseudonyms only.

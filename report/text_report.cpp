@@ -6,6 +6,7 @@
 #include <cstdio>
 #include <sstream>
 
+#include "analysis/strongest_evidence.h"
 #include "report/design_report.h"
 #include "report/effects_report.h"
 #include "report/plain_summary.h"
@@ -173,10 +174,8 @@ std::string RenderListingText(const ListingAudit& a, double alpha, bool heading)
   }
   if (!a.by_stratum.empty()) {
     const bool adjusted = a.by_stratum.front().gap_p_adjusted.has_value();
-    std::vector<const ListingComparison*> rows;
-    for (const auto& c : a.by_stratum) rows.push_back(&c);
+    const std::vector<const ListingComparison*> rows = StrongestEvidence(a);  // ties in adjusted p by raw p
     auto key = [&](const ListingComparison* c) { return adjusted ? *c->gap_p_adjusted : c->gap_p; };
-    std::stable_sort(rows.begin(), rows.end(), [&](auto* x, auto* y) { return key(x) < key(y); });
     int64_t significant = 0;
     for (auto* c : rows) significant += key(c) < alpha;
     o << "\nQuery x location strata with the strongest evidence of an exposure gap ("

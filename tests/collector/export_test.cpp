@@ -200,3 +200,39 @@ TEST_CASE("export: a store without a plan is refused") {
   CHECK(r.err == "twinprobe: " + dir / "study.db" + ": no study store here \u2014 run 'twinprobe plan' (or 'twinprobe "
                                                     "import pairs') first, or pass --study DIR\n");
 }
+
+TEST_CASE("issue 24: a listing audit's store (ranked lists, no plan) exports its lists") {
+  testing::TempDir dir;
+  const std::string ranks = dir / "ranks.csv";
+  testing::WriteFile(ranks,
+                     "listing,query,location,position,item,origin\n"
+                     "L1,clerk,Orlinde,1,vjx-1,inland\n"
+                     "L1,clerk,Orlinde,2,vjx-2,coastal\n"
+                     "L2,clerk,Tessvale,1,vjx-2,coastal\n");
+  REQUIRE(RunCli({"--study", dir.path(), "import", "ranks", ranks}).exit_code == 0);
+  auto r = RunCli({"--study", dir.path(), "export"});
+  INFO(r.err);
+  REQUIRE(r.exit_code == 0);
+  CHECK(r.out.rfind("Exported 3 places in ranked lists to " + dir / "export" + " (listings.csv, manifest.json); ", 0) ==
+        0);
+  // Each list's places in order; the reference level (most places) first in the manifest.
+  CHECK(testing::ReadFile(dir / "export/listings.csv") ==
+        "listing,query,location,seen_by,position,item,origin\r\n"
+        "1,clerk,Orlinde,,1,vjx-1,inland\r\n"
+        "1,clerk,Orlinde,,2,vjx-2,coastal\r\n"
+        "2,clerk,Tessvale,,1,vjx-2,coastal\r\n");
+  auto manifest = nlohmann::json::parse(testing::ReadFile(dir / "export/manifest.json"));
+  CHECK(manifest["kind"] == "listing");
+  CHECK(manifest["lists"] == 2);
+  CHECK(manifest["rows"]["listings"] == 3);
+  CHECK(manifest["factors"][0]["levels"] == nlohmann::json::array({"coastal", "inland"}));
+  auto j = RunCli({"--study", dir.path(), "--json", "export", "--format", "json"});
+  REQUIRE(j.exit_code == 0);
+  CHECK(nlohmann::json::parse(j.out)["listing_places"] == 3);
+  const std::string text = testing::ReadFile(dir / "export.json");
+  CHECK(text.find("\"listings\"") == text.rfind("\"listings\""));  // the table's key, once
+  auto doc = nlohmann::json::parse(text);
+  CHECK(doc["lists"] == 2);
+  CHECK(doc["listings"].size() == 3);
+  CHECK(doc["listings"][2]["location"] == "Tessvale");
+}

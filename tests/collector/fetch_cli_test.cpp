@@ -56,6 +56,10 @@ id = "@data-candidate"
 name = ")" + name_rule + R"("
 profile = "a.profile @href"
 salary = ".salary"
+
+[ethics]
+approval = "VREB-2027-031 - Veldmark Research Ethics Board, invented"
+retention_days = 180
 )";
 }
 
@@ -191,6 +195,28 @@ TEST_CASE("fetch cli: a bad selector is one positioned error line, exit 1, and n
                  "be followed by a class name \u2014 see docs/fetch.md, \"Selectors\"\n");
   CHECK_FALSE(std::filesystem::exists(s.study + "/study.db"));
   CHECK(server.Requests().empty());
+}
+
+TEST_CASE("issue 24: check and fetch ask a listing audit for the same safeguards, and nothing about declines") {
+  FixtureServer server;
+  ListingStudy s;
+  std::string toml = StudyToml(server);
+  s.Write(toml.substr(0, toml.find("retention_days = 180\n")));
+  const std::string missing = "twinprobe: " + s.study + "/study.toml: [ethics].retention_days is missing \u2014 state "
+                              "how many days identifying data is kept after fieldwork (see ethics/README.md)\n";
+  auto check = RunCli({"--study", s.study, "check"}, kEnv);
+  CHECK(check.exit_code == 1);
+  CHECK(check.err == missing);
+  auto fetch = RunCli({"--study", s.study, "fetch"}, kEnv);
+  CHECK(fetch.exit_code == 1);
+  CHECK(fetch.err == missing);
+  CHECK_FALSE(std::filesystem::exists(s.study + "/study.db"));
+  CHECK(server.Requests().empty());
+  s.Write(toml);  // approval and retention, no decline hours or cap per employer
+  auto valid = RunCli({"--study", s.study, "check"}, kEnv);
+  CHECK(valid.exit_code == 0);
+  CHECK(valid.out == "Design veldmark-listing-audit is valid: a listing audit with 1 source (nothing to plan; collect "
+                     "with 'twinprobe fetch').\n");
 }
 
 TEST_CASE("fetch cli: an unknown --source is named with a suggestion") {

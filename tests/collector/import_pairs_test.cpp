@@ -424,3 +424,18 @@ TEST_CASE("import pairs: an unpaired design takes one row per vacancy") {
   CHECK(ok.value().kind == "unpaired");
   CHECK(ok.value().rows_landed == 2);
 }
+
+TEST_CASE("issue 24: a later import with another --id is refused, naming the study's id") {
+  Folder f;
+  REQUIRE(f.Import(kGood).ok());
+  const std::string before = FingerprintOf(f.db);
+  PairsImportOptions other = Options();
+  other.study_id = "harbour-2027";
+  auto r = f.Import(kHeader + "V9,inland,1,,,x,y\nV9,coastal,0,,,x,y\n", other);
+  REQUIRE_FALSE(r.ok());
+  CHECK(r.error().Message() == "--id harbour-2027 differs from the study's id (study) \u2014 a later import joins the "
+                               "study of the first; leave --id out");
+  CHECK(FingerprintOf(f.db) == before);
+  other.study_id = "study";  // the same id is no change
+  CHECK(f.Import(kHeader + "V9,inland,1,,,x,y\nV9,coastal,0,,,x,y\n", other).ok());
+}

@@ -91,3 +91,28 @@ TEST_CASE("ethics gate: the decline deadline is the receipt time plus the stated
   Design d = Complete();
   CHECK(DeclineDeadline(d.ethics, 1000) == 1000 + 24 * 3600);
 }
+
+TEST_CASE("issue 24: a listing audit is asked for approval, retention and its sources' permission only") {
+  Design d;
+  d.kind = "listing";
+  Source s;
+  s.name = "veldmark-jobs";
+  s.allow_hosts = {"jobs.veldmark.example"};
+  s.user_agent = "VeldmarkListingAudit/1.0";
+  s.contact = "listing-audit@newsroom.example";
+  d.sources = {s};
+  CHECK(CheckEthicsGate(d, "study.toml").error().Message() ==
+        "study.toml: the design has no [ethics] section \u2014 add [ethics] with approval and retention_days (see "
+        "ethics/README.md)");
+  d.ethics.present = true;
+  d.ethics.approval = "VREB-2027-031 (invented)";
+  CHECK(CheckEthicsGate(d, "study.toml").error().Message() ==
+        "study.toml: [ethics].retention_days is missing \u2014 state how many days identifying data is kept after "
+        "fieldwork (see ethics/README.md)");
+  d.ethics.retention_days = 180;
+  CHECK(CheckEthicsGate(d, "study.toml").ok());  // no decline hours, no cap per employer
+  d.sources[0].allow_hosts.clear();
+  CHECK(CheckEthicsGate(d, "study.toml").error().Message() ==
+        "study.toml: source 'veldmark-jobs' has no host allowlist \u2014 list the hosts you are permitted to collect "
+        "from (see ethics/README.md)");
+}
