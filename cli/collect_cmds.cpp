@@ -12,6 +12,7 @@
 #include "core/clock.h"
 #include "core/ethics_gate.h"
 #include "planner/design_file.h"
+#include "planner/materials_check.h"
 
 namespace twinprobe {
 namespace {
@@ -72,6 +73,8 @@ int RunRecord(Context& ctx, const RecordOptions& o) {
 int RunSent(Context& ctx, const std::string& probe, const std::string& at) {
   auto store = OpenStudyStore(ctx, false);
   if (!store.ok()) return ReportError(store.error());
+  // The application about to leave must be the one rendered for this plan.
+  if (Status m = CheckProbeMaterial(*store.value(), ctx.study_dir, probe); !m.ok()) return ReportError(m.error());
   auto r = RecordSending(*store.value(), probe, at);
   if (!r.ok()) return ReportError(r.error());
   const SendingRecord& v = r.value();

@@ -16,6 +16,7 @@
 #include "analysis/monitor.h"
 #include "cli/command.h"
 #include "core/clock.h"
+#include "report/monitor_decision.h"
 #include "report/p_value.h"
 #include "core/read_study.h"
 #include "stats/mcnemar.h"
@@ -110,6 +111,7 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
            {"schedule", schedule_sets},
            {"looks", looks},
            {"decision", decision},
+           {"decision_text", MonitorDecisionText(m, alpha, r.reference_label, r.other_label)},
            {"stopped_at_look", stopped >= 0 ? json(stopped + 1) : json(nullptr)},
            {"adjusted_p", adjusted_p >= 0 ? json(adjusted_p) : json(nullptr)},
            {"next_look_sets", next_look > 0 ? json(next_look) : json(nullptr)},
@@ -148,29 +150,7 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
     t << "  (stop at: the boundary is crossed when either arm alone is called back in at least that many of the\n"
          "   discordant sets; '-': too few discordant sets to stop at this look.)\n";
   }
-  t << "\n";
-  if (decision == "waiting") {
-    t << "Decision: continue. No look has been reached yet; the first is at " << next_look << " completed sets ("
-      << done << " so far).\n";
-  } else if (decision == "continue") {
-    t << "Decision: continue. No boundary has been crossed. The next look is at " << next_look << " completed sets ("
-      << done << " so far).\n";
-  } else if (decision == "stop") {
-    const MonitorLook& l = reached[stopped];
-    const bool ref = l.b > l.c;
-    t << (l.final ? "Decision: the final analysis crosses the boundary. At look " : "Decision: stop. At look ")
-      << stopped + 1 << " (" << l.sets << " completed sets) the "
-      << (ref ? r.reference_label : r.other_label) << " arm alone was called back in " << std::max(l.b, l.c) << " of "
-      << l.b + l.c << " discordant sets, crossing the boundary of " << bounds[stopped].upper() << ".\n"
-      << "Adjusted p-value (stage-wise ordering): " << FormatP(adjusted_p)
-      << (l.final ? ". The study shows a difference at the planned overall alpha "
-                  : ". The evidence so far shows a difference at the planned overall alpha ")
-      << Fmt("%g", alpha) << ".\n";
-  } else {
-    t << "Decision: final analysis reached without crossing a boundary: the study does not show a difference at\n"
-      << "overall alpha " << Fmt("%g", alpha) << ". Adjusted p-value (stage-wise ordering): " << FormatP(adjusted_p)
-      << ".\n";
-  }
+  t << "\n" << MonitorDecisionText(m, alpha, r.reference_label, r.other_label);
   std::cout << t.str();
   return 0;
 }

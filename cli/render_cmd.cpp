@@ -1,6 +1,10 @@
 // `twinprobe render`: writes every probe's application documents (Markdown,
 // plain text, HTML) from the templates and the stored plan, after proving
 // once more that the probes of each set differ only in the tested attribute.
+// Each file's SHA-256 and the plan are sealed in the audit chain (table
+// material_file), so `schedule` and `sent` can refuse a file that is not the
+// one rendered for the current plan, and after `purge` the store still proves
+// what was sent.
 #include <filesystem>
 #include <iostream>
 #include <set>
@@ -8,8 +12,11 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
+#include "core/audit.h"
+#include "core/material_files.h"
 #include "core/progress.h"
 #include "planner/materials.h"
+#include "planner/materials_check.h"
 #include "planner/one_difference.h"
 #include "planner/study_check.h"
 
@@ -29,6 +36,10 @@ int RunRender(Context& ctx, const RenderOptions& o) {
   if (!store.ok()) return ReportError(store.error());
   auto templates = LoadTemplates(ctx.study_dir, s.design);
   if (!templates.ok()) return ReportError(templates.error());
+  // One transaction from reading the plan to sealing the files: a `plan`
+  // running meanwhile cannot slip in between.
+  AuditedWrite write(*store.value(), "render");
+  const std::optional<int64_t> plan_id = CurrentPlanId(*store.value());
   auto materials = StoredMaterials(*store.value(), s.design, s.vacancies);
   if (!materials.ok()) return ReportError(materials.error());
   auto proof = ProveOneDifference(s.design, templates.value(), materials.value());
@@ -50,18 +61,28 @@ int RunRender(Context& ctx, const RenderOptions& o) {
   }
   std::string out = o.out.empty() ? StudyPath(ctx, "materials") : o.out;
   Progress bar("rendering", static_cast<int64_t>(chosen.size()));
-  auto written = WriteMaterials(out, templates.value(), chosen, [&](size_t done, size_t total) {
+  auto written = WriteMaterials(out, plan_id.value_or(0), templates.value(), chosen, [&](size_t done, size_t total) {
     bar.SetTotal(static_cast<int64_t>(total));
     bar.Update(static_cast<int64_t>(done));
   });
   bar.Finish();
   if (!written.ok()) return ReportError(written.error());
   const auto& w = written.value();
+  const std::string folder = MaterialFolderForStore(ctx.study_dir, out);
+  std::vector<MaterialFileInsert> rows;
+  rows.reserve(w.written.size());
+  for (const auto& f : w.written) rows.push_back({f.probe_ref, folder, f.file, f.sha256});
+  WriteMaterialFiles(*store.value(), write.seq(), rows);
+  write.Commit("rendered " + std::to_string(w.probes) + " probes of plan " + std::to_string(plan_id.value_or(0)) +
+               " into " + folder + "; manifest.csv SHA-256 " + w.manifest_sha256);
   if (ctx.json) {
-    std::cout << nlohmann::json{{"out", out}, {"probes", w.probes}, {"files", w.files}, {"manifest", w.manifest}}.dump(2)
+    std::cout << nlohmann::json{{"out", out},           {"plan_id", plan_id.value_or(0)},
+                                {"probes", w.probes},   {"files", w.files},
+                                {"manifest", w.manifest}, {"manifest_sha256", w.manifest_sha256}}
+                     .dump(2)
               << "\n";
   } else {
-    std::cout << "Rendered " << w.probes << " probes into " << out << " (" << w.files
+    std::cout << "Rendered " << w.probes << " probes of plan " << plan_id.value_or(0) << " into " << out << " (" << w.files
               << " files: PROBE.md, PROBE.txt and PROBE.html each, and manifest.csv with their SHA-256).\n";
   }
   return 0;

@@ -10,6 +10,7 @@
 #include "cli/command.h"
 #include "collector/declines.h"
 #include "core/clock.h"
+#include "planner/materials_check.h"
 #include "planner/schedule.h"
 
 namespace twinprobe {
@@ -71,6 +72,11 @@ int RunSchedule(Context& ctx, const ScheduleOptions& o) {
   auto list = ListSchedule(*store.value(), query);
   if (!list.ok()) return ReportError(list.error());
   const auto& probes = list.value();
+  // A listed probe whose file is not the one rendered for this plan would
+  // send another plan's applicant: refuse the list, naming the first.
+  for (const auto& p : probes)
+    if (p.sent_at.empty())
+      if (Status m = CheckProbeMaterial(*store.value(), ctx.study_dir, p.probe); !m.ok()) return ReportError(m.error());
   auto settings = LoadStudySettings(ctx, *store.value());
   if (!settings.ok()) return ReportError(settings.error());
   const int hours = settings.value().ethics.decline_within_hours;

@@ -11,11 +11,14 @@
 #include "analysis/balance.h"
 #include "cli/command.h"
 #include "cli/near_duplicate_output.h"
+#include "core/material_files.h"
 #include "core/sha256.h"
 #include "planner/freeze.h"
+#include "planner/materials_check.h"
 #include "planner/plan_store.h"
 #include "planner/study_check.h"
 #include "report/design_report.h"
+#include "report/plural.h"
 #include "templates/embedded.h"
 
 namespace twinprobe {
@@ -148,8 +151,16 @@ int RunPlan(Context& ctx) {
   if (!proof.value().report.ok()) return ReportLeaks(proof.value().report);
   auto store = OpenStudyStore(ctx, true);
   if (!store.ok()) return ReportError(store.error());
+  const std::optional<int64_t> previous_plan = CurrentPlanId(*store.value());
   auto summary = StorePlan(*store.value(), s.design, s.vacancies, proof.value().plan);
   if (!summary.ok()) return ReportError(summary.error());
+  // The plan is stored; materials of the old plan would now send the wrong
+  // profiles. A failed move only warns: schedule and sent refuse them anyway.
+  std::optional<SupersededMove> moved;
+  if (auto m = MoveSupersededMaterials(ctx.study_dir, previous_plan); m.ok())
+    moved = m.value();
+  else
+    Warn(m.error().where + ": " + m.error().what + " — " + m.error().fix);
   if (auto frozen = ReadFreeze(*store.value()); frozen && frozen->design_sha256 != Sha256Hex(s.design.canonical))
     Warn("the design differs from the one frozen at " + frozen->at +
          "; reports will list this plan as a deviation from the pre-registration");
@@ -161,6 +172,10 @@ int RunPlan(Context& ctx) {
                                 {"probes", sum.probes},
                                 {"profiles", sum.profiles},
                                 {"audit_hash", sum.audit_hash},
+                                {"materials_moved", moved ? nlohmann::json{{"plan", moved->old_plan},
+                                                                           {"files", moved->files},
+                                                                           {"to", moved->to}}
+                                                          : nlohmann::json()},
                                 {"balance", BalanceJson(balance)}}
                      .dump(2)
               << "\n";
@@ -168,6 +183,10 @@ int RunPlan(Context& ctx) {
     std::cout << "Planned " << sum.probes << " probes to " << sum.vacancies << " vacancies with " << sum.profiles
               << " profiles (plan " << sum.plan_id << ", store " << StorePath(ctx) << ").\n\n"
               << RenderBalanceText(balance);
+    if (moved)
+      std::cout << "Moved the materials of plan " << moved->old_plan << " (" << Count(moved->files, "file", "files") << ") to "
+                << moved->to << ": they do not belong to plan " << sum.plan_id
+                << "; run 'twinprobe render' before sending.\n";
   }
   return 0;
 }

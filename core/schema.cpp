@@ -303,13 +303,31 @@ CREATE INDEX desk_passphrase_member ON desk_passphrase(member);
 CREATE INDEX desk_passphrase_seq ON desk_passphrase(audit_seq);
 )SQL";
 
+// Version 6: every file `render` writes, with its SHA-256 and the plan it
+// was rendered for, sealed in the chain: after `purge` the store still proves
+// what was sent, and `schedule`/`sent` refuse a probe whose file on disk is
+// not the one rendered for the current plan. `folder` is relative to the
+// study folder when inside it.
+constexpr const char* kMigration6 = R"SQL(
+CREATE TABLE material_file(
+  id INTEGER PRIMARY KEY,
+  plan_id INTEGER NOT NULL REFERENCES plan(id),
+  probe_id INTEGER NOT NULL REFERENCES probe(id),
+  folder TEXT NOT NULL,
+  file TEXT NOT NULL,
+  sha256 TEXT NOT NULL,
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX material_file_probe ON material_file(probe_id);
+CREATE INDEX material_file_seq ON material_file(audit_seq);
+)SQL";
+
 struct Migration {
   int version;
   const char* sql;
 };
 
 const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigration3}, {4, kMigration4},
-                               {5, kMigration5DeskPassphrase}};
+                               {5, kMigration5DeskPassphrase}, {6, kMigration6}};
 
 // sqlite_master without SQLite's own objects (sqlite_autoindex_* follow from
 // the tables' SQL, which is compared; sqlite_stat* only guide the planner).
@@ -372,6 +390,7 @@ const std::vector<SealedTable>& SealedTables() {
       {"decline", {}},
       {"listing_replay", {}},
       {"desk_passphrase", {}},
+      {"material_file", {}},
   };
   return tables;
 }

@@ -626,6 +626,14 @@ void DesignReader::ReadRest(Design& d) {
           }
           d.analysis.looks.push_back(static_cast<int>(el.as_integer()->get()));
         }
+      // Interim looks are a group-sequential McNemar test (analysis/monitor.h):
+      // it needs a set of two probes per vacancy. Planned looks in any other
+      // design would promise monitoring that `monitor` refuses mid-fieldwork.
+      if (arr && d.kind != "paired")
+        Fail(looks,
+             "[analysis].looks plans interim looks, but monitor can only watch a paired design (two arms, a set of "
+             "two probes per vacancy) and this design is '" + d.kind + "'",
+             "remove looks and analyse once at the end of fieldwork with 'twinprobe analyze'");
     }
   }
   if (const toml::table* e = Table(root_, "ethics", false)) {

@@ -148,7 +148,8 @@ Result<RenderedDocs> RenderMaterial(const TemplateDoc& doc, const ProbeMaterial&
   return r;
 }
 
-Result<MaterialsWritten> WriteMaterials(const std::string& out_dir, const std::map<std::string, TemplateDoc>& templates,
+Result<MaterialsWritten> WriteMaterials(const std::string& out_dir, int64_t plan_id,
+                                        const std::map<std::string, TemplateDoc>& templates,
                                         const std::vector<ProbeMaterial>& probes,
                                         const std::function<void(size_t, size_t)>& progress) {
   namespace fs = std::filesystem;
@@ -158,7 +159,7 @@ Result<MaterialsWritten> WriteMaterials(const std::string& out_dir, const std::m
   MaterialsWritten w;
   w.manifest = (fs::path(out_dir) / "manifest.csv").string();
   std::string manifest =
-      "probe,vacancy,arm,send_order,planned_at,template,markdown,markdown_sha256,text,text_sha256,html,html_sha256\n";
+      "plan,probe,vacancy,arm,send_order,planned_at,template,markdown,markdown_sha256,text,text_sha256,html,html_sha256\n";
   for (size_t i = 0; i < probes.size(); ++i) {
     const ProbeMaterial& p = probes[i];
     auto doc = templates.find(p.template_path);
@@ -168,7 +169,7 @@ Result<MaterialsWritten> WriteMaterials(const std::string& out_dir, const std::m
                       "restore it under [templates].files, or make a new plan");
     auto rendered = RenderMaterial(doc->second, p);
     if (!rendered.ok()) return rendered.error();
-    std::string row = CsvQuote(p.probe_ref) + "," + CsvQuote(p.vacancy_ref) + "," + CsvQuote(p.arm_label) + "," +
+    std::string row = std::to_string(plan_id) + "," + CsvQuote(p.probe_ref) + "," + CsvQuote(p.vacancy_ref) + "," + CsvQuote(p.arm_label) + "," +
                       std::to_string(p.send_order) + "," + CsvQuote(p.planned_at) + "," + CsvQuote(p.template_path);
     for (const auto& [ext, body] : {std::pair<const char*, const std::string*>{".md", &rendered.value().markdown},
                                     {".txt", &rendered.value().text},
@@ -177,13 +178,16 @@ Result<MaterialsWritten> WriteMaterials(const std::string& out_dir, const std::m
       std::ofstream out(fs::path(out_dir) / name, std::ios::binary);
       out << *body;
       if (!out) return BadInput((fs::path(out_dir) / name).string(), "cannot write the file", "check the folder is writable");
-      row += "," + CsvQuote(name) + "," + Sha256Hex(*body);
+      std::string sha = Sha256Hex(*body);
+      row += "," + CsvQuote(name) + "," + sha;
+      w.written.push_back({p.probe_ref, name, std::move(sha)});
       ++w.files;
     }
     manifest += row + "\n";
     ++w.probes;
     if (progress) progress(i + 1, probes.size());
   }
+  w.manifest_sha256 = Sha256Hex(manifest);
   std::ofstream out(w.manifest, std::ios::binary);
   out << manifest;
   if (!out) return BadInput(w.manifest, "cannot write the file", "check the folder is writable");

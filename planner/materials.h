@@ -60,18 +60,28 @@ struct RenderedDocs {
 // probe has no value for a field the template uses.
 Result<RenderedDocs> RenderMaterial(const TemplateDoc& doc, const ProbeMaterial& probe);
 
+struct WrittenFile {
+  std::string probe_ref;
+  std::string file;  // P00001.md …, inside the output folder
+  std::string sha256;
+};
+
 struct MaterialsWritten {
   int64_t probes = 0;
   int64_t files = 0;
-  std::string manifest;  // path of manifest.csv
+  std::string manifest;         // path of manifest.csv
+  std::string manifest_sha256;  // of its bytes
+  std::vector<WrittenFile> written;  // every probe's files (not the manifest)
 };
 
 // Writes OUT/PROBE.md, .txt and .html for every probe, and OUT/manifest.csv
-// (probe, vacancy, arm, send order, planned time, template, each file with its
-// SHA-256, so what was sent can be shown later). Creates OUT. `progress` is
+// (plan, probe, vacancy, arm, send order, planned time, template, each file
+// with its SHA-256, so what was sent can be shown later and which plan it
+// belongs to is on every row). Creates OUT. `progress` is
 // called after each probe with (done, total). Fails on the first probe that
 // cannot be rendered or a file that cannot be written (files already written stay).
-Result<MaterialsWritten> WriteMaterials(const std::string& out_dir, const std::map<std::string, TemplateDoc>& templates,
+Result<MaterialsWritten> WriteMaterials(const std::string& out_dir, int64_t plan_id,
+                                        const std::map<std::string, TemplateDoc>& templates,
                                         const std::vector<ProbeMaterial>& probes,
                                         const std::function<void(size_t, size_t)>& progress);
 

@@ -150,6 +150,15 @@ TEST_CASE("monitor cli: before the first look it waits, a bad spending name is o
   CHECK(j["decision"] == "waiting");
   CHECK(j["next_look_sets"] == 200);
   CHECK(j["looks"].empty());
+  // Text and JSON state the decision in the same words (issue 16: the text
+  // said "continue" where the JSON said "waiting").
+  // Pattern(3, 1, 46): 3 + 1 + 46 = 50 sets, all complete.
+  const std::string said = "Decision: waiting. No look has been reached yet; the first is at 200 completed sets (50 so "
+                           "far).\n";
+  CHECK(j["decision_text"] == said);
+  auto text = RunCli({"--study", s.study, "monitor"}).out;
+  CHECK(text.size() >= said.size());
+  CHECK(text.substr(text.size() - said.size()) == said);
   auto bad = RunCli({"--study", s.study, "monitor", "--spending", "linear"});
   CHECK(bad.exit_code == 1);
   CHECK(bad.err == "twinprobe: --spending: unknown spending function 'linear' \u2014 use obf (O'Brien\u2013Fleming "

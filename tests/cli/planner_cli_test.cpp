@@ -178,9 +178,9 @@ TEST_CASE("cli render: three documents per probe, HTML-escaped, with a manifest 
   INFO(r.err);
   REQUIRE(r.exit_code == 0);
   CHECK(r.err.empty());  // no progress bar when stderr is not a terminal
-  CHECK(r.out == "Rendered 800 probes into " + s.study +
+  CHECK(r.out == "Rendered 800 probes of plan 1 into " + s.study +
                      "/materials (2401 files: PROBE.md, PROBE.txt and PROBE.html each, and manifest.csv with their "
-                     "SHA-256).\n");
+                     "SHA-256).\n" + testing::HeadLine(s.study));
   std::string manifest = testing::ReadFile(s.study + "/materials/manifest.csv");
   CHECK(std::count(manifest.begin(), manifest.end(), '\n') == 801);
   // The manifest's hashes are those of the files.

@@ -400,6 +400,7 @@ TEST_CASE("import pairs: an unpaired design takes one row per vacancy") {
   testing::PlannedStudy s(false);
   std::string toml = testing::ReadFile(s.path + "/study.toml");
   toml.replace(toml.find("kind = \"paired\""), 15, "kind = \"unpaired\"");
+  toml.erase(toml.find("looks = [200]\n"), 14);  // interim looks are for paired designs only
   testing::WriteFile(s.path + "/study.toml", toml);
   auto design = LoadDesign(s.path);
   INFO((design.ok() ? "" : design.error().Message()));

@@ -54,6 +54,16 @@ TEST_CASE("design: a misspelt key is named with a suggestion") {
   CHECK(d.error().what == "unknown key 'windwo_days' in [outcomes] (did you mean 'window_days'?)");
 }
 
+TEST_CASE("design: interim looks in a design monitor cannot watch are refused, naming why") {
+  auto d = ParseDesign(Replace(DemoDesign(), "kind = \"paired\"", "kind = \"sets\""), "study.toml", "");
+  REQUIRE_FALSE(d.ok());
+  CHECK(d.error().where == "study.toml:60:9");
+  CHECK(d.error().what ==
+        "[analysis].looks plans interim looks, but monitor can only watch a paired design (two arms, a set of two "
+        "probes per vacancy) and this design is 'sets'");
+  CHECK(d.error().fix == "remove looks and analyse once at the end of fieldwork with 'twinprobe analyze'");
+}
+
 TEST_CASE("design: an arm naming an unknown factor is refused") {
   std::string text = Replace(DemoDesign(), "include = \"all\"", "list = [{origin = \"inland\"}, {orgin = \"coastal\"}]");
   auto d = ParseDesign(text, "study.toml", "");

@@ -147,6 +147,7 @@ TEST_CASE("one difference: an unpaired design reports a field whose values diffe
   testing::TempDir dir;
   std::string study = WriteDemo(dir);
   Edit(study + "/study.toml", "kind = \"paired\"", "kind = \"unpaired\"");
+  Edit(study + "/study.toml", "looks = [200]\n", "");  // interim looks are for paired designs only
   AddPoolColumn(study + "/names/inland.csv", "hometown", [](int) { return "Orlinde"; });
   AddPoolColumn(study + "/names/coastal.csv", "hometown", [](int) { return "Brakkeport"; });
   Edit(study + "/templates/cv_meadow.md", "Veldmark\n", "Veldmark, from {{hometown}}\n");
