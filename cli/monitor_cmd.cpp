@@ -49,7 +49,7 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
   if (!settings.ok()) return ReportError(settings.error());
   const AnalysisPlan& plan = settings.value().analysis;
   const OutcomeScheme& scheme = settings.value().outcomes;
-  const StudyReading reading = ReadStudy(*store.value(), scheme, FieldworkOptions{.completion_order = true});
+  const StudyReading reading = ReadStudy(*store.value(), scheme, FieldworkOptions{.completion_order = true, .now = std::nullopt});
   auto analysis = Analyze(reading, store.value()->path(), scheme, plan);
   if (!analysis.ok()) return ReportError(analysis.error());
   const AnalysisResult& r = analysis.value();

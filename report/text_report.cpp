@@ -1,4 +1,5 @@
 #include "report/text_report.h"
+#include "report/fieldwork_state.h"
 #include "report/plural.h"
 
 #include <algorithm>
@@ -262,7 +263,13 @@ std::string RenderTextReport(const AnalysisResult& r) {
   if (r.responses_superseded) o << " (" << r.responses_superseded << " earlier entries corrected)";
   o << ".\n" << r.sets_analysed << " complete sets analysed";
   if (r.sets_incomplete) o << "; " << r.sets_incomplete << " sets left out because a probe was not sent";
-  o << ".\n\n";
+  o << ".\n";
+  if (const std::string open = OpenSetsSentence(r); !open.empty()) o << open << "\n";
+  o << "\nFlow of the study:\n";
+  for (const std::string& line : FlowTextLines(r.flow)) o << "  " << line << "\n";
+  o << "\n";
+  // An early state has no findings: no rate, no table, no sentence about employers.
+  if (const std::string early = EarlyStateSentence(r); !early.empty()) return o.str();
 
   o << "Positive callback (";
   for (size_t i = 0; i < r.positive_codes.size(); ++i) o << (i ? ", " : "") << r.positive_codes[i];
