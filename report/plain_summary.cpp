@@ -47,7 +47,7 @@ std::string WhatWasTested(const AnalysisResult& r) {
   } else {
     o << "Sets of fictitious applications, equal in qualifications and differing only in that respect, "
       << (r.probes_sent == 0 ? "are planned for " : "went to ") << Count(r.vacancies, "vacancy", "vacancies")
-      << ": each vacancy received ";
+      << (r.probes_sent == 0 ? ": each vacancy is to receive " : ": each vacancy received ");
     if (arms.size() == 2)
       o << "one application from " << Article(arms[0]) << " applicant and one from " << Article(arms[1]) << " applicant.";
     else o << "one application from each group (" << Join(arms, " and ") << ").";
@@ -56,6 +56,7 @@ std::string WhatWasTested(const AnalysisResult& r) {
     o << " Applications were sent between " << r.design.first_sent_at.substr(0, 10) << " and "
       << r.design.last_sent_at.substr(0, 10) << ", and answers were counted for " << r.design.window_days
       << " days after each application.";
+  if (r.probes_sent == 0 && r.responses == 0) return o.str();  // nothing sent: no count of sets used or left out
   o << " " << Count(r.sets_analysed, "set was", "sets were") << " complete and analysed";
   if (r.sets_incomplete) o << "; " << r.sets_incomplete << " could not be used because an application was not sent";
   o << ".";
