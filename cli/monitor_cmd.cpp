@@ -59,7 +59,7 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
                                 "for other designs run 'twinprobe analyze' at the end of fieldwork"));
   MonitorInput in;
   in.completed = reading.fieldwork.completed;
-  in.planned_sets = r.sets_analysed + r.sets_incomplete;
+  in.planned_sets = r.sets_analysed + r.sets_open + r.sets_incomplete;  // every set of the plan, open ones too
   in.looks = plan.looks;
   in.alpha = plan.alpha;
   in.spending = spending;
