@@ -47,6 +47,9 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   r.responses_superseded = f.responses_superseded;
   r.sets_analysed = f.sets_complete;
   r.sets_incomplete = f.sets_incomplete;
+  r.sets_open = f.sets_open;
+  r.responses_late = f.responses_late;
+  r.flow = ComputeFlow(f, scheme.window_days);
 
   for (const auto& a : f.arms) {
     ArmResult ar;

@@ -7,7 +7,10 @@
 // response (the newest of a correction chain); a probe with no response is a
 // negative outcome ("none") once it was sent. A set enters the paired table
 // only when it is complete (IsSetComplete in core/fieldwork.h: every probe
-// was sent or, for imported data, has an outcome).
+// is closed: answered within its window, its window over at the study clock,
+// or, for imported data, carrying an outcome). An answer after the window is
+// late and counts as no answer everywhere (rates, paired table, response
+// times, employers, monitor).
 #include <cstdint>
 #include <optional>
 #include <string>
@@ -22,6 +25,7 @@
 #include "core/read_study.h"
 #include "analysis/design_summary.h"
 #include "analysis/employer_outcomes.h"
+#include "analysis/flow.h"
 #include "analysis/response_times.h"
 #include "stats/binomial.h"
 #include "stats/mcnemar.h"
@@ -60,6 +64,9 @@ struct AnalysisResult {
   int64_t responses_superseded = 0;
   int64_t sets_analysed = 0;
   int64_t sets_incomplete = 0;  // sets left out because a probe was not sent
+  int64_t sets_open = 0;        // sets left out because a probe is still within its window
+  int64_t responses_late = 0;   // answers after the window (kept, counted as no answer)
+  StudyFlow flow;               // analysis/flow.h
 
   std::vector<ArmResult> arms;  // reference first
 

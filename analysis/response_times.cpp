@@ -62,6 +62,7 @@ ResponseTimes ComputeResponseTimes(const Fieldwork& f, const OutcomeScheme& sche
     arms.emplace_back(a.id, std::move(acc));
   }
   for (const SentProbe& ps : f.sent) {
+    if (ps.open) continue;  // still within its window: its set is not analysed yet
     ArmAccumulator* acc = &arms[static_cast<size_t>(ps.arm)].second;
     rt.available = true;
     ++acc->out.probes_sent;

@@ -12,9 +12,9 @@
 // - Time is (received_at - sent_at) in days (86,400 s). The observation
 //   window (the scheme's window_days) censors: a first response after the
 //   window counts as no response ("late"), so every curve ends at the
-//   window. This is the empirical cumulative share, not a survival estimate:
-//   while windows are still open (fieldwork under way) the late part of the
-//   curves is an underestimate.
+//   window. This is the empirical cumulative share, not a survival estimate.
+//   Probes still within their window at the study clock (SentProbe::open)
+//   are left out: their sets are not analysed yet.
 // - Probes with a response but no received_at (possible in imported data)
 //   are counted in `responses_without_time` and not placed on the curve.
 #include <cstdint>

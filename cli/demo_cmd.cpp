@@ -2,6 +2,7 @@
 // It writes the example study, plans it with the real planner, simulates the
 // employers' responses from a stated model with a fixed seed, records them
 // through the normal recording path, analyses and writes the report.
+#include <algorithm>
 #include <filesystem>
 #include <fstream>
 #include <iostream>
@@ -67,7 +68,9 @@ Status PrepareFolder(const std::string& dir) {
 
 // Sends every planned probe and records the simulated responses in one
 // audited command, through the same AddResponse that `record` uses.
-int64_t SimulateFieldwork(Store& store, const OutcomeScheme& scheme, const DemoModel& model) {
+// `season_end` receives the end of the simulated season: the last sending
+// plus the observation window (every simulated answer falls within it).
+int64_t SimulateFieldwork(Store& store, const OutcomeScheme& scheme, const DemoModel& model, int64_t& season_end) {
   stats::Rng rng(model.seed);
   AuditedWrite write(store, "demo simulate");
   const std::vector<PlannedProbeRow> rows = ReadPlannedProbes(store, "occupation");
@@ -77,6 +80,7 @@ int64_t SimulateFieldwork(Store& store, const OutcomeScheme& scheme, const DemoM
   bool responsive = false;
   for (const auto& r : rows) {
     sendings.Insert(write.seq(), r.id, r.planned_at, "demo", write.at());
+    season_end = std::max(season_end, *ParseIsoTime(r.planned_at) + int64_t{scheme.window_days} * 86400);
     if (r.vacancy_id != current_vacancy) {
       current_vacancy = r.vacancy_id;
       responsive = rng.Bernoulli(model.Responsive(r.stratum_value));
@@ -125,13 +129,17 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
   auto frozen = FreezeStudy(*store.value(), s.design);
   if (!frozen.ok()) return ReportError(frozen.error());
   DemoModel model;
-  int64_t responses = SimulateFieldwork(*store.value(), s.design.outcomes, model);
+  int64_t season_end = 0;
+  int64_t responses = SimulateFieldwork(*store.value(), s.design.outcomes, model, season_end);
   // The listing-audit part: invented candidate rankings of an invented job
   // board (templates/demo/listings/generate_ranks.py states the model).
   auto ranks = ImportRanksFile(*store.value(), (fs::path(out_dir) / "listings" / "ranks.csv").string(),
                                TerminalProgress("import ranks"));
   if (!ranks.ok()) return ReportError(ranks.error());
-  auto result = AnalyzeStore(*store.value(), s.design.outcomes, s.design.analysis, &s.design);
+  // The simulated season lies in the future of the computer's clock: the
+  // demo analyses it as of the season's end, when every window has closed
+  // (a later `analyze` does the same with TWINPROBE_NOW set to that time).
+  auto result = AnalyzeStore(*store.value(), s.design.outcomes, s.design.analysis, &s.design, season_end);
   if (!result.ok()) return ReportError(result.error());
 
   fs::create_directories(fs::path(out_dir) / "reports");
@@ -160,7 +168,8 @@ int RunDemo(Context& ctx, const std::string& out_dir) {
             << "Reports:      " << text_path << "\n"
             << "              " << json_path << "\n"
             << "              " << html_path << "  (open it in a browser; it prints on A4)\n"
-            << "Try: twinprobe --study " << out_dir << " analyze\n";
+            << "Try: TWINPROBE_NOW=" << FormatIsoTime(season_end) << " twinprobe --study " << out_dir
+            << " analyze   (the season's end; without it the clock says which windows are still open)\n";
   return 0;
 }
 

@@ -50,7 +50,7 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
   if (!settings.ok()) return ReportError(settings.error());
   const AnalysisPlan& plan = settings.value().analysis;
   const OutcomeScheme& scheme = settings.value().outcomes;
-  const StudyReading reading = ReadStudy(*store.value(), scheme, FieldworkOptions{.completion_order = true});
+  const StudyReading reading = ReadStudy(*store.value(), scheme, FieldworkOptions{.completion_order = true, .now = std::nullopt});
   auto analysis = Analyze(reading, store.value()->path(), scheme, plan);
   if (!analysis.ok()) return ReportError(analysis.error());
   const AnalysisResult& r = analysis.value();
@@ -60,7 +60,7 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
                                 "for other designs run 'twinprobe analyze' at the end of fieldwork"));
   MonitorInput in;
   in.completed = reading.fieldwork.completed;
-  in.planned_sets = r.sets_analysed + r.sets_incomplete;
+  in.planned_sets = r.sets_analysed + r.sets_open + r.sets_incomplete;  // every set of the plan, open ones too
   in.looks = plan.looks;
   in.alpha = plan.alpha;
   in.spending = spending;

@@ -51,8 +51,8 @@ ReportContext StudyReportContext(const Context& ctx, Store& store, bool reveal_e
 }
 
 Result<AnalysisResult> AnalyzeStore(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan,
-                                    const Design* current_design) {
-  const StudyReading reading = ReadStudy(store, scheme);
+                                    const Design* current_design, std::optional<int64_t> now) {
+  const StudyReading reading = ReadStudy(store, scheme, FieldworkOptions{.completion_order = false, .now = now});
   return Analyze(reading, store.path(), scheme, plan, current_design);
 }
 

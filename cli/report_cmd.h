@@ -1,4 +1,6 @@
 #pragma once
+#include <cstdint>
+#include <optional>
 // What `report` and `demo` share: the context a rendered report carries
 // (tool version, time, audit head, ethics approval; employer names only when
 // revealed).
@@ -19,8 +21,11 @@ ReportContext StudyReportContext(const Context& ctx, Store& store, bool reveal_e
 void ReadChainState(const std::string& store_path, ReportContext& rc);
 
 // Reads the study with core's read models (core/read_study.h) and analyses
-// it (analysis/analyze.h): what `analyze`, `report` and `demo` run.
+// it (analysis/analyze.h): what `analyze`, `report` and `demo` run. `now`
+// is the study clock for the window rule (nullopt: the computer's clock or
+// $TWINPROBE_NOW); only the demo sets it, to the end of its simulated season.
 Result<AnalysisResult> AnalyzeStore(Store& store, const OutcomeScheme& scheme, const AnalysisPlan& plan,
-                                    const Design* current_design = nullptr);
+                                    const Design* current_design = nullptr,
+                                    std::optional<int64_t> now = std::nullopt);
 
 }  // namespace twinprobe

@@ -107,11 +107,32 @@ void AppendShapeKey(std::string& key, const std::vector<SetProbe>& probes) {
 
 bool IsSetComplete(const std::vector<SetProbe>& probes) {
   if (probes.empty()) return false;
-  return std::all_of(probes.begin(), probes.end(), [](const SetProbe& p) { return p.sent || p.has_response; });
+  return std::all_of(probes.begin(), probes.end(),
+                     [](const SetProbe& p) { return (p.sent || p.has_response) && !p.open; });
+}
+
+bool IsLate(const ProbeClock& p, int window_days) {
+  if (!p.sent_at || !p.answered || !p.answered_at) return false;
+  return *p.answered_at > *p.sent_at + int64_t{window_days} * 86400;
+}
+
+bool IsClosed(const ProbeClock& p, int64_t now, int window_days, bool has_outcome) {
+  if (!p.sent_at) return has_outcome;
+  if (p.answered && !IsLate(p, window_days)) return true;  // an answer within the window (or untimed)
+  return now >= *p.sent_at + int64_t{window_days} * 86400;
+}
+
+std::optional<int64_t> ClosesAt(const ProbeClock& p, int window_days) {
+  if (!p.sent_at) return std::nullopt;
+  if (p.answered && p.answered_at && !IsLate(p, window_days)) return std::max(*p.sent_at, *p.answered_at);
+  return *p.sent_at + int64_t{window_days} * 86400;
 }
 
 Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const FieldworkOptions& options) {
   Fieldwork f;
+  const int64_t now = options.now.value_or(NowEpoch());
+  const int window_days = scheme.window_days;
+  f.study_clock = now;
   {
     Stmt p = store.Prepare("SELECT id, kind, origin, seed, design_sha256, created_at FROM current_plan");
     if (!p.Step()) return f;
@@ -163,7 +184,11 @@ Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const Fieldwo
     const bool known = vacancy_cursor.MoveTo(set_vacancy);
     const auto& strata = known ? vacancy_cursor.strata() : kNoStrata;
     const bool complete = IsSetComplete(set_probes);
-    ++(complete ? f.sets_complete : f.sets_incomplete);
+    const bool all_sent = std::all_of(set_probes.begin(), set_probes.end(),
+                                      [](const SetProbe& p) { return p.sent || p.has_response; });
+    ++(complete ? f.sets_complete : all_sent ? f.sets_open : f.sets_incomplete);
+    if (std::none_of(set_probes.begin(), set_probes.end(), [](const SetProbe& p) { return p.sent || p.has_response; }))
+      ++f.sets_unsent;
     key.clear();
     AppendShapeKey(key, set_probes);
     for (const auto& [column, value] : strata) {
@@ -227,19 +252,30 @@ Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const Fieldwo
       if (scheme.is_positive(r.code) && (std::isnan(sp.first_positive_days) || days < sp.first_positive_days))
         sp.first_positive_days = days;
     }
-    SetProbe probe{pr.arm, first != nullptr, current != nullptr, current && scheme.is_positive(current->code)};
+    // The window rule (IsClosed, IsLate): a late answer counts as no answer.
+    ProbeClock clock;
+    if (first && has_sent_epoch) clock.sent_at = sent_epoch;
+    clock.answered = current && current->code != "none";
+    if (clock.answered && current->received_at) clock.answered_at = ParseIsoTime(*current->received_at);
+    const bool late = IsLate(clock, window_days);
+    const bool open = first && has_sent_epoch && !IsClosed(clock, now, window_days, current != nullptr);
+    SetProbe probe{pr.arm, first != nullptr, current != nullptr && !late,
+                   current && !late && scheme.is_positive(current->code), open, late};
+    if (late) ++f.responses_late;
+    if (open) ++f.probes_open;
     ++f.probes_planned;
     ++f.arms[static_cast<size_t>(pr.arm)].probes_planned;
     if (probe.sent) ++f.probes_sent;
     if (probe.has_response) ++f.responses;
     if (first) {
-      sp.code = current ? intern(current->code) : 0;
+      sp.code = current && !late ? intern(current->code) : 0;
+      sp.open = open;
       if (!std::isnan(sp.first_any_days)) sp.untimed_response = false;
       f.sent.push_back(sp);
     }
     // Completion time of the set: the latest of its probes' times.
     int64_t at = 0;
-    if (first) at = has_sent_epoch ? sent_epoch : 0;
+    if (first) at = has_sent_epoch ? ClosesAt(clock, window_days).value_or(0) : 0;
     else if (current) {
       const auto& when = current->received_at ? current->received_at : current->entered_at;
       at = when ? ParseIsoTime(*when).value_or(0) : 0;

@@ -9,8 +9,17 @@
 //   response supersedes (a correction replaces what it supersedes).
 // - A probe has an outcome once it has a current response; a probe without
 //   one is a negative outcome ("none") once it was sent.
-// - A set is complete when every probe of it was sent or has an outcome
-//   (imported data may carry outcomes without sendings): IsSetComplete.
+// - The window rule (IsClosed, IsLate): a sent probe is open from its first
+//   sending until an answer (a current response whose code is not "none")
+//   arrives or its observation window ([outcomes] window_days) ends, relative
+//   to the study clock. An answer received after the window is kept but is
+//   late: it counts as no answer (has_response and positive false). An
+//   answer without a usable time is taken as within the window (it cannot
+//   be judged; it is counted as untimed). An imported outcome without a
+//   sending is closed (the import states a final outcome).
+// - A set is complete (analysable) when every probe of it is closed:
+//   IsSetComplete. A set whose probes were all sent but one is still open is
+//   open, counted apart (Fieldwork::sets_open).
 //
 // Memory: sets are not kept one by one. Sets of the same shape (the same
 // strata values and the same arm/outcome pattern) are counted together, and
@@ -38,12 +47,33 @@ struct SetProbe {
   bool sent = false;
   bool has_response = false;  // a current response exists
   bool positive = false;      // its code counts as positive in the scheme
+  bool open = false;          // sent, no answer yet, window not over (IsClosed false)
+  bool late = false;          // its answer came after the window (counts as no answer)
   auto operator<=>(const SetProbe&) const = default;
 };
 
-// True when every probe was sent or has an outcome (an empty set is not
-// complete: a vacancy without probes has nothing to analyse).
+// True when every probe is closed: sent and not open, or carrying an
+// imported outcome (an empty set is not complete: a vacancy without probes
+// has nothing to analyse).
 bool IsSetComplete(const std::vector<SetProbe>& probes);
+
+// The times the window rule needs for one probe (epoch seconds).
+struct ProbeClock {
+  std::optional<int64_t> sent_at;      // first sending; nullopt when never sent
+  bool answered = false;               // a current response whose code is not "none"
+  std::optional<int64_t> answered_at;  // its received_at; nullopt when it has none (untimed)
+};
+
+// True when the answer came after sent_at + window_days (needs both times).
+bool IsLate(const ProbeClock& p, int window_days);
+// A sent probe is closed once an answer within the window arrived, or the
+// window has ended at `now`; a late answer does not close it before the
+// window ends (it cannot: it comes after). An unsent probe is closed only
+// when it carries an (imported) answer or outcome: `has_outcome`.
+bool IsClosed(const ProbeClock& p, int64_t now, int window_days, bool has_outcome = false);
+// When the probe closed or will close: the in-window answer's time, else
+// sent_at + window. nullopt for an unsent probe.
+std::optional<int64_t> ClosesAt(const ProbeClock& p, int window_days);
 
 struct FieldworkArm {
   int64_t id = 0;
@@ -76,6 +106,7 @@ struct SentProbe {
   double first_any_days = 0;      // earliest current response whose code is not "none"
   double first_positive_days = 0; // earliest current positive response
   bool untimed_response = false;  // a response (not "none") but no received_at or no send time
+  bool open = false;              // still within its window at the study clock (left out of the curves)
 };
 
 // Arm x variable tallies of the plan's probes (the balance tables).
@@ -88,8 +119,9 @@ struct BalanceTallies {
   std::vector<std::array<int64_t, 7>> weekdays;
 };
 
-// A complete set and when it completed: the time of its last sending (for a
-// probe never marked sent, its response's received_at, else entered_at).
+// A complete set and when it completed: the latest time one of its probes
+// closed (ClosesAt; for a probe never marked sent, its response's
+// received_at, else entered_at).
 struct CompletedSet {
   int64_t vacancy_id = 0;
   int64_t completed_at = 0;  // epoch seconds
@@ -116,8 +148,13 @@ struct Fieldwork {
   int64_t probes_sent = 0;
   int64_t responses = 0;             // probes with a current response
   int64_t responses_superseded = 0;  // responses that correct an earlier one
-  int64_t sets_complete = 0;
-  int64_t sets_incomplete = 0;
+  int64_t sets_complete = 0;    // every probe closed (analysable)
+  int64_t sets_open = 0;        // every probe sent or answered, one still within its window
+  int64_t sets_incomplete = 0;  // a probe not sent
+  int64_t sets_unsent = 0;      // of sets_incomplete: no probe sent (nor answered)
+  int64_t probes_open = 0;      // sent probes still within their window
+  int64_t responses_late = 0;   // probes whose current answer came after the window
+  int64_t study_clock = 0;      // the `now` the window rule used (epoch seconds)
   std::string first_sent_at, last_sent_at;  // "" when nothing was sent
 
   std::vector<SetShape> sets;          // by shape, in first-seen (vacancy) order
@@ -130,6 +167,9 @@ struct Fieldwork {
 
 struct FieldworkOptions {
   bool completion_order = false;  // fill Fieldwork::completed (interim monitoring)
+  // The study clock for the window rule; nullopt: NowEpoch() (the computer's
+  // clock, or $TWINPROBE_NOW).
+  std::optional<int64_t> now;
 };
 
 // Reads the current plan (has_plan = false when the store holds none).

@@ -1,16 +1,24 @@
 #include "report/html_sections.h"
 
+#include "report/fieldwork_state.h"
+
 namespace twinprobe {
 namespace {
 
-bool HasPaired(const AnalysisResult& r) { return r.has_paired; }
-bool HasStrata(const AnalysisResult& r) { return (r.has_paired && !r.strata.empty()) || !r.effects.strata.empty(); }
+bool HasStrata(const AnalysisResult& r) {
+  return EarlyStateSentence(r).empty() && ((r.has_paired && !r.strata.empty()) || !r.effects.strata.empty());
+}
 // Several groups, or no pairs: every group against the reference.
-bool HasComparisons(const AnalysisResult& r) { return !r.has_paired && !r.effects.comparisons.empty(); }
-bool HasEmployers(const AnalysisResult& r) { return r.employers.available; }
+bool HasComparisons(const AnalysisResult& r) {
+  return !r.has_paired && !r.effects.comparisons.empty() && EarlyStateSentence(r).empty();
+}
+bool HasEmployers(const AnalysisResult& r) { return r.employers.available && EarlyStateSentence(r).empty(); }
 bool HasListings(const AnalysisResult& r) { return r.listings.present; }
 // A store with ranked lists only has no design, rates or responses.
 bool HasPlan(const AnalysisResult& r) { return !r.listings.listing_only; }
+// Nothing sent or nothing closed yet: no rates, tables or employer findings.
+bool HasFindings(const AnalysisResult& r) { return HasPlan(r) && EarlyStateSentence(r).empty(); }
+bool HasPairedFindings(const AnalysisResult& r) { return r.has_paired && HasFindings(r); }
 
 }  // namespace
 
@@ -19,11 +27,12 @@ const std::vector<HtmlSection>& HtmlSections() {
       {"summary", "Summary", nullptr, {&SummaryKeyFigures, &SummaryParagraphs}},
       {"design", "How the test was designed", &HasPlan,
        {&DesignFactors, &DesignCounts, &DesignStrata, &DesignIntegrity, &DesignBalance, &DesignPreregistration}},
-      {"rates", "Positive callbacks by group", &HasPlan, {&RatesChart}},
-      {"paired", "Pairs: who was treated better", &HasPaired, {&PairedTable, &PairedTest, &PairedEffects}},
+      {"flow", "Flow of the study", &HasPlan, {&FlowDiagramPart}},
+      {"rates", "Positive callbacks by group", &HasFindings, {&RatesChart}},
+      {"paired", "Pairs: who was treated better", &HasPairedFindings, {&PairedTable, &PairedTest, &PairedEffects}},
       {"comparisons", "Each group against the reference", &HasComparisons, {&ComparisonsForest}},
       {"strata", "Results within each stratum", &HasStrata, {&StrataForest, &StrataTables, &AcrossStrataTable}},
-      {"responses", "What came back, and how fast", &HasPlan, {&ResponseCodes, &ResponseTimesChart}},
+      {"responses", "What came back, and how fast", &HasFindings, {&ResponseCodes, &ResponseTimesChart}},
       {"employers", "Employers (by pseudonym)", &HasEmployers, {&EmployerTable}},
       {"listing-audit", "Ranked listings (listing audit)", &HasListings,
        {&ListingOverview, &ListingComparisons, &ListingStrata, &ListingStructure}},

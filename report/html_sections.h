@@ -54,6 +54,8 @@ std::string ListingOverview(const AnalysisResult&, const ReportContext&);
 std::string ListingComparisons(const AnalysisResult&, const ReportContext&);
 std::string ListingStrata(const AnalysisResult&, const ReportContext&);
 std::string ListingStructure(const AnalysisResult&, const ReportContext&);
+// html_sections_flow.cpp (analysis/flow.h, report/fieldwork_state.h)
+std::string FlowDiagramPart(const AnalysisResult&, const ReportContext&);
 // html_sections_about.cpp
 std::string MethodsText(const AnalysisResult&, const ReportContext&);
 std::string CautionsText(const AnalysisResult&, const ReportContext&);

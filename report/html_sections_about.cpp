@@ -85,7 +85,7 @@ std::string MethodsText(const AnalysisResult& r, const ReportContext&) {
             "Days from sending to the earliest answer other than none, per application; the curves are the cumulative "
             "share of sent applications answered by each day. Answers after the " +
                 std::to_string(r.response_times.window_days) +
-                "-day observation window count as no answer. While windows are still open the curves underestimate.",
+                "-day observation window count as no answer. Applications still within their window are left out until it ends.",
             "");
   if (r.balance.present)
     o += Item("Balance of the plan",

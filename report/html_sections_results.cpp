@@ -1,6 +1,7 @@
 // Summary, rates, paired and strata sections of the HTML report.
 #include <cmath>
 
+#include "report/fieldwork_state.h"
 #include "report/html_escape.h"
 #include "report/plural.h"
 #include "report/html_parts.h"
@@ -42,6 +43,7 @@ std::string SummaryKeyFigures(const AnalysisResult& r, const ReportContext&) {
                      std::to_string(g.appearances) + " places");
     return o + "</div>";
   }
+  if (!EarlyStateSentence(r).empty()) return o + "</div>";  // the headline says what is missing: no 0.0% figures
   for (const auto& a : r.arms)
     o += KeyFigure(FormatPercent(a.rate), "positive answers to " + UserText(ArmName(a.label)) + " applicants",
                    std::to_string(a.positive) + " of " + std::to_string(a.probes) + " applications");

@@ -1,3 +1,4 @@
+#include "report/fieldwork_state.h"
 #include "report/json_report.h"
 
 #include <cmath>
@@ -185,14 +186,30 @@ std::string RenderJsonReport(const AnalysisResult& r) {
   j["counts"] = {{"vacancies", r.vacancies},           {"probes_planned", r.probes_planned},
                  {"probes_sent", r.probes_sent},       {"responses", r.responses},
                  {"responses_superseded", r.responses_superseded},
-                 {"sets_analysed", r.sets_analysed},   {"sets_incomplete", r.sets_incomplete}};
+                 {"sets_analysed", r.sets_analysed},   {"sets_incomplete", r.sets_incomplete},
+                 {"sets_open", r.sets_open},           {"responses_late", r.responses_late}};
+  // Where the fieldwork stands, in the words of the text report (report/fieldwork_state.h).
+  {
+    nlohmann::json flow = {{"vacancies_planned", r.flow.vacancies_planned}, {"sets_sent", r.flow.sets_sent},
+                           {"sets_closed", r.flow.sets_closed},             {"sets_analysed", r.flow.sets_analysed},
+                           {"window_days", r.flow.window_days},             {"probes_open", r.flow.probes_open},
+                           {"responses_late", r.flow.responses_late}};
+    flow["excluded"] = nlohmann::json::array();
+    for (const auto& x : r.flow.exclusions)
+      flow["excluded"].push_back({{"reason", x.reason}, {"label", x.label}, {"sets", x.sets}});
+    j["flow"] = flow;
+    const std::string open = OpenSetsSentence(r), early = EarlyStateSentence(r);
+    j["open_sets"] = open.empty() ? nlohmann::json(nullptr) : nlohmann::json(open);
+    j["early_state"] = early.empty() ? nlohmann::json(nullptr) : nlohmann::json(early);
+  }
   j["arms"] = nlohmann::json::array();
   for (const auto& a : r.arms)
     j["arms"].push_back({{"label", a.label},
                          {"is_reference", a.is_reference},
                          {"probes", a.probes},
                          {"positive", a.positive},
-                         {"rate", JsonNumber(a.rate)},
+                         // No rate without an analysed application (never a 0.0% from 0 of 0).
+                         {"rate", a.probes ? JsonNumber(a.rate) : nlohmann::json(nullptr)},
                          {"conf_int", {JsonNumber(a.ci.low), JsonNumber(a.ci.high)}}});
   if (r.has_paired) {
     nlohmann::json p;

@@ -1,4 +1,5 @@
 #include "report/plain_summary.h"
+#include "report/fieldwork_state.h"
 #include "report/plural.h"
 
 #include <cmath>
@@ -39,12 +40,14 @@ std::string WhatWasTested(const AnalysisResult& r) {
   o << "This study asked whether employers answer job applications differently depending on the applicant's "
     << (factors.empty() ? std::string("group") : Join(factors, " and ")) << ". ";
   if (r.kind == "unpaired") {
-    o << "Fictitious applications with equivalent qualifications went to " << Count(r.vacancies, "vacancy", "vacancies")
+    o << "Fictitious applications with equivalent qualifications " << (r.probes_sent == 0 ? "are planned for " : "went to ")
+      << Count(r.vacancies, "vacancy", "vacancies")
       << ", one application per vacancy, from applicants who differed only in that respect ("
       << Join(arms, " or ") << ").";
   } else {
-    o << "Sets of fictitious applications, equal in qualifications and differing only in that respect, went to "
-      << Count(r.vacancies, "vacancy", "vacancies") << ": each vacancy received ";
+    o << "Sets of fictitious applications, equal in qualifications and differing only in that respect, "
+      << (r.probes_sent == 0 ? "are planned for " : "went to ") << Count(r.vacancies, "vacancy", "vacancies")
+      << (r.probes_sent == 0 ? ": each vacancy is to receive " : ": each vacancy received ");
     if (arms.size() == 2)
       o << "one application from " << Article(arms[0]) << " applicant and one from " << Article(arms[1]) << " applicant.";
     else o << "one application from each group (" << Join(arms, " and ") << ").";
@@ -53,9 +56,11 @@ std::string WhatWasTested(const AnalysisResult& r) {
     o << " Applications were sent between " << r.design.first_sent_at.substr(0, 10) << " and "
       << r.design.last_sent_at.substr(0, 10) << ", and answers were counted for " << r.design.window_days
       << " days after each application.";
+  if (r.probes_sent == 0 && r.responses == 0) return o.str();  // nothing sent: no count of sets used or left out
   o << " " << Count(r.sets_analysed, "set was", "sets were") << " complete and analysed";
   if (r.sets_incomplete) o << "; " << r.sets_incomplete << " could not be used because an application was not sent";
   o << ".";
+  if (const std::string open = OpenSetsSentence(r); !open.empty()) o << " " << open;
   return o.str();
 }
 
@@ -146,6 +151,7 @@ std::string Headline(const AnalysisResult& r) {
            (c.exposure_gap >= 0 ? "received more" : "received less") + " attention than " + c.other +
            " items (permutation test " + PEquals(c.gap_p) + ").";
   }
+  if (const std::string early = EarlyStateSentence(r); !early.empty()) return early;
   if (r.sets_analysed == 0 || r.arms.empty()) return "No complete set of applications has been analysed yet.";
   if (!r.has_paired) {
     std::vector<std::string> parts;
@@ -224,6 +230,8 @@ std::vector<SummaryParagraph> ListingOnlySummary(const AnalysisResult& r) {
 
 std::vector<SummaryParagraph> PlainSummary(const AnalysisResult& r) {
   if (r.listings.listing_only) return ListingOnlySummary(r);
+  if (const std::string early = EarlyStateSentence(r); !early.empty())
+    return {{"What was tested", WhatWasTested(r)}, {"Where the study stands", early}};
   return {{"What was tested", WhatWasTested(r)},
           {"What was found", WhatWasFound(r)},
           {"How sure we are", HowSure(r)},

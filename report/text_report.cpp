@@ -1,4 +1,5 @@
 #include "report/text_report.h"
+#include "report/fieldwork_state.h"
 #include "report/plural.h"
 
 #include <algorithm>
@@ -228,6 +229,8 @@ std::string RenderListingText(const ListingAudit& a, double alpha, bool heading)
   return o.str();
 }
 
+void FindingsBlock(std::ostringstream& o, const AnalysisResult& r);
+
 }  // namespace
 
 std::string RenderTextReport(const AnalysisResult& r, const ReportContext& ctx) {
@@ -261,8 +264,31 @@ std::string RenderTextReport(const AnalysisResult& r) {
   if (r.responses_superseded) o << " (" << r.responses_superseded << " earlier entries corrected)";
   o << ".\n" << r.sets_analysed << " complete sets analysed";
   if (r.sets_incomplete) o << "; " << r.sets_incomplete << " sets left out because a probe was not sent";
-  o << ".\n\n";
+  o << ".\n";
+  if (const std::string open = OpenSetsSentence(r); !open.empty()) o << open << "\n";
+  o << "\nFlow of the study:\n";
+  for (const std::string& line : FlowTextLines(r.flow)) o << "  " << line << "\n";
+  o << "\n";
+  // An early state has no findings: no rate, no table, no sentence about
+  // employers; the design, its balance and the pre-registration still show.
+  const bool findings = EarlyStateSentence(r).empty();
+  if (findings) FindingsBlock(o, r);
+  DesignBlock(o, r);
+  if (findings) {
+    ResponseTimesBlock(o, r);
+    EmployersBlock(o, r);
+  }
+  if (r.listings.present) o << "\n" << RenderListingText(r.listings, r.alpha, true);
+  // Design integrity: balance of the plan and the pre-registration.
+  if (std::string balance = RenderBalanceText(r.balance); !balance.empty()) o << "\n" << balance;
+  o << "\n" << RenderPreregistrationText(r.preregistration);
+  return o.str();
+}
 
+namespace {
+
+// The rates, the paired table and test, and the effects.
+void FindingsBlock(std::ostringstream& o, const AnalysisResult& r) {
   o << "Positive callback (";
   for (size_t i = 0; i < r.positive_codes.size(); ++i) o << (i ? ", " : "") << r.positive_codes[i];
   o << ") by arm, with exact Clopper-Pearson " << static_cast<int>(std::lround(r.confidence * 100))
@@ -296,14 +322,8 @@ std::string RenderTextReport(const AnalysisResult& r) {
       o << "At alpha = " << r.alpha << " the test does not show a difference; this is not evidence that there is none.\n";
   }
   o << RenderEffectsText(r);
-  DesignBlock(o, r);
-  ResponseTimesBlock(o, r);
-  EmployersBlock(o, r);
-  if (r.listings.present) o << "\n" << RenderListingText(r.listings, r.alpha, true);
-  // Design integrity: balance of the plan and the pre-registration.
-  if (std::string balance = RenderBalanceText(r.balance); !balance.empty()) o << "\n" << balance;
-  o << "\n" << RenderPreregistrationText(r.preregistration);
-  return o.str();
 }
+
+}  // namespace
 
 }  // namespace twinprobe

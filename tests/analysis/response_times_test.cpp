@@ -6,6 +6,7 @@
 #include "core/read_study.h"
 #include "analysis/design_summary.h"
 #include "analysis/response_times.h"
+#include "core/clock.h"
 #include "core/meta.h"
 #include "core/store.h"
 #include "testing/testing.h"
@@ -73,7 +74,10 @@ TEST_CASE("response times: first response per sent probe, censored at the window
 
   auto store = Store::Open(f.study + "/study.db", false);
   REQUIRE(store.ok());
-  const ResponseTimes rt = ComputeResponseTimes(ReadFieldwork(*store.value(), StoredOutcomeScheme(*store.value())), StoredOutcomeScheme(*store.value()));
+  // The clock after every window (sent 1 March + 28 days) has ended.
+  const FieldworkOptions closed{.completion_order = false, .now = ParseIsoTime("2027-05-01")};
+  const ResponseTimes rt = ComputeResponseTimes(ReadFieldwork(*store.value(), StoredOutcomeScheme(*store.value()), closed),
+                                                StoredOutcomeScheme(*store.value()));
   CHECK(rt.available);
   CHECK(rt.window_days == 28);
   REQUIRE(rt.arms.size() == 2);
@@ -125,8 +129,9 @@ TEST_CASE("response times: first response per sent probe, censored at the window
   CHECK(co.milestones[3].any == 1);  // day 7
   CHECK(co.milestones.back().day == 28);
   CHECK(co.milestones.back().any_share == Approx(0.25));
-  CHECK(Code(co, "none") == 2);  // one never answered, one recorded as none
-  CHECK(Code(co, "invitation") == 1);  // the late one keeps its code; it is censored only in time
+  // The late invitation counts as no answer (it stays in the store, flagged late).
+  CHECK(Code(co, "none") == 3);  // one never answered, one recorded as none, one late
+  CHECK(Code(co, "invitation") == 0);
   CHECK(Code(co, "info_request") == 1);
 
   const DesignSummary d = SummariseDesign(ReadFieldwork(*store.value(), OutcomeScheme{}), ReadStoredDesign(*store.value()));
@@ -148,7 +153,10 @@ TEST_CASE("response times: nothing sent means not available, and no curve") {
   REQUIRE(RunCli({"--study", study, "plan"}).exit_code == 0);
   auto store = Store::Open(study + "/study.db", false);
   REQUIRE(store.ok());
-  const ResponseTimes rt = ComputeResponseTimes(ReadFieldwork(*store.value(), StoredOutcomeScheme(*store.value())), StoredOutcomeScheme(*store.value()));
+  // The clock after every window (sent 1 March + 28 days) has ended.
+  const FieldworkOptions closed{.completion_order = false, .now = ParseIsoTime("2027-05-01")};
+  const ResponseTimes rt = ComputeResponseTimes(ReadFieldwork(*store.value(), StoredOutcomeScheme(*store.value()), closed),
+                                                StoredOutcomeScheme(*store.value()));
   CHECK_FALSE(rt.available);
   REQUIRE(rt.arms.size() == 2);
   CHECK(rt.arms[0].probes_sent == 0);

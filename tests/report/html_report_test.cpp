@@ -92,7 +92,7 @@ TEST_CASE("html report: every section is there, by id, in order, and the content
   const AnalysisResult r = HostileResult();
   ParsedHtml page(RenderHtmlReport(r, Context(false)));
   const auto ids = HtmlSectionIds(r);
-  CHECK(ids == std::vector<std::string>{"summary", "design", "rates", "paired", "strata", "responses", "employers",
+  CHECK(ids == std::vector<std::string>{"summary", "design", "flow", "rates", "paired", "strata", "responses", "employers",
                                         "methods", "cautions", "stamp"});
   std::vector<std::string> toc;
   for (const auto* a : page.ElementsByTag("a")) toc.push_back(ParsedHtml::Attribute(a, "href"));
@@ -116,7 +116,7 @@ TEST_CASE("html report: sections that do not apply are left out") {
   r.strata.clear();
   r.employers = {};
   CHECK(HtmlSectionIds(r) ==
-        std::vector<std::string>{"summary", "design", "rates", "responses", "methods", "cautions", "stamp"});
+        std::vector<std::string>{"summary", "design", "flow", "rates", "responses", "methods", "cautions", "stamp"});
   ParsedHtml page(RenderHtmlReport(r, Context(false)));
   CHECK(page.ElementById("paired") == nullptr);
   CHECK(page.ElementById("summary") != nullptr);

@@ -24,6 +24,9 @@ AnalysisResult OnePair() {
   r.other_label = "origin=coastal";
   r.paired = {0, 1, 0, 0};
   r.mcnemar_exact_p = 1.0;
+  // One closed set of two sent probes (not an early state).
+  r.probes_sent = 2;
+  r.sets_analysed = 1;
   return r;
 }
 
