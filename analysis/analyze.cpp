@@ -63,6 +63,8 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   effects_in.kind = r.kind;
   effects_in.confidence = r.confidence;
   effects_in.correction = r.correction;
+  effects_in.alpha = r.alpha;
+  effects_in.equivalence_margin = plan.equivalence_margin;
   for (const auto& a : f.arms) effects_in.arm_labels.push_back(a.label);
   for (const SetShape& s : f.sets) {
     if (!s.complete) continue;
@@ -101,6 +103,7 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   r.design = SummariseDesign(f, stored);
   r.response_times = ComputeResponseTimes(f, scheme);
   r.employers = paired ? SummariseEmployers(f.employers) : EmployerOutcomes{};
+  TestByEmployer(r.employers, static_cast<uint64_t>(f.seed.value_or(0)), r.mcnemar_exact_p, r.alpha);
   r.balance = ComputeBalance(f);
   r.preregistration = CheckPreregistration(reading.freeze, stored, f, current_design, plan);
   return r;

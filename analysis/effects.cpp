@@ -2,6 +2,9 @@
 
 #include <map>
 
+#include "stats/paired_midp.h"
+#include "stats/paired_ratio.h"
+
 namespace twinprobe {
 namespace {
 
@@ -22,6 +25,8 @@ ArmComparison Compare(const std::vector<const SetOutcome*>& sets, int other, con
     }
     c.mcnemar = stats::McNemar(c.pairs);
     c.conditional_or = stats::ConditionalOddsRatio(c.pairs, in.confidence);
+    c.conditional_or_mid_p = stats::ConditionalOddsRatioMidP({c.pairs.b, c.pairs.c}, in.confidence);
+    c.callback_ratio = stats::CallbackRatio(c.pairs, in.confidence);
     c.net = stats::NetDiscriminationRates(c.pairs, in.confidence);
     c.p = c.mcnemar.exact;
   } else {
@@ -38,13 +43,6 @@ ArmComparison Compare(const std::vector<const SetOutcome*>& sets, int other, con
   }
   c.p_adjusted = c.p.p;
   return c;
-}
-
-// The arm x outcome table of a comparison (pairing ignored; see effects.h).
-stats::Table2x2 ArmByOutcome(const ArmComparison& c) {
-  if (!c.paired) return c.table;
-  const auto& t = c.pairs;
-  return {t.a + t.b, t.c + t.d, t.a + t.c, t.b + t.d};
 }
 
 template <typename T>
@@ -65,7 +63,12 @@ Effects ComputeEffects(const EffectsInput& in) {
   std::vector<const SetOutcome*> all;
   for (const auto& s : in.sets) all.push_back(&s);
   const int arms = static_cast<int>(in.arm_labels.size());
-  for (int other = 1; other < arms; ++other) e.comparisons.push_back(Compare(all, other, in));
+  for (int other = 1; other < arms; ++other) {
+    ArmComparison c = Compare(all, other, in);
+    if (c.paired && in.equivalence_margin > 0 && c.pairs.n() > 0)
+      c.equivalence = stats::PairedEquivalence(c.pairs, -in.equivalence_margin, in.equivalence_margin, in.alpha);
+    e.comparisons.push_back(std::move(c));
+  }
   std::vector<ArmComparison*> family;
   for (auto& c : e.comparisons) family.push_back(&c);
   Adjust(family, method);
@@ -79,18 +82,26 @@ Effects ComputeEffects(const EffectsInput& in) {
       AcrossStrata across;
       across.column = column;
       across.other_label = in.arm_labels[static_cast<size_t>(other)];
+      across.paired = in.kind != "unpaired";
       const size_t first = e.strata.size();
       for (const auto& [value, sets] : values) {
         StratumComparison sc{column, value, Compare(sets, other, in)};
-        across.tables.push_back(ArmByOutcome(sc.result));
+        if (across.paired)
+          across.discordant.push_back({sc.result.pairs.b, sc.result.pairs.c});
+        else
+          across.tables.push_back(sc.result.table);
         e.strata.push_back(std::move(sc));
       }
       std::vector<ArmComparison*> stratum_family;
       for (size_t i = first; i < e.strata.size(); ++i) stratum_family.push_back(&e.strata[i].result);
       Adjust(stratum_family, method);
-      across.values = static_cast<int>(across.tables.size());
-      across.mh = stats::MantelHaenszel(across.tables, in.confidence);
-      across.breslow_day = stats::BreslowDay(across.tables);
+      across.values = static_cast<int>(values.size());
+      if (across.paired) {
+        across.homogeneity = stats::TestDiscordantHomogeneity(across.discordant, in.confidence);
+      } else {
+        across.mh = stats::MantelHaenszel(across.tables, in.confidence);
+        across.breslow_day = stats::BreslowDay(across.tables);
+      }
       e.across.push_back(std::move(across));
     }
   }

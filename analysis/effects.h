@@ -1,7 +1,7 @@
 #pragma once
 // The study's effect estimates and tests beyond the raw paired table: every
 // comparison of an arm with the reference arm, per-stratum results corrected
-// for multiplicity, and Mantel–Haenszel / Breslow–Day across strata.
+// for multiplicity, and one analysis across strata per stratum column.
 // Pure: takes the complete sets as plain values (analysis/analyze.cpp gets
 // them from core/fieldwork.h), so tests can build any study shape directly.
 //
@@ -9,8 +9,9 @@
 //   paired / sets: for the reference arm R and each other arm X, the sets
 //     holding a probe of both give a paired table (a both positive, b R
 //     only, c X only, d neither); tests: exact McNemar (+ mid-p, asymptotic),
-//     conditional odds ratio b/c with exact CI, net discrimination rates,
-//     Newcombe paired difference.
+//     conditional odds ratio b/c with exact and mid-p CI, the callback-rate
+//     ratio (a+b)/(a+c) with Bonett & Price's (2006) interval, net
+//     discrimination rates, Newcombe paired difference.
 //   unpaired: each probe is one observation; the arm x outcome 2x2 table of
 //     R and X gives Fisher's exact test, the conditional MLE and the Woolf
 //     sample odds ratio; every arm's rate has a Wilson interval.
@@ -18,20 +19,25 @@
 //     (paired: exact McNemar and conditional OR; unpaired: Fisher); the p
 //     values of one column and comparison form one family, adjusted with the
 //     design's correction (R's p.adjust).
-//   across strata: per stratum column, the arm x outcome 2x2 table of each
-//     value (for paired data: R positive a+b, negative c+d; X positive a+c,
-//     negative b+d) enters the Mantel–Haenszel odds ratio, the CMH test and
-//     Breslow–Day/Tarone. Pairing is ignored there (probes are counted as
-//     independent); the pair-respecting stratified estimate is MH over
-//     vacancy-strata of size two, which reduces to sum(b)/sum(c), i.e. the
-//     overall conditional odds ratio reported with the paired table.
+//   across strata, paired / sets: per stratum column, the homogeneity test
+//     of the discordant split b_k / (b_k + c_k) (Pearson's X^2 on the k x 2
+//     table of (b_k, c_k), with Fisher–Freeman–Halton's exact p) and the
+//     pooled conditional odds ratio sum(b) / sum(c) (stats/homogeneity.h).
+//     These keep the pairs: Mantel–Haenszel, CMH and Breslow–Day on arm x
+//     outcome tables would count the two probes of a vacancy as independent.
+//   across strata, unpaired: the arm x outcome 2x2 table of each value
+//     enters the Mantel–Haenszel odds ratio, the CMH test and
+//     Breslow–Day/Tarone (probes are independent there).
 #include <cstdint>
+#include <optional>
 #include <string>
 #include <utility>
 #include <vector>
 
 #include "stats/adjust.h"
+#include "stats/equivalence.h"
 #include "stats/fisher.h"
+#include "stats/homogeneity.h"
 #include "stats/mcnemar.h"
 #include "stats/paired.h"
 #include "stats/stratified.h"
@@ -54,6 +60,10 @@ struct EffectsInput {
   std::vector<SetOutcome> sets;          // complete sets only
   double confidence = 0.95;
   std::string correction = "holm";       // as the design's [analysis].correction
+  // [analysis].equivalence_margin: when > 0, paired comparisons of all sets
+  // get the two one-sided tests of |p1 - p2| < margin at level alpha.
+  double equivalence_margin = 0;
+  double alpha = 0.05;
 };
 
 // A test of one arm against the reference, on all data or within a stratum.
@@ -63,8 +73,11 @@ struct ArmComparison {
   // paired / sets
   stats::PairedCounts pairs;
   stats::McNemarResult mcnemar;
-  stats::Estimate conditional_or;
+  stats::Estimate conditional_or;         // exact (Clopper–Pearson) interval
+  stats::Estimate conditional_or_mid_p;   // the same estimate, mid-p interval
+  stats::Estimate callback_ratio;         // (a+b)/(a+c), Bonett–Price interval
   stats::NetDiscrimination net;
+  std::optional<stats::EquivalenceResult> equivalence;  // comparisons of all sets, when a margin is set
   // unpaired
   stats::Table2x2 table;  // rows reference / other, columns positive / negative
   stats::FisherResult fisher;
@@ -84,8 +97,15 @@ struct StratumComparison {
 struct AcrossStrata {
   std::string column;
   std::string other_label;
-  int values = 0;                     // stratum values (tables)
-  std::vector<stats::Table2x2> tables;  // arm x outcome per value, in value order
+  bool paired = true;
+  int values = 0;  // stratum values
+  // paired / sets: the discordant counts per value (value order), their
+  // homogeneity test and pooled conditional odds ratio.
+  std::vector<stats::DiscordantCounts> discordant;
+  stats::DiscordantHomogeneity homogeneity;
+  // unpaired: arm x outcome per value (value order), Mantel–Haenszel and
+  // Breslow–Day.
+  std::vector<stats::Table2x2> tables;
   stats::MantelHaenszelResult mh;
   stats::BreslowDayResult breslow_day;
 };

@@ -38,6 +38,13 @@ std::string CanonicalAnalysisPlan(const Design& d) {
   out += "correction=" + d.analysis.correction + "\n";
   out += "alpha=" + std::string(alpha) + "\n";
   out += "looks=" + join(looks, ",") + "\n";
+  // Written only when set, so the plans frozen before the key existed keep
+  // their canonical form (and their hash).
+  if (d.analysis.equivalence_margin > 0) {
+    char margin[40];
+    std::snprintf(margin, sizeof margin, "%.17g", d.analysis.equivalence_margin);
+    out += "equivalence_margin=" + std::string(margin) + "\n";
+  }
   return out;
 }
 

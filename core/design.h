@@ -70,6 +70,10 @@ struct AnalysisPlan {
   std::string correction = "holm";  // bonferroni | holm | hochberg | hommel | bh | by | none
   double alpha = 0.05;
   std::vector<int> looks;  // planned interim looks, in completed sets
+  // Paired designs: the margin m of an equivalence test (two one-sided
+  // tests that the paired difference of callback rates lies in (-m, m));
+  // 0 = no equivalence test.
+  double equivalence_margin = 0;
 };
 
 struct EthicsBlock {

@@ -615,6 +615,10 @@ void DesignReader::ReadRest(Design& d) {
                                      DidYouMean(d.analysis.correction, kCorrections),
            "use none, bonferroni, holm, hochberg, hommel, bh or by");
     d.analysis.alpha = Real(*a, "[analysis]", "alpha", 0.05, 0.0, 1.0);
+    d.analysis.equivalence_margin = Real(*a, "[analysis]", "equivalence_margin", 0.0, 0.0, 1.0);
+    if (a->get("equivalence_margin") && d.analysis.alpha >= 0.5)
+      Fail(a->get("alpha"), "[analysis].alpha must be below 0.5 when equivalence_margin is set",
+           "the two one-sided tests each run at alpha; write alpha = 0.05");
     if (const toml::node* looks = a->get("looks")) {
       const toml::array* arr = looks->as_array();
       if (!arr) Fail(looks, "[analysis].looks must be a list of whole numbers", "write looks = [200, 400]");
@@ -715,7 +719,7 @@ const std::vector<DesignSectionKeys>& KnownDesignKeys() {
       {"[schedule]", {"start", "gap_hours", "weekdays", "hours", "sets_per_day"}},
       {"[outcomes]", {"codes", "positive", "window_days"}},
       {"[strata]", {"columns"}},
-      {"[analysis]", {"primary", "correction", "alpha", "looks"}},
+      {"[analysis]", {"primary", "correction", "alpha", "looks", "equivalence_margin"}},
       {"[ethics]", {"approval", "retention_days", "decline_within_hours", "cap_per_employer"}},
       {"[team]", {"members"}},
   };

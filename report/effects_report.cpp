@@ -5,6 +5,7 @@
 #include <sstream>
 
 #include "report/json_number.h"
+#include "report/plural.h"
 #include "report/text_report.h"
 
 namespace twinprobe {
@@ -26,8 +27,25 @@ nlohmann::json ComparisonJson(const ArmComparison& c) {
     j["mcnemar_chi2"] = {{"statistic", JsonNumber(c.mcnemar.chi2)}, {"df", 1}, {"p", JsonNumber(c.mcnemar.chi2_p.p)}};
     j["mcnemar_chi2_corrected"] = {{"statistic", JsonNumber(c.mcnemar.chi2_corrected)}, {"df", 1}, {"p", JsonNumber(c.mcnemar.chi2_corrected_p.p)}};
     j["conditional_odds_ratio"] = Est(c.conditional_or);
+    j["conditional_odds_ratio"]["method"] = "exact (Clopper-Pearson), two-sided";
+    j["conditional_odds_ratio"]["conf_int_mid_p"] = Ci(c.conditional_or_mid_p.ci);
+    j["callback_rate_ratio"] = Est(c.callback_ratio);
+    j["callback_rate_ratio"]["method"] = "Bonett-Price, two-sided";
     j["net_discrimination_among_positive"] = Est(c.net.among_positive);
     j["paired_difference"] = Est(c.net.over_all);
+    if (const auto& q = c.equivalence)
+      j["equivalence"] = {{"test", "two one-sided Tango score tests"},
+                          {"margin", JsonNumber(q->upper_margin)},
+                          {"estimate", JsonNumber(q->estimate)},
+                          {"z_lower", JsonNumber(q->z_lower)},
+                          {"z_upper", JsonNumber(q->z_upper)},
+                          {"p_lower", JsonNumber(q->p_lower.p)},
+                          {"p_upper", JsonNumber(q->p_upper.p)},
+                          {"p", JsonNumber(q->p.p)},
+                          {"conf_int", Ci(q->ci)},
+                          {"conf_level", JsonNumber(1 - 2 * q->alpha)},
+                          {"alpha", JsonNumber(q->alpha)},
+                          {"equivalent", q->equivalent}};
   } else {
     j["table"] = {{"a", c.table.a}, {"b", c.table.b}, {"c", c.table.c}, {"d", c.table.d}, {"n", c.table.n()}};
     j["fisher"] = {{"p", JsonNumber(c.fisher.p.p)}, {"log10_p", JsonNumber(c.fisher.p.log10_p)}, {"conditional_mle_odds_ratio", JsonNumber(c.fisher.estimate)},
@@ -57,25 +75,66 @@ void ComparisonText(std::ostringstream& o, const ArmComparison& c, const Analysi
     const auto& t = c.pairs;
     o << "  " << c.other_label << " vs " << ref << ": " << t.n() << " sets with both (a " << t.a << ", b " << t.b << ", c "
       << t.c << ", d " << t.d << ").\n"
-      << "    exact McNemar " << PEquals(c.mcnemar.exact) << " (mid-p " << FormatP(c.mcnemar.mid_p) << "); asymptotic X^2 = "
-      << Fmt(c.mcnemar.chi2) << " (" << PEquals(c.mcnemar.chi2_p) << "), with continuity correction "
-      << Fmt(c.mcnemar.chi2_corrected) << " (" << PEquals(c.mcnemar.chi2_corrected_p) << ").\n"
-      << "    conditional odds ratio b/c = " << Fmt(c.conditional_or.estimate) << ", " << cl << " exact CI "
-      << FmtCi(c.conditional_or.ci) << ".\n"
+      << "    the exact McNemar test, two-sided, " << (c.mcnemar.exact.p < r.alpha ? "rejects" : "does not reject")
+      << " equal treatment at alpha " << Fmt(r.alpha) << ": " << PEquals(c.mcnemar.exact) << " (mid-p, two-sided, "
+      << FormatP(c.mcnemar.mid_p) << "); asymptotic McNemar X^2 = " << Fmt(c.mcnemar.chi2) << " ("
+      << PEquals(c.mcnemar.chi2_p) << "), with continuity correction " << Fmt(c.mcnemar.chi2_corrected) << " ("
+      << PEquals(c.mcnemar.chi2_corrected_p) << ").\n"
+      << "    callback-rate ratio (a+b)/(a+c) = " << Fmt(c.callback_ratio.estimate) << ", " << cl
+      << " two-sided CI (Bonett-Price) " << FmtCi(c.callback_ratio.ci) << ".\n"
+      << "    conditional odds ratio b/c = " << Fmt(c.conditional_or.estimate) << ", " << cl
+      << " two-sided CI exact (Clopper-Pearson) " << FmtCi(c.conditional_or.ci) << ", mid-p "
+      << FmtCi(c.conditional_or_mid_p.ci) << ".\n"
       << "    net discrimination (b-c)/(a+b+c) = " << Fmt(c.net.among_positive.estimate) << " " << FmtCi(c.net.among_positive.ci)
       << "; paired difference of rates (b-c)/n = " << Fmt(c.net.over_all.estimate) << " " << FmtCi(c.net.over_all.ci)
-      << " (Newcombe " << cl << ").\n";
+      << " (" << cl << " two-sided, Newcombe).\n";
+    if (c.equivalence) o << "    " << EquivalenceSentence(*c.equivalence) << "\n";
   } else {
     const auto& t = c.table;
     o << "  " << c.other_label << " vs " << ref << ": " << t.c << "/" << t.c + t.d << " positive " << FmtCi(c.other_wilson)
       << " vs " << t.a << "/" << t.a + t.b << " " << FmtCi(c.reference_wilson) << " (Wilson " << cl << ").\n"
-      << "    Fisher's exact " << PEquals(c.fisher.p) << "; conditional MLE odds ratio (reference vs other) "
-      << Fmt(c.fisher.estimate) << ", " << cl << " exact CI " << FmtCi(c.fisher.ci) << "; sample odds ratio "
-      << Fmt(c.woolf.estimate) << " " << FmtCi(c.woolf.ci) << " (Woolf).\n";
+      << "    Fisher's exact test, two-sided, " << (c.fisher.p.p < r.alpha ? "rejects" : "does not reject")
+      << " equal callback rates at alpha " << Fmt(r.alpha) << ": " << PEquals(c.fisher.p) << "; conditional MLE odds ratio (reference vs other) "
+      << Fmt(c.fisher.estimate) << ", " << cl << " two-sided exact CI " << FmtCi(c.fisher.ci) << "; sample odds ratio "
+      << Fmt(c.woolf.estimate) << " " << FmtCi(c.woolf.ci) << " (Woolf, two-sided).\n";
   }
 }
 
+// The pair-keeping analysis across one stratum column (analysis/effects.h).
+void AcrossPairedText(std::ostringstream& o, const AcrossStrata& a, const AnalysisResult& r, const std::string& ref) {
+  const auto& h = a.homogeneity;
+  o << "\nAcross " << a.column << " (" << a.values << " values, " << a.other_label << " vs " << ref
+    << "; discordant sets per value, pairs kept):\n"
+    << "  pooled conditional odds ratio sum(b)/sum(c) = " << h.total_b << "/" << h.total_c << " = "
+    << Fmt(h.pooled_odds_ratio.estimate) << ", " << Percent(r.confidence) << " two-sided CI exact (Clopper-Pearson) "
+    << FmtCi(h.pooled_odds_ratio.ci) << ".\n";
+  if (h.strata_used < 2) {
+    o << "  homogeneity of the discordant split b/(b+c): not testable (" << Count(h.strata_used, "value has", "values have")
+      << " discordant sets).\n";
+    return;
+  }
+  o << "  homogeneity of the discordant split b/(b+c) across the " << h.strata_used
+    << " values with discordant sets: Pearson's chi-square test X^2 = " << Fmt(h.chi2) << " on " << h.df << " df ("
+    << PEquals(h.chi2_p) << ")";
+  if (h.exact_p) o << "; the exact Freeman-Halton test " << PEquals(*h.exact_p);
+  o << ".\n";
+  const double p = h.exact_p && h.small_expected ? *h.exact_p : h.chi2_p.p;
+  o << "  " << (h.exact_p && h.small_expected ? "the exact test (expected counts are small)" : "the chi-square test")
+    << (p < r.alpha ? " rejects" : " does not reject") << " a common conditional odds ratio across " << a.column
+    << " at alpha " << Fmt(r.alpha) << ".\n";
+}
+
 }  // namespace
+
+std::string EquivalenceSentence(const stats::EquivalenceResult& q) {
+  std::ostringstream o;
+  o << "equivalence within +/-" << Fmt(q.upper_margin) << " (two one-sided Tango score tests, each one-sided at alpha "
+    << Fmt(q.alpha) << "): paired difference (b-c)/n = " << Fmt(q.estimate) << ", "
+    << std::lround((1 - 2 * q.alpha) * 100) << "% two-sided CI (Tango) " << FmtCi(q.ci) << "; p = max("
+    << FormatP(q.p_lower) << ", " << FormatP(q.p_upper) << ") = " << FormatP(q.p) << ": "
+    << (q.equivalent ? "shows" : "does not show") << " equivalence.";
+  return o.str();
+}
 
 nlohmann::json EffectsJson(const AnalysisResult& r) {
   const Effects& e = r.effects;
@@ -92,11 +151,35 @@ nlohmann::json EffectsJson(const AnalysisResult& r) {
   }
   j["across_strata"] = nlohmann::json::array();
   for (const auto& a : e.across) {
+    if (a.paired) {
+      const auto& h = a.homogeneity;
+      nlohmann::json counts = nlohmann::json::array();
+      for (const auto& d : a.discordant) counts.push_back({d.b, d.c});
+      j["across_strata"].push_back(
+          {{"column", a.column},
+           {"other_arm", a.other_label},
+           {"design", "paired"},
+           {"values", a.values},
+           {"discordant", counts},
+           {"pooled_conditional_odds_ratio",
+            {{"b", h.total_b}, {"c", h.total_c}, {"estimate", JsonNumber(h.pooled_odds_ratio.estimate)},
+             {"conf_int", Ci(h.pooled_odds_ratio.ci)}, {"method", "exact (Clopper-Pearson), two-sided"}}},
+           {"homogeneity",
+            {{"test", "Pearson chi-square on the k x 2 table of (b, c)"},
+             {"statistic", JsonNumber(h.chi2)},
+             {"df", h.df},
+             {"p", JsonNumber(h.chi2_p.p)},
+             {"exact_p", h.exact_p ? JsonNumber(*h.exact_p) : nlohmann::json(nullptr)},
+             {"small_expected", h.small_expected},
+             {"strata_used", h.strata_used}}}});
+      continue;
+    }
     nlohmann::json tables = nlohmann::json::array();
     for (const auto& t : a.tables) tables.push_back({t.a, t.b, t.c, t.d});
     j["across_strata"].push_back(
         {{"column", a.column},
          {"other_arm", a.other_label},
+         {"design", "unpaired"},
          {"values", a.values},
          {"tables", tables},
          {"mantel_haenszel", {{"estimate", JsonNumber(a.mh.estimate)}, {"conf_int", Ci(a.mh.ci)}, {"log_sd", JsonNumber(a.mh.log_sd)},
@@ -119,8 +202,9 @@ std::string RenderEffectsText(const AnalysisResult& r) {
   o << "\nComparisons with the reference arm (" << ref << ")\n";
   if (paired)
     o << "within sets: exact conditional McNemar test (two-sided), mid-p and the asymptotic McNemar test; the\n"
-         "conditional odds ratio b/c with the exact interval from the Clopper-Pearson interval of b/(b+c); net\n"
-         "discrimination rates with Newcombe's (1998, method 10) score interval.\n";
+         "callback-rate ratio (a+b)/(a+c) with Bonett and Price's (2006) paired interval; the conditional odds\n"
+         "ratio b/c with the exact (Clopper-Pearson) and mid-p intervals of b/(b+c); net discrimination rates\n"
+         "with Newcombe's (1998, method 10) score interval. Every interval is two-sided.\n";
   else
     o << "probes counted independently: Fisher's exact test (two-sided), the conditional\n"
          "maximum-likelihood odds ratio with its exact interval, the sample odds ratio with Woolf's interval.\n";
@@ -151,19 +235,20 @@ std::string RenderEffectsText(const AnalysisResult& r) {
     }
   }
   for (const auto& a : e.across) {
+    if (a.paired) {
+      AcrossPairedText(o, a, r, ref);
+      continue;
+    }
     o << "\nAcross " << a.column << " (" << a.values << " values, " << a.other_label << " vs " << ref
-      << "; arm x outcome tables" << (paired ? ", pairing ignored" : "") << "):\n"
+      << "; arm x outcome tables):\n"
       << "  Mantel-Haenszel odds ratio " << Fmt(a.mh.estimate) << ", " << Percent(r.confidence)
-      << " CI (Robins-Breslow-Greenland) " << FmtCi(a.mh.ci) << "; CMH X^2 = " << Fmt(a.mh.chi2_corrected)
-      << " with continuity correction (" << PEquals(a.mh.chi2_corrected_p) << "), " << Fmt(a.mh.chi2)
-      << " without (" << PEquals(a.mh.chi2_p) << ").\n"
+      << " two-sided CI (Robins-Breslow-Greenland) " << FmtCi(a.mh.ci) << "; the CMH test, two-sided: X^2 = "
+      << Fmt(a.mh.chi2_corrected) << " with continuity correction (" << PEquals(a.mh.chi2_corrected_p) << "), "
+      << Fmt(a.mh.chi2) << " without (" << PEquals(a.mh.chi2_p) << ").\n"
       << "  Breslow-Day test of equal odds ratios: X^2 = " << Fmt(a.breslow_day.statistic) << " on "
       << Fmt(a.breslow_day.df) << " df (" << PEquals(a.breslow_day.p) << "); with Tarone's correction "
       << Fmt(a.breslow_day.tarone) << " (" << PEquals(a.breslow_day.tarone_p) << ").\n";
   }
-  if (paired && !e.across.empty())
-    o << "  (Respecting the pairs, Mantel-Haenszel over vacancies reduces to sum(b)/sum(c), the conditional odds\n"
-         "  ratio above.)\n";
   return o.str();
 }
 

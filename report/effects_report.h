@@ -13,5 +13,9 @@ namespace twinprobe {
 
 std::string RenderEffectsText(const AnalysisResult& result);
 nlohmann::json EffectsJson(const AnalysisResult& result);
+// One sentence on the equivalence test (analysis/effects.h): the margin, the
+// two one-sided tests and their level, the estimate with its 1 - 2 alpha
+// Tango interval, p and whether equivalence is shown.
+std::string EquivalenceSentence(const stats::EquivalenceResult& equivalence);
 
 }  // namespace twinprobe

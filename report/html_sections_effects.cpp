@@ -1,10 +1,12 @@
 // The effect estimates of analysis/effects.h in the HTML report: effect
 // measures beside the paired table, every arm against the reference, the
-// forest chart of odds ratios per stratum (adjusted p) and the
-// Mantel–Haenszel / Breslow–Day summary across strata.
+// forest chart of odds ratios per stratum (adjusted p) and the summary
+// across strata (pairs kept for paired and sets designs; Mantel–Haenszel /
+// Breslow–Day for unpaired designs only).
 #include <cmath>
 #include <cstdio>
 
+#include "report/effects_report.h"
 #include "report/html_escape.h"
 #include "report/html_parts.h"
 #include "report/html_sections.h"
@@ -46,25 +48,42 @@ std::string PairedEffects(const AnalysisResult& r, const ReportContext&) {
   const std::string ref = ArmName(r.reference_label), other = ArmName(c->other_label), conf = Conf(r.confidence);
   HtmlTable t;
   t.caption = "Effect measures (" + ref + " against " + other + ")";
-  t.headers = {"measure", "estimate (" + conf + " interval)", "what it means"};
+  t.headers = {"measure", "estimate (" + conf + " interval, two-sided)", "what it means"};
+  t.rows.push_back({HeadCell("callback-rate ratio (a + b) / (a + c)"),
+                    NumCell(svg::FormatRatioInterval(c->callback_ratio.estimate, c->callback_ratio.ci.low,
+                                                     c->callback_ratio.ci.high)),
+                    Cell("the " + ref + " callback rate divided by the " + other +
+                         " callback rate (Bonett\u2013Price paired interval)")});
   t.rows.push_back({HeadCell("net discrimination (b \u2212 c) / (a + b + c)"), NumCell(PercentInterval(c->net.among_positive)),
                     Cell("among vacancies where at least one applicant was answered positively, the share favouring " +
-                         ref + " minus the share favouring " + other + " (ILO measure)")});
+                         ref + " minus the share favouring " + other + " (ILO measure; Newcombe interval)")});
   t.rows.push_back({HeadCell("difference of rates (b \u2212 c) / n"), NumCell(PercentInterval(c->net.over_all)),
                     Cell("the " + ref + " rate minus the " + other + " rate, over all pairs (Newcombe interval)")});
   t.rows.push_back({HeadCell("conditional odds ratio b / c"),
                     NumCell(svg::FormatRatioInterval(c->conditional_or.estimate, c->conditional_or.ci.low,
                                                      c->conditional_or.ci.high)),
                     Cell("how many times more often an unequal pair favoured " + ref + " than " + other +
-                         " (exact interval)")});
-  t.rows.push_back({HeadCell("exact McNemar p (two-sided)"), NumCell(FormatP(c->mcnemar.exact)),
-                    Cell("chance of a split at least this uneven if employers had no preference")});
-  t.rows.push_back({HeadCell("mid-p"), NumCell(FormatP(c->mcnemar.mid_p)),
+                         " (exact Clopper\u2013Pearson interval)")});
+  t.rows.push_back({HeadCell("conditional odds ratio b / c, mid-p interval"),
+                    NumCell(svg::FormatRatioInterval(c->conditional_or_mid_p.estimate, c->conditional_or_mid_p.ci.low,
+                                                     c->conditional_or_mid_p.ci.high)),
+                    Cell("the same estimate with the mid-p interval; less conservative than the exact one")});
+  t.rows.push_back({HeadCell("exact McNemar test, two-sided"), NumCell(PEquals(c->mcnemar.exact)),
+                    Cell(std::string(c->mcnemar.exact.p < r.alpha ? "rejects" : "does not reject") +
+                         " equal treatment at alpha " + FormatP(r.alpha) +
+                         ": the chance of a split at least this uneven if employers had no preference")});
+  t.rows.push_back({HeadCell("mid-p McNemar, two-sided"), NumCell(FormatP(c->mcnemar.mid_p)),
                     Cell("the exact p less half the probability of the observed split; less conservative")});
+  if (c->equivalence) {
+    const auto& q = *c->equivalence;
+    t.rows.push_back({HeadCell("equivalence test, margin \u00B1" + FormatPercent(q.upper_margin)),
+                      NumCell(PEquals(q.p)),
+                      Cell(EquivalenceSentence(q))});
+  }
   char chi[96];
   std::snprintf(chi, sizeof chi, "X\u00B2 = %.3g, %s", c->mcnemar.chi2_corrected,
                 PEquals(c->mcnemar.chi2_corrected_p).c_str());
-  t.rows.push_back({HeadCell("asymptotic McNemar (continuity corrected)"), NumCell(chi),
+  t.rows.push_back({HeadCell("asymptotic McNemar, two-sided (continuity corrected)"), NumCell(chi),
                     Cell("the large-sample version, as R's mcnemar.test")});
   return html::Heading("Effect measures") + RenderTable(t);
 }
@@ -168,15 +187,53 @@ std::string StrataForest(const AnalysisResult& r, const ReportContext&) {
          o;
 }
 
+namespace {
+
+// Pair-keeping rows (paired and sets designs): the pooled conditional odds
+// ratio and the homogeneity test of the discordant split per column.
+std::string AcrossPairedTable(const AnalysisResult& r, const std::string& ref) {
+  HtmlTable t;
+  t.caption = "Across strata, pairs kept (discordant sets per stratum value)";
+  t.headers = {"stratum column", "against", "values", "pooled conditional odds ratio \u03A3b/\u03A3c (" +
+                   Conf(r.confidence) + ", exact, two-sided)",
+               "homogeneity of b/(b+c): Pearson chi-square", "exact (Freeman\u2013Halton)"};
+  for (const auto& a : r.effects.across) {
+    if (!a.paired) continue;
+    const auto& h = a.homogeneity;
+    std::string chi = "not testable", exact = "\u2013";
+    if (h.strata_used >= 2) {
+      char buf[128];
+      std::snprintf(buf, sizeof buf, "X\u00B2 = %.3g on %d df, %s", h.chi2, h.df, PEquals(h.chi2_p).c_str());
+      chi = buf;
+      if (h.exact_p) exact = PEquals(*h.exact_p);
+    }
+    t.rows.push_back({HeadCell(a.column), Cell(ArmName(a.other_label)), NumCell(std::to_string(a.values)),
+                      NumCell(std::to_string(h.total_b) + "/" + std::to_string(h.total_c) + " = " +
+                              svg::FormatRatioInterval(h.pooled_odds_ratio.estimate, h.pooled_odds_ratio.ci.low,
+                                                       h.pooled_odds_ratio.ci.high)),
+                      NumCell(chi), NumCell(exact)});
+  }
+  const std::string note =
+      "Within each stratum value only the sets where the employer treated the applicants differently carry "
+      "information: b sets favoured " + ref + " applicants, c sets the other group. The pooled conditional odds "
+      "ratio \u03A3b/\u03A3c keeps the pairs. The homogeneity test asks whether the split b/(b+c) differs "
+      "between stratum values (Pearson\u2019s chi-square test on the k \u00D7 2 table of (b, c); read the exact "
+      "Freeman\u2013Halton p when expected counts are small). Mantel\u2013Haenszel, CMH and Breslow\u2013Day are "
+      "not used here: they would count the two applications of a set as independent.";
+  return html::Heading("Across strata") + html::Para(note) + RenderTable(t);
+}
+
+}  // namespace
+
 std::string AcrossStrataTable(const AnalysisResult& r, const ReportContext&) {
   const Effects& e = r.effects;
   if (e.across.empty()) return "";
-  const bool paired = !e.comparisons.empty() && e.comparisons.front().paired;
   const std::string ref = r.arms.empty() ? "reference" : ArmName(r.arms.front().label);
+  if (e.across.front().paired) return AcrossPairedTable(r, ref);
   HtmlTable t;
-  t.caption = "Across strata (group \u00D7 outcome tables" + std::string(paired ? ", pairing ignored)" : ")");
-  t.headers = {"stratum column", "against", "values", "Mantel\u2013Haenszel odds ratio (" + Conf(r.confidence) + ")",
-               "CMH test (corrected)", "Breslow\u2013Day (Tarone)"};
+  t.caption = "Across strata (group \u00D7 outcome tables)";
+  t.headers = {"stratum column", "against", "values", "Mantel\u2013Haenszel odds ratio (" + Conf(r.confidence) + ", two-sided)",
+               "CMH test, two-sided (corrected)", "Breslow\u2013Day (Tarone)"};
   for (const auto& a : e.across) {
     char cmh[96], bd[128];
     std::snprintf(cmh, sizeof cmh, "X\u00B2 = %.3g, %s", a.mh.chi2_corrected, PEquals(a.mh.chi2_corrected_p).c_str());
@@ -186,13 +243,10 @@ std::string AcrossStrataTable(const AnalysisResult& r, const ReportContext&) {
                       NumCell(svg::FormatRatioInterval(a.mh.estimate, a.mh.ci.low, a.mh.ci.high)), NumCell(cmh),
                       NumCell(bd)});
   }
-  std::string note =
+  const std::string note =
       "The Mantel\u2013Haenszel odds ratio pools the group \u00D7 outcome tables of the stratum values; the CMH test "
-      "asks whether " + ref + " applicants were favoured after allowing for the stratum, and Breslow\u2013Day whether "
-      "the odds ratio differs between stratum values.";
-  if (paired)
-    note += " These treat the two applications of a pair as independent; the estimate that respects the pairs is "
-            "the conditional odds ratio of all pairs (the summary row of the forest chart).";
+      "(two-sided) asks whether " + ref + " applicants were favoured after allowing for the stratum, and "
+      "Breslow\u2013Day whether the odds ratio differs between stratum values.";
   return html::Heading("Across strata") + html::Para(note) + RenderTable(t);
 }
 

@@ -4,6 +4,7 @@
 
 #include "report/html_escape.h"
 #include "report/html_parts.h"
+#include "report/employer_flip_text.h"
 #include "report/html_sections.h"
 #include "report/html_table.h"
 #include "report/plain_summary.h"
@@ -145,6 +146,7 @@ std::string EmployerTable(const AnalysisResult& r, const ReportContext& ctx) {
       " of them treated the two applicants differently at least once. A single unequal pair is weak evidence about "
       "a single employer: even an employer without any preference answers one applicant and not the other now and "
       "then. This table supports follow-up testing, not public naming.");
+  if (std::string flip = EmployerFlipSentence(r); !flip.empty()) o += html::Para(flip);
   o += ctx.reveal_employers
            ? html::Para("Employer names are shown because the report was made with --reveal-employers; that choice is "
                         "recorded in the study's audit chain.",

@@ -146,9 +146,11 @@ std::string PairedTest(const AnalysisResult& r, const ReportContext&) {
                   std::to_string(p.c) + " is " + FormatP(r.mcnemar_exact_p) + ".");
   std::string verdict = r.mcnemar_exact_p < r.alpha
                             ? "At the study's significance level (alpha = " + FormatP(r.alpha) +
-                                  ") the data are not compatible with equal treatment."
+                                  ") the exact McNemar test, two-sided, rejects equal treatment: " +
+                                  PEquals(r.mcnemar_exact_p) + "."
                             : "At the study's significance level (alpha = " + FormatP(r.alpha) +
-                                  ") the test does not show a difference; this is not evidence that there is none.";
+                                  ") the exact McNemar test, two-sided, does not reject equal treatment (" +
+                                  PEquals(r.mcnemar_exact_p) + "); this is not evidence that there is none.";
   return o + html::Para(verdict, "verdict");
 }
 

@@ -163,6 +163,17 @@ nlohmann::json EmployersJson(const EmployerOutcomes& e) {
   j["available"] = e.available;
   j["employers"] = e.employers;
   j["employers_discordant"] = e.employers_discordant;
+  if (e.flip_tested)
+    j["sign_flip_test"] = {{"test", "employer sign-flip, two-sided"},
+                           {"statistic", e.flip.statistic},
+                           {"employers", e.flip.employers},
+                           {"employers_with_several_pairs", e.employers_with_several},
+                           {"p_two_sided", JsonNumber(e.flip.p_two_sided)},
+                           {"p_greater", JsonNumber(e.flip.p_greater)},
+                           {"p_less", JsonNumber(e.flip.p_less)},
+                           {"exact", e.flip.exact},
+                           {"resamples", e.flip.resamples},
+                           {"differs_from_pair_level_test", e.flip_disagrees}};
   j["discordant"] = nlohmann::json::array();
   for (const auto& x : e.discordant) {
     j["discordant"].push_back(

@@ -114,9 +114,9 @@ std::string HowSure(const AnalysisResult& r) {
     << PlainP(r.mcnemar_exact_p) << ", exact McNemar test, two-sided). ";
   if (r.mcnemar_exact_p < r.alpha)
     o << "That is below the study's threshold of " << Alpha(r.alpha)
-      << ", so chance alone is an unlikely explanation: the data show that "
+      << ", so the test rejects equal treatment: chance alone is an unlikely explanation of the "
       << ArmName(t.b > t.c ? r.reference_label : r.other_label)
-      << " applicants were favoured at these vacancies. ";
+      << " applicants' advantage at these vacancies. ";
   else
     o << "That is not below the study's threshold of " << Alpha(r.alpha)
       << ", so the test does not show a difference. This is not proof that there is none; a larger study may find one. ";

@@ -10,6 +10,7 @@
 #include "analysis/strongest_evidence.h"
 #include "report/design_report.h"
 #include "report/effects_report.h"
+#include "report/employer_flip_text.h"
 #include "report/plain_summary.h"
 
 namespace twinprobe {
@@ -36,6 +37,29 @@ std::string Wrap(const std::string& text, const std::string& indent) {
   }
   if (!line.empty()) out += indent + line + "\n";
   return out;
+}
+
+// The cautions the plain summary points to ("see the cautions at the end of
+// this report"); the HTML report lists the same points (CautionsText in
+// report/html_sections_about.cpp).
+void CautionsBlock(std::ostringstream& o) {
+  o << "\nCautions.\n"
+    << Wrap("Ethics review. A correspondence test deceives employers and takes their time. It should run only with "
+            "the approval of an ethics review board, with few applications per employer and every invitation "
+            "declined promptly and politely.", "  ")
+    << Wrap("The law differs by country. In some countries situation testing is accepted as evidence of "
+            "discrimination; elsewhere it is unregulated or restricted. Take legal advice before any finding is "
+            "used against a named employer.", "  ")
+    << Wrap("Personal data. Employer names and contacts and recruiters' messages are personal data. This report "
+            "shows employers by pseudonym unless --reveal-employers was given; keep the study store under your "
+            "data-protection plan.", "  ")
+    << Wrap("What a correspondence test shows. It measures the first stage of hiring (who is answered or invited) "
+            "for the vacancies tested, under the fictitious profiles used. It does not measure later stages "
+            "(interviews, offers, pay), employers outside the sample, or the reasons for a decision. A test that "
+            "does not reject equal treatment is not proof that there is none.", "  ")
+    << Wrap("What each p-value tests. Every p-value above names its test and whether it is one- or two-sided; "
+            "p-values of tests that assume independent observations where there are none (the Mann-Whitney test on "
+            "listing positions) are descriptive only.", "  ");
 }
 
 void PlainWords(std::ostringstream& o, const AnalysisResult& r) {
@@ -116,6 +140,7 @@ void EmployersBlock(std::ostringstream& o, const AnalysisResult& r) {
       << x.table.b << ", only " << ArmName(r.other_label) << " " << x.table.c << "\n";
   }
   if (!any) o << " None had more than one.\n";
+  if (std::string flip = EmployerFlipSentence(r); !flip.empty()) o << Wrap(flip, "  ");
 }
 
 std::string Fixed(double v, int digits) {
@@ -164,7 +189,8 @@ std::string RenderListingText(const ListingAudit& a, double alpha, bool heading)
     o << "    exposure gap " << Signed(c.exposure_gap, 4) << " (" << c.reference << " - " << c.other
       << "), " << PEquals(c.gap_p) << "\n";
     o << "    earth mover's distance " << Fixed(c.emd, 2) << " places, " << PEquals(c.emd_p)
-      << "; Mann-Whitney test on positions " << PEquals(c.mann_whitney_p) << "\n";
+      << "; Mann-Whitney test on positions (two-sided, descriptive only: places are not independent and items\n"
+      << "    recur) " << PEquals(c.mann_whitney_p) << "\n";
     for (const auto& p : a.paired)
       if (p.factor == c.factor && p.other == c.other) {
         o << "    across " << p.strata << " strata the gap favours " << c.reference << " in " << p.sign.positive
@@ -282,6 +308,7 @@ std::string RenderTextReport(const AnalysisResult& r) {
   // Design integrity: balance of the plan and the pre-registration.
   if (std::string balance = RenderBalanceText(r.balance); !balance.empty()) o << "\n" << balance;
   o << "\n" << RenderPreregistrationText(r.preregistration);
+  CautionsBlock(o);
   return o.str();
 }
 
@@ -315,11 +342,12 @@ void FindingsBlock(std::ostringstream& o, const AnalysisResult& r) {
     if (t.discordant() == 0)
       o << "No pair was discordant, so the data say nothing about a difference between the arms.\n";
     else if (r.mcnemar_exact_p < r.alpha)
-      o << "At alpha = " << r.alpha << " the data are not compatible with equal callback chances: "
-        << (t.b > t.c ? r.reference_label : r.other_label) << " was favoured in " << std::max(t.b, t.c) << " of "
+      o << "At alpha = " << r.alpha << " the exact McNemar test, two-sided, rejects equal treatment: "
+        << (t.b > t.c ? r.reference_label : r.other_label) << " was favoured in " << std::max(t.b, t.c) << " of the "
         << Count(t.discordant(), "pair", "pairs") << " where the employer treated the two applicants differently.\n";
     else
-      o << "At alpha = " << r.alpha << " the test does not show a difference; this is not evidence that there is none.\n";
+      o << "At alpha = " << r.alpha << " the exact McNemar test, two-sided, does not reject equal treatment; this is "
+           "not evidence that there is none.\n";
   }
   o << RenderEffectsText(r);
 }

@@ -70,17 +70,26 @@ TEST_CASE("analyze in memory: counted set shapes give the paired table, exact Mc
   CHECK(r.strata[1].table.b == 8);
 }
 
-TEST_CASE("analyze in memory: Mantel-Haenszel across strata matches R's mantelhaen.test") {
+TEST_CASE("analyze in memory: across strata a paired study keeps the pairs (R's chisq.test and fisher.test)") {
   auto result = Analyze(PairedStudy(), "study.db", OutcomeScheme{}, AnalysisPlan{});
   REQUIRE(result.ok());
   REQUIRE(result.value().effects.across.size() == 1);
-  const auto& mh = result.value().effects.across[0].mh;
-  // R 4.2: mantelhaen.test(array(c(28,21,22,29, 12,11,38,39), dim = c(2,2,2)))
-  // (arm x outcome per region, pairing ignored): X-squared = 1.13606557377049,
-  // p = 0.28648522924157, common odds ratio 1.45454545454545.
-  CHECK_THAT(mh.chi2_corrected, WithinRel(1.13606557377049, 1e-9));
-  CHECK_THAT(mh.chi2_corrected_p.p, WithinRel(0.28648522924157, 1e-9));
-  CHECK_THAT(mh.estimate, WithinRel(1.45454545454545, 1e-9));
+  const AcrossStrata& across = result.value().effects.across[0];
+  CHECK(across.paired);
+  CHECK(across.tables.empty());  // no arm x outcome tables, no Mantel-Haenszel for pairs
+  const auto& h = across.homogeneity;
+  // Discordant (b, c): Brakkeport (2, 1), Orlinde (8, 1). R 4.2.2:
+  // chisq.test(cbind(c(2, 8), c(1, 1)), correct = FALSE): X-squared = 0.8,
+  // p = 0.371093369522698; fisher.test(cbind(c(2, 8), c(1, 1)))$p.value =
+  // 0.454545454545455; the pooled b/c = 10/2 with binom.test(10, 12)'s
+  // interval mapped by p/(1-p): [1.06552784349944, 46.93283545239456].
+  CHECK_THAT(h.chi2, WithinRel(0.8, 1e-9));
+  CHECK_THAT(h.chi2_p.p, WithinRel(0.371093369522698, 1e-9));
+  REQUIRE(h.exact_p.has_value());
+  CHECK_THAT(*h.exact_p, WithinRel(0.454545454545455, 1e-9));
+  CHECK(h.pooled_odds_ratio.estimate == 5.0);
+  CHECK_THAT(h.pooled_odds_ratio.ci.low, WithinRel(1.06552784349944, 1e-9));
+  CHECK_THAT(h.pooled_odds_ratio.ci.high, WithinRel(46.93283545239456, 1e-9));
 }
 
 TEST_CASE("analyze in memory: no plan and no listings is one clear error") {

@@ -3,6 +3,8 @@
 #include <catch2/catch.hpp>
 
 #include "analysis/effects.h"
+#include "stats/paired_midp.h"
+#include "stats/paired_ratio.h"
 
 using namespace twinprobe;
 
@@ -46,10 +48,63 @@ TEST_CASE("effects: a paired study gives every McNemar quantity and corrected st
   CHECK(e.strata[0].result.p_adjusted == adjusted[0]);
   CHECK(e.strata[1].result.p_adjusted == adjusted[1]);
   REQUIRE(e.across.size() == 1);
-  // Arm x outcome per region: North ref 12+/8-, other 5+/15-; South ref 5+/9-, other 5+/9-.
-  auto mh = stats::MantelHaenszel({{12, 8, 5, 15}, {5, 9, 5, 9}}, 0.95);
-  CHECK(e.across[0].mh.estimate == mh.estimate);
-  CHECK(e.across[0].breslow_day.df == 1);
+  // Across regions the pairs are kept: the discordant split (b, c) per region
+  // (North 9, 2; South 4, 4), no Mantel-Haenszel on arm x outcome tables.
+  const AcrossStrata& across = e.across[0];
+  CHECK(across.paired);
+  REQUIRE(across.discordant.size() == 2);
+  CHECK(across.discordant[0].b == 9);
+  CHECK(across.discordant[1].c == 4);
+  CHECK(across.tables.empty());
+  CHECK(across.mh.strata_used == 0);
+  // R 4.2.2: x <- chisq.test(cbind(c(9, 4), c(2, 4)), correct = FALSE):
+  // X-squared = 2.170163170163171, p-value = 0.140711303107482;
+  // fisher.test(cbind(c(9, 4), c(2, 4)))$p.value = 0.318885448916409.
+  CHECK_THAT(across.homogeneity.chi2, Catch::Matchers::WithinRel(2.170163170163171, 1e-9));
+  CHECK_THAT(across.homogeneity.chi2_p.p, Catch::Matchers::WithinRel(0.140711303107482, 1e-9));
+  REQUIRE(across.homogeneity.exact_p.has_value());
+  CHECK_THAT(*across.homogeneity.exact_p, Catch::Matchers::WithinRel(0.318885448916409, 1e-9));
+  CHECK(across.homogeneity.small_expected);  // R warns "Chi-squared approximation may be incorrect"
+  CHECK(across.homogeneity.pooled_odds_ratio.estimate == 13.0 / 6.0);
+}
+
+TEST_CASE("effects: a paired comparison carries the callback-rate ratio and the mid-p interval of b/c") {
+  EffectsInput in;
+  in.arm_labels = {"ref", "other"};
+  AddSets(in, 4, {{0, true}, {1, true}}, "North");
+  AddSets(in, 13, {{0, true}, {1, false}}, "North");
+  AddSets(in, 6, {{0, false}, {1, true}}, "North");
+  AddSets(in, 11, {{0, false}, {1, false}}, "North");
+  const ArmComparison& c = ComputeEffects(in).comparisons.at(0);
+  // (a+b)/(a+c) = 17/10; the intervals are those of stats/paired_ratio.h
+  // and stats/paired_midp.h, checked against their papers in tests/stats/.
+  CHECK(c.callback_ratio.estimate == 17.0 / 10.0);
+  CHECK(c.callback_ratio.ci.low == stats::CallbackRatio({4, 13, 6, 11}, 0.95).ci.low);
+  CHECK(c.callback_ratio.ci.high == stats::CallbackRatio({4, 13, 6, 11}, 0.95).ci.high);
+  CHECK(c.conditional_or_mid_p.estimate == 13.0 / 6.0);
+  CHECK(c.conditional_or_mid_p.ci.low == stats::ConditionalOddsRatioMidP({13, 6}, 0.95).ci.low);
+  CHECK(c.conditional_or_mid_p.ci.low > c.conditional_or.ci.low);  // mid-p is narrower than the exact interval
+  CHECK(c.conditional_or_mid_p.ci.high < c.conditional_or.ci.high);
+}
+
+TEST_CASE("effects: a margin in the design adds the equivalence test to the comparison of all pairs") {
+  EffectsInput in;
+  in.arm_labels = {"ref", "other"};
+  AddSets(in, 4, {{0, true}, {1, true}}, "North");
+  AddSets(in, 13, {{0, true}, {1, false}}, "North");
+  AddSets(in, 6, {{0, false}, {1, true}}, "South");
+  AddSets(in, 11, {{0, false}, {1, false}}, "South");
+  CHECK_FALSE(ComputeEffects(in).comparisons.at(0).equivalence.has_value());  // no margin, no test
+  in.equivalence_margin = 0.1;
+  in.alpha = 0.05;
+  const Effects e = ComputeEffects(in);
+  REQUIRE(e.comparisons.at(0).equivalence.has_value());
+  const auto& q = *e.comparisons[0].equivalence;
+  const auto expected = stats::PairedEquivalence({4, 13, 6, 11}, -0.1, 0.1, 0.05);
+  CHECK(q.p.p == expected.p.p);
+  CHECK(q.estimate == Approx(7.0 / 34.0));
+  CHECK_FALSE(q.equivalent);  // the difference 0.21 lies outside +/-0.1
+  for (const auto& s : e.strata) CHECK_FALSE(s.result.equivalence.has_value());  // the plan states it for all pairs
 }
 
 TEST_CASE("effects: sets with three arms compare each arm with the reference and correct across arms") {
@@ -92,4 +147,10 @@ TEST_CASE("effects: an unpaired study uses Fisher, Woolf and Wilson per arm agai
   CHECK(c.reference_wilson.low == stats::Wilson(3, 4, 0.95).low);
   CHECK(e.correction == "none");
   CHECK(e.strata[0].result.p_adjusted == e.strata[0].result.p.p);
+  // Unpaired probes are independent, so Mantel-Haenszel stays across strata.
+  REQUIRE(e.across.size() == 1);
+  CHECK_FALSE(e.across[0].paired);
+  REQUIRE(e.across[0].tables.size() == 1);
+  CHECK(e.across[0].tables[0].a == 3);
+  CHECK(e.across[0].mh.estimate == stats::MantelHaenszel({{3, 1, 1, 3}}, 0.95).estimate);
 }

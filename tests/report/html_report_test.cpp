@@ -224,8 +224,11 @@ TEST_CASE("html report: per-stratum odds ratios feed the forest chart, edge case
   across.column = "occupation<br>";
   across.other_label = kOther;
   across.values = 2;
-  across.mh.estimate = 2.5;
-  across.mh.ci = {0.6, 10.4};
+  across.discordant = {{2, 0}, {0, 0}};
+  across.homogeneity.total_b = 2;
+  across.homogeneity.total_c = 0;
+  across.homogeneity.strata_used = 1;
+  across.homogeneity.pooled_odds_ratio = {inf, {0.18, inf}};
   r.effects.across = {across};
   ParsedHtml page(RenderHtmlReport(r, Context(false)));
   const auto* forest = page.ElementById("chart-forest-0");
@@ -241,7 +244,8 @@ TEST_CASE("html report: per-stratum odds ratios feed the forest chart, edge case
   CHECK(arrows >= 2);
   const std::string text = page.AllText();
   CHECK(text.find("23.8% (10.4% to 36.1%)") != std::string::npos);  // net discrimination
-  CHECK(text.find("2.5 (0.6 to 10.4)") != std::string::npos);       // Mantel-Haenszel
+  CHECK(text.find("2/0 = \u221E (0.18 to \u221E)") != std::string::npos);  // pooled conditional odds ratio
+  CHECK(text.find("not testable") != std::string::npos);  // one stratum value with discordant sets
   CHECK(page.ElementsByTag("script").empty());
   CHECK(testing::ExternalReferences(page).empty());
 }
