@@ -12,6 +12,7 @@
 #include "cli/command.h"
 #include "cli/report_cmd.h"
 #include "core/audit.h"
+#include "core/terminal_text.h"
 #include "core/verify.h"
 #include "report/json_report.h"
 #include "report/text_report.h"
@@ -31,7 +32,8 @@ Result<AnalysisResult> AnalyzeStudy(Context& ctx) {
 int RunAnalyze(Context& ctx) {
   auto r = AnalyzeStudy(ctx);
   if (!r.ok()) return ReportError(r.error());
-  std::cout << (ctx.json ? RenderJsonReport(r.value()) : RenderTextReport(r.value()));
+  // Titles, strata and arm names come from the study: escaped on a terminal.
+  std::cout << (ctx.json ? RenderJsonReport(r.value()) : ForTerminal(RenderTextReport(r.value()), LineBreaks::kKeep));
   return 0;
 }
 
@@ -91,8 +93,8 @@ int RunVerify(Context& ctx, const VerifyOptions& o) {
     const AuditProblem& first = rep.problems.front();
     std::cout << "The audit chain is BROKEN. First broken link: " << ProblemPlace(first) << ": " << first.what << ".\n";
     if (!first.actor.empty())
-      std::cout << "  entry " << first.seq << " was written by " << first.actor << " at " << first.at << ": "
-                << first.summary << "\n";
+      std::cout << "  entry " << first.seq << " was written by " << ForTerminal(first.actor) << " at "
+                << ForTerminal(first.at) << ": " << ForTerminal(first.summary) << "\n";
     for (size_t i = 1; i < rep.problems.size(); ++i)
       std::cout << "  also " << ProblemPlace(rep.problems[i]) << ": " << rep.problems[i].what << "\n";
   }
