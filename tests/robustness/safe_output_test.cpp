@@ -152,3 +152,17 @@ TEST_CASE("issue 23: a link planted at the reject file's path is replaced, formu
   CHECK(testing::ReadFile(csv + ".rejects.csv") ==
         "reject_line,reject_reason,probe,code,received_at,note\r\n3,unknown probe '@P9','@P9,offer,2027-03-06,'-1+1\r\n");
 }
+
+TEST_CASE("issue 23: a link planted at materials/P00001.html is replaced, the file it points at is untouched") {
+  testing::PlannedStudy s;
+  testing::TempDir outside;
+  testing::WriteFile(outside / "index.html", "keep me\n");
+  fs::create_directory(s.path + "/materials");
+  fs::create_symlink(outside / "index.html", s.path + "/materials/P00001.html");
+  auto r = RunCli({"--study", s.path, "render"}, kEnv);
+  INFO(r.err);
+  REQUIRE(r.exit_code == 0);
+  CHECK(testing::ReadFile(outside / "index.html") == "keep me\n");
+  CHECK_FALSE(fs::is_symlink(s.path + "/materials/P00001.html"));
+  CHECK(testing::ReadFile(s.path + "/materials/P00001.html").rfind("<!DOCTYPE html>", 0) == 0);
+}
