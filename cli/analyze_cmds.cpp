@@ -12,6 +12,7 @@
 #include "cli/command.h"
 #include "cli/report_cmd.h"
 #include "core/audit.h"
+#include "core/terminal_text.h"
 #include "core/verify.h"
 #include "report/chain_warning.h"
 #include "report/json_report.h"
@@ -32,11 +33,12 @@ Result<AnalysisResult> AnalyzeStudy(Context& ctx) {
 int RunAnalyze(Context& ctx) {
   auto r = AnalyzeStudy(ctx);
   if (!r.ok()) return ReportError(r.error());
-  // A broken chain is said first, as verify would say it (issue 24).
+  // A broken chain is said first, as verify would say it (issue 24); titles,
+  // strata and arm names come from the study: escaped on a terminal.
   ReportContext chain;
   ReadChainState(StorePath(ctx), chain);
   std::cout << (ctx.json ? WithChainWarningJson(RenderJsonReport(r.value()), chain)
-                         : WithChainWarningText(RenderTextReport(r.value()), chain));
+                         : ForTerminal(WithChainWarningText(RenderTextReport(r.value()), chain), LineBreaks::kKeep));
   return 0;
 }
 
@@ -91,8 +93,8 @@ int RunVerify(Context& ctx, const VerifyOptions& o) {
     const AuditProblem& first = rep.problems.front();
     std::cout << "The audit chain is BROKEN. First broken link: " << ProblemPlace(first) << ": " << first.what << ".\n";
     if (!first.actor.empty())
-      std::cout << "  entry " << first.seq << " was written by " << first.actor << " at " << first.at << ": "
-                << first.summary << "\n";
+      std::cout << "  entry " << first.seq << " was written by " << ForTerminal(first.actor) << " at "
+                << ForTerminal(first.at) << ": " << ForTerminal(first.summary) << "\n";
     for (size_t i = 1; i < rep.problems.size(); ++i)
       std::cout << "  also " << ProblemPlace(rep.problems[i]) << ": " << rep.problems[i].what << "\n";
   }

@@ -95,6 +95,7 @@ struct ImportCmdOptions {
   std::string file;
   bool skip_bad = false;
   std::string rejects;
+  bool raw_cells = false;
   std::string strata;  // import pairs: comma-separated
   bool strata_given = false;
   std::string reference;
@@ -125,6 +126,7 @@ int RunImportOutcomes(Context& ctx, const ImportCmdOptions& o) {
   ImportOptions options;
   options.skip_bad = o.skip_bad;
   options.reject_path = o.rejects;
+  options.raw_cells = o.raw_cells;
   auto r = ImportOutcomes(*store.value(), settings.value().outcomes, o.file, options);
   if (!r.ok()) return ReportError(r.error());
   const auto& s = r.value();
@@ -182,6 +184,7 @@ int RunImportPairs(Context& ctx, const ImportCmdOptions& o) {
   options.reference = o.reference;
   options.skip_bad = o.skip_bad;
   options.reject_path = o.rejects;
+  options.raw_cells = o.raw_cells;
   options.study_id = o.study_id;
   auto r = ImportPairs(StorePath(ctx), design ? &*design : nullptr, o.file, options);
   if (!r.ok()) return ReportError(r.error());
@@ -254,6 +257,9 @@ void RegisterCollectCommands(CLI::App& app, Context& ctx) {
   record->callback([&ctx, ro] { ctx.exit_code = RunRecord(ctx, *ro); });
 }
 
+constexpr char kRawCellsHelp[] =
+    "Write reject file cells as they are (no \"'\" before cells beginning with = + - @; for re-import and machine readers)";
+
 void AddImportResponses(CLI::App& import, Context& ctx) {
   auto io = std::make_shared<ImportCmdOptions>();
   auto* outcomes = import.add_subcommand(
@@ -261,6 +267,7 @@ void AddImportResponses(CLI::App& import, Context& ctx) {
   outcomes->add_option("file", io->file, "CSV file")->required();
   outcomes->add_flag("--skip-bad", io->skip_bad, "Land the good rows and write each bad row with its reason to a reject file");
   outcomes->add_option("--rejects", io->rejects, "Reject file for --skip-bad (default FILE.rejects.csv)");
+  outcomes->add_flag("--raw-cells", io->raw_cells, kRawCellsHelp);
   outcomes->callback([&ctx, io] { ctx.exit_code = RunImportOutcomes(ctx, *io); });
 
   auto po = std::make_shared<ImportCmdOptions>();
@@ -277,6 +284,7 @@ void AddImportResponses(CLI::App& import, Context& ctx) {
   pairs->add_flag("--skip-bad", po->skip_bad,
                   "Land the good vacancies and write every row left out, with its reason, to a reject file");
   pairs->add_option("--rejects", po->rejects, "Reject file for --skip-bad (default FILE.rejects.csv)");
+  pairs->add_flag("--raw-cells", po->raw_cells, kRawCellsHelp);
   pairs->callback([&ctx, po] { ctx.exit_code = RunImportPairs(ctx, *po); });
 }
 

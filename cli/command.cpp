@@ -7,16 +7,21 @@
 #include <vector>
 
 #include "core/meta.h"
+#include "core/terminal_text.h"
 #include "planner/design_file.h"
 #include "templates/embedded.h"
 
 namespace twinprobe {
 int ReportError(const Error& error) {
-  std::cerr << "twinprobe: " << error.Message() << "\n";
+  // Messages echo user-given and stored text (a file's cell, a key, a path):
+  // shown escaped, so it cannot drive the terminal.
+  std::cerr << "twinprobe: " << ForTerminal(error.Message(), LineBreaks::kKeep) << "\n";
   return static_cast<int>(error.exit_code());
 }
 
-void Warn(const std::string& message) { std::cerr << "twinprobe: warning: " << message << "\n"; }
+void Warn(const std::string& message) {
+  std::cerr << "twinprobe: warning: " << ForTerminal(message, LineBreaks::kKeep) << "\n";
+}
 
 std::string StudyPath(const Context& ctx, const std::string& relative) {
   return (std::filesystem::path(ctx.study_dir) / relative).string();

@@ -15,6 +15,7 @@ struct ExportCmdOptions {
   std::string out;
   std::string format = "csv";
   bool identities = false;
+  bool raw_cells = false;
 };
 
 int RunExport(Context& ctx, const ExportCmdOptions& o) {
@@ -25,6 +26,7 @@ int RunExport(Context& ctx, const ExportCmdOptions& o) {
   ExportOptions options;
   options.format = o.format;
   options.identities = o.identities;
+  options.raw_cells = o.raw_cells;
   std::string out = o.out.empty() ? StudyPath(ctx, o.format == "json" ? "export.json" : "export") : o.out;
   auto r = ExportStudy(*store.value(), settings.value().outcomes, out, options);
   if (!r.ok()) return ReportError(r.error());
@@ -72,6 +74,9 @@ void RegisterExport(CLI::App& app, Context& ctx) {
       ->capture_default_str();
   cmd->add_flag("--identities", o->identities,
                 "Also write employer names and contacts, profile mailboxes and phones, and notes (personal data)");
+  cmd->add_flag("--raw-cells", o->raw_cells,
+                "CSV cells as they are, for machine readers (by default a cell beginning with = + - @ gets a "
+                "leading ' so spreadsheets show it as text)");
   cmd->callback([&ctx, o] { ctx.exit_code = RunExport(ctx, *o); });
 }
 

@@ -6,6 +6,7 @@
 
 #include "cli/command.h"
 #include "collector/history.h"
+#include "core/terminal_text.h"
 
 namespace twinprobe {
 namespace {
@@ -76,18 +77,18 @@ int RunHistory(Context& ctx, const std::string& probe) {
               << "\n";
     return 0;
   }
-  std::cout << "Probe " << h.probe << ": vacancy " << h.vacancy;
-  if (!h.employer_key.empty()) std::cout << " (employer " << h.employer_key << ")";
-  std::cout << ", arm " << h.arm;
-  if (!h.profile.empty()) std::cout << ", profile " << h.profile;
+  std::cout << "Probe " << ForTerminal(h.probe) << ": vacancy " << ForTerminal(h.vacancy);
+  if (!h.employer_key.empty()) std::cout << " (employer " << ForTerminal(h.employer_key) << ")";
+  std::cout << ", arm " << ForTerminal(h.arm);
+  if (!h.profile.empty()) std::cout << ", profile " << ForTerminal(h.profile);
   std::cout << "\n";
   if (!h.planned_at.empty() || !h.strata.empty()) {
     std::cout << " ";
-    if (!h.planned_at.empty()) std::cout << " planned for " << h.planned_at << (h.strata.empty() ? "" : ";");
+    if (!h.planned_at.empty()) std::cout << " planned for " << ForTerminal(h.planned_at) << (h.strata.empty() ? "" : ";");
     if (!h.strata.empty()) {
       std::cout << " strata";
       for (size_t i = 0; i < h.strata.size(); ++i)
-        std::cout << (i ? ", " : " ") << h.strata[i].first << "=" << h.strata[i].second;
+        std::cout << (i ? ", " : " ") << ForTerminal(h.strata[i].first) << "=" << ForTerminal(h.strata[i].second);
     }
     std::cout << "\n";
   }
@@ -99,13 +100,13 @@ int RunHistory(Context& ctx, const std::string& probe) {
   for (const auto& e : h.events) {
     char head[96];
     std::snprintf(head, sizeof head, "  %-20s  %5lld  %-12s  ", e.entered_at.c_str(), static_cast<long long>(e.audit_seq),
-                  e.entered_by.c_str());
-    std::cout << head << Describe(e) << "\n";
-    if (!e.note.empty()) std::cout << "  " << std::string(43, ' ') << "note: " << e.note << "\n";
+                  ForTerminal(e.entered_by).c_str());
+    std::cout << head << ForTerminal(Describe(e)) << "\n";
+    if (!e.note.empty()) std::cout << "  " << std::string(43, ' ') << "note: " << ForTerminal(e.note) << "\n";
     else if (e.note_purged) std::cout << "  " << std::string(43, ' ') << "note: (removed by purge)\n";
   }
   if (current)
-    std::cout << "\nCurrent outcome: " << current->code << (current->positive ? " (a positive callback)" : "")
+    std::cout << "\nCurrent outcome: " << ForTerminal(current->code) << (current->positive ? " (a positive callback)" : "")
               << ", response " << current->id << ".\n";
   else
     std::cout << "\nNo response recorded yet.\n";

@@ -9,6 +9,7 @@
 
 #include "cli/command.h"
 #include "cli/head_output.h"
+#include "core/audit.h"
 #include "core/suggest.h"
 
 namespace twinprobe {
@@ -127,6 +128,7 @@ int main(int argc, char** argv) {
     std::cerr << "twinprobe: " << message << "\n";
     return static_cast<int>(ExitCode::kUsage);
   }
+  if (Status actor = CheckActor(); !actor.ok()) return ReportError(actor.error());
   HeadOutput head_output(WantsJson(argc, argv));  // prints the new chain head after a write
   try {
     app.parse(argc, argv);

@@ -11,6 +11,8 @@
 #include "core/read_study.h"
 #include "core/audit.h"
 #include "core/clock.h"
+#include "core/safe_write.h"
+#include "core/terminal_text.h"
 #include "core/text.h"
 #include "core/verify.h"
 #include "planner/design_file.h"
@@ -112,17 +114,16 @@ int RunReport(Context& ctx, const ReportOptions& o) {
     case Format::kText: body = WithChainWarningText(RenderTextReport(result.value(), rc), rc); break;
   }
   if (o.out.empty()) {
-    std::cout << body;
+    // Titles, strata and notes come from the study: escaped on a terminal.
+    std::cout << (format.value() == Format::kText ? ForTerminal(body, LineBreaks::kKeep) : body);
     return 0;
   }
   std::error_code ec;
   const fs::path parent = fs::path(o.out).parent_path();
   if (!parent.empty()) fs::create_directories(parent, ec);
-  std::ofstream out(o.out, std::ios::binary);
-  out << body;
-  out.close();
-  if (!out) return ReportError(BadInput(o.out, "cannot write the report", "check that the folder exists and is writable"));
-  std::cout << "Report written to " << o.out << "\n";
+  // A link planted at reports/report.html is replaced, never written through.
+  if (Status written = WriteFileSafely(o.out, body); !written.ok()) return ReportError(written.error());
+  std::cout << "Report written to " << ForTerminal(o.out) << "\n";
   return 0;
 }
 

@@ -8,6 +8,7 @@
 #include "collector/mail_review.h"
 #include "core/clock.h"
 #include "core/ethics_gate.h"
+#include "core/terminal_text.h"
 
 namespace twinprobe {
 namespace {
@@ -59,10 +60,12 @@ nlohmann::json ItemJson(const ReviewItem& i) {
 void PrintItem(const ReviewItem& i) {
   const std::string n = std::to_string(i.message);
   std::cout << "message " << n << "  " << i.status;
-  if (!i.probe_ref.empty()) std::cout << " -> " << i.probe_ref;
+  if (!i.probe_ref.empty()) std::cout << " -> " << ForTerminal(i.probe_ref);
   std::cout << ", suggested: " << (i.suggested_code.empty() ? "(none)" : i.suggested_code) << "\n";
   auto row = [](const char* label, const std::string& value) {
-    if (!value.empty()) std::cout << "  " << label << std::string(10 - std::string(label).size(), ' ') << value << "\n";
+    // Subjects, senders and excerpts come from the mail: shown escaped.
+    if (!value.empty())
+      std::cout << "  " << label << std::string(10 - std::string(label).size(), ' ') << ForTerminal(value) << "\n";
   };
   row("date", i.date.empty()                 ? "(none in the message)"
               : i.date_source == "forwarded" ? i.date + " (the forwarded message's date)"

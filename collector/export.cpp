@@ -16,6 +16,8 @@
 #include "core/export_records.h"
 #include "core/meta.h"
 #include "core/read_listings.h"
+#include "core/safe_write.h"
+#include "core/spreadsheet_cell.h"
 
 namespace twinprobe {
 namespace {
@@ -43,36 +45,61 @@ class TableSink {
   virtual Status End() = 0;
 };
 
+// Each table is written beside its name and renamed into place
+// (core/safe_write.h); text cells that a spreadsheet would run as a formula
+// get a leading "'" unless raw_cells (core/spreadsheet_cell.h).
 class CsvSink : public TableSink {
  public:
-  explicit CsvSink(std::string dir) : dir_(std::move(dir)) {}
+  CsvSink(std::string dir, bool raw_cells) : dir_(std::move(dir)), raw_cells_(raw_cells) {}
   Status Begin(const std::string& table, const std::vector<std::string>& columns) override {
     path_ = (fs::path(dir_) / (table + ".csv")).string();
-    out_ = std::make_unique<std::ofstream>(path_, std::ios::binary | std::ios::trunc);
-    if (!*out_) return BadInput(path_, "cannot write the export file", "check that the folder is writable");
-    for (size_t i = 0; i < columns.size(); ++i) *out_ << (i ? "," : "") << CsvQuote(columns[i]);
-    *out_ << "\r\n";
+    auto file = SafeFile::Create(path_);
+    if (!file.ok()) return BadInput(path_, "cannot write the export file", "check that the folder is writable");
+    file_ = std::move(file.value());
+    std::ostream& out = file_->out();
+    for (size_t i = 0; i < columns.size(); ++i) out << (i ? "," : "") << CsvQuote(columns[i]);
+    out << "\r\n";
     return {};
   }
   void Row(const std::vector<Cell>& cells) override {
+    std::ostream& out = file_->out();
     for (size_t i = 0; i < cells.size(); ++i) {
-      if (i) *out_ << ',';
+      if (i) out << ',';
       const Cell& c = cells[i];
-      if (c.kind == Cell::kText) *out_ << CsvQuote(c.text);
-      else if (c.kind != Cell::kNull) *out_ << c.number;
+      if (c.kind == Cell::kText) out << CsvQuote(raw_cells_ ? c.text : NeutraliseCell(c.text));
+      else if (c.kind != Cell::kNull) out << c.number;
     }
-    *out_ << "\r\n";
+    out << "\r\n";
   }
   Status End() override {
-    out_->close();
-    if (!*out_) return BadInput(path_, "cannot write the export file", "check that the disk is not full");
+    Status s = file_->Commit();
+    file_.reset();
+    if (!s.ok()) return BadInput(path_, "cannot write the export file", "check that the disk is not full");
     return {};
   }
 
  private:
   std::string dir_, path_;
-  std::unique_ptr<std::ofstream> out_;
+  bool raw_cells_ = false;
+  std::unique_ptr<SafeFile> file_;
 };
+
+// The files an export folder holds: an existing folder with anything else
+// in it is not replaced (`--out ~/Documents` must not swap a folder away).
+constexpr const char* kExportFiles[] = {"vacancies.csv", "probes.csv", "responses.csv", "listings.csv", "manifest.json"};
+
+Status CheckReplaceableFolder(const std::string& path) {
+  std::error_code ec;
+  auto st = fs::symlink_status(path, ec);
+  if (ec || !fs::is_directory(st)) return {};  // missing (made new), or refused by SafeFolder
+  for (const auto& entry : fs::directory_iterator(path, ec)) {
+    const std::string name = entry.path().filename().string();
+    if (std::find(std::begin(kExportFiles), std::end(kExportFiles), name) == std::end(kExportFiles))
+      return BadInput(path, "the folder holds '" + name + "', which is not part of an export",
+                      "choose a new folder with --out, or empty this one; an export replaces its whole folder");
+  }
+  return {};
+}
 
 class JsonSink : public TableSink {
  public:
@@ -258,6 +285,7 @@ nlohmann::ordered_json Manifest(Store& store, const ExportPlanRow& plan, const O
                                 {"plan_origin", plan.origin},
                                 {"exported_at", NowIso()},
                                 {"identities", o.identities},
+                                {"raw_cells", o.raw_cells},
                                 {"arms", arms},
                                 {"strata", strata_names},
                                 {"outcome_codes", scheme.codes},
@@ -347,10 +375,13 @@ Result<ExportSummary> ExportStudy(Store& store, const OutcomeScheme& scheme, con
   };
   std::error_code ec;
   if (o.format == "csv") {
-    fs::create_directories(path, ec);
-    if (ec || !fs::is_directory(path))
-      return BadInput(path, "cannot create the export folder", "check the path, or pass --format json to write one file");
-    CsvSink sink(path);
+    // Written into a new folder beside `path` and swapped into place whole:
+    // a killed export leaves the old folder (or none), never half of one.
+    if (Status s = CheckReplaceableFolder(path); !s.ok()) return s.error();
+    if (fs::path(path).has_parent_path()) fs::create_directories(fs::path(path).parent_path(), ec);
+    auto folder = SafeFolder::Create(path);
+    if (!folder.ok()) return folder.error();
+    CsvSink sink(folder.value()->path(), o.raw_cells);
     Status s = write_tables(sink);
     if (!s.ok()) return s.error();
     if (!plan) {
@@ -360,15 +391,17 @@ Result<ExportSummary> ExportStudy(Store& store, const OutcomeScheme& scheme, con
       manifest["files"] = {{"vacancies", "vacancies.csv"}, {"probes", "probes.csv"}, {"responses", "responses.csv"}};
       manifest["rows"] = {{"vacancies", summary.vacancies}, {"probes", summary.probes}, {"responses", summary.responses}};
     }
-    std::string manifest_path = (fs::path(path) / "manifest.json").string();
-    std::ofstream out(manifest_path, std::ios::binary | std::ios::trunc);
-    out << manifest.dump(2) << "\n";
-    if (!out) return BadInput(manifest_path, "cannot write the export file", "check that the folder is writable");
+    std::string manifest_path = (fs::path(folder.value()->path()) / "manifest.json").string();
+    if (Status m = WriteFileSafely(manifest_path, manifest.dump(2) + "\n"); !m.ok())
+      return BadInput((fs::path(path) / "manifest.json").string(), "cannot write the export file",
+                      "check that the folder is writable");
+    if (Status c = folder.value()->Commit(); !c.ok()) return c.error();
     return summary;
   }
   if (fs::path(path).has_parent_path()) fs::create_directories(fs::path(path).parent_path(), ec);
-  std::ofstream out(path, std::ios::binary | std::ios::trunc);
-  if (!out) return BadInput(path, "cannot write the export file", "check that the folder exists and is writable");
+  auto file = SafeFile::Create(path);
+  if (!file.ok()) return BadInput(path, "cannot write the export file", "check that the folder exists and is writable");
+  std::ostream& out = file.value()->out();
   // The manifest's fields open the document; the tables follow as arrays.
   std::string head = manifest.dump(2);
   head.erase(head.find_last_of('}'));
@@ -378,8 +411,7 @@ Result<ExportSummary> ExportStudy(Store& store, const OutcomeScheme& scheme, con
   Status s = write_tables(sink);
   if (!s.ok()) return s.error();
   out << "\n}\n";
-  out.close();
-  if (!out) return BadInput(path, "cannot write the export file", "check that the disk is not full");
+  if (!file.value()->Commit().ok()) return BadInput(path, "cannot write the export file", "check that the disk is not full");
   return summary;
 }
 

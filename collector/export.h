@@ -13,6 +13,10 @@
 // -text notes are left out. `identities` adds employer name and contact,
 // profile mailbox and phone, and notes (what purge has removed stays empty).
 //
+// CSV cells beginning with '=', '+', '-', '@', a tab or a carriage return
+// get a leading "'" (spreadsheets would run them as formulas) unless
+// raw_cells.
+//
 // Values: missing is an empty CSV field / JSON null; yes-no columns are 1/0
 // in CSV and true/false in JSON; times are UTC ISO 8601 text.
 #include <cstdint>
@@ -27,6 +31,7 @@ namespace twinprobe {
 struct ExportOptions {
   bool identities = false;
   std::string format = "csv";  // csv: a folder of files; json: one document
+  bool raw_cells = false;      // csv: no "'" before cells beginning with = + - @ tab CR
 };
 
 struct ExportSummary {
@@ -39,13 +44,15 @@ struct ExportSummary {
   std::string audit_head;
 };
 
-// Writes the export to `path`: for csv a folder (created; files in it are
-// replaced) holding vacancies.csv, probes.csv, responses.csv and
-// manifest.json; for json a single file. A listing audit's store (ranked
-// lists, no plan) gives listings.csv instead: one row per place in a list
-// (listing, query, location, seen_by, position, item, one column per
-// factor). Errors: neither a plan nor a list in the store, an unwritable
-// path (bad input).
+// Writes the export to `path`: for csv a folder holding vacancies.csv,
+// probes.csv, responses.csv and manifest.json, built beside `path` and
+// swapped into place whole (an older export there is replaced; a folder
+// holding any other file is refused); for json a single file, written
+// beside and renamed. Nothing is written through a symbolic link. A listing
+// audit's store (ranked lists, no plan) gives listings.csv instead: one row
+// per place in a list (listing, query, location, seen_by, position, item, one
+// column per factor). Errors: neither a plan nor a list in the store, an
+// unwritable path, a folder that is not an export, a link at `path` (bad input).
 Result<ExportSummary> ExportStudy(Store& store, const OutcomeScheme& scheme, const std::string& path,
                                   const ExportOptions& options);
 

@@ -49,7 +49,8 @@ Result<ImportSummary> ImportOutcomes(Store& store, const OutcomeScheme& scheme, 
     return summary;  // nothing written; the transaction rolls back
   }
   ResponseWriter writer(store, scheme, write.seq(), write.actor(), write.at());
-  RejectWriter rejects(options.reject_path.empty() ? DefaultRejectPath(path) : options.reject_path, header);
+  RejectWriter rejects(options.reject_path.empty() ? DefaultRejectPath(path) : options.reject_path, header, path,
+                       options.raw_cells);
   std::unordered_map<std::string, int64_t> line_of_probe;
   std::unique_ptr<Progress> shown;
   if (options.progress) shown = std::make_unique<Progress>("importing " + path, FileSize(path), Progress::Unit::kBytes);

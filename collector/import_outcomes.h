@@ -25,6 +25,7 @@ namespace twinprobe {
 struct ImportOptions {
   bool skip_bad = false;
   std::string reject_path;  // with skip_bad: where bad rows go (default FILE.rejects.csv)
+  bool raw_cells = false;   // reject file cells as they are, formula-like ones included
   bool progress = true;     // a progress bar on stderr when it is a terminal
 };
 

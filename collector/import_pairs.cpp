@@ -1,6 +1,7 @@
 #include "collector/import_pairs.h"
 
 #include <algorithm>
+#include <cctype>
 #include <cstdio>
 #include <filesystem>
 #include <fstream>
@@ -656,6 +657,16 @@ std::vector<NearDuplicate> NearDuplicatesOf(const Book& book, const Target& t) {
 Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Design* design, const std::string& path,
                                        const PairsImportOptions& o) {
   PairsImportSummary summary;
+  // The same rule as [study].id: the id names files and folders (reports,
+  // exports), so a path such as ../../evil must never become one.
+  if (!o.study_id.empty()) {
+    bool ok = o.study_id != "." && o.study_id != ".." && o.study_id.size() <= 100;
+    for (char c : o.study_id)
+      ok = ok && (std::isalnum(static_cast<unsigned char>(c)) || c == '-' || c == '_' || c == '.');
+    if (!ok)
+      return BadInput("--id", "the study id may hold only letters, digits, '-', '_' and '.' (at most 100 of them)",
+                      "choose an id such as veldmark-2027");
+  }
   auto sha = FileSha256(path);
   if (!sha.ok()) return sha.error();
   std::unique_ptr<Store> store;
@@ -731,7 +742,8 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
     lander = std::make_unique<Lander>(*store, t, c, book.bad_line.size(), write->seq(), write->actor(), write->at(),
                                       plan_id, arm_ids);
   }
-  RejectWriter rejects(o.reject_path.empty() ? DefaultRejectPath(path) : o.reject_path, header.value());
+  RejectWriter rejects(o.reject_path.empty() ? DefaultRejectPath(path) : o.reject_path, header.value(), path,
+                       o.raw_cells);
   {
     std::ifstream again(path, std::ios::binary);
     CsvReader pass2(again, path);

@@ -44,6 +44,7 @@ struct PairsImportOptions {
   std::string reference;            // --reference ARM
   bool skip_bad = false;
   std::string reject_path;          // default FILE.rejects.csv
+  bool raw_cells = false;           // reject file cells as they are, formula-like ones included
   std::string study_id;             // id of a new study without a design (default: the folder's name)
   bool progress = true;             // a progress bar on stderr when it is a terminal
 };

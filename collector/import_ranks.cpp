@@ -15,6 +15,7 @@
 #include "core/audit.h"
 #include "core/clock.h"
 #include "core/csv.h"
+#include "core/input_file.h"
 #include "core/listing_labels.h"
 #include "core/listing_pages.h"
 #include "core/sha256.h"
@@ -139,6 +140,7 @@ Status Parse(const CsvTable& t, const std::string& path, RanksFile& out) {
 }  // namespace
 
 Result<RanksFile> ReadRanksFile(const std::string& path) {
+  if (Status regular = CheckRegularInput(path); !regular.ok()) return regular.error();
   std::ifstream in(path, std::ios::binary);
   if (!in) return BadInput(path, "cannot read the file", "check the path");
   std::stringstream buf;

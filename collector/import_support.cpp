@@ -3,11 +3,14 @@
 #include <filesystem>
 
 #include "core/csv.h"
+#include "core/input_file.h"
 #include "core/sha256.h"
+#include "core/spreadsheet_cell.h"
 
 namespace twinprobe {
 
 Result<std::string> FileSha256(const std::string& path) {
+  if (Status regular = CheckRegularInput(path); !regular.ok()) return regular.error();
   std::ifstream in(path, std::ios::binary);
   if (!in) return BadInput(path, "cannot read the file", "check the path");
   Sha256 h;
@@ -30,31 +33,41 @@ bool IsRejectColumn(const std::string& column) { return column.rfind("reject_", 
 
 std::string DefaultRejectPath(const std::string& path) { return path + ".rejects.csv"; }
 
-RejectWriter::RejectWriter(std::string path, std::vector<std::string> header)
-    : path_(std::move(path)), header_(std::move(header)) {}
+RejectWriter::RejectWriter(std::string path, std::vector<std::string> header, std::string input, bool raw_cells)
+    : path_(std::move(path)), header_(std::move(header)), input_(std::move(input)), raw_cells_(raw_cells) {}
 
 Status RejectWriter::Add(int64_t line, const std::string& reason, const std::vector<std::string>& fields) {
+  auto cell = [&](const std::string& text) { return CsvQuote(raw_cells_ ? text : NeutraliseCell(text)); };
   if (!out_) {
-    out_ = std::make_unique<std::ofstream>(path_, std::ios::binary | std::ios::trunc);
-    if (!*out_) return BadInput(path_, "cannot write the reject file", "check that the folder is writable");
-    *out_ << "reject_line,reject_reason";
+    // The rename at Close would put the rejects in place of the input.
+    std::error_code ec;
+    if (std::filesystem::equivalent(path_, input_, ec))
+      return BadInput(path_, "the reject file is the file being imported",
+                      "name another file with --rejects (the default is FILE.rejects.csv)");
+    auto file = SafeFile::Create(path_);
+    if (!file.ok())
+      return BadInput(path_, "cannot write the reject file", "check that the folder is writable");
+    out_ = std::move(file.value());
+    std::ostream& out = out_->out();
+    out << "reject_line,reject_reason";
     for (const auto& h : header_)
-      if (!IsRejectColumn(h)) *out_ << ',' << CsvQuote(h);
-    *out_ << "\r\n";
+      if (!IsRejectColumn(h)) out << ',' << cell(h);
+    out << "\r\n";
   }
-  *out_ << line << ',' << CsvQuote(reason);
+  std::ostream& out = out_->out();
+  out << line << ',' << cell(reason);
   for (size_t i = 0; i < fields.size(); ++i)
-    if (i >= header_.size() || !IsRejectColumn(header_[i])) *out_ << ',' << CsvQuote(fields[i]);
-  *out_ << "\r\n";
+    if (i >= header_.size() || !IsRejectColumn(header_[i])) out << ',' << cell(fields[i]);
+  out << "\r\n";
   ++rows_;
-  if (!*out_) return BadInput(path_, "cannot write the reject file", "check that the folder is writable");
+  if (!out) return BadInput(path_, "cannot write the reject file", "check that the folder is writable");
   return {};
 }
 
 Status RejectWriter::Close() {
   if (!out_) return {};
-  out_->close();
-  if (!*out_) return BadInput(path_, "cannot write the reject file", "check that the folder is writable");
+  Status s = out_->Commit();
+  if (!s.ok()) return BadInput(path_, "cannot write the reject file", "check that the folder is writable");
   return {};
 }
 

@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "core/import_files.h"  // IWYU pragma: export
+#include "core/safe_write.h"
 #include "core/status.h"
 
 namespace twinprobe {
@@ -24,11 +25,16 @@ bool IsRejectColumn(const std::string& column);
 
 // Writes rejected rows: reject_line, reject_reason, then the original
 // columns, as RFC 4180 CSV with CRLF line ends. Opens the file at the first
-// row, so nothing is written when no row is rejected.
+// row, so nothing is written when no row is rejected. The file is written
+// beside its target and renamed into place by Close (core/safe_write.h: a
+// planted link is replaced, never followed); cells that a spreadsheet would
+// run as a formula get a leading "'" unless `raw_cells`
+// (core/spreadsheet_cell.h).
 class RejectWriter {
  public:
-  RejectWriter(std::string path, std::vector<std::string> header);
-  // A bad-input error when the file cannot be written.
+  // `input` is the file being imported: the reject file may never replace it.
+  RejectWriter(std::string path, std::vector<std::string> header, std::string input, bool raw_cells);
+  // A bad-input error when the file cannot be written or is the input.
   Status Add(int64_t line, const std::string& reason, const std::vector<std::string>& fields);
   Status Close();
   int64_t rows() const { return rows_; }
@@ -37,7 +43,9 @@ class RejectWriter {
  private:
   std::string path_;
   std::vector<std::string> header_;
-  std::unique_ptr<std::ofstream> out_;
+  std::string input_;
+  bool raw_cells_ = false;
+  std::unique_ptr<SafeFile> out_;
   int64_t rows_ = 0;
 };
 

@@ -7,6 +7,7 @@
 
 #include "core/audit.h"
 #include "core/csv.h"
+#include "core/input_file.h"
 #include "core/listing_labels.h"
 #include "core/sha256.h"
 #include "core/suggest.h"
@@ -14,6 +15,7 @@
 namespace twinprobe {
 
 Result<LabelImport> ImportLabels(Store& store, const Design* design, const std::string& path) {
+  if (Status regular = CheckRegularInput(path); !regular.ok()) return regular.error();
   std::ifstream in(path, std::ios::binary);
   if (!in) return BadInput(path, "cannot read the file", "check the path");
   std::stringstream buf;

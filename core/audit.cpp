@@ -153,6 +153,15 @@ std::string CurrentActor() {
   return "unknown";
 }
 
+Status CheckActor() {
+  const char* from = std::getenv("TWINPROBE_ACTOR") && *std::getenv("TWINPROBE_ACTOR") ? "TWINPROBE_ACTOR" : "USER";
+  for (unsigned char c : CurrentActor())
+    if (c < 0x20 || c == 0x7F)
+      return BadInput(from, "holds a line break or another control character",
+                      "set it to one line of text, e.g. TWINPROBE_ACTOR=ana");
+  return {};
+}
+
 AuditedWrite::AuditedWrite(Store& store, std::string command)
     : store_(store), tx_(store), command_(std::move(command)), at_(NowIso()), actor_(CurrentActor()) {
   seq_ = store_.QueryInt("SELECT coalesce(max(seq), 0) + 1 FROM audit");

@@ -11,6 +11,7 @@
 #include <string>
 #include <vector>
 
+#include "core/status.h"
 #include "core/store.h"
 
 namespace twinprobe {
@@ -18,6 +19,12 @@ namespace twinprobe {
 // Who is writing: the desk member of this thread (core/desk_actor.h), else
 // $TWINPROBE_ACTOR, else $USER, else "unknown".
 std::string CurrentActor();
+
+// Refuses an actor that holds a control character: a line break in
+// TWINPROBE_ACTOR would forge lines in `history` and in the chain's text
+// (entries are separated by line breaks). main() calls it before any command
+// runs, so a refused actor writes nothing.
+Status CheckActor();
 
 class AuditedWrite {
  public:

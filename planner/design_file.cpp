@@ -171,6 +171,22 @@ void DesignReader::CheckFile(const toml::node* node, const std::string& rel, con
     Fail(node, what + " '" + rel + "' is outside the study folder", "give a path inside the study folder");
     return;
   }
+  // A link inside the study that points out of it would read a file the
+  // study does not hold (templates were already refused for this).
+  std::error_code ec;
+  const fs::path root = fs::weakly_canonical(fs::absolute(dir_), ec);
+  const fs::path full = fs::weakly_canonical(fs::absolute(fs::path(dir_) / p), ec);
+  const fs::path inside = full.lexically_relative(root);
+  if (!ec && fs::exists(full) && (inside.empty() || *inside.begin() == "..")) {
+    Fail(node, what + " '" + rel + "' resolves outside the study folder (a symbolic link?)",
+         "copy the file into the study folder instead of linking to it");
+    return;
+  }
+  // A device or a FIFO would never end (or never start) being read.
+  if (fs::exists(full) && !fs::is_regular_file(full)) {
+    Fail(node, what + " '" + rel + "' is not a regular file", "give a plain file");
+    return;
+  }
   if (!fs::is_regular_file(fs::path(dir_) / p))
     Fail(node, what + " '" + rel + "' does not exist in the study folder", "create it or fix the path");
 }
@@ -274,6 +290,20 @@ std::string ArmLabel(const std::map<std::string, std::string>& levels) {
   return label;
 }
 
+// Arms that include = "all" (every combination) or "neighbours" (the
+// reference arm and one change at a time) makes, counted without building
+// them; saturates at kMaxArms * 1000 + 1 so no product overflows.
+int64_t CountArms(const std::vector<Factor>& factors, bool neighbours) {
+  const int64_t cap = kMaxArms * 1000 + 1;
+  int64_t n = 1;
+  for (const Factor& f : factors) {
+    const int64_t levels = static_cast<int64_t>(f.levels.size());
+    n = neighbours ? n + std::max<int64_t>(levels - 1, 0) : n * std::max<int64_t>(levels, 1);
+    if (n >= cap) return cap;
+  }
+  return n;
+}
+
 void DesignReader::ReadArms(Design& d) {
   const toml::table* a = Table(root_, "arms", false);
   std::vector<std::map<std::string, std::string>> combos;
@@ -282,6 +312,12 @@ void DesignReader::ReadArms(Design& d) {
   if (list) {
     if (!list->is_array()) {
       Fail(list, "[arms].list must be a list of inline tables", "write list = [{origin = \"inland\"}, …]");
+      return;
+    }
+    if (list->as_array()->size() > static_cast<size_t>(kMaxArms)) {
+      Fail(list, "[arms].list names " + std::to_string(list->as_array()->size()) + " arms, more than the " +
+                     std::to_string(kMaxArms) + " a study may have",
+           "list fewer arms");
       return;
     }
     for (const auto& el : *list->as_array()) {
@@ -323,6 +359,22 @@ void DesignReader::ReadArms(Design& d) {
       return;
     }
     d.arms_include = include;
+    // The arms are counted before they are built: 20 two-level factors with
+    // include = "all" are 1,048,576 arms, and building them cost gigabytes.
+    const int64_t n_arms = CountArms(d.factors, include == "neighbours");
+    if (n_arms > kMaxArms) {
+      Fail(a && a->get("include") ? a->get("include") : (a ? static_cast<const toml::node*>(a) : nullptr),
+           "the design would have " + (n_arms > kMaxArms * 1000 ? "over " + std::to_string(kMaxArms * 1000)
+                                                                : std::to_string(n_arms)) +
+               " arms (" +
+               (include == "neighbours" ? "the reference arm and one change at a time over "
+                                        : "every combination of ") +
+               std::to_string(d.factors.size()) + " factors' levels), more than the " + std::to_string(kMaxArms) +
+               " a study may have",
+           "use include = \"neighbours\" (the reference arm and one change at a time) or list the arms with "
+           "[arms].list");
+      return;
+    }
     combos.push_back({});
     for (const auto& f : d.factors) {
       std::vector<std::map<std::string, std::string>> next;

@@ -1,6 +1,7 @@
 #pragma once
 // Reading and validating the design file, study.toml (docs/design-file.md, the
 // reference). Every error names study.toml:LINE:COL and says how to fix it.
+#include <cstdint>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -9,6 +10,11 @@
 #include "core/status.h"
 
 namespace twinprobe {
+
+// The most arms a design may have. Arms are counted before they are built,
+// so a design above it (20 two-level factors with include = "all" would be
+// 1,048,576 arms) is refused at once instead of costing gigabytes.
+inline constexpr int64_t kMaxArms = 100;
 
 // Reads DIR/study.toml. Files the design names (name pools, templates) are
 // checked to exist inside DIR.

@@ -11,6 +11,7 @@
 #include "core/csv.h"
 #include "core/material_rows.h"
 #include "core/plan_rows.h"
+#include "core/safe_write.h"
 #include "core/sha256.h"
 #include "planner/markdown.h"
 #include "planner/name_pools.h"
@@ -175,9 +176,10 @@ Result<MaterialsWritten> WriteMaterials(const std::string& out_dir, int64_t plan
                                     {".txt", &rendered.value().text},
                                     {".html", &rendered.value().html}}) {
       std::string name = p.probe_ref + ext;
-      std::ofstream out(fs::path(out_dir) / name, std::ios::binary);
-      out << *body;
-      if (!out) return BadInput((fs::path(out_dir) / name).string(), "cannot write the file", "check the folder is writable");
+      // Written beside and renamed: a link planted at materials/P00001.html
+      // is replaced, never written through (core/safe_write.h).
+      if (Status written = WriteFileSafely((fs::path(out_dir) / name).string(), *body); !written.ok())
+        return BadInput((fs::path(out_dir) / name).string(), "cannot write the file", "check the folder is writable");
       std::string sha = Sha256Hex(*body);
       row += "," + CsvQuote(name) + "," + sha;
       w.written.push_back({p.probe_ref, name, std::move(sha)});
@@ -188,9 +190,8 @@ Result<MaterialsWritten> WriteMaterials(const std::string& out_dir, int64_t plan
     if (progress) progress(i + 1, probes.size());
   }
   w.manifest_sha256 = Sha256Hex(manifest);
-  std::ofstream out(w.manifest, std::ios::binary);
-  out << manifest;
-  if (!out) return BadInput(w.manifest, "cannot write the file", "check the folder is writable");
+  if (Status written = WriteFileSafely(w.manifest, manifest); !written.ok())
+    return BadInput(w.manifest, "cannot write the file", "check the folder is writable");
   ++w.files;
   return w;
 }
