@@ -69,6 +69,7 @@ int RunPurge(Context& ctx, bool dry_run) {
                      {"material_files", c.material_files},
                      {"mailbox_files", c.mailbox_files},
                      {"outside_mailboxes", c.outside_mailboxes},
+                     {"files_naming_employers", c.files_naming_employers},
                      {"vacancies_file", c.vacancies_file},
                      {"vacancy_columns", columns},
                      {"deleted_files", c.deleted_files}};
@@ -97,6 +98,9 @@ int RunPurge(Context& ctx, bool dry_run) {
               << (col.action == "pseudonymised" ? " replaced by employer pseudonyms in " : " emptied in ")
               << Count(col.cells, "row", "rows") << "\n";
   for (const auto& f : c.deleted_files) std::cout << "  " << StudyPath(ctx, f) << ": deleted\n";
+  for (const auto& f : c.files_naming_employers)
+    Warn(StudyPath(ctx, f) + " names an employer or holds a contact address; purge did not write it and leaves it "
+         "alone: delete it, or keep it only as your retention plan allows");
   for (const auto& m : c.outside_mailboxes)
     Warn("the mailbox " + m + " lies outside the study folder, so purge leaves it alone; it still holds every sender's "
          "address: delete it when your retention plan says so");

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <filesystem>
 #include <fstream>
+#include <iterator>
 #include <map>
 
 #include "core/audit.h"
@@ -10,6 +11,7 @@
 #include "core/csv.h"
 #include "core/pseudonym.h"
 #include "core/purge_records.h"
+#include "core/text.h"
 
 namespace twinprobe {
 namespace fs = std::filesystem;
@@ -56,6 +58,34 @@ void ListMailboxes(const fs::path& study, const PurgeFileSpec& files, std::vecto
     else
       for (auto& f : ListFiles(study, rel.string().c_str())) inside.push_back(std::move(f));
   }
+}
+
+constexpr std::uintmax_t kLargestFileScanned = 64u << 20;
+
+// Files of the study folder, other than those purge handles itself, whose
+// text holds one of `identities` (ignoring ASCII case).
+std::vector<std::string> FindFilesNamingEmployers(const fs::path& study, const std::vector<std::string>& identities,
+                                                  const std::vector<std::string>& handled) {
+  std::vector<std::string> out;
+  if (identities.empty()) return out;
+  std::vector<std::string> needles;
+  for (const auto& id : identities) needles.push_back(Lower(id));
+  std::error_code ec;
+  for (auto it = fs::recursive_directory_iterator(study, ec); it != fs::recursive_directory_iterator();
+       it.increment(ec)) {
+    if (!it->is_regular_file(ec) || it->file_size(ec) > kLargestFileScanned) continue;
+    const std::string rel = fs::relative(it->path(), study, ec).generic_string();
+    if (rel.rfind("study.db", 0) == 0 || std::find(handled.begin(), handled.end(), rel) != handled.end()) continue;
+    std::ifstream in(it->path(), std::ios::binary);
+    const std::string text = Lower(std::string(std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>()));
+    for (const auto& n : needles)
+      if (text.find(n) != std::string::npos) {
+        out.push_back(rel);
+        break;
+      }
+  }
+  std::sort(out.begin(), out.end());
+  return out;
 }
 
 bool IsKept(const std::string& column, const PurgeFileSpec& files) {
@@ -152,6 +182,9 @@ Result<PurgeCounts> PlanPurge(Store& store, const std::string& study_dir, int re
           return name.rfind("E-", 0) == 0 ? name : std::string(kPurgedEmployer);
         }).columns;
   }
+  std::vector<std::string> handled = c.deleted_files;
+  if (table.value()) handled.push_back(fs::path(files.vacancies_file).lexically_normal().generic_string());
+  c.files_naming_employers = FindFilesNamingEmployers(study_dir, ReadEmployerIdentities(store), handled);
   c.fieldwork_end = ReadFieldworkEnd(store).value_or("");
   int64_t end_t = ParseIsoTime(c.fieldwork_end).value_or(0);
   c.retention_ends = FormatIsoTime(end_t + static_cast<int64_t>(retention_days) * 86400);

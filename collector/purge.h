@@ -49,6 +49,11 @@ struct PurgeCounts {
   std::vector<VacancyColumnChange> vacancy_columns;  // empty when nothing there changes
   std::vector<std::string> deleted_files;            // relative to the study folder, sorted
   std::vector<std::string> outside_mailboxes;        // [mail] paths outside the study folder, as given
+  // Other files of the study folder that name an employer or hold a contact
+  // address (a report written with --reveal-employers, an export, a copy of
+  // the vacancies): purge did not write them, so it names them and leaves
+  // them to the user. Relative to the study folder, sorted.
+  std::vector<std::string> files_naming_employers;
   std::string fieldwork_end;   // ISO time the retention period counts from
   std::string retention_ends;  // ISO time purge becomes allowed
   bool already_purged = false;

@@ -173,9 +173,37 @@ TEST_CASE("issue 17: purge names a mailbox outside the study folder and leaves i
   testing::WriteFile(s.study + "/study.toml", toml.replace(toml.find(from), from.size(), "mbox = [\"../elsewhere.mbox\"]"));
   auto dry = RunCli({"--study", s.study, "purge", "--dry-run"}, kAfterRetention);
   CHECK(dry.exit_code == 0);
-  CHECK(dry.err == "twinprobe: warning: the mailbox ../elsewhere.mbox lies outside the study folder, so purge leaves "
-                   "it alone; it still holds every sender's address: delete it when your retention plan says so\n");
+  // The mailbox left in the folder is no longer the design's, so purge only names it.
+  CHECK(dry.err == "twinprobe: warning: " + s.study +
+                       "/mail/inbox.mbox names an employer or holds a contact address; purge did not write it and "
+                       "leaves it alone: delete it, or keep it only as your retention plan allows\n"
+                       "twinprobe: warning: the mailbox ../elsewhere.mbox lies outside the study folder, so purge "
+                       "leaves it alone; it still holds every sender's address: delete it when your retention plan "
+                       "says so\n");
   REQUIRE(RunCli({"--study", s.study, "purge"}, kAfterRetention).exit_code == 0);
   CHECK(fs::exists(outside));
   CHECK(fs::exists(s.study + "/mail/inbox.mbox"));  // no longer named by the design, so not the study's mailbox
+}
+
+TEST_CASE("issue 17: purge names a report written with employer names and leaves it to the user") {
+  testing::TempDir dir;
+  const std::string demo = dir / "demo";
+  REQUIRE(RunCli({"demo", "--out", demo}).exit_code == 0);
+  REQUIRE(RunCli({"--study", demo, "report", "--reveal-employers", "--out", demo + "/reports/named.json"}).exit_code ==
+          0);
+  auto dry = RunCli({"--study", demo, "purge", "--dry-run"}, kAfterRetention);
+  CHECK(dry.exit_code == 0);
+  CHECK(dry.err == "twinprobe: warning: " + demo +
+                       "/reports/named.json names an employer or holds a contact address; purge did not write it and "
+                       "leaves it alone: delete it, or keep it only as your retention plan allows\n");
+  auto j = nlohmann::json::parse(RunCli({"--study", demo, "--json", "purge", "--dry-run"}, kAfterRetention).out);
+  CHECK(j["files_naming_employers"] == nlohmann::json::array({"reports/named.json"}));
+  auto done = RunCli({"--study", demo, "purge"}, kAfterRetention);
+  CHECK(done.exit_code == 0);
+  CHECK(done.err == dry.err);
+  CHECK(fs::exists(demo + "/reports/named.json"));
+  // Once the names have left the store, purge can no longer tell which
+  // file holds them: the warning came before, and the audit chain keeps
+  // where the report went.
+  CHECK(RunCli({"--study", demo, "purge", "--dry-run"}, kAfterRetention).err.empty());
 }
