@@ -69,13 +69,17 @@ std::vector<std::string> FindFilesNamingEmployers(const fs::path& study, const s
   std::vector<std::string> out;
   if (identities.empty()) return out;
   std::vector<std::string> needles;
-  for (const auto& id : identities) needles.push_back(Lower(id));
+  for (const auto& id : identities)  // as mail matching does: shorter names match too much to mean anything
+    if (id.size() >= 4) needles.push_back(Lower(id));
   std::error_code ec;
   for (auto it = fs::recursive_directory_iterator(study, ec); it != fs::recursive_directory_iterator();
        it.increment(ec)) {
     if (!it->is_regular_file(ec) || it->file_size(ec) > kLargestFileScanned) continue;
     const std::string rel = fs::relative(it->path(), study, ec).generic_string();
-    if (rel.rfind("study.db", 0) == 0 || std::find(handled.begin(), handled.end(), rel) != handled.end()) continue;
+    // The store is purged in place; a copy of it (study.db.bak) is not, so
+    // only the live files are skipped.
+    const bool store = rel == "study.db" || rel == "study.db-wal" || rel == "study.db-shm" || rel == "study.db-journal";
+    if (store || std::find(handled.begin(), handled.end(), rel) != handled.end()) continue;
     std::ifstream in(it->path(), std::ios::binary);
     const std::string text = Lower(std::string(std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>()));
     for (const auto& n : needles)

@@ -207,3 +207,15 @@ TEST_CASE("issue 17: purge names a report written with employer names and leaves
   // where the report went.
   CHECK(RunCli({"--study", demo, "purge", "--dry-run"}, kAfterRetention).err.empty());
 }
+
+TEST_CASE("issue 17: purge names a copy of the store, which it does not purge") {
+  testing::TempDir dir;
+  const std::string demo = dir / "demo";
+  REQUIRE(RunCli({"demo", "--out", demo}).exit_code == 0);
+  fs::copy_file(demo + "/study.db", demo + "/study.db.bak");
+  auto dry = RunCli({"--study", demo, "purge", "--dry-run"}, kAfterRetention);
+  CHECK(dry.exit_code == 0);
+  CHECK(dry.err == "twinprobe: warning: " + demo +
+                       "/study.db.bak names an employer or holds a contact address; purge did not write it and "
+                       "leaves it alone: delete it, or keep it only as your retention plan allows\n");
+}
