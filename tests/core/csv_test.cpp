@@ -235,7 +235,7 @@ TEST_CASE("issue 17: a tab-separated header is refused, naming the separator") {
   CHECK(HeaderError("probe\nP00001\n").empty());
 }
 
-TEST_CASE("csv: with separator ';' a semicolon file reads like its comma twin, quotes and commas kept") {
+TEST_CASE("csv: with the semicolon separator a semicolon file reads like its comma twin, quotes and commas kept") {
   DialectScope semicolons({';', true});
   auto [rows, err] = ReadAll("probe;note\r\nP00001;\"a;b\"\r\nP00002;3,5 days\r\n");
   CHECK(err.empty());
