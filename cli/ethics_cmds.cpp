@@ -7,6 +7,7 @@
 #include "collector/declines.h"
 #include "collector/purge.h"
 #include "core/clock.h"
+#include "report/plural.h"
 
 namespace twinprobe {
 namespace {
@@ -46,35 +47,74 @@ int RunPurge(Context& ctx, bool dry_run) {
   if (retention <= 0)
     return ReportError(BadInput(StorePath(ctx), "the study states no retention period",
                                 "set [ethics].retention_days in study.toml (see ethics/README.md)"));
+  PurgeFileSpec files;
+  if (const auto& design = settings.value().design) {
+    files.vacancies_file = design->vacancies_file;
+    files.keep_columns = design->strata;
+    files.mailboxes = design->mail.mbox;
+    files.mailboxes.insert(files.mailboxes.end(), design->mail.maildir.begin(), design->mail.maildir.end());
+  }
   PurgeCounts c;
   if (dry_run) {
-    c = PlanPurge(*store.value(), ctx.study_dir, retention);
+    auto planned = PlanPurge(*store.value(), ctx.study_dir, retention, files);
+    if (!planned.ok()) return ReportError(planned.error());
+    c = planned.value();
   } else {
-    auto done = Purge(*store.value(), ctx.study_dir, retention, NowEpoch());
+    auto done = Purge(*store.value(), ctx.study_dir, retention, NowEpoch(), files);
     if (!done.ok()) return ReportError(done.error());
     c = done.value();
   }
   if (ctx.json) {
-    std::cout << nlohmann::json{{"dry_run", dry_run},
-                                {"fieldwork_end", c.fieldwork_end},
-                                {"retention_ends", c.retention_ends},
-                                {"employers", c.employers},
-                                {"secrets", c.secrets},
-                                {"notes", c.notes},
-                                {"mail_excerpts", c.mail_excerpts},
-                                {"snapshot_files", c.snapshot_files},
-                                {"material_files", c.material_files}}
-                     .dump(2)
-              << "\n";
+    nlohmann::json columns = nlohmann::json::array();
+    for (const auto& col : c.vacancy_columns)
+      columns.push_back({{"column", col.column}, {"action", col.action}, {"cells", col.cells}});
+    nlohmann::json j{{"dry_run", dry_run},
+                     {"fieldwork_end", c.fieldwork_end},
+                     {"retention_ends", c.retention_ends},
+                     {"employers", c.employers},
+                     {"secrets", c.secrets},
+                     {"notes", c.notes},
+                     {"mail_excerpts", c.mail_excerpts},
+                     {"snapshot_files", c.snapshot_files},
+                     {"material_files", c.material_files},
+                     {"mailbox_files", c.mailbox_files},
+                     {"outside_mailboxes", c.outside_mailboxes},
+                     {"files_naming_employers", c.files_naming_employers},
+                     {"vacancies_file", c.vacancies_file},
+                     {"vacancy_columns", columns},
+                     {"deleted_files", c.deleted_files}};
+    std::cout << j.dump(2) << "\n";
     return 0;
   }
-  std::cout << (dry_run ? "Purge would delete: " : "Purged: ") << c.employers << " employer identities, "
-            << c.notes << " free-text notes, " << c.mail_excerpts << " mail excerpts, " << c.snapshot_files
-            << " raw snapshots, " << c.material_files << " rendered material files.\n"
+  std::cout << (dry_run ? "Purge would delete: " : "Purged: ") << Count(c.employers, "employer identity", "employer identities")
+            << ", " << Count(c.notes, "free-text note", "free-text notes") << ", "
+            << Count(c.mail_excerpts, "mail excerpt", "mail excerpts") << ", "
+            << Count(c.snapshot_files, "raw snapshot", "raw snapshots") << ", "
+            << Count(c.material_files, "rendered material file", "rendered material files") << ", "
+            << Count(c.mailbox_files, "mailbox file", "mailbox files") << ".\n"
             << "Fieldwork ended " << (c.fieldwork_end.empty() ? "(nothing recorded)" : c.fieldwork_end)
             << "; the retention period " << (NowEpoch() >= ParseIsoTime(c.retention_ends).value_or(0) ? "ended " : "ends ")
-            << c.retention_ends << ".\n"
-            << "Pseudonymised outcomes are kept; 'twinprobe analyze' gives the same numbers afterwards.\n";
+            << c.retention_ends << ".\n";
+  // Every file and column touched, so a data-protection officer can check
+  // the list against the retention plan before anything goes.
+  std::cout << (dry_run ? "It would touch:\n" : "It touched:\n");
+  if (c.employers + c.secrets + c.notes + c.mail_excerpts > 0)
+    std::cout << "  " << StorePath(ctx)
+              << ": tables employer and secret emptied; columns response.note and mail_message.excerpt cleared\n";
+  else if (c.vacancy_columns.empty() && c.deleted_files.empty())
+    std::cout << "  nothing: no employer identity is left in the study folder\n";
+  for (const auto& col : c.vacancy_columns)
+    std::cout << "  " << StudyPath(ctx, c.vacancies_file) << ": column " << col.column
+              << (col.action == "pseudonymised" ? " replaced by employer pseudonyms in " : " emptied in ")
+              << Count(col.cells, "row", "rows") << "\n";
+  for (const auto& f : c.deleted_files) std::cout << "  " << StudyPath(ctx, f) << ": deleted\n";
+  for (const auto& f : c.files_naming_employers)
+    Warn(StudyPath(ctx, f) + " names an employer or holds a contact address; purge did not write it and leaves it "
+         "alone: delete it, or keep it only as your retention plan allows");
+  for (const auto& m : c.outside_mailboxes)
+    Warn("the mailbox " + m + " lies outside the study folder, so purge leaves it alone; it still holds every sender's "
+         "address: delete it when your retention plan says so");
+  std::cout << "Pseudonymised outcomes are kept; 'twinprobe analyze' gives the same numbers afterwards.\n";
   return 0;
 }
 

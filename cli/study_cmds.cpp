@@ -12,6 +12,7 @@
 #include "cli/command.h"
 #include "cli/near_duplicate_output.h"
 #include "core/material_files.h"
+#include "core/ethics_gate.h"
 #include "core/sha256.h"
 #include "planner/freeze.h"
 #include "planner/materials_check.h"
@@ -25,26 +26,46 @@ namespace twinprobe {
 namespace {
 namespace fs = std::filesystem;
 
-// Writes the embedded example study into `dir`. Refuses to overwrite files.
+// The files `init` writes: the example study and the ethics folder (its
+// letters and README are what record, schedule and check point to).
+std::vector<EmbeddedFile> InitFiles() {
+  std::vector<EmbeddedFile> files = DemoStudyFiles();
+  files.insert(files.end(), EthicsFiles().begin(), EthicsFiles().end());
+  return files;
+}
+
+// Writes the embedded example study and the ethics folder into `dir`.
+// Refuses to overwrite files: checks every path before writing any.
 Status WriteExampleStudy(const std::string& dir) {
-  for (const auto& f : DemoStudyFiles()) {
+  for (const auto& f : InitFiles()) {
     fs::path p = fs::path(dir) / std::string(f.path);
     if (fs::exists(p)) return BadInput(p.string(), "already exists", "init writes only into a folder without a study; choose another --study DIR");
   }
-  return WriteExampleStudyFiles(dir);
+  if (Status s = WriteExampleStudyFiles(dir); !s.ok()) return s;
+  for (const auto& f : EthicsFiles()) {
+    fs::path p = fs::path(dir) / std::string(f.path);
+    fs::create_directories(p.parent_path());
+    std::ofstream out(p, std::ios::binary);
+    out << f.content;
+    if (!out) return BadInput(p.string(), "cannot write the file", "check that the folder is writable");
+  }
+  return {};
 }
 
 int RunInit(Context& ctx) {
   fs::create_directories(ctx.study_dir);
   Status s = WriteExampleStudy(ctx.study_dir);
   if (!s.ok()) return ReportError(s.error());
+  const size_t n_files = InitFiles().size();
   if (ctx.json) {
-    std::cout << nlohmann::json{{"study", ctx.study_dir}, {"files", DemoStudyFiles().size()}}.dump(2) << "\n";
+    std::cout << nlohmann::json{{"study", ctx.study_dir}, {"files", n_files}}.dump(2) << "\n";
   } else {
-    std::cout << "Created an example study in " << ctx.study_dir << " (" << DemoStudyFiles().size()
-              << " files: study.toml, vacancies.csv, name pools, templates, a ranks file for a listing audit).\n"
+    std::cout << "Created an example study in " << ctx.study_dir << " (" << n_files
+              << " files: study.toml, vacancies.csv, name pools, templates, a ranks file for a listing audit, the "
+                 "ethics folder).\n"
               << "It is the invented demo scenario: replace the names, templates and vacancies with your own,\n"
-              << "fill in [ethics] with your board's approval, then run 'twinprobe check' and 'twinprobe plan'.\n";
+              << "fill in [ethics] with your board's approval (see ethics/README.md), then run 'twinprobe check' and "
+                 "'twinprobe plan'.\n";
   }
   return 0;
 }
@@ -85,6 +106,7 @@ int RunCheck(Context& ctx) {
   if (!study.ok()) return ReportError(study.error());
   const auto& s = study.value();
   WarnNearDuplicates(s.near_duplicates, "vacancy", "vacancies");
+  if (auto demo = DemoApprovalWarning(s.design, StudyPath(ctx, "study.toml"))) Warn(*demo);
   if (s.design.kind == "listing") {
     if (ctx.json)
       std::cout << nlohmann::json{{"ok", true}, {"study_id", s.design.study_id}, {"kind", s.design.kind},

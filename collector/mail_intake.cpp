@@ -10,6 +10,7 @@
 #include "core/audit.h"
 #include "core/clock.h"
 #include "core/mail_log.h"
+#include "core/pseudonym.h"
 #include "core/sha256.h"
 
 namespace twinprobe {
@@ -25,7 +26,6 @@ std::string Trimmed(const std::string& s) {
 // "mbox:PATH", "maildir:DIR", or the (redacted) IMAP URL itself.
 std::string SourceName(const MailBatch& b) { return b.kind == "imap" ? b.label : b.kind + ":" + b.label; }
 
-std::string DigestOrNull(const std::string& value) { return value.empty() ? "" : "sha256:" + Sha256Hex(value); }
 
 }  // namespace
 
@@ -91,9 +91,9 @@ Result<IntakeSummary> IngestMail(Store& store, const MailRules& rules, const std
       MailMessageRow row;
       row.key = key;
       row.source = SourceName(batch);
-      if (!sender.empty()) row.from_digest = DigestOrNull(sender);
+      if (!sender.empty()) row.from_digest = KeyedDigest(store, sender);
       if (!match.profile_mailbox.empty()) row.profile_mailbox = match.profile_mailbox;
-      if (!m.subject.empty()) row.subject_digest = DigestOrNull(m.subject);
+      if (!m.subject.empty()) row.subject_digest = KeyedDigest(store, m.subject);
       if (date) row.sent_date = FormatIsoTime(*date);
       row.body_sha256 = Sha256Hex(CanonicalRaw(raw.raw));
       row.excerpt = excerpt.dump();

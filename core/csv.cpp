@@ -1,5 +1,6 @@
 #include "core/csv.h"
 
+#include <algorithm>
 #include <fstream>
 #include <sstream>
 
@@ -8,7 +9,21 @@ namespace {
 
 constexpr size_t kBufferBytes = 1 << 16;
 
+CsvDialect& Dialect() {
+  static CsvDialect dialect;
+  return dialect;
+}
+
 }  // namespace
+
+const CsvDialect& CurrentCsvDialect() { return Dialect(); }
+void SetCsvDialect(const CsvDialect& dialect) { Dialect() = dialect; }
+
+std::optional<char> ParseCsvSeparator(const std::string& value) {
+  if (value == "," || value == ";" || value == "|") return value[0];
+  if (value == "tab" || value == "\t" || value == "\\t") return '\t';
+  return std::nullopt;
+}
 
 bool IsValidUtf8(const std::string& s) {
   size_t i = 0, n = s.size();
@@ -34,7 +49,8 @@ bool IsValidUtf8(const std::string& s) {
   return true;
 }
 
-CsvReader::CsvReader(std::istream& in, std::string name) : in_(in), name_(std::move(name)), buf_(kBufferBytes) {}
+CsvReader::CsvReader(std::istream& in, std::string name)
+    : in_(in), name_(std::move(name)), buf_(kBufferBytes), separator_(CurrentCsvDialect().separator) {}
 
 bool CsvReader::Fill() {
   if (!in_) return false;
@@ -126,13 +142,13 @@ bool CsvReader::Next(CsvRecord& out) {
         field += static_cast<char>(q);
       }
       int after = Peek();
-      if (after != ',' && after != '\n' && after != '\r' && after >= 0)
+      if (after != separator_ && after != '\n' && after != '\r' && after >= 0)
         return Fail(line_, col_ + 1, "text follows a closing quote",
                     "quote the whole field and double any quote inside it");
     } else {
       for (;;) {
         int u = Peek();
-        if (u == ',' || u == '\n' || u == '\r' || u < 0) break;
+        if (u == separator_ || u == '\n' || u == '\r' || u < 0) break;
         if (u == '"')
           return Fail(line_, col_ + 1, "a double quote inside an unquoted field",
                       "quote the whole field and write the quote as \"\"");
@@ -145,7 +161,7 @@ bool CsvReader::Next(CsvRecord& out) {
     if (!ascii && !IsValidUtf8(field))
       return Fail(field_line, field_col, "the field is not valid UTF-8", "save the file as UTF-8 CSV");
     int sep = Get();
-    if (sep == ',') continue;
+    if (sep == separator_) continue;
     if (sep == '\r' && Peek() == '\n') Get();
     out.fields.resize(count);
     return true;  // line end or end of input
@@ -159,6 +175,20 @@ Result<std::vector<std::string>> ReadCsvHeader(CsvReader& reader) {
     return BadInput(reader.name() + ":1", "the file is empty", "the first line must name the columns");
   }
   const std::string where = reader.name() + ":" + std::to_string(rec.line);
+  if (rec.fields.size() == 1) {
+    // A spreadsheet set to a locale with a decimal comma saves ';'-separated
+    // "CSV"; read with commas its header is one column, and every importer
+    // would then report a required column missing that is plainly there.
+    const std::string& only = rec.fields[0];
+    const auto semicolons = std::count(only.begin(), only.end(), ';');
+    const auto tabs = std::count(only.begin(), only.end(), '\t');
+    if (semicolons + tabs > 0) {
+      const bool tab = tabs > semicolons;
+      std::string fix = "save it as CSV with commas";
+      if (CurrentCsvDialect().separator_option) fix += tab ? ", or pass --separator tab" : ", or pass --separator ';'";
+      return BadInput(where, tab ? "the file looks tab-separated" : "the file looks semicolon-separated", fix);
+    }
+  }
   for (size_t i = 0; i < rec.fields.size(); ++i) {
     if (rec.fields[i].empty())
       return BadInput(where, "column " + std::to_string(i + 1) + " has no name", "name every column");

@@ -9,6 +9,9 @@
 //   - a field must be valid UTF-8 (RFC 3629) and may not hold a NUL byte;
 //   - spaces are data: " a" is kept as " a", and a quote after a space is an
 //     error, as RFC 4180 asks.
+//   - the separator is a comma unless the command was told otherwise
+//     (`import … --separator ';'`, see CsvDialect below); a header that reads
+//     as one column holding ';' or a tab is refused, naming the separator.
 // Positions in messages are FILE:LINE:COL, both 1-based; LINE counts line
 // breaks (a quoted line break inside a field counts too, so positions match
 // what an editor shows) and COL counts characters (UTF-8 code points).
@@ -22,6 +25,22 @@
 
 namespace twinprobe {
 
+// The separator every CSV reader of this process uses, and whether the
+// running command offers `--separator` (then the refusal of a semicolon- or
+// tab-separated header names the option). One process runs one command, so
+// this is set once, by the command line (cli/import_cmds.cpp), before any
+// file is read; everything else reads commas.
+struct CsvDialect {
+  char separator = ',';
+  bool separator_option = false;
+};
+const CsvDialect& CurrentCsvDialect();
+void SetCsvDialect(const CsvDialect& dialect);
+
+// The separator a `--separator` value names: ",", ";", "|", "tab" or a tab
+// character; nullopt for anything else.
+std::optional<char> ParseCsvSeparator(const std::string& value);
+
 struct CsvRecord {
   std::vector<std::string> fields;
   int64_t line = 0;  // line on which the record starts (1-based)
@@ -30,7 +49,8 @@ struct CsvRecord {
 class CsvReader {
  public:
   // `name` is used in error positions ("FILE:LINE:COL"). `in` must outlive
-  // the reader and should be opened in binary mode.
+  // the reader and should be opened in binary mode. Fields are separated by
+  // CurrentCsvDialect().separator.
   CsvReader(std::istream& in, std::string name);
 
   // Reads the next record into `out` (reusing its strings' storage). Returns
@@ -60,10 +80,13 @@ class CsvReader {
   int64_t col_ = 0;
   bool started_ = false;
   std::optional<Error> error_;
+  char separator_ = ',';
 };
 
-// Reads and checks a header record: every column named, no name twice.
-// Errors name FILE:1 (or the reader's error).
+// Reads and checks a header record: every column named, no name twice, and
+// not one column holding ';' or a tab (a file saved with another separator:
+// "the file looks semicolon-separated — save it as CSV with commas, or pass
+// --separator ';'"). Errors name FILE:LINE (or the reader's error).
 Result<std::vector<std::string>> ReadCsvHeader(CsvReader& reader);
 
 // The error for a record whose field count differs from the header's, or OK.

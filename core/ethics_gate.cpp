@@ -50,6 +50,15 @@ Status CheckEthicsGate(const Design& d, const std::string& label) {
   return {};
 }
 
+std::optional<std::string> DemoApprovalWarning(const Design& d, const std::string& label) {
+  // The reference is matched, not the whole text: editing only the board's
+  // name in parentheses still leaves an approval no board gave.
+  if (d.study_id == kDemoStudyId || d.ethics.approval.find(kDemoApprovalReference) == std::string::npos)
+    return std::nullopt;
+  return label + ": [ethics].approval is the demo's invented reference " + kDemoApprovalReference + " in study '" +
+         d.study_id + "' — enter the reference of your own ethics review board's approval" + kSee;
+}
+
 int64_t DeclineDeadline(const EthicsBlock& ethics, int64_t received_at) {
   return received_at + static_cast<int64_t>(ethics.decline_within_hours) * 3600;
 }

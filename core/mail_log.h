@@ -16,9 +16,9 @@ namespace twinprobe {
 struct MailMessageRow {
   std::string key;                             // message_id column: "mid:…" or "raw:…"
   std::string source;                          // mailbox column: mbox:PATH, maildir:DIR, or the redacted IMAP URL
-  std::optional<std::string> from_digest;      // "sha256:…" of the first sender
+  std::optional<std::string> from_digest;      // "hmac:…" (KeyedDigest) of the first sender
   std::optional<std::string> profile_mailbox;  // to_addr column: the profile the message was for
-  std::optional<std::string> subject_digest;   // "sha256:…" of the subject
+  std::optional<std::string> subject_digest;   // "hmac:…" (KeyedDigest) of the subject
   std::optional<std::string> sent_date;        // ISO time, UTC
   std::string body_sha256;
   std::string excerpt;              // JSON, unsealed (purge clears it)

@@ -22,16 +22,25 @@ std::string NormaliseName(const std::string& name) {
   return out;
 }
 
-std::string EmployerKey(Store& store, const std::string& employer_name) {
+namespace {
+
+// The study's secret, created on first use.
+std::string StudySecret(Store& store) {
   Stmt get = store.Prepare("SELECT value FROM secret WHERE name = 'employer_key'");
-  std::string secret;
-  if (get.Step()) {
-    secret = get.Text(0);
-  } else {
-    secret = RandomHex(32);
-    store.Prepare("INSERT INTO secret(name, value) VALUES ('employer_key', ?1)").Bind(1, secret).Run();
-  }
-  return "E-" + HmacSha256Hex(secret, NormaliseName(employer_name)).substr(0, 10);
+  if (get.Step()) return get.Text(0);
+  std::string secret = RandomHex(32);
+  store.Prepare("INSERT INTO secret(name, value) VALUES ('employer_key', ?1)").Bind(1, secret).Run();
+  return secret;
+}
+
+}  // namespace
+
+std::string EmployerKey(Store& store, const std::string& employer_name) {
+  return "E-" + HmacSha256Hex(StudySecret(store), NormaliseName(employer_name)).substr(0, 10);
+}
+
+std::string KeyedDigest(Store& store, const std::string& value) {
+  return "hmac:" + HmacSha256Hex(StudySecret(store), value);
 }
 
 void SeedEmployerKeySecret(Store& store, const std::string& secret) {

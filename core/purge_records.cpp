@@ -21,6 +21,23 @@ std::optional<std::string> ReadFieldworkEnd(Store& store) {
   return end.Text(0);
 }
 
+std::map<std::string, std::string> ReadVacancyEmployerKeys(Store& store) {
+  Stmt s = store.Prepare(
+      "SELECT ref, coalesce(employer_key, '') FROM vacancy WHERE plan_id = (SELECT max(id) FROM plan) ORDER BY id");
+  std::map<std::string, std::string> keys;
+  while (s.Step()) keys[s.Text(0)] = s.Text(1);
+  return keys;
+}
+
+std::vector<std::string> ReadEmployerIdentities(Store& store) {
+  Stmt s = store.Prepare(
+      "SELECT name FROM employer WHERE coalesce(name, '') <> '' UNION SELECT contact FROM employer "
+      "WHERE coalesce(contact, '') <> ''");
+  std::vector<std::string> out;
+  while (s.Step()) out.push_back(s.Text(0));
+  return out;
+}
+
 bool WasPurged(Store& store) { return store.QueryInt("SELECT count(*) FROM meta WHERE key = 'purged_at'") > 0; }
 
 void EnableSecureDelete(Store& store) { store.Exec("PRAGMA secure_delete = ON"); }

@@ -3,8 +3,10 @@
 // the files): what identifying data the store still holds, when fieldwork
 // ended, and erasing it. SQLite failures throw StoreError (core/store.h).
 #include <cstdint>
+#include <map>
 #include <optional>
 #include <string>
+#include <vector>
 
 namespace twinprobe {
 
@@ -21,6 +23,12 @@ PurgeableRows CountPurgeableRows(Store& store);
 // The latest sending, response or listing fetch time; none when the store
 // holds none of them.
 std::optional<std::string> ReadFieldworkEnd(Store& store);
+// Vacancy reference -> employer pseudonym ("" when none) of the current
+// plan: what purge writes into the vacancies file in place of the names.
+std::map<std::string, std::string> ReadVacancyEmployerKeys(Store& store);
+// Every employer name and contact address the store still holds (none
+// after purge): what purge looks for in the files it does not handle.
+std::vector<std::string> ReadEmployerIdentities(Store& store);
 // True once a purge was recorded (meta key purged_at).
 bool WasPurged(Store& store);
 

@@ -67,9 +67,11 @@ TEST_CASE("help: docs/init.md shows what init prints, file count included") {
   REQUIRE(run.exit_code == 0);
   std::string first = run.out.substr(0, run.out.find('\n'));
   CHECK(first == "Created an example study in " + (dir / "harbour-study") +
-                     " (8 files: study.toml, vacancies.csv, name pools, templates, a ranks file for a listing audit).");
-  CHECK(Source("docs/init.md").find("Created an example study in harbour-study (8 files: study.toml, vacancies.csv, "
-                                    "name pools, templates, a ranks file for a listing audit).") != std::string::npos);
+                     " (14 files: study.toml, vacancies.csv, name pools, templates, a ranks file for a listing audit, the "
+                     "ethics folder).");
+  CHECK(Source("docs/init.md").find("Created an example study in harbour-study (14 files: study.toml, vacancies.csv, "
+                                    "name pools, templates, a ranks file for a listing audit, the ethics folder).") !=
+        std::string::npos);
 }
 
 TEST_CASE("help: docs/calc.md's synopsis names every calc subcommand") {

@@ -137,7 +137,7 @@ TEST_CASE("ethics: purge waits for the retention period, then removes identities
   auto done = RunCli({"--study", demo, "purge"}, {"TWINPROBE_NOW=2028-06-01"});
   INFO(done.err);
   REQUIRE(done.exit_code == 0);
-  CHECK(done.out.rfind("Purged: 400 employer identities, 1 free-text notes", 0) == 0);
+  CHECK(done.out.rfind("Purged: 400 employer identities, 1 free-text note, ", 0) == 0);
   auto store = Store::Open(demo + "/study.db", false);
   REQUIRE(store.ok());
   CHECK(store.value()->QueryInt("SELECT count(*) FROM employer") == 0);

@@ -130,9 +130,14 @@ TEST_CASE("mail intake: keys, digests and what the sealed columns hold") {
   REQUIRE(first.Step());
   CHECK(first.Text(0) == "mid:" + Sha256Hex("20270304.invite.0101@orlinde-bakehouse.example"));
   CHECK(first.Text(1) == "mbox:" + s.study + "/mail/inbox.mbox");
-  CHECK(first.Text(2) == "sha256:" + Sha256Hex("hanne.ostrel@orlinde-bakehouse.example"));
+  // Keyed under the study's secret (purge deletes it), so a guessed address
+  // cannot be confirmed against the sealed digest once the study is purged.
+  Stmt secret_row = store->Prepare("SELECT value FROM secret WHERE name = 'employer_key'");
+  REQUIRE(secret_row.Step());
+  const std::string secret = secret_row.Text(0);
+  CHECK(first.Text(2) == "hmac:" + HmacSha256Hex(secret, "hanne.ostrel@orlinde-bakehouse.example"));
   CHECK(first.Text(3) == kAldo);
-  CHECK(first.Text(4) == "sha256:" + Sha256Hex("Your application: baker's assistant (V0101)"));
+  CHECK(first.Text(4) == "hmac:" + HmacSha256Hex(secret, "Your application: baker's assistant (V0101)"));
   CHECK(first.Text(5) == "2027-03-04T09:15:00Z");
   auto mbox = ReadMbox(s.study + "/mail/inbox.mbox");
   CHECK(first.Text(6) == Sha256Hex(CanonicalRaw(mbox.value()[0].raw)));
@@ -160,7 +165,7 @@ TEST_CASE("mail intake: keys, digests and what the sealed columns hold") {
   // Sealed columns hold no sender address or subject in clear text, and no
   // employer name: those live in the purgeable excerpt only.
   CHECK(store->QueryInt(
-            "SELECT count(*) FROM mail_message WHERE from_addr NOT LIKE 'sha256:%' OR subject NOT LIKE 'sha256:%'") ==
+            "SELECT count(*) FROM mail_message WHERE from_addr NOT LIKE 'hmac:%' OR subject NOT LIKE 'hmac:%'") ==
         0);
   CHECK(store->QueryInt("SELECT count(*) FROM mail_message WHERE match_reason LIKE '%bakehouse%' OR "
                         "match_reason LIKE '%@kestrel%' OR evidence LIKE '%Hanne%'") == 0);

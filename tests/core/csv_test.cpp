@@ -201,3 +201,63 @@ TEST_CASE("csv: quoting for output round-trips every awkward field") {
   CHECK(CsvQuote("plain") == "plain");
   CHECK(CsvQuote(" lead") == "\" lead\"");
 }
+
+namespace {
+
+// Sets the process's dialect for one test and restores the default after.
+struct DialectScope {
+  explicit DialectScope(CsvDialect d) { SetCsvDialect(d); }
+  ~DialectScope() { SetCsvDialect({}); }
+};
+
+std::string HeaderError(const std::string& text) {
+  std::istringstream in(text);
+  CsvReader reader(in, "t.csv");
+  auto h = ReadCsvHeader(reader);
+  return h.ok() ? "" : h.error().Message();
+}
+
+}  // namespace
+
+TEST_CASE("issue 17: a semicolon-separated header is refused, naming the separator") {
+  CHECK(HeaderError("probe;code;received_at\nP00001;invitation;2027-04-01\n") ==
+        "t.csv:1: the file looks semicolon-separated \u2014 save it as CSV with commas");
+  DialectScope importing({',', true});
+  CHECK(HeaderError("probe;code;received_at\nP00001;invitation;2027-04-01\n") ==
+        "t.csv:1: the file looks semicolon-separated \u2014 save it as CSV with commas, or pass --separator ';'");
+}
+
+TEST_CASE("issue 17: a tab-separated header is refused, naming the separator") {
+  DialectScope importing({',', true});
+  CHECK(HeaderError("probe\tcode\treceived_at\n") ==
+        "t.csv:1: the file looks tab-separated \u2014 save it as CSV with commas, or pass --separator tab");
+  // A comma-separated header with one column is still a header.
+  CHECK(HeaderError("probe\nP00001\n").empty());
+}
+
+TEST_CASE("csv: with the semicolon separator a semicolon file reads like its comma twin, quotes and commas kept") {
+  DialectScope semicolons({';', true});
+  auto [rows, err] = ReadAll("probe;note\r\nP00001;\"a;b\"\r\nP00002;3,5 days\r\n");
+  CHECK(err.empty());
+  CHECK(rows == Rows{{"probe", "note"}, {"P00001", "a;b"}, {"P00002", "3,5 days"}});
+}
+
+TEST_CASE("csv: with separator tab a tab file reads, and text after a closing quote is still refused") {
+  DialectScope tabs({'\t', true});
+  auto [rows, err] = ReadAll("probe\tcode\nP00001\tinvitation\n");
+  CHECK(err.empty());
+  CHECK(rows == Rows{{"probe", "code"}, {"P00001", "invitation"}});
+  CHECK(ReadAll("a\tb\n\"x\",y\tz\n").second ==
+        "t.csv:2:4: text follows a closing quote \u2014 quote the whole field and double any quote inside it");
+}
+
+TEST_CASE("csv: --separator spellings") {
+  CHECK(ParseCsvSeparator(",") == ',');
+  CHECK(ParseCsvSeparator(";") == ';');
+  CHECK(ParseCsvSeparator("|") == '|');
+  CHECK(ParseCsvSeparator("tab") == '\t');
+  CHECK(ParseCsvSeparator("\t") == '\t');
+  CHECK(ParseCsvSeparator("\\t") == '\t');
+  CHECK_FALSE(ParseCsvSeparator("semicolon"));
+  CHECK_FALSE(ParseCsvSeparator(";;"));
+}

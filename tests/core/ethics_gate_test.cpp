@@ -116,3 +116,22 @@ TEST_CASE("issue 24: a listing audit is asked for approval, retention and its so
         "study.toml: source 'veldmark-jobs' has no host allowlist \u2014 list the hosts you are permitted to collect "
         "from (see ethics/README.md)");
 }
+
+TEST_CASE("issue 17: the demo's invented approval in a study that is not the demo gets a warning") {
+  Design d = Complete();
+  d.study_id = "harbour-callbacks";
+  auto w = DemoApprovalWarning(d, "s/study.toml");
+  REQUIRE(w);
+  CHECK(*w ==
+        "s/study.toml: [ethics].approval is the demo's invented reference VREB-2027-014 in study 'harbour-callbacks' "
+        "\u2014 enter the reference of your own ethics review board's approval (see ethics/README.md)");
+}
+
+TEST_CASE("ethics gate: the demo itself and a study with its own approval get no demo warning") {
+  Design d = Complete();
+  d.study_id = kDemoStudyId;
+  CHECK_FALSE(DemoApprovalWarning(d, "study.toml"));
+  d.study_id = "harbour-callbacks";
+  d.ethics.approval = "HREC-2027-112 (Harbourside Ethics Board, invented)";
+  CHECK_FALSE(DemoApprovalWarning(d, "study.toml"));
+}
