@@ -2,8 +2,8 @@
 
 namespace twinprobe {
 
-StudyFlow ReadStudyFlow(Store& store, const OutcomeScheme& scheme) {
-  StudyFlow f;
+DeskCounts ReadDeskCounts(Store& store, const OutcomeScheme& scheme) {
+  DeskCounts f;
   f.planned = store.QueryInt("SELECT count(*) FROM current_probe");
   f.sent = store.QueryInt(
       "SELECT count(*) FROM current_probe p WHERE EXISTS (SELECT 1 FROM sending s WHERE s.probe_id = p.id)");

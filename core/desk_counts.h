@@ -9,7 +9,7 @@
 
 namespace twinprobe {
 
-struct StudyFlow {
+struct DeskCounts {
   int64_t planned = 0;    // probes of the current plan
   int64_t sent = 0;       // of them, with at least one sending
   int64_t responded = 0;  // with a current response (any code)
@@ -18,6 +18,6 @@ struct StudyFlow {
   int64_t entries = 0;    // audit entries (every write, any command)
 };
 
-StudyFlow ReadStudyFlow(Store& store, const OutcomeScheme& scheme);
+DeskCounts ReadDeskCounts(Store& store, const OutcomeScheme& scheme);
 
 }  // namespace twinprobe

@@ -2,7 +2,9 @@
 // stays in `analyze` and `report`.
 #include <filesystem>
 
+#include "analysis/flow.h"
 #include "core/audit.h"
+#include "core/fieldwork.h"
 #include "core/desk_counts.h"
 #include "desk/routes.h"
 #include "report/html_escape.h"
@@ -36,12 +38,21 @@ std::string KeyFigure(int64_t n, const std::string& what, const std::string& sma
 }  // namespace
 
 DeskResponse StudyPage(const PageRequest& r) {
-  const StudyFlow f = ReadStudyFlow(r.store, r.design.outcomes);
+  const DeskCounts f = ReadDeskCounts(r.store, r.design.outcomes);
   std::string body = "<div class=\"keyfigs\">" + KeyFigure(f.planned, "probes planned", "in the current plan") +
                      KeyFigure(f.sent, "sent", std::to_string(f.planned - f.sent) + " still to send") +
                      KeyFigure(f.responded, "with a response", "the current response of each probe") +
                      KeyFigure(f.positive, "positive callbacks", std::to_string(f.declined) + " declined so far") +
                      "</div>";
+  // Sets closed and analysable by the same rule as `analyze` (core/fieldwork.h:
+  // a probe is open until answered or its window ends on the study clock).
+  const StudyFlow flow = ComputeFlow(ReadFieldwork(r.store, r.design.outcomes), r.design.outcomes.window_days);
+  body += "<div class=\"keyfigs\">" +
+          KeyFigure(flow.vacancies_planned, "vacancies planned", "one set of applications each") +
+          KeyFigure(flow.sets_sent, "sets sent", "every application of the set sent") +
+          KeyFigure(flow.sets_closed, "sets closed", "answered, or the " + std::to_string(flow.window_days) +
+                                                         "-day window is over") +
+          KeyFigure(flow.sets_analysed, "sets analysable", "what analyze would count now") + "</div>";
   body += "<h2>Latest report</h2>";
   const std::string report = LatestReport(r.study_dir);
   if (report.empty())

@@ -41,11 +41,11 @@ TEST_CASE("repository scan: a module including a module above it is named, one b
   auto found = FindLayerViolations("analysis/a.cpp", "#include \"core/store.h\"\n#include \"report/text_report.h\"\n");
   REQUIRE(found.size() == 1);
   CHECK(found[0] == "analysis/a.cpp:2: analysis/ includes report/text_report.h, a module above it "
-                    "(order: core, stats < planner, collector < analysis < report, desk < cli)");
+                    "(order: core, stats < planner, collector < analysis < report < desk < cli)");
   auto sideways = FindLayerViolations("planner/b.h", "#include \"collector/responses.h\"\n");
   REQUIRE(sideways.size() == 1);
   CHECK(sideways[0] == "planner/b.h:1: planner/ includes collector/responses.h, a module beside it "
-                       "(order: core, stats < planner, collector < analysis < report, desk < cli)");
+                       "(order: core, stats < planner, collector < analysis < report < desk < cli)");
 }
 
 TEST_CASE("repository scan: cli calling the SQLite API is named") {

@@ -88,7 +88,7 @@ TEST_CASE("desk http: a refused response shows record's message beside its field
         "'soon' is not a date or time \u2014 write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM (UTC)");
   auto decline = ada.Post("/declines", {{"csrf", ada.csrf()}, {"probe", "P00002"}});
   CHECK(ClassText(decline.body, "notice error") ==
-        "probe 'P00002' has no invitation or offer to decline \u2014 record the employer's response first with "
+        "probe 'P00002' has no response recorded, so there is nothing to decline \u2014 record the employer's response first with "
         "'twinprobe record'");
   CHECK(testing::FingerprintOf(s.study.db()) == before);
 }

@@ -48,11 +48,11 @@ bool IsSource(const std::string& path) {
 const std::map<std::string, int>& Layers() {
   static const std::map<std::string, int> layers{{"core", 0},     {"stats", 0},  {"templates", 0},
                                                  {"planner", 1},  {"collector", 1}, {"analysis", 2},
-                                                 {"report", 3},   {"desk", 3},   {"cli", 4}};
+                                                 {"report", 3},   {"desk", 4},   {"cli", 5}};
   return layers;
 }
 
-constexpr const char* kOrder = "(order: core, stats < planner, collector < analysis < report, desk < cli)";
+constexpr const char* kOrder = "(order: core, stats < planner, collector < analysis < report < desk < cli)";
 
 std::string ReadAll(const fs::path& p) {
   std::ifstream in(p, std::ios::binary);
