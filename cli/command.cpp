@@ -52,9 +52,9 @@ Result<StudySettings> LoadStudySettings(const Context& ctx, Store& store) {
   return s;
 }
 
-Status WriteExampleStudyFiles(const std::string& dir) {
+Status WriteEmbeddedFiles(const std::string& dir, const std::vector<EmbeddedFile>& files) {
   namespace fs = std::filesystem;
-  for (const auto& f : DemoStudyFiles()) {
+  for (const auto& f : files) {
     fs::path p = fs::path(dir) / std::string(f.path);
     fs::create_directories(p.parent_path());
     std::ofstream out(p, std::ios::binary);
@@ -63,5 +63,7 @@ Status WriteExampleStudyFiles(const std::string& dir) {
   }
   return {};
 }
+
+Status WriteExampleStudyFiles(const std::string& dir) { return WriteEmbeddedFiles(dir, DemoStudyFiles()); }
 
 }  // namespace twinprobe

@@ -16,6 +16,7 @@
 #include "core/design.h"
 #include "core/status.h"
 #include "core/store.h"
+#include "templates/embedded.h"
 
 namespace twinprobe {
 
@@ -81,5 +82,7 @@ Result<StudySettings> LoadStudySettings(const Context& ctx, Store& store);
 // name pools, templates) into `dir`, overwriting files of the same name;
 // `init` and `demo` first make sure that is allowed.
 Status WriteExampleStudyFiles(const std::string& dir);
+// Writes embedded files (templates/embedded.h) under `dir`, creating folders.
+Status WriteEmbeddedFiles(const std::string& dir, const std::vector<EmbeddedFile>& files);
 
 }  // namespace twinprobe

@@ -42,14 +42,7 @@ Status WriteExampleStudy(const std::string& dir) {
     if (fs::exists(p)) return BadInput(p.string(), "already exists", "init writes only into a folder without a study; choose another --study DIR");
   }
   if (Status s = WriteExampleStudyFiles(dir); !s.ok()) return s;
-  for (const auto& f : EthicsFiles()) {
-    fs::path p = fs::path(dir) / std::string(f.path);
-    fs::create_directories(p.parent_path());
-    std::ofstream out(p, std::ios::binary);
-    out << f.content;
-    if (!out) return BadInput(p.string(), "cannot write the file", "check that the folder is writable");
-  }
-  return {};
+  return WriteEmbeddedFiles(dir, EthicsFiles());
 }
 
 int RunInit(Context& ctx) {
