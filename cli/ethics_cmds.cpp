@@ -29,12 +29,8 @@ int RunDecline(Context& ctx, const DeclineOptions& o) {
                                 {"already_declined", d.already}}
                      .dump(2)
               << "\n";
-  else if (d.already)
-    std::cout << "The " << PositiveResponseWords(d.code) << " to " << o.probe << " was already declined at "
-              << d.declined_at << "; nothing recorded.\n";
   else
-    std::cout << "Recorded that the " << PositiveResponseWords(d.code) << " to " << o.probe << " was declined at "
-              << d.declined_at << ".\n";
+    std::cout << DeclineSentence(d) << "\n";
   return 0;
 }
 

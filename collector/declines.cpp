@@ -19,6 +19,14 @@ std::string PositiveResponseWords(const std::string& code) {
   return "'" + code + "' response";
 }
 
+std::string DeclineSentence(const DeclineRecord& d) {
+  if (d.already)
+    return "The " + PositiveResponseWords(d.code) + " to " + d.probe_ref + " was already declined at " + d.declined_at +
+           "; nothing recorded.";
+  return "Recorded that the " + PositiveResponseWords(d.code) + " to " + d.probe_ref + " was declined at " +
+         d.declined_at + ".";
+}
+
 Result<DeclineRecord> RecordDecline(Store& store, const OutcomeScheme& scheme, const std::string& probe_ref,
                                     const std::string& declined_at, const std::string& channel) {
   AuditedWrite write(store, "decline");

@@ -30,6 +30,11 @@ struct DeclineRecord {
 Result<DeclineRecord> RecordDecline(Store& store, const OutcomeScheme& scheme, const std::string& probe_ref,
                                     const std::string& declined_at, const std::string& channel);
 
+// What was done, in the words `decline` and the desk both say: "Recorded that
+// the invitation to P00031 was declined at …." or, when `already`, "The
+// invitation to P00031 was already declined at …; nothing recorded."
+std::string DeclineSentence(const DeclineRecord& d);
+
 // How messages name a positive response: "invitation", "offer",
 // "request for information" (info_request), else the code in quotes.
 std::string PositiveResponseWords(const std::string& code);

@@ -28,16 +28,16 @@ inline GumboOptions BoundedGumboOptions() {
 // The deepest element nesting below `root` (an iterative walk: safe at any depth).
 inline int HtmlTreeDepth(const GumboNode* root) {
   int deepest = 0;
-  std::vector<std::pair<const GumboNode*, int>> todo = {{root, 0}};
-  while (!todo.empty()) {
-    auto [node, depth] = todo.back();
-    todo.pop_back();
+  std::vector<std::pair<const GumboNode*, int>> pending = {{root, 0}};
+  while (!pending.empty()) {
+    auto [node, depth] = pending.back();
+    pending.pop_back();
     if (depth > deepest) deepest = depth;
     const GumboVector* kids = nullptr;
     if (node->type == GUMBO_NODE_ELEMENT || node->type == GUMBO_NODE_TEMPLATE) kids = &node->v.element.children;
     else if (node->type == GUMBO_NODE_DOCUMENT) kids = &node->v.document.children;
     if (!kids) continue;
-    for (unsigned i = 0; i < kids->length; ++i) todo.emplace_back(static_cast<const GumboNode*>(kids->data[i]), depth + 1);
+    for (unsigned i = 0; i < kids->length; ++i) pending.emplace_back(static_cast<const GumboNode*>(kids->data[i]), depth + 1);
   }
   return deepest;
 }

@@ -56,12 +56,7 @@ DeskResponse DeclineEntry(const PageRequest& r) {
   auto d =
       RecordDecline(r.store, r.design.outcomes, probe, r.Param("declined_at-" + probe), r.Param("channel-" + probe));
   if (!d.ok()) return DeclinesPage(r, "", probe, RefusalText(d.error()));
-  const DeclineRecord& rec = d.value();
-  if (rec.already)
-    return DeclinesPage(r, NoticeBox("ok", "The " + PositiveResponseWords(rec.code) + " to " + probe +
-                                               " was already declined at " + rec.declined_at + "; nothing recorded."));
-  return DeclinesPage(r, NoticeBox("ok", "Recorded that the " + PositiveResponseWords(rec.code) + " to " + probe +
-                                             " was declined at " + rec.declined_at + "."));
+  return DeclinesPage(r, NoticeBox("ok", DeclineSentence(d.value())));
 }
 
 }  // namespace twinprobe

@@ -12,6 +12,8 @@
 #include <boost/math/distributions/normal.hpp>
 #include <boost/math/tools/roots.hpp>
 
+#include "stats/model_rows.h"
+
 namespace twinprobe::stats {
 namespace {
 
@@ -101,16 +103,7 @@ bool Build(const MatchedSetsData& d, std::vector<Set>& sets, std::string& why) {
   }
   std::map<long, std::vector<size_t>> rows;
   for (size_t i = 0; i < n; ++i) {
-    if (d.x[i].size() != d.names.size()) {
-      why = "row " + std::to_string(i + 1) + " has " + std::to_string(d.x[i].size()) + " covariates, expected " +
-            std::to_string(d.names.size());
-      return false;
-    }
-    for (double v : d.x[i])
-      if (!std::isfinite(v)) {
-        why = "row " + std::to_string(i + 1) + " has a covariate that is not a finite number";
-        return false;
-      }
+    if (!CheckCovariateRow(d.x[i], d.names.size(), i, why)) return false;
     if (d.outcome[i] != 0 && d.outcome[i] != 1) {
       why = "row " + std::to_string(i + 1) + " has outcome " + std::to_string(d.outcome[i]) + ", expected 0 or 1";
       return false;

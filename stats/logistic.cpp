@@ -11,6 +11,8 @@
 #include <boost/math/distributions/normal.hpp>
 #include <boost/math/tools/roots.hpp>
 
+#include "stats/model_rows.h"
+
 namespace twinprobe::stats {
 namespace {
 
@@ -150,16 +152,7 @@ bool Validate(const LogisticData& d, std::string& why) {
     return false;
   }
   for (size_t i = 0; i < n; ++i) {
-    if (d.x[i].size() != d.names.size()) {
-      why = "row " + std::to_string(i + 1) + " has " + std::to_string(d.x[i].size()) + " covariates, expected " +
-            std::to_string(d.names.size());
-      return false;
-    }
-    for (double v : d.x[i])
-      if (!std::isfinite(v)) {
-        why = "row " + std::to_string(i + 1) + " has a covariate that is not a finite number";
-        return false;
-      }
+    if (!CheckCovariateRow(d.x[i], d.names.size(), i, why)) return false;
     if (!(d.trials[i] > 0) || !(d.successes[i] >= 0 && d.successes[i] <= d.trials[i])) {
       why = "row " + std::to_string(i + 1) + " needs trials > 0 and 0 <= successes <= trials";
       return false;
