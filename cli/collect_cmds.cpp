@@ -231,7 +231,7 @@ int RunImportPairs(Context& ctx, const ImportCmdOptions& o) {
     if (s.rows_rejected)
       std::cout << "; " << s.rows_rejected << (s.rows_rejected == 1 ? " row was" : " rows were")
                 << " left out and written with the reasons to " << s.reject_path;
-    std::cout << ".\nNext: twinprobe" << (ctx.study_dir == "." ? "" : " --study " + ctx.study_dir) << " analyze\n";
+    std::cout << ".\nNext: " << CommandFor(ctx, "analyze") << "\n";
   }
   return s.rows_rejected ? 1 : 0;
 }

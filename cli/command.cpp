@@ -23,6 +23,18 @@ void Warn(const std::string& message) {
   std::cerr << "twinprobe: warning: " << ForTerminal(message, LineBreaks::kKeep) << "\n";
 }
 
+std::string CommandFor(const Context& ctx, const std::string& rest) {
+  if (ctx.study_dir == ".") return "twinprobe " + rest;
+  const bool plain = ctx.study_dir.find_first_of(" \t'\"$`\\;&|<>()*?!#~") == std::string::npos;
+  std::string folder = ctx.study_dir;
+  if (!plain) {
+    folder = "'";
+    for (char c : ctx.study_dir) folder += c == '\'' ? std::string("'\\''") : std::string(1, c);
+    folder += "'";
+  }
+  return "twinprobe --study " + folder + " " + rest;
+}
+
 std::string StudyPath(const Context& ctx, const std::string& relative) {
   return (std::filesystem::path(ctx.study_dir) / relative).string();
 }

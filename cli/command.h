@@ -54,6 +54,13 @@ void AddImportRanks(CLI::App& import, Context& ctx);      // ranks (import_ranks
 void AddImportLabels(CLI::App& import, Context& ctx);     // labels (fetch_cmd.cpp)
 void AddRankCalculators(CLI::App& calc, Context& ctx);    // wilcoxon, emd (calc_ranks_cmd.cpp)
 
+// A command line to suggest in a "Next:" or "then run" sentence, naming the
+// study folder the user gave (none for the current folder) so it can be
+// copied as printed: CommandFor(ctx, "analyze") is
+// "twinprobe --study my-study analyze". A folder with spaces or quotes is
+// quoted for the shell.
+std::string CommandFor(const Context& ctx, const std::string& rest);
+
 // Prints "twinprobe: <message>" to stderr and returns the error's exit code.
 int ReportError(const Error& error);
 // Prints "twinprobe: warning: <message>" to stderr.

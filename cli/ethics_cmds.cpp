@@ -43,6 +43,7 @@ int RunPurge(Context& ctx, bool dry_run) {
   if (retention <= 0)
     return ReportError(BadInput(StorePath(ctx), "the study states no retention period",
                                 "set [ethics].retention_days in study.toml (see ethics/README.md)"));
+  const int window = settings.value().outcomes.window_days;
   PurgeFileSpec files;
   if (const auto& design = settings.value().design) {
     files.vacancies_file = design->vacancies_file;
@@ -52,11 +53,11 @@ int RunPurge(Context& ctx, bool dry_run) {
   }
   PurgeCounts c;
   if (dry_run) {
-    auto planned = PlanPurge(*store.value(), ctx.study_dir, retention, files);
+    auto planned = PlanPurge(*store.value(), ctx.study_dir, retention, window, files);
     if (!planned.ok()) return ReportError(planned.error());
     c = planned.value();
   } else {
-    auto done = Purge(*store.value(), ctx.study_dir, retention, NowEpoch(), files);
+    auto done = Purge(*store.value(), ctx.study_dir, retention, window, NowEpoch(), files);
     if (!done.ok()) return ReportError(done.error());
     c = done.value();
   }
@@ -66,6 +67,7 @@ int RunPurge(Context& ctx, bool dry_run) {
       columns.push_back({{"column", col.column}, {"action", col.action}, {"cells", col.cells}});
     nlohmann::json j{{"dry_run", dry_run},
                      {"fieldwork_end", c.fieldwork_end},
+                     {"fieldwork_end_what", c.fieldwork_end_what},
                      {"retention_ends", c.retention_ends},
                      {"employers", c.employers},
                      {"secrets", c.secrets},
@@ -88,7 +90,10 @@ int RunPurge(Context& ctx, bool dry_run) {
             << Count(c.snapshot_files, "raw snapshot", "raw snapshots") << ", "
             << Count(c.material_files, "rendered material file", "rendered material files") << ", "
             << Count(c.mailbox_files, "mailbox file", "mailbox files") << ".\n"
-            << "Fieldwork ended " << (c.fieldwork_end.empty() ? "(nothing recorded)" : c.fieldwork_end)
+            << (c.fieldwork_end.empty() ? std::string("Nothing was sent, answered or fetched")
+                : std::string(NowEpoch() >= ParseIsoTime(c.fieldwork_end).value_or(0) ? "The fieldwork ended "
+                                                                                         : "The fieldwork ends ") +
+                      c.fieldwork_end + " (" + c.fieldwork_end_what + ")")
             << "; the retention period " << (NowEpoch() >= ParseIsoTime(c.retention_ends).value_or(0) ? "ended " : "ends ")
             << c.retention_ends << ".\n";
   // Every file and column touched, so a data-protection officer can check

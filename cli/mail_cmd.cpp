@@ -162,7 +162,7 @@ int RunMail(Context& ctx, const MailOptions& o) {
     std::cout << "To assign by hand (" << sum.queued << "), no single probe fits:\n";
     list(false);
   }
-  std::cout << "No response was recorded. Next: 'twinprobe review' shows the queue with the evidence.\n";
+  std::cout << "No response was recorded. Next: '" << CommandFor(ctx, "review") << "' shows the queue with the evidence.\n";
   return 0;
 }
 

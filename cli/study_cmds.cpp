@@ -57,8 +57,8 @@ int RunInit(Context& ctx) {
               << " files: study.toml, vacancies.csv, name pools, templates, a ranks file for a listing audit, the "
                  "ethics folder).\n"
               << "It is the invented demo scenario: replace the names, templates and vacancies with your own,\n"
-              << "fill in [ethics] with your board's approval (see ethics/README.md), then run 'twinprobe check' and "
-                 "'twinprobe plan'.\n";
+              << "fill in [ethics] with your board's approval (see ethics/README.md), then run '" << CommandFor(ctx, "check")
+              << "' and '" << CommandFor(ctx, "plan") << "'.\n";
   }
   return 0;
 }

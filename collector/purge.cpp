@@ -159,7 +159,7 @@ Result<std::optional<CsvTable>> ReadVacancyFile(const std::string& study_dir, co
 
 }  // namespace
 
-Result<PurgeCounts> PlanPurge(Store& store, const std::string& study_dir, int retention_days,
+Result<PurgeCounts> PlanPurge(Store& store, const std::string& study_dir, int retention_days, int window_days,
                               const PurgeFileSpec& files) {
   PurgeCounts c;
   const PurgeableRows rows = CountPurgeableRows(store);
@@ -189,22 +189,25 @@ Result<PurgeCounts> PlanPurge(Store& store, const std::string& study_dir, int re
   std::vector<std::string> handled = c.deleted_files;
   if (table.value()) handled.push_back(fs::path(files.vacancies_file).lexically_normal().generic_string());
   c.files_naming_employers = FindFilesNamingEmployers(study_dir, ReadEmployerIdentities(store), handled);
-  c.fieldwork_end = ReadFieldworkEnd(store).value_or("");
-  int64_t end_t = ParseIsoTime(c.fieldwork_end).value_or(0);
+  const auto end = ReadFieldworkEnd(store, window_days);
+  const int64_t end_t = end ? end->at : 0;
+  if (end) c.fieldwork_end = FormatIsoTime(end->at), c.fieldwork_end_what = end->what;
   c.retention_ends = FormatIsoTime(end_t + static_cast<int64_t>(retention_days) * 86400);
   c.already_purged = WasPurged(store);
   return c;
 }
 
-Result<PurgeCounts> Purge(Store& store, const std::string& study_dir, int retention_days, int64_t now,
-                          const PurgeFileSpec& files) {
-  auto planned = PlanPurge(store, study_dir, retention_days, files);
+Result<PurgeCounts> Purge(Store& store, const std::string& study_dir, int retention_days, int window_days,
+                          int64_t now, const PurgeFileSpec& files) {
+  auto planned = PlanPurge(store, study_dir, retention_days, window_days, files);
   if (!planned.ok()) return planned.error();
   PurgeCounts c = planned.value();
   bool anything = c.employers + c.secrets + c.notes + c.mail_excerpts > 0 || !c.deleted_files.empty() ||
                   !c.vacancy_columns.empty();
   if (anything && now < ParseIsoTime(c.retention_ends).value_or(0))
-    return BadInput("", "the retention period has not ended: fieldwork ended " + c.fieldwork_end + " and " +
+    return BadInput("", "the retention period has not ended: the fieldwork " +
+                            std::string(now >= ParseIsoTime(c.fieldwork_end).value_or(0) ? "ended " : "ends ") +
+                            c.fieldwork_end + " (" + c.fieldwork_end_what + ") and " +
                             std::to_string(retention_days) + " days of retention run until " + c.retention_ends,
                     "wait until then (see 'twinprobe purge --dry-run'), or change [ethics].retention_days only "
                     "with your board's consent");

@@ -54,16 +54,18 @@ struct PurgeCounts {
   // the vacancies): purge did not write them, so it names them and leaves
   // them to the user. Relative to the study folder, sorted.
   std::vector<std::string> files_naming_employers;
-  std::string fieldwork_end;   // ISO time the retention period counts from
+  std::string fieldwork_end;   // ISO time the retention period counts from ("" when nothing was recorded)
+  std::string fieldwork_end_what;  // which event set it, in words (ReadFieldworkEnd)
   std::string retention_ends;  // ISO time purge becomes allowed
   bool already_purged = false;
 };
 
 // Counts what a purge would delete or rewrite in the study folder
-// `study_dir` and its store, and when it becomes allowed. Fieldwork ends at
-// the latest sending, response or listing fetch recorded. Fails (bad input)
-// when the vacancies file cannot be read as CSV.
-Result<PurgeCounts> PlanPurge(Store& store, const std::string& study_dir, int retention_days,
+// `study_dir` and its store, and when it becomes allowed: `retention_days`
+// after the fieldwork ends (ReadFieldworkEnd, with the design's observation
+// window `window_days`). Fails (bad input) when the vacancies file cannot
+// be read as CSV.
+Result<PurgeCounts> PlanPurge(Store& store, const std::string& study_dir, int retention_days, int window_days,
                               const PurgeFileSpec& files = {});
 
 // Performs the purge. Refuses (bad input) before the retention period has
@@ -71,7 +73,7 @@ Result<PurgeCounts> PlanPurge(Store& store, const std::string& study_dir, int re
 // file is written beside the old one first; the store part is one audited
 // transaction; only after it committed is the vacancies file replaced and
 // are files deleted. A refusal leaves store and folder unchanged.
-Result<PurgeCounts> Purge(Store& store, const std::string& study_dir, int retention_days, int64_t now,
-                          const PurgeFileSpec& files = {});
+Result<PurgeCounts> Purge(Store& store, const std::string& study_dir, int retention_days, int window_days,
+                          int64_t now, const PurgeFileSpec& files = {});
 
 }  // namespace twinprobe

@@ -1,5 +1,6 @@
 #include "core/purge_records.h"
 
+#include "core/clock.h"
 #include "core/store.h"
 
 namespace twinprobe {
@@ -13,12 +14,32 @@ PurgeableRows CountPurgeableRows(Store& store) {
   return c;
 }
 
-std::optional<std::string> ReadFieldworkEnd(Store& store) {
-  Stmt end = store.Prepare(
-      "SELECT max(t) FROM (SELECT max(sent_at) AS t FROM sending UNION ALL SELECT max(received_at) FROM response "
-      "UNION ALL SELECT max(fetched_at) FROM listing)");
-  if (!end.Step() || end.IsNull(0)) return std::nullopt;
-  return end.Text(0);
+std::optional<FieldworkEnd> ReadFieldworkEnd(Store& store, int window_days) {
+  const std::string window = std::to_string(window_days) + "-day window";
+  const int64_t window_s = static_cast<int64_t>(window_days) * 86400;
+  // (query, seconds added, what it means); the latest wins, the first on a tie.
+  const struct {
+    const char* sql;
+    int64_t add;
+    std::string what;
+  } candidates[] = {
+      {"SELECT max(first) FROM (SELECT min(sent_at) AS first FROM sending GROUP BY probe_id)", window_s,
+       "the last application sent closes its " + window},
+      {"SELECT max(planned_at) FROM probe WHERE plan_id = (SELECT max(id) FROM plan) "
+       "AND id NOT IN (SELECT probe_id FROM sending)",
+       window_s, "the last application planned but not yet sent would close its " + window},
+      {"SELECT max(received_at) FROM response", 0, "the last answer was received"},
+      {"SELECT max(fetched_at) FROM listing", 0, "the last listing page was fetched"},
+  };
+  std::optional<FieldworkEnd> end;
+  for (const auto& c : candidates) {
+    Stmt s = store.Prepare(c.sql);
+    if (!s.Step() || s.IsNull(0)) continue;
+    const auto t = ParseIsoTime(s.Text(0));
+    if (!t) continue;
+    if (!end || *t + c.add > end->at) end = FieldworkEnd{*t + c.add, c.what};
+  }
+  return end;
 }
 
 std::map<std::string, std::string> ReadVacancyEmployerKeys(Store& store) {

@@ -20,9 +20,18 @@ struct PurgeableRows {
 };
 
 PurgeableRows CountPurgeableRows(Store& store);
-// The latest sending, response or listing fetch time; none when the store
-// holds none of them.
-std::optional<std::string> ReadFieldworkEnd(Store& store);
+// When the fieldwork ends, which is when the retention period starts: the
+// latest of the last application's window end (its first sending plus
+// `window_days`), the window end of the last application planned but not
+// yet sent (its planned time plus the window: the fieldwork is not over
+// while the schedule still has applications to send), the last answer
+// received and the last listing fetched. None when the store holds none of
+// them. `what` says which one it was, in words for the purge message.
+struct FieldworkEnd {
+  int64_t at = 0;  // epoch seconds
+  std::string what;
+};
+std::optional<FieldworkEnd> ReadFieldworkEnd(Store& store, int window_days);
 // Vacancy reference -> employer pseudonym ("" when none) of the current
 // plan: what purge writes into the vacancies file in place of the names.
 std::map<std::string, std::string> ReadVacancyEmployerKeys(Store& store);

@@ -34,6 +34,10 @@ a:focus, button:focus, input:focus, select:focus, textarea:focus { outline: 3px 
 .notice { padding: 8px 12px; margin: 10px 0; max-width: 78ch; }
 .notice.ok { border-left: 5px solid #009E73; background: #eef8f4; }
 .notice.error { border-left: 5px solid var(--warn); background: #fff4ec; }
+/* The skip link (WCAG 2.1, success criterion 2.4.1 "Bypass Blocks"): the
+   first stop of the Tab key, shown only while it has the focus. */
+a.skip { position: absolute; left: -10000px; top: 8px; background: #fff; padding: 6px 10px; z-index: 10; }
+a.skip:focus { left: 8px; }
 .visually-hidden { position: absolute; width: 1px; height: 1px; overflow: hidden; clip: rect(0 0 0 0); white-space: nowrap; }
 /* position: relative keeps the visually hidden labels inside the scrolling
    box; without it they widened a 360-pixel page to 880 pixels. */
@@ -91,7 +95,7 @@ std::string RenderPage(const PageFrame& frame, const std::string& body_html) {
       "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n"
       "<title>" +
       EscapeHtml(frame.title) + " \xe2\x80\x94 desk</title>\n<style>" + ReportCss() + kDeskCss +
-      "</style>\n</head>\n<body>\n<header class=\"desk\"><span class=\"study\">" + UserText(frame.study_title) +
+      "</style>\n</head>\n<body>\n<a class=\"skip\" href=\"#main\">Skip to the page's content</a>\n<header class=\"desk\"><span class=\"study\">" + UserText(frame.study_title) +
       "</span>";
   if (!frame.member.empty()) {
     h += "<span class=\"who\">Signed in as&nbsp;<strong>" + UserText(frame.member) +
@@ -108,7 +112,8 @@ std::string RenderPage(const PageFrame& frame, const std::string& body_html) {
            label + "</a></li>";
     h += "</ul></nav>\n";
   }
-  h += "<main>\n<h1>" + EscapeHtml(frame.title) + "</h1>\n" + body_html + "</main>\n</body>\n</html>\n";
+  // tabindex -1: the skip link moves the keyboard focus here, not only the view.
+  h += "<main id=\"main\" tabindex=\"-1\">\n<h1>" + EscapeHtml(frame.title) + "</h1>\n" + body_html + "</main>\n</body>\n</html>\n";
   return h;
 }
 

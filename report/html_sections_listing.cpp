@@ -80,8 +80,8 @@ std::string ListingComparisons(const AnalysisResult& r, const ReportContext&) {
   if (a.overall.empty()) return "";
   HtmlTable t;
   t.caption = "Reference level against each other level, over all lists";
-  t.headers = {"factor", "comparison", "places", "exposure gap", "p (permutation)", "earth mover's distance",
-               "p (permutation)", "Mann\u2013Whitney p"};
+  t.headers = {"factor", "comparison", "places", "exposure gap", "p (permutation, two-sided)",
+               "earth mover's distance", "p (permutation, larger distance)", "Mann\u2013Whitney p (descriptive)"};
   for (const auto& c : a.overall)
     t.rows.push_back({HeadCell(c.factor), Cell(c.reference + " vs " + c.other),
                       NumCell(std::to_string(c.n_reference) + " / " + std::to_string(c.n_other)),

@@ -39,22 +39,34 @@ std::string WhatWasTested(const AnalysisResult& r) {
   for (const auto& a : r.arms) arms.push_back(ArmName(a.label));
   o << "This study asked whether employers answer job applications differently depending on the applicant's "
     << (factors.empty() ? std::string("group") : Join(factors, " and ")) << ". ";
+  // "went to" only once every planned application was sent (or carries an
+  // imported outcome); before that the study says what is planned and how
+  // far the sending has come.
+  const bool all_sent = r.flow.sets_sent == r.vacancies;
   if (r.kind == "unpaired") {
-    o << "Fictitious applications with equivalent qualifications " << (r.probes_sent == 0 ? "are planned for " : "went to ")
+    o << "Fictitious applications with equivalent qualifications " << (all_sent ? "went to " : "are planned for ")
       << Count(r.vacancies, "vacancy", "vacancies")
       << ", one application per vacancy, from applicants who differed only in that respect ("
       << Join(arms, " or ") << ").";
   } else {
     o << "Sets of fictitious applications, equal in qualifications and differing only in that respect, "
-      << (r.probes_sent == 0 ? "are planned for " : "went to ") << Count(r.vacancies, "vacancy", "vacancies")
-      << (r.probes_sent == 0 ? ": each vacancy is to receive " : ": each vacancy received ");
+      << (all_sent ? "went to " : "are planned for ") << Count(r.vacancies, "vacancy", "vacancies")
+      << (all_sent ? ": each vacancy received " : ": each vacancy is to receive ");
     if (arms.size() == 2)
       o << "one application from " << Article(arms[0]) << " applicant and one from " << Article(arms[1]) << " applicant.";
     else o << "one application from each group (" << Join(arms, " and ") << ").";
   }
+  if (!all_sent && r.probes_sent > 0)
+    o << " So far " << Count(r.probes_sent, "application has", "applications have") << " been sent, and "
+      << Count(r.flow.sets_sent, "vacancy has", "vacancies have") << " received "
+      << (r.kind == "unpaired" ? (r.flow.sets_sent == 1 ? "its application." : "their application.")
+                               : (r.flow.sets_sent == 1 ? "every application of its set." : "every application of their set."));
   if (!r.design.first_sent_at.empty())
-    o << " Applications were sent between " << r.design.first_sent_at.substr(0, 10) << " and "
-      << r.design.last_sent_at.substr(0, 10) << ", and answers were counted for " << r.design.window_days
+    o << " Applications were sent "
+      << (r.design.first_sent_at.substr(0, 10) == r.design.last_sent_at.substr(0, 10)
+              ? "on " + r.design.first_sent_at.substr(0, 10)
+              : "between " + r.design.first_sent_at.substr(0, 10) + " and " + r.design.last_sent_at.substr(0, 10))
+      << ", and answers were counted for " << r.design.window_days
       << " days after each application.";
   if (r.probes_sent == 0 && r.responses == 0) return o.str();  // nothing sent: no count of sets used or left out
   o << " " << Count(r.sets_analysed, "set was", "sets were") << " complete and analysed";
@@ -149,7 +161,7 @@ std::string Headline(const AnalysisResult& r) {
     const auto& c = r.listings.overall.front();
     return "In " + std::to_string(r.listings.listings) + " ranked lists, " + c.reference + " items " +
            (c.exposure_gap >= 0 ? "received more" : "received less") + " attention than " + c.other +
-           " items (permutation test " + PEquals(c.gap_p) + ").";
+           " items (permutation test, two-sided, " + PEquals(c.gap_p) + ").";
   }
   if (const std::string early = EarlyStateSentence(r); !early.empty()) return early;
   if (r.sets_analysed == 0 || r.arms.empty()) return "No complete set of applications has been analysed yet.";
@@ -216,7 +228,7 @@ std::vector<SummaryParagraph> ListingOnlySummary(const AnalysisResult& r) {
     char gap[32];
     std::snprintf(gap, sizeof gap, "%+.4f", c.exposure_gap);
     found << "The exposure gap between " << c.reference << " and " << c.other << " items was " << gap
-          << " (permutation test " << PEquals(c.gap_p) << "). ";
+          << " (permutation test, two-sided, " << PEquals(c.gap_p) << "). ";
   }
   return {{"What was tested", tested.str()},
           {"What was found", found.str()},

@@ -187,8 +187,9 @@ std::string RenderListingText(const ListingAudit& a, double alpha, bool heading)
     o << "  " << c.factor << ": " << c.reference << " vs " << c.other << " (" << c.n_reference << " and " << c.n_other
       << " places)\n";
     o << "    exposure gap " << Signed(c.exposure_gap, 4) << " (" << c.reference << " - " << c.other
-      << "), " << PEquals(c.gap_p) << "\n";
-    o << "    earth mover's distance " << Fixed(c.emd, 2) << " places, " << PEquals(c.emd_p)
+      << "), permutation test, two-sided, " << PEquals(c.gap_p) << "\n";
+    o << "    earth mover's distance " << Fixed(c.emd, 2) << " places, permutation test (a larger distance is more "
+      << "extreme), " << PEquals(c.emd_p)
       << "; Mann-Whitney test on positions (two-sided, descriptive only: places are not independent and items\n"
       << "    recur) " << PEquals(c.mann_whitney_p) << "\n";
     for (const auto& p : a.paired)

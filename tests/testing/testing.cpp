@@ -56,8 +56,12 @@ std::string SourceDir() { return TWINPROBE_SOURCE_DIR; }
 std::string BinaryPath() { return TWINPROBE_BIN; }
 
 CliRun RunCli(const std::vector<std::string>& args, const std::vector<std::string>& env) {
+  return RunCliIn("", args, env);
+}
+
+CliRun RunCliIn(const std::string& dir, const std::vector<std::string>& args, const std::vector<std::string>& env) {
   TempDir io;
-  std::string cmd;
+  std::string cmd = dir.empty() ? "" : "cd " + ShellQuote(dir) + " && ";
   for (const auto& e : env) cmd += e + " ";
   cmd += ShellQuote(BinaryPath());
   for (const auto& a : args) cmd += " " + ShellQuote(a);

@@ -30,6 +30,10 @@ struct CliRun {
 // ("NAME=value") prepended. Standard input is /dev/null.
 CliRun RunCli(const std::vector<std::string>& args, const std::vector<std::string>& env = {});
 
+// RunCli with `dir` as the current folder, so relative paths in `args`
+// resolve there (as a user's shell would).
+CliRun RunCliIn(const std::string& dir, const std::vector<std::string>& args, const std::vector<std::string>& env = {});
+
 // Starts `twinprobe ARGS...` in the background (stdout/stderr to /dev/null,
 // `env` entries "NAME=value" added to the environment); returns its pid.
 int SpawnCli(const std::vector<std::string>& args, const std::vector<std::string>& env = {});
