@@ -24,12 +24,12 @@ std::optional<FieldworkEnd> ReadFieldworkEnd(Store& store, int window_days) {
     std::string what;
   } candidates[] = {
       {"SELECT max(first) FROM (SELECT min(sent_at) AS first FROM sending GROUP BY probe_id)", window_s,
-       "the last application sent closes its " + window},
+       "the " + window + " of the last application sent"},
       {"SELECT max(planned_at) FROM probe WHERE plan_id = (SELECT max(id) FROM plan) "
        "AND id NOT IN (SELECT probe_id FROM sending)",
-       window_s, "the last application planned but not yet sent would close its " + window},
-      {"SELECT max(received_at) FROM response", 0, "the last answer was received"},
-      {"SELECT max(fetched_at) FROM listing", 0, "the last listing page was fetched"},
+       window_s, "the " + window + " of the last application planned but not yet sent"},
+      {"SELECT max(received_at) FROM response", 0, "the last answer received"},
+      {"SELECT max(fetched_at) FROM listing", 0, "the last listing page fetched"},
   };
   std::optional<FieldworkEnd> end;
   for (const auto& c : candidates) {

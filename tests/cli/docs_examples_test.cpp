@@ -62,6 +62,9 @@ std::vector<Example> Examples(const std::string& markdown) {
       current->output.push_back(line);
     }
   }
+  // A blank line before the next command separates examples; it is not output.
+  for (auto& e : out)
+    while (!e.output.empty() && e.output.back().empty()) e.output.pop_back();
   return out;
 }
 

@@ -33,7 +33,7 @@ TEST_CASE("mail cli: reads the design's mailboxes, logs, and records no response
   CHECK(Contains(r.out, "To assign by hand (3), no single probe fits:\n"));
   CHECK(Contains(r.out,
                  "  message 9  unmatched  no profile's mailbox is among the recipients, the senders or the text\n"));
-  CHECK(Contains(r.out, "No response was recorded. Next: 'twinprobe review' shows the queue with the evidence.\n"));
+  CHECK(Contains(r.out, "No response was recorded. Next: 'twinprobe --study " + s.study + " review' shows the queue with the evidence.\n"));
   auto store = s.Open();
   CHECK(store->QueryInt("SELECT count(*) FROM response") == 0);
   CHECK(store->QueryInt("SELECT count(*) FROM mail_message") == 12);

@@ -101,7 +101,8 @@ TEST_CASE("issue 17: after purge no file of the demo's folder names an employer 
   CHECK(dry.exit_code == 0);
   CHECK(dry.out == "Purge would delete: 400 employer identities, 0 free-text notes, 0 mail excerpts, 0 raw snapshots, "
                    "1 rendered material file, 0 mailbox files.\n"
-                   "Fieldwork ended 2027-04-11T11:19:48Z; the retention period ended 2028-04-10T11:19:48Z.\n"
+                   "The fieldwork ended 2027-04-26T14:59:00Z (the 28-day window of the last application sent); the retention "
+                   "period ended 2028-04-25T14:59:00Z.\n"
                    "It would touch:\n  " +
                        demo + "/study.db: tables employer and secret emptied; columns response.note and "
                               "mail_message.excerpt cleared\n  " +
