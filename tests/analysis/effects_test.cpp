@@ -124,7 +124,18 @@ TEST_CASE("effects: sets with three arms compare each arm with the reference and
   CHECK(e.comparisons[1].pairs.c == 0);
   CHECK(e.comparisons[0].p_adjusted == std::min(1.0, 2 * stats::McNemar({0, 10, 2, 20}).exact.p));
   CHECK(e.comparisons[1].p_adjusted == 1.0);
-  CHECK(e.across.size() == 2);  // one column x two comparisons
+  // One region value only: nothing to stratify by (issue 16), so no
+  // per-value rows and no test across values, but the column is named.
+  CHECK(e.across.empty());
+  CHECK(e.strata.empty());
+  REQUIRE(e.single_strata.size() == 1);
+  CHECK(e.single_strata[0].column == "region");
+  CHECK(e.single_strata[0].value == "A");
+  AddSets(in, 1, {{0, true}, {1, false}, {2, false}}, "B");
+  Effects two = ComputeEffects(in);
+  CHECK(two.across.size() == 2);  // one column x two comparisons
+  CHECK(two.strata.size() == 4);  // two values x two comparisons
+  CHECK(two.single_strata.empty());
 }
 
 TEST_CASE("effects: an unpaired study uses Fisher, Woolf and Wilson per arm against the reference") {
