@@ -12,6 +12,7 @@
 #include <filesystem>
 #include <map>
 #include <regex>
+#include <set>
 
 #include <nlohmann/json.hpp>
 
@@ -324,6 +325,11 @@ TEST_CASE("field season: a 200-vacancy paired study through time agrees with the
   season.Cli({"render"}, t0 + kDay);
   const std::string deviations = season.Cli({"analyze"}, t0 + kDay).out;
   CHECK(deviations.find("The analysis follows the frozen plan: no deviation.") == std::string::npos);
+  std::set<std::string> kinds;
+  const auto replanned = nlohmann::json::parse(season.Cli({"--json", "analyze"}, t0 + kDay).out);
+  for (const auto& d : replanned["preregistration"]["deviations"]) kinds.insert(d["kind"].get<std::string>());
+  CHECK(kinds.count("design_edited") == 1);
+  CHECK(kinds.count("plan_from_other_design") == 1);
 
   // The ledger: sets 0-149 sent in full (the reference on day i/10 of
   // March, the other a day later), 150-159 only the reference, 160-199
