@@ -1,5 +1,6 @@
 #include "analysis/analyze.h"
 
+#include <algorithm>
 #include <map>
 
 #include "analysis/listing_reference.h"
@@ -100,6 +101,11 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   if (!listings.ok()) return listings.error();
   r.listings = listings.value();
   r.effects = ComputeEffects(effects_in);
+  // The paired table by stratum follows the same rule: no one-row table for a column with one value.
+  std::erase_if(r.strata, [&](const StratumTable& t) {
+    return std::any_of(r.effects.single_strata.begin(), r.effects.single_strata.end(),
+                       [&](const SingleStratum& one) { return one.column == t.name; });
+  });
   r.design = SummariseDesign(f, stored);
   r.response_times = ComputeResponseTimes(f, scheme);
   r.employers = paired ? SummariseEmployers(f.employers) : EmployerOutcomes{};

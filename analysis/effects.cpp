@@ -78,6 +78,10 @@ Effects ComputeEffects(const EffectsInput& in) {
   for (const auto& s : in.sets)
     for (const auto& [column, value] : s.strata) by_column[column][value].push_back(&s);
   for (const auto& [column, values] : by_column) {
+    if (values.size() < 2) {  // one value: nothing to stratify by
+      e.single_strata.push_back({column, values.begin()->first});
+      continue;
+    }
     for (int other = 1; other < arms; ++other) {
       AcrossStrata across;
       across.column = column;

@@ -110,8 +110,16 @@ struct AcrossStrata {
   stats::BreslowDayResult breslow_day;
 };
 
+// A stratum column whose analysed sets all share one value: a stratified
+// analysis needs at least two values, so the column gets no per-value rows
+// and no test across values, only a sentence (report/fieldwork_state.h).
+struct SingleStratum {
+  std::string column, value;
+};
+
 struct Effects {
   std::string correction;  // the method actually applied ("none" when the design says none)
+  std::vector<SingleStratum> single_strata;  // columns left out of the stratified analysis, by column
   std::vector<ArmComparison> comparisons;  // one per non-reference arm, adjusted across arms
   std::vector<StratumComparison> strata;   // per column, comparison and value; adjusted within column x comparison
   std::vector<AcrossStrata> across;        // per column and comparison

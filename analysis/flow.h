@@ -14,7 +14,7 @@
 namespace twinprobe {
 
 struct FlowExclusion {
-  std::string reason;  // not_sent | incomplete | still_open
+  std::string reason;  // not_sent | incomplete | withdrawn | still_open
   std::string label;   // plain words for the text and the diagram
   int64_t sets = 0;
 };

@@ -34,6 +34,7 @@ void RegisterRender(CLI::App& app, Context& ctx);           // render_cmd.cpp
 void RegisterSchedule(CLI::App& app, Context& ctx);         // schedule_cmd.cpp
 void RegisterCollectCommands(CLI::App& app, Context& ctx);  // sent, record (collect_cmds.cpp)
 void RegisterImportCommands(CLI::App& app, Context& ctx);   // import outcomes|pairs|ranks|labels (import_cmds.cpp)
+void RegisterWithdraw(CLI::App& app, Context& ctx);         // withdraw_cmd.cpp
 void RegisterHistory(CLI::App& app, Context& ctx);          // history_cmd.cpp
 void RegisterDesk(CLI::App& app, Context& ctx);             // desk (desk_cmd.cpp)
 void RegisterMailCommand(CLI::App& app, Context& ctx);      // mail_cmd.cpp

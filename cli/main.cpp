@@ -27,6 +27,7 @@ constexpr Registrar kCommandGroups[] = {
     &RegisterSchedule,         // schedule
     &RegisterCollectCommands,  // sent, record
     &RegisterImportCommands,   // import outcomes|pairs|ranks|labels
+    &RegisterWithdraw,         // withdraw
     &RegisterHistory,          // history
     &RegisterDesk,             // desk
     &RegisterMailCommand,      // mail

@@ -14,6 +14,7 @@
 #include "core/clock.h"
 #include "core/csv.h"
 #include "core/export_records.h"
+#include "core/fieldwork.h"
 #include "core/meta.h"
 #include "core/read_listings.h"
 #include "core/safe_write.h"
@@ -200,19 +201,20 @@ Status WriteVacancies(Store& store, int64_t plan_id, const std::vector<std::stri
   return sink.End();
 }
 
-Status WriteProbes(Store& store, int64_t plan_id, const OutcomeScheme& scheme,
+Status WriteProbes(Store& store, int64_t plan_id, const OutcomeScheme& scheme, int64_t now,
                    const std::vector<std::string>& strata_names,
                    const std::unordered_map<int64_t, std::vector<std::string>>& strata, bool identities,
                    TableSink& sink, int64_t& count) {
   std::vector<std::string> fixed = {"probe", "vacancy", "arm", "reference", "profile"};
   if (identities) fixed.insert(fixed.end(), {"profile_mailbox", "profile_phone"});
   fixed.insert(fixed.end(), {"template", "send_order", "planned_at", "sent_at", "outcome", "positive", "received_at",
-                             "channel", "late", "responses"});
+                             "channel", "late", "responses", "state"});
   std::vector<std::string> columns = fixed;
   for (const auto& n : strata_names) columns.push_back(StratumColumn(n, fixed));
   Status s = sink.Begin("probes", columns);
   if (!s.ok()) return s;
   std::vector<Cell> cells;
+  // `late` and `state` by the one window rule (core/fieldwork.h) at the study clock.
   ForEachExportProbe(store, plan_id, [&](const ExportProbeRow& p) {
     cells.clear();
     cells.push_back(Cell::Text(p.ref));
@@ -233,8 +235,13 @@ Status WriteProbes(Store& store, int64_t plan_id, const OutcomeScheme& scheme,
     cells.push_back(answered ? Cell::Bool(scheme.is_positive(*p.code)) : Cell{});
     cells.push_back(Cell::OptText(p.received_at));
     cells.push_back(Cell::OptText(p.channel));
-    cells.push_back(answered ? Cell::Bool(p.flags.value_or("").find("late") != std::string::npos) : Cell{});
+    ProbeClock clock;
+    if (p.first_sent_at) clock.sent_at = ParseIsoTime(*p.first_sent_at);
+    clock.answered = answered && *p.code != "none";
+    if (clock.answered && p.received_at) clock.answered_at = ParseIsoTime(*p.received_at);
+    cells.push_back(answered ? Cell::Bool(IsLate(clock, scheme.window_days)) : Cell{});
     cells.push_back(Cell::Int(p.responses));
+    cells.push_back(Cell::Text(ProbeStateName(StateOf(clock, now, scheme.window_days, answered, p.withdrawn))));
     AddStrata(cells, strata, p.vacancy_id, strata_names.size());
     sink.Row(cells);
     ++count;
@@ -369,7 +376,9 @@ Result<ExportSummary> ExportStudy(Store& store, const OutcomeScheme& scheme, con
   auto write_tables = [&](TableSink& sink) -> Status {
     if (!plan) return WriteListings(listings, sink, summary.listing_places);
     Status s = WriteVacancies(store, plan_id, strata_names, strata, o.identities, sink, summary.vacancies);
-    if (s.ok()) s = WriteProbes(store, plan_id, scheme, strata_names, strata, o.identities, sink, summary.probes);
+    if (s.ok())
+      s = WriteProbes(store, plan_id, scheme, o.now.value_or(NowEpoch()), strata_names, strata, o.identities, sink,
+                      summary.probes);
     if (s.ok()) s = WriteResponses(store, plan_id, scheme, o.identities, sink, summary.responses);
     return s;
   };

@@ -20,6 +20,7 @@
 // Values: missing is an empty CSV field / JSON null; yes-no columns are 1/0
 // in CSV and true/false in JSON; times are UTC ISO 8601 text.
 #include <cstdint>
+#include <optional>
 #include <string>
 
 #include "core/design.h"
@@ -32,6 +33,9 @@ struct ExportOptions {
   bool identities = false;
   std::string format = "csv";  // csv: a folder of files; json: one document
   bool raw_cells = false;      // csv: no "'" before cells beginning with = + - @ tab CR
+  // The study clock for probes.csv's `state` (core/fieldwork.h, the rule
+  // analyze counts by); nullopt: NowEpoch() (the computer's, or $TWINPROBE_NOW).
+  std::optional<int64_t> now;
 };
 
 struct ExportSummary {

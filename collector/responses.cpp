@@ -8,6 +8,7 @@
 #include "core/response_records.h"
 #include "core/sending_records.h"
 #include "core/suggest.h"
+#include "core/withdrawal_records.h"
 
 namespace twinprobe {
 namespace {
@@ -121,6 +122,10 @@ Result<SendingRecord> RecordSending(Store& store, const std::string& probe_ref, 
   std::string text = sent_at.empty() ? write.at() : sent_at;
   auto t = ParseEventTime(text);
   if (!t) return BadInput("", "'" + text + "' is not a date or time", kTimeFormat);
+  if (auto w = WithdrawalOfProbe(store, probe_id); w && LastSentAt(store, probe_id).empty())
+    return BadInput("", probe_ref + " belongs to vacancy " + w->vacancy_ref + ", withdrawn at " + w->withdrawn_at +
+                            " (" + w->reason + "), so it is not to be sent",
+                    "send only what 'twinprobe schedule' lists; a withdrawn vacancy's unsent applications are left out");
   SendingRecord out;
   out.probe_ref = probe_ref;
   out.sent_at = t->text();

@@ -22,6 +22,10 @@ std::string DeclineSummary(std::string_view probe_ref, std::string_view declined
   return "decline " + std::string(probe_ref) + " at " + std::string(declined_at);
 }
 
+std::string WithdrawSummary(std::string_view vacancy_ref, std::string_view withdrawn_at, std::string_view reason) {
+  return "withdraw " + std::string(vacancy_ref) + " at " + std::string(withdrawn_at) + ": " + std::string(reason);
+}
+
 std::string ReviewDismissedSummary(int64_t message_id) {
   return "review message " + std::to_string(message_id) + ": dismissed (no response recorded)";
 }

@@ -33,4 +33,8 @@ std::string ReviewRecordedSummary(int64_t message_id, std::string_view decision,
 // `import outcomes`: "import outcomes FILE: 3 rows landed, 1 rejected".
 std::string ImportOutcomesSummary(std::string_view path, int64_t rows_landed, int64_t rows_rejected);
 
+// `withdraw`: "withdraw V0017 at 2027-03-04T15:30:00Z: the posting closed";
+// the reason as given (one line; the command refuses line breaks).
+std::string WithdrawSummary(std::string_view vacancy_ref, std::string_view withdrawn_at, std::string_view reason);
+
 }  // namespace twinprobe

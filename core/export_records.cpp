@@ -72,7 +72,9 @@ void ForEachExportProbe(Store& store, int64_t plan_id, const std::function<void(
       "  p.send_order, p.planned_at, "
       "  (SELECT s.sent_at FROM sending s WHERE s.probe_id = p.id ORDER BY s.id DESC LIMIT 1), "
       "  r.code, r.received_at, r.channel, r.flags, "
-      "  (SELECT count(*) FROM response c WHERE c.probe_id = p.id), p.vacancy_id "
+      "  (SELECT count(*) FROM response c WHERE c.probe_id = p.id), p.vacancy_id, "
+      "  (SELECT s.sent_at FROM sending s WHERE s.probe_id = p.id ORDER BY s.sent_at LIMIT 1), "
+      "  EXISTS (SELECT 1 FROM withdrawal w WHERE w.vacancy_id = p.vacancy_id) "
       "FROM probe p JOIN vacancy v ON v.id = p.vacancy_id JOIN arm a ON a.id = p.arm_id "
       "LEFT JOIN profile pr ON pr.id = p.profile_id "
       "LEFT JOIN response r ON r.id = (SELECT cr.id FROM current_response cr WHERE cr.probe_id = p.id "
@@ -99,6 +101,8 @@ void ForEachExportProbe(Store& store, int64_t plan_id, const std::function<void(
     r.flags = q.OptText(15);
     r.responses = q.Int(16);
     r.vacancy_id = q.Int(17);
+    r.first_sent_at = q.OptText(18);
+    r.withdrawn = q.Int(19) != 0;
     fn(r);
   }
 }

@@ -38,6 +38,8 @@ struct ExportProbeRow {
   int64_t send_order = 0;
   std::optional<std::string> planned_at;
   std::optional<std::string> sent_at;  // the newest sending
+  std::optional<std::string> first_sent_at;  // the first sending (the window runs from it)
+  bool withdrawn = false;                    // its vacancy was withdrawn
   // The current response (all none when the probe has none).
   std::optional<std::string> code, received_at, channel, flags;
   int64_t responses = 0;  // every response row, superseded ones included

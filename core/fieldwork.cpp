@@ -128,6 +128,22 @@ std::optional<int64_t> ClosesAt(const ProbeClock& p, int window_days) {
   return *p.sent_at + int64_t{window_days} * 86400;
 }
 
+ProbeState StateOf(const ProbeClock& p, int64_t now, int window_days, bool has_outcome, bool withdrawn) {
+  if (withdrawn) return ProbeState::kWithdrawn;
+  if (!p.sent_at && !has_outcome) return ProbeState::kNotSent;
+  return IsClosed(p, now, window_days, has_outcome) ? ProbeState::kClosed : ProbeState::kOpen;
+}
+
+const char* ProbeStateName(ProbeState state) {
+  switch (state) {
+    case ProbeState::kNotSent: return "not_sent";
+    case ProbeState::kOpen: return "open";
+    case ProbeState::kClosed: return "closed";
+    case ProbeState::kWithdrawn: return "withdrawn";
+  }
+  return "";
+}
+
 Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const FieldworkOptions& options) {
   Fieldwork f;
   const int64_t now = options.now.value_or(NowEpoch());
@@ -161,6 +177,15 @@ Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const Fieldwo
     while (s.Step()) superseded.insert(s.Int(0));
   }
 
+  // Withdrawn vacancies are few: their ids fit in memory.
+  std::unordered_set<int64_t> withdrawn;
+  {
+    Stmt w = store.Prepare(
+        "SELECT DISTINCT w.vacancy_id FROM withdrawal w JOIN vacancy v ON v.id = w.vacancy_id WHERE v.plan_id = ?1");
+    w.Bind(1, f.plan_id);
+    while (w.Step()) withdrawn.insert(w.Int(0));
+  }
+
   std::unordered_map<std::string, int32_t> code_index;
   auto intern = [&](const std::string& code) {
     auto [it, added] = code_index.emplace(code, static_cast<int32_t>(f.codes.size()));
@@ -176,12 +201,22 @@ Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const Fieldwo
   std::string key;
 
   int64_t set_vacancy = -1;
+  bool set_withdrawn = false;
   int64_t set_completed_at = 0;
   std::vector<SetProbe> set_probes;
 
   auto finish_set = [&] {
     if (set_vacancy < 0) return;
     const bool known = vacancy_cursor.MoveTo(set_vacancy);
+    if (set_withdrawn) {  // out of every analysed tally; still in the plan's balance tables
+      ++f.sets_withdrawn;
+      if (known)
+        for (const auto& [column, value] : vacancy_cursor.strata())
+          for (const SetProbe& p : set_probes) ++f.balance.strata[column][{p.arm, value}];
+      set_probes.clear();
+      set_completed_at = 0;
+      return;
+    }
     const auto& strata = known ? vacancy_cursor.strata() : kNoStrata;
     const bool complete = IsSetComplete(set_probes);
     const bool all_sent = std::all_of(set_probes.begin(), set_probes.end(),
@@ -261,13 +296,13 @@ Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const Fieldwo
     const bool open = first && has_sent_epoch && !IsClosed(clock, now, window_days, current != nullptr);
     SetProbe probe{pr.arm, first != nullptr, current != nullptr && !late,
                    current && !late && scheme.is_positive(current->code), open, late};
-    if (late) ++f.responses_late;
-    if (open) ++f.probes_open;
+    if (late && !set_withdrawn) ++f.responses_late;
+    if (open && !set_withdrawn) ++f.probes_open;
     ++f.probes_planned;
     ++f.arms[static_cast<size_t>(pr.arm)].probes_planned;
     if (probe.sent) ++f.probes_sent;
     if (probe.has_response) ++f.responses;
-    if (first) {
+    if (first && !set_withdrawn) {
       sp.code = current && !late ? intern(current->code) : 0;
       sp.open = open;
       if (!std::isnan(sp.first_any_days)) sp.untimed_response = false;
@@ -313,6 +348,7 @@ Fieldwork ReadFieldwork(Store& store, const OutcomeScheme& scheme, const Fieldwo
       if (v != set_vacancy) {
         finish_set();
         set_vacancy = v;
+        set_withdrawn = withdrawn.count(v) > 0;
       }
       pr.id = probe_id;
       pr.arm = arm_index.at(q.Int(2));

@@ -20,6 +20,13 @@
 // - A set is complete (analysable) when every probe of it is closed:
 //   IsSetComplete. A set whose probes were all sent but one is still open is
 //   open, counted apart (Fieldwork::sets_open).
+// - A withdrawn set (its vacancy has a withdrawal: the posting closed, the
+//   employer saw through the test, an error in the listing) is neither open
+//   nor analysable, whatever its probes' state: it is counted apart
+//   (Fieldwork::sets_withdrawn) and left out of every tally below that the
+//   analysis reads (shapes, employers, response times, open and late
+//   counts). Its probes still count as planned and sent, and its responses
+//   as recorded: they stay in the store.
 //
 // Memory: sets are not kept one by one. Sets of the same shape (the same
 // strata values and the same arm/outcome pattern) are counted together, and
@@ -74,6 +81,15 @@ bool IsClosed(const ProbeClock& p, int64_t now, int window_days, bool has_outcom
 // When the probe closed or will close: the in-window answer's time, else
 // sent_at + window. nullopt for an unsent probe.
 std::optional<int64_t> ClosesAt(const ProbeClock& p, int window_days);
+
+// Where one probe stands at the study clock, for a table of probes
+// (`export`): withdrawn (its vacancy was withdrawn: left out whatever else
+// holds), not sent (and no imported outcome), open (IsClosed false) or
+// closed. The same rules ReadFieldwork counts sets by.
+enum class ProbeState { kNotSent, kOpen, kClosed, kWithdrawn };
+ProbeState StateOf(const ProbeClock& p, int64_t now, int window_days, bool has_outcome, bool withdrawn);
+// "not_sent", "open", "closed", "withdrawn".
+const char* ProbeStateName(ProbeState state);
 
 struct FieldworkArm {
   int64_t id = 0;
@@ -152,6 +168,7 @@ struct Fieldwork {
   int64_t sets_open = 0;        // every probe sent or answered, one still within its window
   int64_t sets_incomplete = 0;  // a probe not sent
   int64_t sets_unsent = 0;      // of sets_incomplete: no probe sent (nor answered)
+  int64_t sets_withdrawn = 0;   // their vacancy withdrawn (in none of the counts above)
   int64_t probes_open = 0;      // sent probes still within their window
   int64_t responses_late = 0;   // probes whose current answer came after the window
   int64_t study_clock = 0;      // the `now` the window rule used (epoch seconds)

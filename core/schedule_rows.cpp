@@ -10,6 +10,9 @@ std::vector<ScheduledProbe> ReadScheduleRows(Store& store) {
       "  coalesce((SELECT s.sent_at FROM sending s WHERE s.probe_id = p.id ORDER BY s.id DESC LIMIT 1), '') "
       "FROM current_probe p JOIN vacancy v ON v.id = p.vacancy_id JOIN arm a ON a.id = p.arm_id "
       "LEFT JOIN profile pr ON pr.id = p.profile_id "
+      // A withdrawn vacancy's unsent probes are not to be sent (core/withdrawal_records.h).
+      "WHERE NOT EXISTS (SELECT 1 FROM withdrawal w WHERE w.vacancy_id = p.vacancy_id) "
+      "   OR EXISTS (SELECT 1 FROM sending s WHERE s.probe_id = p.id) "
       "ORDER BY p.planned_at, p.ref");
   std::vector<ScheduledProbe> out;
   while (q.Step())

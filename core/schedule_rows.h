@@ -24,7 +24,8 @@ struct ScheduledProbe {
   std::string sent_at;     // ISO time of the newest `sent` entry, "" when not sent
 };
 
-// The current plan's probes by planned time, then probe reference.
+// The current plan's probes by planned time, then probe reference, without
+// the unsent probes of a withdrawn vacancy (they are not to be sent).
 std::vector<ScheduledProbe> ReadScheduleRows(Store& store);
 
 }  // namespace twinprobe

@@ -321,13 +321,32 @@ CREATE INDEX material_file_probe ON material_file(probe_id);
 CREATE INDEX material_file_seq ON material_file(audit_seq);
 )SQL";
 
+// Version 7: a vacancy withdrawn from the study (the posting closed, the
+// employer saw through the test, an error in the listing), as an
+// append-only event. Its unsent probes leave the schedule and its set leaves
+// the primary analysis (core/fieldwork.h); responses already recorded stay.
+// The first withdrawal of a vacancy counts; a second is refused.
+constexpr const char* kMigration7Withdrawal = R"SQL(
+CREATE TABLE withdrawal(
+  id INTEGER PRIMARY KEY,
+  vacancy_id INTEGER NOT NULL REFERENCES vacancy(id),
+  reason TEXT NOT NULL,
+  withdrawn_at TEXT NOT NULL,
+  entered_by TEXT NOT NULL,
+  entered_at TEXT NOT NULL,
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX withdrawal_vacancy ON withdrawal(vacancy_id);
+CREATE INDEX withdrawal_seq ON withdrawal(audit_seq);
+)SQL";
+
 struct Migration {
   int version;
   const char* sql;
 };
 
 const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigration3}, {4, kMigration4},
-                               {5, kMigration5DeskPassphrase}, {6, kMigration6}};
+                               {5, kMigration5DeskPassphrase}, {6, kMigration6},
+                               {7, kMigration7Withdrawal}};
 
 // sqlite_master without SQLite's own objects (sqlite_autoindex_* follow from
 // the tables' SQL, which is compared; sqlite_stat* only guide the planner).
@@ -391,6 +410,7 @@ const std::vector<SealedTable>& SealedTables() {
       {"listing_replay", {}},
       {"desk_passphrase", {}},
       {"material_file", {}},
+      {"withdrawal", {}},
   };
   return tables;
 }

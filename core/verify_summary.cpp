@@ -19,6 +19,7 @@ struct SummaryRule {
   const char* command;
   const char* sql;
   std::optional<std::string> (*rebuild)(const Stmt& q);
+  int since_version = 1;  // the schema version that made its table (an older store has no such entries)
 };
 
 int64_t IntOr0(const Stmt& q, int col) { return q.IsNull(col) ? 0 : q.Int(col); }
@@ -58,6 +59,18 @@ WHERE a.command = 'decline' ORDER BY a.seq)SQL",
        if (q.IsNull(5)) return std::nullopt;
        return DeclineSummary(q.Text(5), q.Text(6));
      }},
+    {"withdraw", R"SQL(
+SELECT a.seq, a.at, a.actor, a.summary,
+  (SELECT count(*) FROM withdrawal x WHERE x.audit_seq = a.seq) = 1, v.ref, w.withdrawn_at, w.reason
+FROM audit a
+LEFT JOIN withdrawal w ON w.id = (SELECT max(x.id) FROM withdrawal x WHERE x.audit_seq = a.seq)
+LEFT JOIN vacancy v ON v.id = w.vacancy_id
+WHERE a.command = 'withdraw' ORDER BY a.seq)SQL",
+     [](const Stmt& q) -> std::optional<std::string> {
+       if (q.IsNull(5)) return std::nullopt;
+       return WithdrawSummary(q.Text(5), q.Text(6), q.Text(7));
+     },
+     7},
     // A review either dismissed its message and recorded no response, or
     // recorded exactly the one response its decision names.
     {"review", R"SQL(
@@ -93,6 +106,7 @@ WHERE a.command = 'import outcomes' ORDER BY a.seq)SQL",
 std::vector<AuditProblem> CheckSummaries(Store& store) {
   std::vector<AuditProblem> out;
   for (const SummaryRule& rule : kRules) {
+    if (store.schema_version() < rule.since_version) continue;
     Stmt q = store.Prepare(rule.sql);
     while (q.Step()) {
       const std::string stored = q.Text(3);

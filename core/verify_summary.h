@@ -6,7 +6,7 @@
 // seal the changed rows as faithfully as true ones.
 //
 // For every command whose summary states facts about single rows (record,
-// sent, decline, review), the summary is rebuilt from the sealed rows in the
+// sent, decline, review, withdraw), the summary is rebuilt from the sealed rows in the
 // exact wording the command uses, and compared with the stored one;
 // `import outcomes` is checked by its row counts. The wording is a stored
 // format with one definition, core/audit_summaries.h, which the commands

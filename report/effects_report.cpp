@@ -4,6 +4,7 @@
 #include <cstdio>
 #include <sstream>
 
+#include "report/fieldwork_state.h"
 #include "report/json_number.h"
 #include "report/plural.h"
 #include "report/text_report.h"
@@ -149,6 +150,11 @@ nlohmann::json EffectsJson(const AnalysisResult& r) {
     x["value"] = s.value;
     j["strata"].push_back(x);
   }
+  j["single_strata"] = nlohmann::json::array();
+  const std::vector<std::string> single = SingleStratumSentences(r);
+  for (size_t i = 0; i < e.single_strata.size(); ++i)
+    j["single_strata"].push_back(
+        {{"column", e.single_strata[i].column}, {"value", e.single_strata[i].value}, {"sentence", single[i]}});
   j["across_strata"] = nlohmann::json::array();
   for (const auto& a : e.across) {
     if (a.paired) {
@@ -234,6 +240,7 @@ std::string RenderEffectsText(const AnalysisResult& r) {
       o << line;
     }
   }
+  for (const std::string& sentence : SingleStratumSentences(r)) o << "\n" << sentence << "\n";
   for (const auto& a : e.across) {
     if (a.paired) {
       AcrossPairedText(o, a, r, ref);

@@ -31,6 +31,16 @@ std::string EarlyStateSentence(const AnalysisResult& r) {
   return "";
 }
 
+std::vector<std::string> SingleStratumSentences(const AnalysisResult& r) {
+  std::vector<std::string> out;
+  for (const SingleStratum& one : r.effects.single_strata)
+    out.push_back("Every analysed set has " + one.column + " '" + one.value + "', so there is no analysis by " +
+                  one.column + ": a stratified analysis needs at least two values. Analyse again once sets with "
+                  "another " + one.column + " are closed; if the study has only one, leave '" + one.column +
+                  "' out of [strata] columns in study.toml.");
+  return out;
+}
+
 std::vector<std::string> FlowTextLines(const StudyFlow& flow) {
   std::vector<std::string> lines;
   auto exclusion = [&](const char* reason) {
@@ -40,6 +50,7 @@ std::vector<std::string> FlowTextLines(const StudyFlow& flow) {
   lines.push_back(Count(flow.vacancies_planned, "vacancy", "vacancies") + " planned");
   exclusion("not_sent");
   exclusion("incomplete");
+  exclusion("withdrawn");
   lines.push_back(Count(flow.sets_sent, "set", "sets") + " with every application sent");
   exclusion("still_open");
   lines.push_back(Count(flow.sets_closed, "set", "sets") + " closed (answered or window over)");

@@ -1,7 +1,8 @@
 #pragma once
 // Where the fieldwork stands, in words every report format prints the same
 // way: the sets still within their observation window, the empty and early
-// states (nothing sent, nothing closed, one group only) and the flow of the
+// states (nothing sent, nothing closed, one group only, a single stratum)
+// and the flow of the
 // study as lines of text. An early state replaces the findings: a report with
 // nothing closed shows no rate and says nothing about employers.
 #include <string>
@@ -19,6 +20,11 @@ std::string OpenSetsSentence(const AnalysisResult& r);
 // nothing to report yet (nothing sent, nothing closed, closed sets of one
 // group only); "" when there are findings to report.
 std::string EarlyStateSentence(const AnalysisResult& r);
+
+// One sentence per stratum column whose analysed sets all share one value
+// (Effects::single_strata): which column, why it has no stratified analysis,
+// and what to do. Empty when every column has two values or more.
+std::vector<std::string> SingleStratumSentences(const AnalysisResult& r);
 
 // The flow of the study as text lines, e.g.
 //   "400 vacancies planned"

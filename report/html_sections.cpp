@@ -6,7 +6,8 @@ namespace twinprobe {
 namespace {
 
 bool HasStrata(const AnalysisResult& r) {
-  return EarlyStateSentence(r).empty() && ((r.has_paired && !r.strata.empty()) || !r.effects.strata.empty());
+  return EarlyStateSentence(r).empty() &&
+         ((r.has_paired && !r.strata.empty()) || !r.effects.strata.empty() || !r.effects.single_strata.empty());
 }
 // Several groups, or no pairs: every group against the reference.
 bool HasComparisons(const AnalysisResult& r) {
@@ -31,7 +32,7 @@ const std::vector<HtmlSection>& HtmlSections() {
       {"rates", "Positive callbacks by group", &HasFindings, {&RatesChart}},
       {"paired", "Pairs: who was treated better", &HasPairedFindings, {&PairedTable, &PairedTest, &PairedEffects}},
       {"comparisons", "Each group against the reference", &HasComparisons, {&ComparisonsForest}},
-      {"strata", "Results within each stratum", &HasStrata, {&StrataForest, &StrataTables, &AcrossStrataTable}},
+      {"strata", "Results within each stratum", &HasStrata, {&SingleStrataNote, &StrataForest, &StrataTables, &AcrossStrataTable}},
       {"responses", "What came back, and how fast", &HasFindings, {&ResponseCodes, &ResponseTimesChart}},
       {"employers", "Employers (by pseudonym)", &HasEmployers, {&EmployerTable}},
       {"listing-audit", "Ranked listings (listing audit)", &HasListings,

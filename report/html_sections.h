@@ -49,6 +49,7 @@ std::string PairedEffects(const AnalysisResult&, const ReportContext&);
 std::string ComparisonsForest(const AnalysisResult&, const ReportContext&);
 std::string StrataForest(const AnalysisResult&, const ReportContext&);
 std::string AcrossStrataTable(const AnalysisResult&, const ReportContext&);
+std::string SingleStrataNote(const AnalysisResult&, const ReportContext&);
 // html_sections_listing.cpp (analysis/listing_analysis.h)
 std::string ListingOverview(const AnalysisResult&, const ReportContext&);
 std::string ListingComparisons(const AnalysisResult&, const ReportContext&);

@@ -7,6 +7,7 @@
 #include <cstdio>
 
 #include "report/effects_report.h"
+#include "report/fieldwork_state.h"
 #include "report/html_escape.h"
 #include "report/html_parts.h"
 #include "report/html_sections.h"
@@ -248,6 +249,14 @@ std::string AcrossStrataTable(const AnalysisResult& r, const ReportContext&) {
       "(two-sided) asks whether " + ref + " applicants were favoured after allowing for the stratum, and "
       "Breslow\u2013Day whether the odds ratio differs between stratum values.";
   return html::Heading("Across strata") + html::Para(note) + RenderTable(t);
+}
+
+// A column with one value among the analysed sets: one sentence in place of
+// a one-row stratified table.
+std::string SingleStrataNote(const AnalysisResult& r, const ReportContext&) {
+  std::string o;
+  for (const std::string& sentence : SingleStratumSentences(r)) o += html::Para(sentence);
+  return o;
 }
 
 }  // namespace twinprobe

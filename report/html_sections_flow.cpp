@@ -27,7 +27,7 @@ std::string FlowDiagramPart(const AnalysisResult& r, const ReportContext&) {
   std::string description;
   for (const std::string& line : FlowTextLines(f)) description += (description.empty() ? "" : "; ") + line;
   d.description = description;
-  d.stages = {{Count(f.vacancies_planned, "vacancy", "vacancies") + " planned", exits({"not_sent", "incomplete"})},
+  d.stages = {{Count(f.vacancies_planned, "vacancy", "vacancies") + " planned", exits({"not_sent", "incomplete", "withdrawn"})},
               {Count(f.sets_sent, "set", "sets") + " with every application sent", exits({"still_open"})},
               {Count(f.sets_closed, "set", "sets") + " closed", {}},
               {Count(f.sets_analysed, "set", "sets") + " analysed", {}}};

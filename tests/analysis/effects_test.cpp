@@ -124,7 +124,18 @@ TEST_CASE("effects: sets with three arms compare each arm with the reference and
   CHECK(e.comparisons[1].pairs.c == 0);
   CHECK(e.comparisons[0].p_adjusted == std::min(1.0, 2 * stats::McNemar({0, 10, 2, 20}).exact.p));
   CHECK(e.comparisons[1].p_adjusted == 1.0);
-  CHECK(e.across.size() == 2);  // one column x two comparisons
+  // One region value only: nothing to stratify by (issue 16), so no
+  // per-value rows and no test across values, but the column is named.
+  CHECK(e.across.empty());
+  CHECK(e.strata.empty());
+  REQUIRE(e.single_strata.size() == 1);
+  CHECK(e.single_strata[0].column == "region");
+  CHECK(e.single_strata[0].value == "A");
+  AddSets(in, 1, {{0, true}, {1, false}, {2, false}}, "B");
+  Effects two = ComputeEffects(in);
+  CHECK(two.across.size() == 2);  // one column x two comparisons
+  CHECK(two.strata.size() == 4);  // two values x two comparisons
+  CHECK(two.single_strata.empty());
 }
 
 TEST_CASE("effects: an unpaired study uses Fisher, Woolf and Wilson per arm against the reference") {
@@ -146,11 +157,24 @@ TEST_CASE("effects: an unpaired study uses Fisher, Woolf and Wilson per arm agai
   CHECK(c.woolf.estimate == 9.0);
   CHECK(c.reference_wilson.low == stats::Wilson(3, 4, 0.95).low);
   CHECK(e.correction == "none");
-  CHECK(e.strata[0].result.p_adjusted == e.strata[0].result.p.p);
-  // Unpaired probes are independent, so Mantel-Haenszel stays across strata.
-  REQUIRE(e.across.size() == 1);
-  CHECK_FALSE(e.across[0].paired);
-  REQUIRE(e.across[0].tables.size() == 1);
-  CHECK(e.across[0].tables[0].a == 3);
-  CHECK(e.across[0].mh.estimate == stats::MantelHaenszel({{3, 1, 1, 3}}, 0.95).estimate);
+  // One region value: no stratified analysis (issue 16), the column named instead.
+  CHECK(e.strata.empty());
+  CHECK(e.across.empty());
+  REQUIRE(e.single_strata.size() == 1);
+  CHECK(e.single_strata[0].value == "A");
+  // A second region: Mantel-Haenszel across the two (unpaired probes are
+  // independent, so it stays across strata).
+  AddSets(in, 2, {{0, true}}, "B");
+  AddSets(in, 1, {{0, false}}, "B");
+  AddSets(in, 1, {{1, true}}, "B");
+  AddSets(in, 2, {{1, false}}, "B");
+  Effects two = ComputeEffects(in);
+  CHECK(two.single_strata.empty());
+  REQUIRE(two.strata.size() == 2);
+  CHECK(two.strata[0].result.p_adjusted == two.strata[0].result.p.p);
+  REQUIRE(two.across.size() == 1);
+  CHECK_FALSE(two.across[0].paired);
+  REQUIRE(two.across[0].tables.size() == 2);
+  CHECK(two.across[0].tables[0].a == 3);
+  CHECK(two.across[0].mh.estimate == stats::MantelHaenszel({{3, 1, 1, 3}, {2, 1, 1, 2}}, 0.95).estimate);
 }

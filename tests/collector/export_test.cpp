@@ -8,6 +8,7 @@
 #include "collector/export.h"
 #include "collector/import_pairs.h"
 #include "collector/collector_fixtures.h"
+#include "core/clock.h"
 #include "core/csv.h"
 #include "core/meta.h"
 
@@ -46,6 +47,7 @@ struct AwkwardStudy {
     ExportOptions o;
     o.format = format;
     o.identities = identities;
+    o.now = ParseIsoTime("2027-06-01T00:00:00Z");  // after every window
     auto r = ExportStudy(*store.value(), StoredOutcomeScheme(*store.value()), path, o);
     INFO((r.ok() ? "" : r.error().Message()));
     REQUIRE(r.ok());
@@ -77,11 +79,11 @@ TEST_CASE("export: CSV files in the documented layout, pseudonymised by default"
   CHECK(probes.value().header ==
         std::vector<std::string>{"probe", "vacancy", "arm", "reference", "profile", "template", "send_order",
                                  "planned_at", "sent_at", "outcome", "positive", "received_at", "channel", "late",
-                                 "responses", "occupation", "region"});
+                                 "responses", "state", "occupation", "region"});
   CHECK(probes.value().rows[0].fields ==
         std::vector<std::string>{"P00001", "V 1, north", "inland", "1", "", "", "1", "", "2027-03-01T00:00:00Z",
-                                 "invitation", "1", "2027-03-03T00:00:00Z", "", "0", "1", "caf\xC3\xA9 \"Ost\"",
-                                 "Orlinde"});
+                                 "invitation", "1", "2027-03-03T00:00:00Z", "", "0", "1", "closed",
+                                 "caf\xC3\xA9 \"Ost\"", "Orlinde"});
   CHECK(probes.value().rows[3].fields[13] == "1");  // 39 days after sending: late
   auto vacancies = ReadCsvFile(out + "/vacancies.csv");
   REQUIRE(vacancies.ok());
@@ -118,7 +120,7 @@ TEST_CASE("export: R's read.csv reads the files as they are") {
                      "cat(sum(is.na(r$supersedes)), class(r$current), sum(p$late), '\\n')\n"
                      "cat(tapply(p$positive, p$arm, sum)[c('inland', 'coastal')], '\\n')\n");
   CHECK(Run("Rscript '" + script + "' '" + out + "'") ==
-        "4 17 2 4 \n"
+        "4 18 2 4 \n"
         "integer 2 integer \n"
         "V 1, north | caf\xC3\xA9 \"Ost\" | line one\nline two \n"
         "4 integer 1 \n"
@@ -148,7 +150,7 @@ TEST_CASE("export: pandas reads the CSV files and the JSON document") {
                      "print(jp['positive'].tolist(), jp['received_at'].isna().sum())\n"
                      "print(pd.DataFrame(doc['vacancies'])['employer_key'].isna().tolist())\n");
   CHECK(Run("/usr/bin/python3 '" + script + "' '" + out + "' '" + json + "'") ==
-        "4 17 2 4\n"
+        "4 18 2 4\n"
         "int64 2 V 1, north | caf\xC3\xA9 \"Ost\"\n"
         "4 1 'line one\\nline two'\n"
         "twinprobe-export 1 4 True\n"
@@ -235,4 +237,54 @@ TEST_CASE("issue 24: a listing audit's store (ranked lists, no plan) exports its
   CHECK(doc["lists"] == 2);
   CHECK(doc["listings"].size() == 3);
   CHECK(doc["listings"][2]["location"] == "Tessvale");
+}
+
+TEST_CASE("issue 16: export states each probe by the one closed rule: open, late, withdrawn") {
+  testing::PlannedStudy s;
+  const std::vector<std::string> now = {"TWINPROBE_NOW=2027-03-10T12:00:00Z"};
+  // P00001 sent, no answer yet (open); P00003 answered after its window
+  // (late, closed); P00005's vacancy withdrawn; P00007 answered in time.
+  for (const char* p : {"P00001", "P00003", "P00007"})
+    REQUIRE(RunCli({"--study", s.path, "sent", p, "--at", "2027-01-20T09:00"}, now).exit_code == 0);
+  REQUIRE(RunCli({"--study", s.path, "sent", "P00001", "--at", "2027-03-01T09:00"}, now).exit_code == 0);
+  REQUIRE(RunCli({"--study", s.path, "record", "P00003", "invitation", "--at", "2027-03-01"}, now).exit_code == 0);
+  REQUIRE(RunCli({"--study", s.path, "record", "P00007", "rejection", "--at", "2027-01-25"}, now).exit_code == 0);
+  std::string vacancy;
+  {
+    auto store = s.Open();
+    Stmt q = store->Prepare("SELECT v.ref FROM probe p JOIN vacancy v ON v.id = p.vacancy_id WHERE p.ref = 'P00005'");
+    REQUIRE(q.Step());
+    vacancy = q.Text(0);
+  }
+  REQUIRE(RunCli({"--study", s.path, "withdraw", vacancy, "--reason", "the posting closed"}, now).exit_code == 0);
+  auto r = RunCli({"--study", s.path, "export", "--out", s.dir / "x"}, now);
+  INFO(r.err);
+  REQUIRE(r.exit_code == 0);
+  auto probes = ReadCsvFile(s.dir / "x/probes.csv");
+  REQUIRE(probes.ok());
+  const auto& h = probes.value().header;
+  const size_t late = static_cast<size_t>(std::find(h.begin(), h.end(), "late") - h.begin());
+  const size_t state = static_cast<size_t>(std::find(h.begin(), h.end(), "state") - h.begin());
+  REQUIRE(state < h.size());
+  std::map<std::string, std::pair<std::string, std::string>> by_probe;  // probe -> (late, state)
+  for (const auto& row : probes.value().rows) by_probe[row.fields[0]] = {row.fields[late], row.fields[state]};
+  // The window runs from the first sending (20 January), so P00001's
+  // second sending does not reopen it: 28 days end on 17 February.
+  CHECK(by_probe["P00001"] == std::pair<std::string, std::string>{"", "closed"});
+  CHECK(by_probe["P00003"] == std::pair<std::string, std::string>{"1", "closed"});
+  CHECK(by_probe["P00005"] == std::pair<std::string, std::string>{"", "withdrawn"});
+  CHECK(by_probe["P00007"] == std::pair<std::string, std::string>{"0", "closed"});
+  CHECK(by_probe["P00009"] == std::pair<std::string, std::string>{"", "not_sent"});
+
+  // Earlier in the season the same probes are open.
+  auto early = RunCli({"--study", s.path, "export", "--out", s.dir / "y"}, {"TWINPROBE_NOW=2027-02-01T00:00:00Z"});
+  REQUIRE(early.exit_code == 0);
+  auto again = ReadCsvFile(s.dir / "y/probes.csv");
+  REQUIRE(again.ok());
+  for (const auto& row : again.value().rows) by_probe[row.fields[0]] = {row.fields[late], row.fields[state]};
+  CHECK(by_probe["P00001"] == std::pair<std::string, std::string>{"", "open"});
+  // The answer of 1 March has not come at this clock, but the store holds it:
+  // it is late whatever the clock, and closes nothing before the window ends.
+  CHECK(by_probe["P00003"] == std::pair<std::string, std::string>{"1", "open"});
+  CHECK(by_probe["P00007"] == std::pair<std::string, std::string>{"0", "closed"});
 }

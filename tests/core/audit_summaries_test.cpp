@@ -24,3 +24,8 @@ TEST_CASE("audit summaries: review and import outcomes keep their stored wording
         "review message 8: changed rejection for P00018 (supersedes response 3)");
   CHECK(ImportOutcomesSummary("in.csv", 3, 1) == "import outcomes in.csv: 3 rows landed, 1 rejected");
 }
+
+TEST_CASE("audit summaries: withdraw keeps its stored wording") {
+  CHECK(WithdrawSummary("V0017", "2027-03-04T15:30:00Z", "the posting closed") ==
+        "withdraw V0017 at 2027-03-04T15:30:00Z: the posting closed");
+}
