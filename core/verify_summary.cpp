@@ -86,6 +86,19 @@ WHERE a.command = 'import outcomes' ORDER BY a.seq)SQL",
      [](const Stmt& q) -> std::optional<std::string> {
        return ImportOutcomesSummary(q.Text(5), q.Int(6), q.Int(7));
      }},
+    // `monitor` seals one look per entry (core/monitor_looks.h).
+    {"monitor", R"SQL(
+SELECT a.seq, a.at, a.actor, a.summary,
+  (SELECT count(*) FROM monitor_look x WHERE x.audit_seq = a.seq) = 1, m.look, m.kind, m.sets, m.planned_sets,
+  m.reference_only, m.other_only, m.lower, m.alpha_spent, m.decision
+FROM audit a
+LEFT JOIN monitor_look m ON m.id = (SELECT max(x.id) FROM monitor_look x WHERE x.audit_seq = a.seq)
+WHERE a.command = 'monitor' ORDER BY a.seq)SQL",
+     [](const Stmt& q) -> std::optional<std::string> {
+       if (q.IsNull(5)) return std::nullopt;
+       return MonitorLookSummary(q.Int(5), q.Text(6), q.Int(7), q.Int(8), q.Int(9), q.Int(10), q.Int(11),
+                                 q.Double(12), q.Text(13));
+     }},
 };
 
 }  // namespace
