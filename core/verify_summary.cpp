@@ -19,6 +19,7 @@ struct SummaryRule {
   const char* command;
   const char* sql;
   std::optional<std::string> (*rebuild)(const Stmt& q);
+  int since_version = 1;  // the schema version that made the rule's tables (verify reads older stores unmigrated)
 };
 
 int64_t IntOr0(const Stmt& q, int col) { return q.IsNull(col) ? 0 : q.Int(col); }
@@ -98,14 +99,17 @@ WHERE a.command = 'monitor' ORDER BY a.seq)SQL",
        if (q.IsNull(5)) return std::nullopt;
        return MonitorLookSummary(q.Int(5), q.Text(6), q.Int(7), q.Int(8), q.Int(9), q.Int(10), q.Int(11),
                                  q.Double(12), q.Text(13));
-     }},
+     },
+     8},
 };
 
 }  // namespace
 
 std::vector<AuditProblem> CheckSummaries(Store& store) {
   std::vector<AuditProblem> out;
+  const int version = store.schema_version();
   for (const SummaryRule& rule : kRules) {
+    if (version < rule.since_version) continue;
     Stmt q = store.Prepare(rule.sql);
     while (q.Step()) {
       const std::string stored = q.Text(3);

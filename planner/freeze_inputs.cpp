@@ -6,6 +6,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "core/csv.h"
 #include "core/sha256.h"
 
 namespace twinprobe {
@@ -39,24 +40,44 @@ std::vector<std::string> Lines(const std::string& text) {
   return out;
 }
 
-FrozenInput FileInput(const std::string& role, const std::string& file, const std::string& study_dir,
-                      bool keyed_by_first_column) {
+// A name pool or template: one record per line.
+FrozenInput LinesInput(const std::string& role, const std::string& file, const std::string& study_dir) {
   FrozenInput f{role, file, "", {}};
   auto text = ReadWhole(study_dir, file);
   if (!text) return f;
   f.sha256 = Sha256Hex(*text);
   const std::vector<std::string> lines = Lines(*text);
-  for (size_t i = 0; i < lines.size(); ++i) {
-    std::string key = "line " + std::to_string(i + 1);
-    // A vacancy is named by its id (the first column), so a cut list reads
-    // as the vacancies removed, not as every later line changed.
-    if (keyed_by_first_column && i > 0) {
-      std::string first = lines[i].substr(0, lines[i].find(','));
-      if (first.size() >= 2 && first.front() == '"' && first.back() == '"') first = first.substr(1, first.size() - 2);
-      if (!first.empty()) key = first;
-    }
-    if (keyed_by_first_column && i == 0) key = "header";
-    f.records.emplace_back(key, Digest(lines[i]));
+  for (size_t i = 0; i < lines.size(); ++i) f.records.emplace_back("line " + std::to_string(i + 1), Digest(lines[i]));
+  return f;
+}
+
+// The vacancy file: one record per vacancy, named by its id, over the columns
+// the analysis uses (the id, opened_on and the strata). The identifying
+// columns are left out: `purge` rewrites them (employer names become
+// pseudonyms, contacts are emptied) and that is data protection, not a
+// deviation. A file that is not readable CSV counts by its lines.
+FrozenInput VacanciesInput(const Design& design, const std::string& study_dir) {
+  const std::string& file = design.vacancies_file;
+  auto text = ReadWhole(study_dir, file);
+  if (!text) return FrozenInput{"vacancies", file, "", {}};
+  auto table = ReadCsvText(*text, file);
+  if (!table.ok()) return LinesInput("vacancies", file, study_dir);
+  FrozenInput f{"vacancies", file, Sha256Hex(*text), {}};
+  const CsvTable& t = table.value();
+  std::vector<std::string> columns = {"vacancy", "opened_on"};
+  columns.insert(columns.end(), design.strata.begin(), design.strata.end());
+  std::vector<int> at;
+  for (const std::string& c : columns) at.push_back(t.Column(c));
+  const int id = t.Column("vacancy");
+  for (size_t r = 0; r < t.rows.size(); ++r) {
+    const std::vector<std::string>& fields = t.rows[r].fields;
+    std::string record;
+    for (size_t k = 0; k < columns.size(); ++k)
+      record += columns[k] + "=" + (at[k] >= 0 && static_cast<size_t>(at[k]) < fields.size() ? fields[at[k]] : "") + "\n";
+    const std::string key = id >= 0 && static_cast<size_t>(id) < fields.size() && !fields[id].empty()
+                                ? fields[id]
+                                : "row " + std::to_string(r + 1);
+    f.records.emplace_back(key, Digest(record));
   }
   return f;
 }
@@ -85,9 +106,9 @@ std::vector<FrozenInput> ReadAnalysisInputs(const Design& design, const std::str
   const nlohmann::json root = nlohmann::json::parse(design.canonical, nullptr, false);
   if (!root.is_discarded()) DesignRecords(root, d);
   out.push_back(std::move(d));
-  if (!design.vacancies_file.empty()) out.push_back(FileInput("vacancies", design.vacancies_file, study_dir, true));
-  for (const NamePool& pool : design.name_pools) out.push_back(FileInput("name_pool", pool.file, study_dir, false));
-  for (const std::string& t : design.templates) out.push_back(FileInput("template", t, study_dir, false));
+  if (!design.vacancies_file.empty()) out.push_back(VacanciesInput(design, study_dir));
+  for (const NamePool& pool : design.name_pools) out.push_back(LinesInput("name_pool", pool.file, study_dir));
+  for (const std::string& t : design.templates) out.push_back(LinesInput("template", t, study_dir));
   return out;
 }
 
