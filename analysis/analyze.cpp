@@ -33,7 +33,7 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
     r.title = stored.title.empty() ? "Listing audit" : stored.title;
     r.listings = listings.value();
     r.listings.listing_only = true;
-    r.preregistration = CheckPreregistration(reading.freeze, stored, f, current_design, plan);
+    r.preregistration = CheckPreregistration(reading.freeze, stored, f, current_design, plan, reading.monitor_looks);
     return r;
   }
   r.kind = f.kind;
@@ -111,7 +111,8 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   r.employers = paired ? SummariseEmployers(f.employers) : EmployerOutcomes{};
   TestByEmployer(r.employers, static_cast<uint64_t>(f.seed.value_or(0)), r.mcnemar_exact_p, r.alpha);
   r.balance = ComputeBalance(f);
-  r.preregistration = CheckPreregistration(reading.freeze, stored, f, current_design, plan);
+  r.preregistration = CheckPreregistration(reading.freeze, stored, f, current_design, plan, reading.monitor_looks);
+  if (r.has_paired) r.early_stop = ComputeEarlyStop(reading.monitor_looks);
   return r;
 }
 

@@ -18,6 +18,7 @@
 
 #include "analysis/balance.h"
 #include "analysis/deviations.h"
+#include "analysis/early_stop.h"
 #include "analysis/listing_analysis.h"
 #include "analysis/effects.h"
 #include "core/design.h"
@@ -87,6 +88,7 @@ struct AnalysisResult {
   EmployerOutcomes employers;        // analysis/employer_outcomes.h (pseudonyms only)
   BalanceReport balance;                   // arm x template / send order / stratum / weekday (analysis/balance.h)
   PreregistrationStatus preregistration;  // freeze and deviations from it (analysis/deviations.h)
+  EarlyStop early_stop;                   // after a stored monitor stop (analysis/early_stop.h)
 };
 
 // Requires a plan in the reading, or listings (a listing-only store gives

@@ -13,6 +13,13 @@
 //   primary_outcome_changed  primary outcome, its positive codes, codes or window
 //   arms_changed             kind, arms or reference arm
 //   looks_changed            planned interim looks
+//   spending_changed         the spending function of the monitoring plan
+//   input_changed            an input file (the design, the vacancy file, a
+//                            name pool, a template) differs from the frozen one,
+//                            named by file and key (input_added / input_removed
+//                            for a file the design now names or no longer names)
+//   monitor_spending         a stored monitor look used a spending function
+//                            other than the frozen one (`monitor --spending`)
 #include <string>
 #include <vector>
 
@@ -20,6 +27,7 @@
 
 #include "core/design.h"
 #include "core/fieldwork.h"
+#include "core/monitor_looks.h"
 #include "core/read_design.h"
 #include "core/read_freeze.h"
 
@@ -28,6 +36,8 @@ namespace twinprobe {
 struct Deviation {
   std::string kind;  // one of the names above
   std::string what;  // a sentence for the report
+  std::string file;  // the file it concerns ("study.toml", "vacancies.csv", …); "" when none
+  std::vector<std::string> keys;  // the keys changed in it (design keys, vacancy ids, "line 7"); may be empty
 };
 
 struct ExploratoryItem {
@@ -54,8 +64,11 @@ struct PreregistrationStatus {
 // `fieldwork` are what it remembers of the design and plan (compared when
 // there is no design file); `current` is the design file as it is now
 // (nullptr when the study has none, e.g. imported data); `used` is the
-// analysis plan the analysis runs with.
+// analysis plan the analysis runs with; `looks` the monitor looks taken
+// (core/monitor_looks.h). Input files are compared when both the freeze and
+// `current` carry them (Design::inputs, freeze.inputs).
 PreregistrationStatus CheckPreregistration(const std::optional<FreezeRecord>& freeze, const StoredDesign& stored,
-                                           const Fieldwork& fieldwork, const Design* current, const AnalysisPlan& used);
+                                           const Fieldwork& fieldwork, const Design* current, const AnalysisPlan& used,
+                                           const std::vector<StoredLook>& looks = {});
 
 }  // namespace twinprobe

@@ -1,6 +1,7 @@
 // `twinprobe monitor`: interim monitoring of a paired study with a
 // group-sequential exact McNemar test and Lan–DeMets alpha spending
-// (stats/sequential.h). Reads the store, writes nothing.
+// (stats/sequential.h). Each look it takes is stored and sealed
+// (core/monitor_looks.h); a run that takes no new look writes nothing.
 //
 // The analysis itself (looks, boundaries, decision) is analysis/monitor.h;
 // this file parses the options and prints.
@@ -18,6 +19,8 @@
 #include "core/clock.h"
 #include "report/monitor_decision.h"
 #include "report/p_value.h"
+#include "report/plural.h"
+#include "core/monitor_looks.h"
 #include "core/read_study.h"
 #include "stats/mcnemar.h"
 #include "stats/sequential.h"
@@ -28,10 +31,29 @@ namespace {
 using nlohmann::json;
 
 struct MonitorOptions {
-  std::string spending = "obf";
+  std::string spending;  // "" = the design's [analysis].spending
   bool look_now = false;
   bool final_now = false;
 };
+
+std::string SpendingDeviation(const std::string& used, const std::string& planned) {
+  return "Deviation: --spending " + used + " differs from the design's [analysis].spending = \"" + planned +
+         "\"; the looks taken with it are stored with " + used + " and listed as deviations.";
+}
+
+// Which looks are records from earlier runs and which this run stored.
+std::string LooksTakenText(const MonitorResult& m) {
+  size_t before = 0;
+  for (const MonitorLook& l : m.reached) before += l.stored ? 1 : 0;
+  std::string s;
+  if (before > 0) s += Count(static_cast<int64_t>(before), "look was", "looks were") + " taken before (stored). ";
+  if (m.new_looks.empty()) return s + "No new look is due: nothing stored.\n";
+  s += "Stored now: ";
+  for (size_t i = 0; i < m.new_looks.size(); ++i)
+    s += (i ? ", " : "") + std::string("look ") + std::to_string(m.new_looks[i].look) + " (" + m.new_looks[i].kind +
+         ", " + std::to_string(m.new_looks[i].sets) + " sets)";
+  return s + ".\n";
+}
 
 std::string Fmt(const char* format, double v) {
   char buf[64];
@@ -41,7 +63,7 @@ std::string Fmt(const char* format, double v) {
 
 int RunMonitor(Context& ctx, const MonitorOptions& o) {
   stats::Spending spending;
-  if (!stats::ParseSpending(o.spending, spending))
+  if (!o.spending.empty() && !stats::ParseSpending(o.spending, spending))
     return ReportError(BadInput("--spending", "unknown spending function '" + o.spending + "'",
                                 "use obf (O'Brien\u2013Fleming type) or pocock (Pocock type)"));
   auto store = OpenStudyStore(ctx, false);
@@ -49,6 +71,12 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
   auto settings = LoadStudySettings(ctx, *store.value());
   if (!settings.ok()) return ReportError(settings.error());
   const AnalysisPlan& plan = settings.value().analysis;
+  // The spending function is part of the frozen monitoring plan; a different
+  // one on the command line is used, stored with the looks and said to be a
+  // deviation (analyze lists it too).
+  const std::string spending_name = o.spending.empty() ? plan.spending : o.spending;
+  stats::ParseSpending(spending_name, spending);
+  const bool spending_deviates = spending_name != plan.spending;
   const OutcomeScheme& scheme = settings.value().outcomes;
   const StudyReading reading = ReadStudy(*store.value(), scheme, FieldworkOptions{.completion_order = true, .now = std::nullopt});
   auto analysis = Analyze(reading, store.value()->path(), scheme, plan);
@@ -66,9 +94,13 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
   in.spending = spending;
   in.look_now = o.look_now;
   in.final_now = o.final_now;
+  in.stored = reading.monitor_looks;
   const MonitorResult m = RunMonitor(in);
   if (m.decision == "nothing_complete")
     return ReportError(BadInput(StorePath(ctx), "no set is complete yet", "record sendings before the final analysis"));
+  // Every look taken now becomes a record, one audited write each.
+  std::vector<StoredLook> taken = reading.monitor_looks;
+  for (const StoredLook& l : m.new_looks) taken.push_back(RecordMonitorLook(*store.value(), l, nullptr));
   const int64_t planned_sets = in.planned_sets;
   const int64_t done = m.completed_sets;
   const double alpha = plan.alpha;
@@ -97,6 +129,9 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
                      {"alpha_allowed", bd.alpha_allowed},
                      {"alpha_spent", bd.alpha_spent},
                      {"crossed", bd.crossed_by(l.b)},
+                     {"kind", l.Kind()},
+                     {"taken_at", k < taken.size() ? json(taken[k].taken_at) : json(nullptr)},
+                     {"taken_before", l.stored},
                      {"nominal_p", stats::McNemarExactP(stats::PairedCounts{0, l.b, l.c, 0})}});
   }
   std::vector<int64_t> schedule_sets;
@@ -106,6 +141,9 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
     json j{{"study_id", r.study_id},
            {"alpha", alpha},
            {"spending", stats::SpendingName(spending)},
+           {"design_spending", plan.spending},
+           {"deviation", spending_deviates ? json(SpendingDeviation(spending_name, plan.spending)) : json(nullptr)},
+           {"new_looks", m.new_looks.size()},
            {"planned_sets", planned_sets},
            {"completed_sets", done},
            {"schedule", schedule_sets},
@@ -128,6 +166,7 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
     << "Lan\u2013DeMets " << stats::SpendingLabel(spending) << " alpha spending. Reference arm " << r.reference_label
     << ", other arm " << r.other_label << ".\n"
     << "Looks count completed sets in the order they completed; schedule:";
+  // (the looks taken come first, as stored)
   for (size_t i = 0; i < schedule.size(); ++i)
     t << (i ? "," : "") << " " << schedule[i].sets
       << (schedule[i].final     ? " (final)"
@@ -150,6 +189,8 @@ int RunMonitor(Context& ctx, const MonitorOptions& o) {
     t << "  (stop at: the boundary is crossed when either arm alone is called back in at least that many of the\n"
          "   discordant sets; '-': too few discordant sets to stop at this look.)\n";
   }
+  t << "\n" << LooksTakenText(m);
+  if (spending_deviates) t << SpendingDeviation(spending_name, plan.spending) << "\n";
   t << "\n" << MonitorDecisionText(m, alpha, r.reference_label, r.other_label);
   std::cout << t.str();
   return 0;
@@ -162,9 +203,10 @@ void RegisterMonitor(CLI::App& app, Context& ctx) {
   auto* cmd = app.add_subcommand(
       "monitor", "Interim looks: group-sequential exact McNemar test with Lan\u2013DeMets alpha spending");
   cmd->add_option("--spending", o->spending,
-                  "Spending function fixed in the protocol: obf (O'Brien\u2013Fleming type, default) or pocock");
+                  "Spending function, if not the design's [analysis].spending (obf or pocock); a different one is a "
+                  "deviation");
   cmd->add_flag("--look-now", o->look_now,
-                "Add an unplanned look at the current number of completed sets (spends alpha for it)");
+                "Take and store an unplanned look at the current number of completed sets (spends alpha for it)");
   cmd->add_flag("--final", o->final_now,
                 "Treat the sets completed now as the final analysis (fieldwork ended early; spends all alpha left)");
   cmd->callback([&ctx, o] { ctx.exit_code = RunMonitor(ctx, *o); });

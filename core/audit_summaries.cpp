@@ -1,5 +1,7 @@
 #include "core/audit_summaries.h"
 
+#include <cstdio>
+
 namespace twinprobe {
 namespace {
 
@@ -39,6 +41,19 @@ std::string ReviewRecordedSummary(int64_t message_id, std::string_view decision,
 std::string ImportOutcomesSummary(std::string_view path, int64_t rows_landed, int64_t rows_rejected) {
   return "import outcomes " + std::string(path) + ": " + std::to_string(rows_landed) + " rows landed, " +
          std::to_string(rows_rejected) + " rejected";
+}
+
+std::string MonitorLookSummary(int64_t look, std::string_view kind, int64_t sets, int64_t planned_sets,
+                               int64_t reference_only, int64_t other_only, int64_t lower, double alpha_spent,
+                               std::string_view decision) {
+  const int64_t n = reference_only + other_only;
+  char spent[40];
+  std::snprintf(spent, sizeof spent, "%.6g", alpha_spent);
+  return "monitor look " + std::to_string(look) + " (" + std::string(kind) + ") at " + std::to_string(sets) + " of " +
+         std::to_string(planned_sets) + " sets: " + std::to_string(reference_only) + " reference only, " +
+         std::to_string(other_only) + " other only, " +
+         (lower >= 0 ? "stop at " + std::to_string(n - lower) + " of " + std::to_string(n) : std::string("cannot stop")) +
+         ", alpha spent " + spent + ": " + std::string(decision);
 }
 
 }  // namespace twinprobe

@@ -37,4 +37,11 @@ std::string ImportOutcomesSummary(std::string_view path, int64_t rows_landed, in
 // the reason as given (one line; the command refuses line breaks).
 std::string WithdrawSummary(std::string_view vacancy_ref, std::string_view withdrawn_at, std::string_view reason);
 
+// `monitor`, one entry per look taken: "monitor look 2 (planned) at 300 of
+// 400 sets: 41 reference only, 19 other only, stop at 44 of 60, alpha spent
+// 0.00834: continue"; `lower` -1 reads "cannot stop".
+std::string MonitorLookSummary(int64_t look, std::string_view kind, int64_t sets, int64_t planned_sets,
+                               int64_t reference_only, int64_t other_only, int64_t lower, double alpha_spent,
+                               std::string_view decision);
+
 }  // namespace twinprobe

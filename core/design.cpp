@@ -38,6 +38,9 @@ std::string CanonicalAnalysisPlan(const Design& d) {
   out += "correction=" + d.analysis.correction + "\n";
   out += "alpha=" + std::string(alpha) + "\n";
   out += "looks=" + join(looks, ",") + "\n";
+  // The spending function belongs to the monitoring plan: written only when
+  // looks are planned, so plans without monitoring keep their hash.
+  if (!looks.empty()) out += "spending=" + d.analysis.spending + "\n";
   // Written only when set, so the plans frozen before the key existed keep
   // their canonical form (and their hash).
   if (d.analysis.equivalence_margin > 0) {

@@ -70,6 +70,11 @@ struct AnalysisPlan {
   std::string correction = "holm";  // bonferroni | holm | hochberg | hommel | bh | by | none
   double alpha = 0.05;
   std::vector<int> looks;  // planned interim looks, in completed sets
+  // Lan–DeMets spending function of the monitoring plan: "obf" (O'Brien–
+  // Fleming type) or "pocock" (stats/sequential.h). Part of the frozen plan
+  // whenever looks are planned; `monitor --spending` with another value is a
+  // deviation.
+  std::string spending = "obf";
   // Paired designs: the margin m of an equivalence test (two one-sided
   // tests that the paired difference of callback rates lies in (-m, m));
   // 0 = no equivalence test.
@@ -180,6 +185,9 @@ struct Design {
   // not part of the design that `freeze` fixes.
   std::vector<std::string> team;
   std::string canonical;  // canonical text of the design (hashed by freeze)
+  // The input files of the analysis as read with the design (FormatInputs of
+  // planner/freeze_inputs.h); "" when the design was parsed from text alone.
+  std::string inputs;
 };
 
 // The analysis plan in canonical form: one "key=value" line per item, keys in

@@ -7,6 +7,7 @@ StudyReading ReadStudy(Store& store, const OutcomeScheme& scheme, const Fieldwor
   r.fieldwork = ReadFieldwork(store, scheme, options);
   r.design = ReadStoredDesign(store);
   r.freeze = ReadFreeze(store);
+  r.monitor_looks = ReadMonitorLooks(store);
   r.listings = ReadListings(store);
   return r;
 }

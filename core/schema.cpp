@@ -339,6 +339,33 @@ CREATE INDEX withdrawal_vacancy ON withdrawal(vacancy_id);
 CREATE INDEX withdrawal_seq ON withdrawal(audit_seq);
 )SQL";
 
+// Version 8: every interim look `monitor` took (planned, unplanned or final),
+// sealed in the chain with what it decided: a later look spends only the alpha
+// these looks left (Lan & DeMets 1983), and `analyze` reads a stop from them.
+// `lower` is the exact boundary (-1: too few discordant sets to stop);
+// alpha_spent is cumulative; decision is continue | stop | final.
+constexpr const char* kMigration8MonitorLook = R"SQL(
+CREATE TABLE monitor_look(
+  id INTEGER PRIMARY KEY,
+  look INTEGER NOT NULL,                  -- 1, 2, ... in the order taken
+  kind TEXT NOT NULL CHECK (kind IN ('planned', 'unplanned', 'final')),
+  sets INTEGER NOT NULL,                  -- completed sets the look analysed
+  planned_sets INTEGER NOT NULL,
+  information REAL NOT NULL,              -- information fraction t in (0, 1]
+  discordant INTEGER NOT NULL,
+  reference_only INTEGER NOT NULL,
+  other_only INTEGER NOT NULL,
+  lower INTEGER NOT NULL,
+  alpha REAL NOT NULL,
+  spending TEXT NOT NULL,                 -- obf | pocock
+  alpha_allowed REAL NOT NULL,
+  alpha_spent REAL NOT NULL,
+  decision TEXT NOT NULL CHECK (decision IN ('continue', 'stop', 'final')),
+  taken_at TEXT NOT NULL,
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX monitor_look_seq ON monitor_look(audit_seq);
+)SQL";
+
 struct Migration {
   int version;
   const char* sql;
@@ -347,6 +374,8 @@ struct Migration {
 const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigration3}, {4, kMigration4},
                                {5, kMigration5DeskPassphrase}, {6, kMigration6},
                                {7, kMigration7Withdrawal}};
+                               {5, kMigration5DeskPassphrase}, {6, kMigration6},
+                               {8, kMigration8MonitorLook}};
 
 // sqlite_master without SQLite's own objects (sqlite_autoindex_* follow from
 // the tables' SQL, which is compared; sqlite_stat* only guide the planner).
@@ -411,6 +440,7 @@ const std::vector<SealedTable>& SealedTables() {
       {"desk_passphrase", {}},
       {"material_file", {}},
       {"withdrawal", {}},
+      {"monitor_look", {}},
   };
   return tables;
 }

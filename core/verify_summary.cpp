@@ -20,6 +20,7 @@ struct SummaryRule {
   const char* sql;
   std::optional<std::string> (*rebuild)(const Stmt& q);
   int since_version = 1;  // the schema version that made its table (an older store has no such entries)
+  int since_version = 1;  // the schema version that made the rule's tables (verify reads older stores unmigrated)
 };
 
 int64_t IntOr0(const Stmt& q, int col) { return q.IsNull(col) ? 0 : q.Int(col); }
@@ -99,14 +100,30 @@ WHERE a.command = 'import outcomes' ORDER BY a.seq)SQL",
      [](const Stmt& q) -> std::optional<std::string> {
        return ImportOutcomesSummary(q.Text(5), q.Int(6), q.Int(7));
      }},
+    // `monitor` seals one look per entry (core/monitor_looks.h).
+    {"monitor", R"SQL(
+SELECT a.seq, a.at, a.actor, a.summary,
+  (SELECT count(*) FROM monitor_look x WHERE x.audit_seq = a.seq) = 1, m.look, m.kind, m.sets, m.planned_sets,
+  m.reference_only, m.other_only, m.lower, m.alpha_spent, m.decision
+FROM audit a
+LEFT JOIN monitor_look m ON m.id = (SELECT max(x.id) FROM monitor_look x WHERE x.audit_seq = a.seq)
+WHERE a.command = 'monitor' ORDER BY a.seq)SQL",
+     [](const Stmt& q) -> std::optional<std::string> {
+       if (q.IsNull(5)) return std::nullopt;
+       return MonitorLookSummary(q.Int(5), q.Text(6), q.Int(7), q.Int(8), q.Int(9), q.Int(10), q.Int(11),
+                                 q.Double(12), q.Text(13));
+     },
+     8},
 };
 
 }  // namespace
 
 std::vector<AuditProblem> CheckSummaries(Store& store) {
   std::vector<AuditProblem> out;
+  const int version = store.schema_version();
   for (const SummaryRule& rule : kRules) {
     if (store.schema_version() < rule.since_version) continue;
+    if (version < rule.since_version) continue;
     Stmt q = store.Prepare(rule.sql);
     while (q.Step()) {
       const std::string stored = q.Text(3);

@@ -1,4 +1,5 @@
 #include "planner/design_file.h"
+#include "planner/freeze_inputs.h"
 
 #include <toml++/toml.h>
 
@@ -671,6 +672,10 @@ void DesignReader::ReadRest(Design& d) {
     if (a->get("equivalence_margin") && d.analysis.alpha >= 0.5)
       Fail(a->get("alpha"), "[analysis].alpha must be below 0.5 when equivalence_margin is set",
            "the two one-sided tests each run at alpha; write alpha = 0.05");
+    d.analysis.spending = String(*a, "[analysis]", "spending", false, d.analysis.spending);
+    if (d.analysis.spending != "obf" && d.analysis.spending != "pocock")
+      Fail(a->get("spending"), "unknown spending function '" + d.analysis.spending + "'",
+           "write spending = \"obf\" (O'Brien\u2013Fleming type) or spending = \"pocock\" (Pocock type)");
     if (const toml::node* looks = a->get("looks")) {
       const toml::array* arr = looks->as_array();
       if (!arr) Fail(looks, "[analysis].looks must be a list of whole numbers", "write looks = [200, 400]");
@@ -771,7 +776,7 @@ const std::vector<DesignSectionKeys>& KnownDesignKeys() {
       {"[schedule]", {"start", "gap_hours", "weekdays", "hours", "sets_per_day"}},
       {"[outcomes]", {"codes", "positive", "window_days"}},
       {"[strata]", {"columns"}},
-      {"[analysis]", {"primary", "correction", "alpha", "looks", "equivalence_margin"}},
+      {"[analysis]", {"primary", "correction", "alpha", "looks", "spending", "equivalence_margin"}},
       {"[ethics]", {"approval", "retention_days", "decline_within_hours", "cap_per_employer"}},
       {"[team]", {"members"}},
   };
@@ -799,7 +804,10 @@ Result<Design> LoadDesign(const std::string& study_dir) {
     return BadInput(path, "no design file here", "run 'twinprobe init' to create one, or pass --study DIR");
   std::stringstream ss;
   ss << in.rdbuf();
-  return ParseDesign(ss.str(), path, study_dir);
+  auto design = ParseDesign(ss.str(), path, study_dir);
+  // The inputs `freeze` covers and `analyze` compares with the freeze.
+  if (design.ok()) design.value().inputs = FormatInputs(ReadAnalysisInputs(design.value(), study_dir));
+  return design;
 }
 
 }  // namespace twinprobe

@@ -19,6 +19,7 @@ Result<FreezeRecord> FreezeStudy(Store& store, const Design& design) {
   r.design_sha256 = Sha256Hex(design.canonical);
   r.analysis_plan = CanonicalAnalysisPlan(design);
   r.analysis_sha256 = Sha256Hex(r.analysis_plan);
+  r.inputs = design.inputs;  // every input file of the analysis, record by record
   const CurrentPlanFieldwork done = ReadCurrentPlanFieldwork(store);
   r.sent_before = done.sendings;
   r.responses_before = done.responses;

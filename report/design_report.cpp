@@ -109,7 +109,11 @@ std::string RenderPreregistrationText(const PreregistrationStatus& s) {
 
 nlohmann::json PreregistrationJson(const PreregistrationStatus& s) {
   nlohmann::json deviations = nlohmann::json::array(), exploratory = nlohmann::json::array();
-  for (const auto& d : s.deviations) deviations.push_back({{"kind", d.kind}, {"what", d.what}});
+  for (const auto& d : s.deviations)
+    deviations.push_back({{"kind", d.kind},
+                          {"what", d.what},
+                          {"file", d.file.empty() ? nlohmann::json() : nlohmann::json(d.file)},
+                          {"keys", d.keys}});
   for (const auto& e : s.exploratory) exploratory.push_back({{"what", e.what}, {"why", e.why}});
   auto opt = [](const std::string& v) { return v.empty() ? nlohmann::json() : nlohmann::json(v); };
   return {{"frozen", s.frozen},

@@ -6,6 +6,7 @@
 #include "report/plural.h"
 #include "report/html_parts.h"
 #include "report/html_sections.h"
+#include "report/early_stop_report.h"
 #include "report/html_table.h"
 #include "report/plain_summary.h"
 #include "report/svg_bar_chart.h"
@@ -151,7 +152,7 @@ std::string PairedTest(const AnalysisResult& r, const ReportContext&) {
                             : "At the study's significance level (alpha = " + FormatP(r.alpha) +
                                   ") the exact McNemar test, two-sided, does not reject equal treatment (" +
                                   PEquals(r.mcnemar_exact_p) + "); this is not evidence that there is none.";
-  return o + html::Para(verdict, "verdict");
+  return o + html::Para(verdict, "verdict") + RenderEarlyStopHtml(r.early_stop, r.reference_label, r.other_label);
 }
 
 std::string StrataTables(const AnalysisResult& r, const ReportContext&) {

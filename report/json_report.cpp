@@ -6,6 +6,7 @@
 #include <nlohmann/json.hpp>
 
 #include "report/design_report.h"
+#include "report/early_stop_report.h"
 #include "report/effects_report.h"
 #include "report/json_number.h"
 
@@ -240,6 +241,7 @@ std::string RenderJsonReport(const AnalysisResult& r) {
   j["employers"] = EmployersJson(r.employers);
   j["balance"] = BalanceJson(r.balance);
   j["preregistration"] = PreregistrationJson(r.preregistration);
+  j["early_stop"] = EarlyStopJson(r.early_stop);
   if (r.listings.present) j["listing_audit"] = ListingAuditJson(r.listings);
   return j.dump(2) + "\n";
 }

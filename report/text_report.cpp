@@ -9,6 +9,7 @@
 
 #include "analysis/strongest_evidence.h"
 #include "report/design_report.h"
+#include "report/early_stop_report.h"
 #include "report/effects_report.h"
 #include "report/employer_flip_text.h"
 #include "report/plain_summary.h"
@@ -300,6 +301,8 @@ std::string RenderTextReport(const AnalysisResult& r) {
   // employers; the design, its balance and the pre-registration still show.
   const bool findings = EarlyStateSentence(r).empty();
   if (findings) FindingsBlock(o, r);
+  if (std::string stop = RenderEarlyStopText(r.early_stop, r.reference_label, r.other_label); !stop.empty())
+    o << "\n" << stop;
   DesignBlock(o, r);
   if (findings) {
     ResponseTimesBlock(o, r);

@@ -69,10 +69,29 @@ double AlphaSpent(Spending s, double alpha, double t) {
 
 std::vector<SequentialBoundary> ExactSequentialBoundaries(const std::vector<SequentialLook>& looks, double alpha,
                                                           Spending spending) {
+  return ContinueSequentialBoundaries({}, looks, alpha, spending);
+}
+
+std::vector<SequentialBoundary> ContinueSequentialBoundaries(const std::vector<SequentialBoundary>& taken,
+                                                             const std::vector<SequentialLook>& looks, double alpha,
+                                                             Spending spending) {
   std::vector<SequentialBoundary> out;
   std::vector<double> mass{1.0};  // P(b = j and not stopped yet), j = 0..n
   int64_t n_prev = 0;
   double spent = 0.0;
+  // The looks already taken keep their boundaries; only what they spent is
+  // recomputed, so the new looks see the alpha they left.
+  for (SequentialBoundary bd : taken) {
+    std::vector<double> dist = Step(mass, bd.n_discordant - n_prev);
+    const int64_t n = bd.n_discordant;
+    bd.alpha_here = TailMass(dist, bd.lower);
+    spent += bd.alpha_here;
+    bd.alpha_spent = spent;
+    for (int64_t b = 0; b <= bd.lower; ++b) dist[b] = dist[n - b] = 0.0;
+    mass = std::move(dist);
+    n_prev = n;
+    out.push_back(bd);
+  }
   for (const auto& look : looks) {
     SequentialBoundary bd;
     bd.information = look.information;

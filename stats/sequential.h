@@ -62,6 +62,19 @@ struct SequentialBoundary {
 std::vector<SequentialBoundary> ExactSequentialBoundaries(const std::vector<SequentialLook>& looks, double alpha,
                                                           Spending spending);
 
+// Boundaries of new looks after looks already taken (Lan & DeMets 1983: the
+// spending function fixes only how much alpha is spent by each information
+// time, so looks may be added when they happen). `taken` are the boundaries
+// as they were set (their `lower` never changes); the walk is conditioned on
+// not having crossed them, and each new look widens its boundary only while
+// the exact cumulative crossing probability stays within alpha(t_k). Returns
+// `taken` (alpha_here and alpha_spent recomputed exactly from their lowers)
+// followed by one boundary per new look. With no taken looks it equals
+// ExactSequentialBoundaries. Requires nondecreasing n_discordant across both.
+std::vector<SequentialBoundary> ContinueSequentialBoundaries(const std::vector<SequentialBoundary>& taken,
+                                                             const std::vector<SequentialLook>& looks, double alpha,
+                                                             Spending spending);
+
 // Stage-wise ordering p-value (Armitage 1957; Fairbanks & Madsen 1982;
 // Jennison & Turnbull 2000, §8.4; references from memory) after stopping at look `stop` (0-based)
 // with b_observed: the probability under no difference of stopping at an

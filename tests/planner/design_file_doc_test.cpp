@@ -100,5 +100,5 @@ TEST_CASE("design file page: the known-keys list is what the reader enforces") {
   REQUIRE_FALSE(d.ok());
   CHECK(d.error().Message() ==
         "study.toml:7:15: unknown key 'unknown_key' in [analysis] — the keys allowed here are: primary, correction, "
-        "alpha, looks, equivalence_margin");
+        "alpha, looks, spending, equivalence_margin");
 }

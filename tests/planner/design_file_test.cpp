@@ -200,5 +200,6 @@ TEST_CASE("design: the canonical analysis plan lists its items in a fixed order"
   CHECK(CanonicalAnalysisPlan(d.value()) ==
         "kind=paired\narms=origin=inland|origin=coastal\nreference=origin=inland\n"
         "codes=none,rejection,info_request,invitation,offer\npositive=info_request,invitation,offer\nwindow_days=28\n"
-        "strata=occupation,region\nprimary=positive_callback\ncorrection=holm\nalpha=0.050000000000000003\nlooks=200\n");
+        "strata=occupation,region\nprimary=positive_callback\ncorrection=holm\nalpha=0.050000000000000003\nlooks=200\n"
+        "spending=obf\n");
 }
