@@ -37,4 +37,9 @@ std::string ImportOutcomesSummary(std::string_view path, int64_t rows_landed, in
          std::to_string(rows_rejected) + " rejected";
 }
 
+std::string ImportSendingsSummary(std::string_view path, int64_t rows_landed, int64_t rows_rejected) {
+  return "import sendings " + std::string(path) + ": " + std::to_string(rows_landed) + " rows landed, " +
+         std::to_string(rows_rejected) + " rejected";
+}
+
 }  // namespace twinprobe

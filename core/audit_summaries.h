@@ -33,4 +33,7 @@ std::string ReviewRecordedSummary(int64_t message_id, std::string_view decision,
 // `import outcomes`: "import outcomes FILE: 3 rows landed, 1 rejected".
 std::string ImportOutcomesSummary(std::string_view path, int64_t rows_landed, int64_t rows_rejected);
 
+// `import sendings`: "import sendings log.csv: 12 rows landed, 1 rejected".
+std::string ImportSendingsSummary(std::string_view path, int64_t rows_landed, int64_t rows_rejected);
+
 }  // namespace twinprobe

@@ -321,13 +321,28 @@ CREATE INDEX material_file_probe ON material_file(probe_id);
 CREATE INDEX material_file_seq ON material_file(audit_seq);
 )SQL";
 
+// Version 9: how and by whom a probe was sent (`import sendings` reads them
+// from the team's log). A table of its own rather than new columns of
+// `sending`: the digest of a sealed row covers all of its columns, so new
+// columns would change the digest of every sending sealed before and break
+// the chain of every existing store.
+constexpr const char* kMigration9SendingDetail = R"SQL(
+CREATE TABLE sending_detail(
+  sending_id INTEGER PRIMARY KEY REFERENCES sending(id),
+  channel TEXT,                           -- mail | phone | letter | other
+  sent_by TEXT,                           -- as the field team names the sender
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX sending_detail_seq ON sending_detail(audit_seq);
+)SQL";
+
 struct Migration {
   int version;
   const char* sql;
 };
 
 const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigration3}, {4, kMigration4},
-                               {5, kMigration5DeskPassphrase}, {6, kMigration6}};
+                               {5, kMigration5DeskPassphrase}, {6, kMigration6},
+                               {9, kMigration9SendingDetail}};
 
 // sqlite_master without SQLite's own objects (sqlite_autoindex_* follow from
 // the tables' SQL, which is compared; sqlite_stat* only guide the planner).
@@ -391,6 +406,7 @@ const std::vector<SealedTable>& SealedTables() {
       {"listing_replay", {}},
       {"desk_passphrase", {}},
       {"material_file", {}},
+      {"sending_detail", {}},
   };
   return tables;
 }

@@ -21,6 +21,7 @@ const std::string kWarning =
 struct TamperedStudy {
   testing::PlannedStudy s;
   TamperedStudy() {
+    testing::SendProbes(s.path, {"P00001"}, "2027-03-01");
     REQUIRE(RunCli({"--study", s.path, "record", "P00001", "rejection", "--at", "2027-03-05"}).exit_code == 0);
   }
   void Tamper() { s.Open()->Exec("UPDATE response SET code = 'invitation' WHERE id = 1"); }
