@@ -69,11 +69,11 @@ TEST_CASE("record: a response before the sending is refused, on the sending day 
   OutcomeScheme scheme;
   REQUIRE(RecordSending(*store, "P00001", "2027-03-04T09:14").ok());
   auto early = RecordResponse(*store, scheme, Entry("P00001", "rejection", "2027-03-04T09:00"));
-  CHECK(early.error().Message() == "the response time 2027-03-04T09:00:00Z is before the probe was sent "
-                                   "(2027-03-04T09:14:00Z) \u2014 check the date; a response cannot precede the "
-                                   "application");
+  CHECK(early.error().Message() == "the response time 2027-03-04T09:00:00Z of P00001 is before its sending "
+                                   "(2027-03-04T09:14:00Z) \u2014 check the date; if the sending time is wrong, "
+                                   "correct it first with 'twinprobe sent P00001 --at TIME'");
   auto day_before = RecordResponse(*store, scheme, Entry("P00001", "rejection", "2027-03-03"));
-  CHECK(day_before.error().what == "the response time 2027-03-03T00:00:00Z is before the probe was sent "
+  CHECK(day_before.error().what == "the response time 2027-03-03T00:00:00Z of P00001 is before its sending "
                                    "(2027-03-04T09:14:00Z)");
   auto same_day = RecordResponse(*store, scheme, Entry("P00001", "rejection", "2027-03-04"));
   REQUIRE(same_day.ok());
@@ -97,15 +97,17 @@ TEST_CASE("record: outside the observation window is stored with the flag 'late'
   CHECK(late.value().days_after_sending == 28);
   CHECK(store->QueryInt("SELECT count(*) FROM response WHERE flags = 'late'") == 1);
   auto unsent = RecordResponse(*store, scheme, Entry("P00002", "rejection", "2027-03-05"));
-  REQUIRE(unsent.ok());
-  CHECK(unsent.value().unsent);
-  CHECK_FALSE(unsent.value().late);
+  REQUIRE_FALSE(unsent.ok());
+  CHECK(unsent.error().Message() ==
+        "P00002 has no sending recorded, so no response to it can have come \u2014 record the sending first with "
+        "'twinprobe sent P00002 --at TIME' (or 'twinprobe import sendings FILE.csv' for many)");
 }
 
 TEST_CASE("record: corrections never overwrite, each new response supersedes the current one") {
   testing::PlannedStudy s;
   auto store = s.Open();
   OutcomeScheme scheme;
+  REQUIRE(RecordSending(*store, "P00003", "2027-03-02").ok());
   auto first = RecordResponse(*store, scheme, Entry("P00003", "rejection", "2027-03-04"));
   auto second = RecordResponse(*store, scheme, Entry("P00003", "invitation", "2027-03-04"));
   auto third = RecordResponse(*store, scheme, Entry("P00003", "offer", "2027-03-10"));

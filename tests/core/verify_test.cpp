@@ -18,8 +18,10 @@ TEST_CASE("verify: a freshly migrated store has exactly the reference schema") {
             "the store holds an index 'material_file_probe' on material_file that twinprobe does not create",
             "the store holds an index 'material_file_seq' on material_file that twinprobe does not create",
             "the store holds an index 'response_supersedes' on response that twinprobe does not create",
+            "the store holds an index 'sending_detail_seq' on sending_detail that twinprobe does not create",
             "the store holds a table 'desk_passphrase' that twinprobe does not create",
-            "the store holds a table 'material_file' that twinprobe does not create"});
+            "the store holds a table 'material_file' that twinprobe does not create",
+            "the store holds a table 'sending_detail' that twinprobe does not create"});
 }
 
 TEST_CASE("verify: a trigger added to a table is named with its table") {
