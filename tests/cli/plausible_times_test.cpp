@@ -80,22 +80,3 @@ TEST_CASE("issue 17: a decline before the offer it declines is refused") {
         "twinprobe: the decline time 2027-03-11T00:00:00Z of P00007 is in the future (now is 2027-03-10T12:00:00Z) "
         "\u2014 check the date; record an event once it has happened\n");
 }
-
-TEST_CASE("issue 17: record and import outcomes refuse a probe never sent, naming sent and import sendings") {
-  Refusals s;
-  CHECK(s.Refused({"record", "P00002", "invitation", "--at", "2027-03-05"}) ==
-        "twinprobe: P00002 has no sending recorded, so no response to it can have come \u2014 record the sending "
-        "first with 'twinprobe sent P00002 --at TIME' (or 'twinprobe import sendings FILE.csv' for many)\n");
-  const std::string csv = s.study.dir / "outcomes.csv";
-  testing::WriteFile(csv, "probe,code,received_at\nP00002,invitation,2027-03-05\n");
-  CHECK(s.Refused({"import", "outcomes", csv}) ==
-        "twinprobe: " + csv +
-            ":2: P00002 has no sending recorded, so no response to it can have come \u2014 record the sending first "
-            "with 'twinprobe sent P00002 --at TIME' (or 'twinprobe import sendings FILE.csv' for many)\n");
-  // After the sending, the same file lands.
-  REQUIRE(s.Run({"sent", "P00002", "--at", "2027-03-03T13:04"}).exit_code == 0);
-  auto landed = s.Run({"import", "outcomes", csv});
-  INFO(landed.err);
-  CHECK(landed.exit_code == 0);
-  CHECK(landed.out == "Imported 1 response from " + csv + ".\n" + testing::HeadLine(s.study.path));
-}

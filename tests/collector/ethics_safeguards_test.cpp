@@ -7,6 +7,7 @@
 #include <nlohmann/json.hpp>
 
 #include "core/store.h"
+#include "testing/pinned_clock.h"
 #include "testing/testing.h"
 
 using namespace twinprobe;
@@ -15,6 +16,7 @@ using testing::RunCli;
 namespace {
 
 struct Study {
+  testing::PinnedClock clock;  // the season's end: fieldwork times may not lie in the future
   testing::TempDir dir;
   std::string path;
   Study() : path(dir / "s") { REQUIRE(RunCli({"--study", path, "init"}).exit_code == 0); }

@@ -97,10 +97,16 @@ TEST_CASE("record: outside the observation window is stored with the flag 'late'
   CHECK(late.value().days_after_sending == 28);
   CHECK(store->QueryInt("SELECT count(*) FROM response WHERE flags = 'late'") == 1);
   auto unsent = RecordResponse(*store, scheme, Entry("P00002", "rejection", "2027-03-05"));
-  REQUIRE_FALSE(unsent.ok());
-  CHECK(unsent.error().Message() ==
-        "P00002 has no sending recorded, so no response to it can have come \u2014 record the sending first with "
-        "'twinprobe sent P00002 --at TIME' (or 'twinprobe import sendings FILE.csv' for many)");
+  REQUIRE(unsent.ok());
+  CHECK(unsent.value().unsent);
+  CHECK_FALSE(unsent.value().late);
+  // With the rule on (ResponseRules::require_sending), the same entry is refused.
+  ResponseWriter strict(*store, scheme, 0, "test", "2027-04-26T14:59:00Z", ResponseRules{true, std::nullopt});
+  auto refused = strict.Add(Entry("P00004", "rejection", "2027-03-05"), "");
+  REQUIRE_FALSE(refused.ok());
+  CHECK(refused.error().Message() ==
+        "P00004 has no sending recorded, so no response to it can have come \u2014 record the sending first with "
+        "'twinprobe sent P00004 --at TIME' (or 'twinprobe import sendings FILE.csv' for many)");
 }
 
 TEST_CASE("record: corrections never overwrite, each new response supersedes the current one") {
