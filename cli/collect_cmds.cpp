@@ -6,6 +6,7 @@
 
 #include "cli/command.h"
 #include "cli/near_duplicate_output.h"
+#include "collector/declines.h"
 #include "collector/import_outcomes.h"
 #include "collector/import_pairs.h"
 #include "collector/responses.h"
@@ -62,10 +63,9 @@ int RunRecord(Context& ctx, const RecordOptions& o) {
     if (v.superseded) std::cout << "; it supersedes response " << v.superseded << ", which is kept";
     std::cout << ".\n";
     if (!decline_by.empty())
-      std::cout << "Decline it by " << decline_by << " (within " << ethics.decline_within_hours
-                << " hours of receipt) with the letter in ethics/letters/decline-invitation.md, then run 'twinprobe "
-                   "decline "
-                << v.probe_ref << "'.\n";
+      std::cout << DeclineReminder(v.code, v.probe_ref, *ParseIsoTime(decline_by), ethics.decline_within_hours,
+                                   "run 'twinprobe decline " + v.probe_ref + "'")
+                << "\n";
   }
   return 0;
 }
@@ -75,7 +75,9 @@ int RunSent(Context& ctx, const std::string& probe, const std::string& at) {
   if (!store.ok()) return ReportError(store.error());
   // The application about to leave must be the one rendered for this plan.
   if (Status m = CheckProbeMaterial(*store.value(), ctx.study_dir, probe); !m.ok()) return ReportError(m.error());
-  auto r = RecordSending(*store.value(), probe, at);
+  auto settings = LoadStudySettings(ctx, *store.value());
+  if (!settings.ok()) return ReportError(settings.error());
+  auto r = RecordSending(*store.value(), probe, at, settings.value().early_days());
   if (!r.ok()) return ReportError(r.error());
   const SendingRecord& v = r.value();
   if (ctx.json) {

@@ -53,6 +53,7 @@ void RegisterEthicsCommands(CLI::App& app, Context& ctx);   // decline, purge (e
 void AddImportResponses(CLI::App& import, Context& ctx);  // outcomes, pairs (collect_cmds.cpp)
 void AddImportRanks(CLI::App& import, Context& ctx);      // ranks (import_ranks_cmd.cpp)
 void AddImportLabels(CLI::App& import, Context& ctx);     // labels (fetch_cmd.cpp)
+void RegisterImportSendings(CLI::App& import, Context& ctx);  // sendings (import_sendings_cmd.cpp)
 void AddRankCalculators(CLI::App& calc, Context& ctx);    // wilcoxon, emd (calc_ranks_cmd.cpp)
 
 // A command line to suggest in a "Next:" or "then run" sentence, naming the
@@ -83,6 +84,9 @@ struct StudySettings {
   EthicsBlock ethics;
   bool has_design = false;
   std::optional<Design> design;  // the parsed study.toml, when there is one
+
+  // [schedule] early_days, or its default without a design file.
+  int early_days() const { return design ? design->schedule.early_days : Schedule{}.early_days; }
 };
 Result<StudySettings> LoadStudySettings(const Context& ctx, Store& store);
 

@@ -94,7 +94,11 @@ int64_t SimulateFieldwork(Store& store, const OutcomeScheme& scheme, const DemoM
     int64_t sent = *ParseIsoTime(r.planned_at);
     int64_t received = sent + 86400 * rng.Between(1, 14) + rng.Between(0, 8 * 3600);
     ResponseEntry e{r.ref, code, FormatIsoTime(received), rng.Bernoulli(0.8) ? "mail" : "phone", "", "demo"};
-    auto added = AddResponse(store, scheme, e, write.seq(), "demo", write.at(), "demo");
+    // The simulated season runs on its own clock: at the moment each answer
+    // arrives, it has happened (the real clock may be before the season).
+    ResponseRules rules;
+    rules.now = received;
+    auto added = AddResponse(store, scheme, e, write.seq(), "demo", write.at(), "demo", rules);
     if (!added.ok()) throw std::runtime_error("demo simulation: " + added.error().Message());
     ++recorded;
   }

@@ -31,6 +31,9 @@ int RunDecline(Context& ctx, const DeclineOptions& o) {
               << "\n";
   else
     std::cout << DeclineSentence(d) << "\n";
+  if (!ctx.json && !d.already)
+    if (std::string kept = DeclineKeptSentence(d, settings.value().ethics.decline_within_hours); !kept.empty())
+      std::cout << kept << "\n";
   return 0;
 }
 

@@ -5,6 +5,7 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
+#include "collector/declines.h"
 #include "collector/mail_review.h"
 #include "core/clock.h"
 #include "core/ethics_gate.h"
@@ -221,10 +222,9 @@ int RunReview(Context& ctx, const ReviewOptions& o) {
   if (r.superseded) std::cout << "; it supersedes response " << r.superseded << ", which is kept";
   std::cout << ".\n";
   if (!decline_by.empty())
-    std::cout << "Decline it by " << decline_by << " (within " << ethics.decline_within_hours
-              << " hours of receipt) with the letter in ethics/letters/decline-invitation.md, then run 'twinprobe "
-                 "decline "
-              << r.probe_ref << "'.\n";
+    std::cout << DeclineReminder(r.code, r.probe_ref, *ParseIsoTime(decline_by), ethics.decline_within_hours,
+                                 "run 'twinprobe decline " + r.probe_ref + "'")
+              << "\n";
   return 0;
 }
 

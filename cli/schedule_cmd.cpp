@@ -50,9 +50,8 @@ void PrintDeclines(const std::vector<PendingDecline>& declines, int hours) {
   for (const auto& d : declines) {
     if (overdue > 0 && !d.overdue && &d == &declines[overdue])
       std::cout << "Still within the deadline:\n";
-    std::cout << "  " << (d.overdue ? "overdue " : "due     ") << FormatIsoTime(d.deadline) << "  " << d.probe_ref
-              << "  " << d.vacancy_ref << "  " << d.employer_key << "  " << d.code << " received " << d.received_at
-              << "\n";
+    std::cout << "  " << (d.overdue ? "overdue: " : "due: ") << DeclineDeadlineWords(d.code, d.probe_ref, d.deadline, hours)
+              << "; vacancy " << d.vacancy_ref << " (" << d.employer_key << "), received " << d.received_at << "\n";
   }
   std::cout << "\n";
 }

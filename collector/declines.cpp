@@ -4,6 +4,7 @@
 
 #include "collector/event_time.h"
 #include "collector/responses.h"
+#include "collector/time_rules.h"
 #include "core/audit.h"
 #include "core/audit_summaries.h"
 #include "core/clock.h"
@@ -17,6 +18,31 @@ std::string PositiveResponseWords(const std::string& code) {
   if (code == "invitation" || code == "offer") return code;
   if (code == "info_request") return "request for information";
   return "'" + code + "' response";
+}
+
+std::string DeclineDeadlineWords(const std::string& code, const std::string& probe_ref, int64_t deadline,
+                                 int decline_within_hours) {
+  return "decline the " + PositiveResponseWords(code) + " to " + probe_ref + " by " + FormatIsoTime(deadline) +
+         " (within " + std::to_string(decline_within_hours) + " hours of receipt)";
+}
+
+std::string DeclineReminder(const std::string& code, const std::string& probe_ref, int64_t deadline,
+                            int decline_within_hours, const std::string& next_step) {
+  std::string words = DeclineDeadlineWords(code, probe_ref, deadline, decline_within_hours);
+  words[0] = 'D';
+  return words + " with the letter in " + kDeclineLetterPath + ", then " + next_step + ".";
+}
+
+std::string DeclineKeptSentence(const DeclineRecord& d, int decline_within_hours) {
+  if (decline_within_hours <= 0 || d.received_at.empty()) return "";
+  const int64_t deadline =
+      ParseIsoTime(d.received_at).value_or(0) + static_cast<int64_t>(decline_within_hours) * 3600;
+  const int64_t declined = ParseIsoTime(d.declined_at).value_or(0);
+  std::string kept = declined <= deadline ? "kept"
+                                          : "missed by " + std::to_string((declined - deadline + 3599) / 3600) +
+                                                ((declined - deadline + 3599) / 3600 == 1 ? " hour" : " hours");
+  return "The deadline was to " + DeclineDeadlineWords(d.code, d.probe_ref, deadline, decline_within_hours) + ": " +
+         kept + ".";
 }
 
 std::string DeclineSentence(const DeclineRecord& d) {
@@ -52,21 +78,22 @@ Result<DeclineRecord> RecordDecline(Store& store, const OutcomeScheme& scheme, c
                     "only a positive response (" + positive +
                         ") is declined; if the employer answered again, record that first with 'twinprobe record'");
   }
-  DeclineRecord out{probe_ref, *code, t->text(), false};
+  DeclineRecord out{probe_ref, *code, t->text(), false, received_at.value_or("")};
   if (auto first = FirstDeclinedAt(store, probe_id)) {
     out.declined_at = *first;
     out.already = true;
     return out;  // nothing written; the transaction rolls back
   }
-  if (received_at) {
-    // A decline answers a response that has arrived; compared by day when
-    // either time is a date alone, as a response is checked against its sending.
-    EventTime received = ParseEventTime(*received_at).value_or(EventTime{});
-    if (IsBefore(*t, received))
-      return BadInput("", "the decline time " + out.declined_at + " is before the " + PositiveResponseWords(*code) +
-                              " to " + probe_ref + " was received (" + *received_at + ")",
-                      "check the date; a decline answers a response already received");
-  }
+  // A decline answers a response that has arrived (the plausible-time rules,
+  // collector/time_rules.h, compare by day when either time is a date alone).
+  TimeRules rules;
+  rules.now = ParseIsoTime(write.at()).value_or(NowEpoch());
+  std::optional<EventTime> received;
+  if (received_at) received = ParseEventTime(*received_at);
+  if (Status plausible = CheckPlausibleTime(
+          rules, TimedFact{TimedEvent::kDecline, probe_ref, *t, received, PositiveResponseWords(*code)}, "");
+      !plausible.ok())
+    return plausible.error();
   DeclineRow row{probe_id, out.declined_at, std::nullopt, write.actor(), write.at(), write.seq()};
   if (!channel.empty()) row.channel = channel;
   InsertDecline(store, row);

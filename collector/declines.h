@@ -18,6 +18,7 @@ struct DeclineRecord {
   std::string code;         // the positive response declined, e.g. "invitation"
   std::string declined_at;  // as stored; the earlier time when `already`
   bool already = false;     // the probe was declined before: nothing written
+  std::string received_at;  // when the declined response arrived; "" unknown
 };
 
 // Records that the positive response to `probe_ref` was declined at
@@ -38,6 +39,28 @@ std::string DeclineSentence(const DeclineRecord& d);
 // How messages name a positive response: "invitation", "offer",
 // "request for information" (info_request), else the code in quotes.
 std::string PositiveResponseWords(const std::string& code);
+
+// Where the decline letter is, in every study folder `init` writes.
+inline constexpr const char* kDeclineLetterPath = "ethics/letters/decline-invitation.md";
+
+// One positive response's decline deadline in the words `record`, `review`,
+// `schedule`, `decline` and the desk all use: "decline the request for
+// information to P00031 by 2027-03-06T10:00:00Z (within 48 hours of receipt)".
+std::string DeclineDeadlineWords(const std::string& code, const std::string& probe_ref, int64_t deadline,
+                                 int decline_within_hours);
+
+// The reminder after a positive response is recorded: "Decline the
+// invitation to P00031 by … (within 48 hours of receipt) with the letter in
+// ethics/letters/decline-invitation.md, then <next_step>." `next_step` is
+// "run 'twinprobe decline P00031'" in the commands, the Declines page on the
+// desk.
+std::string DeclineReminder(const std::string& code, const std::string& probe_ref, int64_t deadline,
+                            int decline_within_hours, const std::string& next_step);
+
+// After `decline`: whether it kept the deadline, e.g. "The deadline was to
+// decline the invitation to P00031 by … (within 48 hours of receipt): kept."
+// or "…: missed by 5 hours."; "" when the study sets no deadline.
+std::string DeclineKeptSentence(const DeclineRecord& d, int decline_within_hours);
 
 struct PendingDecline {
   std::string probe_ref;

@@ -129,7 +129,11 @@ Result<ReviewOutcome> DecideReview(Store& store, const OutcomeScheme& scheme, co
   entry.channel = "mail";
   entry.note = "mail message " + n;
   entry.origin = "mail-review";
-  auto recorded = AddResponse(store, scheme, entry, write.seq(), write.actor(), write.at(), "");
+  // A reply in the study's mailbox proves the application left: an unsent
+  // probe is warned about, not refused (collector/responses.h ResponseRules).
+  ResponseRules rules;
+  rules.require_sending = false;  // also the default for now
+  auto recorded = AddResponse(store, scheme, entry, write.seq(), write.actor(), write.at(), "", rules);
   if (!recorded.ok()) return recorded.error();
   out.response_id = recorded.value().response_id;
   out.received_at = recorded.value().received_at;

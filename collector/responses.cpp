@@ -3,8 +3,10 @@
 #include <algorithm>
 
 #include "collector/event_time.h"
+#include "collector/time_rules.h"
 #include "core/audit.h"
 #include "core/audit_summaries.h"
+#include "core/clock.h"
 #include "core/response_records.h"
 #include "core/sending_records.h"
 #include "core/suggest.h"
@@ -30,9 +32,16 @@ const std::vector<std::string>& ResponseChannels() {
 
 int64_t FindProbe(Store& store, const std::string& probe_ref) { return FindCurrentProbe(store, probe_ref); }
 
+Error NoSendingError(const std::string& where, const std::string& probe_ref) {
+  return BadInput(where, probe_ref + " has no sending recorded, so no response to it can have come",
+                  "record the sending first with 'twinprobe sent " + probe_ref +
+                      " --at TIME' (or 'twinprobe import sendings FILE.csv' for many)");
+}
+
 ResponseWriter::ResponseWriter(Store& store, const OutcomeScheme& scheme, int64_t seq, std::string actor,
-                               std::string at)
+                               std::string at, ResponseRules rules)
     : scheme_(scheme),
+      rules_(rules),
       seq_(seq),
       actor_(std::move(actor)),
       at_(std::move(at)),
@@ -70,14 +79,20 @@ Result<RecordedResponse> ResponseWriter::Add(const ResponseEntry& e, const std::
 
   out.sent_at = records_->LastSentAt(probe_id);
   if (out.sent_at.empty()) {
+    if (rules_.require_sending) return NoSendingError(where, e.probe_ref);
     out.unsent = true;
-  } else if (received) {
-    EventTime sent = ParseEventTime(out.sent_at).value_or(EventTime{});
-    if (IsBefore(*received, sent))
-      return BadInput(where, "the response time " + out.received_at + " is before the probe was sent (" + out.sent_at + ")",
-                      "check the date; a response cannot precede the application");
-    out.late = IsAfterWindow(sent, *received, scheme_.window_days);
-    out.days_after_sending = DaysBetween(sent, *received);
+  }
+  std::optional<EventTime> sent;
+  if (!out.sent_at.empty()) sent = ParseEventTime(out.sent_at);
+  if (received) {
+    TimeRules clock;
+    clock.now = rules_.now ? *rules_.now : ParseIsoTime(at_).value_or(0);
+    TimedFact fact{TimedEvent::kResponse, e.probe_ref, *received, sent, ""};
+    if (Status plausible = CheckPlausibleTime(clock, fact, where); !plausible.ok()) return plausible.error();
+    if (sent) {
+      out.late = IsAfterWindow(*sent, *received, scheme_.window_days);
+      out.days_after_sending = DaysBetween(*sent, *received);
+    }
   }
 
   out.superseded = records_->CurrentResponseId(probe_id);
@@ -100,8 +115,8 @@ Result<RecordedResponse> ResponseWriter::Add(const ResponseEntry& e, const std::
 
 Result<RecordedResponse> AddResponse(Store& store, const OutcomeScheme& scheme, const ResponseEntry& entry,
                                      int64_t seq, const std::string& actor, const std::string& at,
-                                     const std::string& where) {
-  ResponseWriter writer(store, scheme, seq, actor, at);
+                                     const std::string& where, const ResponseRules& rules) {
+  ResponseWriter writer(store, scheme, seq, actor, at, rules);
   return writer.Add(entry, where);
 }
 
@@ -114,32 +129,53 @@ Result<RecordedResponse> RecordResponse(Store& store, const OutcomeScheme& schem
   return r;
 }
 
-Result<SendingRecord> RecordSending(Store& store, const std::string& probe_ref, const std::string& sent_at) {
-  AuditedWrite write(store, "sent");
-  int64_t probe_id = FindProbe(store, probe_ref);
+Result<SendingRecord> AddSending(Store& store, const SendingEntry& e, int early_days, int64_t seq,
+                                 const std::string& actor, const std::string& at, const std::string& where) {
+  int64_t probe_id = FindProbe(store, e.probe_ref);
   if (probe_id == 0)
-    return BadInput("", "unknown probe '" + probe_ref + "'", "use a probe reference from 'twinprobe schedule'");
-  std::string text = sent_at.empty() ? write.at() : sent_at;
+    return BadInput(where, "unknown probe '" + e.probe_ref + "'", "use a probe reference from 'twinprobe schedule'");
+  const auto& channels = ResponseChannels();
+  if (!e.channel.empty() && std::find(channels.begin(), channels.end(), e.channel) == channels.end())
+    return BadInput(where, "unknown channel '" + e.channel + "'" + DidYouMean(e.channel, channels),
+                    "use mail, phone, letter or other");
+  std::string text = e.sent_at.empty() ? at : e.sent_at;
   auto t = ParseEventTime(text);
   if (!t) return BadInput("", "'" + text + "' is not a date or time", kTimeFormat);
   if (auto w = WithdrawalOfProbe(store, probe_id); w && LastSentAt(store, probe_id).empty())
     return BadInput("", probe_ref + " belongs to vacancy " + w->vacancy_ref + ", withdrawn at " + w->withdrawn_at +
                             " (" + w->reason + "), so it is not to be sent",
                     "send only what 'twinprobe schedule' lists; a withdrawn vacancy's unsent applications are left out");
+  if (!t) return BadInput(where, "'" + text + "' is not a date or time", kTimeFormat);
   SendingRecord out;
-  out.probe_ref = probe_ref;
+  out.probe_ref = e.probe_ref;
   out.sent_at = t->text();
 
+  TimeRules rules = StudyTimeRules(store, early_days);
+  rules.now = ParseIsoTime(at).value_or(rules.now);
+  if (Status plausible = CheckPlausibleTime(rules, TimedFact{TimedEvent::kSending, e.probe_ref, *t, std::nullopt, ""},
+                                            where);
+      !plausible.ok())
+    return plausible.error();
   out.previous_sent_at = LastSentAt(store, probe_id);
   if (auto answered = CurrentResponseReceivedAt(store, probe_id)) {
     EventTime received = ParseEventTime(*answered).value_or(EventTime{});
     if (IsBefore(received, *t))
-      return BadInput("", probe_ref + " already has a response received " + *answered + ", before " + out.sent_at,
+      return BadInput(where, e.probe_ref + " already has a response received " + *answered + ", before " + out.sent_at,
                       "check the date; a probe is sent before it is answered");
   }
-  InsertSending(store, SendingRow{probe_id, out.sent_at, write.actor(), write.at(), write.seq()});
-  write.Commit(SentSummary(probe_ref, out.sent_at, out.previous_sent_at));
+  SendingRow row{probe_id, out.sent_at, actor, at, seq, e.channel, e.sent_by};
+  InsertSending(store, row);
   return out;
+}
+
+Result<SendingRecord> RecordSending(Store& store, const std::string& probe_ref, const std::string& sent_at,
+                                    int early_days) {
+  AuditedWrite write(store, "sent");
+  auto r = AddSending(store, SendingEntry{probe_ref, sent_at, "", ""}, early_days, write.seq(), write.actor(),
+                      write.at(), "");
+  if (!r.ok()) return r.error();
+  write.Commit(SentSummary(probe_ref, r.value().sent_at, r.value().previous_sent_at));
+  return r;
 }
 
 Result<std::string> MarkSent(Store& store, const std::string& probe_ref, const std::string& sent_at) {

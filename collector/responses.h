@@ -9,6 +9,7 @@
 // (collector/event_time.h).
 #include <cstdint>
 #include <memory>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -27,6 +28,18 @@ struct ResponseEntry {
   std::string channel;      // mail | phone | letter | other | "" (unknown)
   std::string note;
   std::string origin = "record";
+};
+
+// What a writer demands beyond the entry itself.
+struct ResponseRules {
+  // Refuse a response to a probe with no sending (NoSendingError). Off by
+  // default for now: the rule is written and tested, but turning it on for
+  // `record`, `import outcomes` and the desk needs the remaining tests that
+  // record without sending to send first (see docs/record.md).
+  bool require_sending = false;
+  // The study clock for "not in the future"; none: the writer's entry time
+  // `at` (NowIso). The demo's simulated season sets its own end.
+  std::optional<int64_t> now;
 };
 
 // How a writer reads an entry's time (imports differ from `record`).
@@ -52,20 +65,24 @@ struct RecordedResponse {
 // statements (imports add thousands through one writer).
 class ResponseWriter {
  public:
-  ResponseWriter(Store& store, const OutcomeScheme& scheme, int64_t seq, std::string actor, std::string at);
+  ResponseWriter(Store& store, const OutcomeScheme& scheme, int64_t seq, std::string actor, std::string at,
+                 ResponseRules rules = {});
   ~ResponseWriter();
   ResponseWriter(const ResponseWriter&) = delete;
   ResponseWriter& operator=(const ResponseWriter&) = delete;
 
   // Validates `entry` and adds it. `where` prefixes messages (e.g.
   // "file.csv:12"; "" for the command line). Errors (bad input): unknown
-  // probe, code outside the scheme, unknown channel, unreadable time, a time
-  // before the probe's newest sending. A time after the observation window is
-  // accepted and flagged 'late'.
+  // probe, code outside the scheme, unknown channel, unreadable time, a probe
+  // with no sending (unless the rules allow it), a time that breaks the
+  // plausible-time rules (collector/time_rules.h: year, future, before the
+  // probe's newest sending). A time after the observation window is accepted
+  // and flagged 'late'.
   Result<RecordedResponse> Add(const ResponseEntry& entry, const std::string& where, const TimeReading& time = {});
 
  private:
   const OutcomeScheme& scheme_;
+  ResponseRules rules_;
   int64_t seq_;
   std::string actor_, at_;
   std::unique_ptr<ResponseRecords> records_;  // its statements, prepared once
@@ -75,7 +92,7 @@ class ResponseWriter {
 // a single response inside their own audited write, e.g. the demo).
 Result<RecordedResponse> AddResponse(Store& store, const OutcomeScheme& scheme, const ResponseEntry& entry,
                                      int64_t seq, const std::string& actor, const std::string& at,
-                                     const std::string& where);
+                                     const std::string& where, const ResponseRules& rules = {});
 
 // One `record` command: Add in its own audited transaction.
 Result<RecordedResponse> RecordResponse(Store& store, const OutcomeScheme& scheme, const ResponseEntry& entry);
@@ -86,13 +103,34 @@ struct SendingRecord {
   std::string previous_sent_at;  // the sending it replaces, "" if none
 };
 
-// One `sent` command in its own audited transaction. `sent_at` is ISO ("" =
-// now). Errors: unknown probe, unreadable time, a sending time after the
-// probe's current response arrived.
-Result<SendingRecord> RecordSending(Store& store, const std::string& probe_ref, const std::string& sent_at);
+struct SendingEntry {
+  std::string probe_ref;
+  std::string sent_at;  // ISO date or time, offsets allowed; "" means now
+  std::string channel;  // mail | phone | letter | other | "" (unknown)
+  std::string sent_by;  // who sent it; "" unknown
+};
+
+// Validates one sending and appends it under the caller's audit entry `seq`
+// (`sent` and `import sendings` both go through here). `where` prefixes
+// messages ("" for the command line). Errors (bad input): unknown probe,
+// unreadable time, unknown channel, a time that breaks the plausible-time
+// rules (collector/time_rules.h: year, future, before the schedule's start
+// less [schedule] early_days), a sending time after the probe's current
+// response arrived.
+Result<SendingRecord> AddSending(Store& store, const SendingEntry& entry, int early_days, int64_t seq,
+                                 const std::string& actor, const std::string& at, const std::string& where);
+
+// One `sent` command in its own audited transaction (AddSending).
+// `early_days` is the design's [schedule] early_days.
+Result<SendingRecord> RecordSending(Store& store, const std::string& probe_ref, const std::string& sent_at,
+                                    int early_days = 1);
 
 // RecordSending, returning only the stored time.
 Result<std::string> MarkSent(Store& store, const std::string& probe_ref, const std::string& sent_at);
+
+// The refusal of a response, an import row or a form for a probe with no
+// sending: names `sent PROBE --at TIME` and `import sendings` as the fix.
+Error NoSendingError(const std::string& where, const std::string& probe_ref);
 
 // Looks up a probe of the current plan by its reference; 0 if unknown.
 int64_t FindProbe(Store& store, const std::string& probe_ref);

@@ -56,4 +56,9 @@ std::string MonitorLookSummary(int64_t look, std::string_view kind, int64_t sets
          ", alpha spent " + spent + ": " + std::string(decision);
 }
 
+std::string ImportSendingsSummary(std::string_view path, int64_t rows_landed, int64_t rows_rejected) {
+  return "import sendings " + std::string(path) + ": " + std::to_string(rows_landed) + " rows landed, " +
+         std::to_string(rows_rejected) + " rejected";
+}
+
 }  // namespace twinprobe

@@ -44,4 +44,7 @@ std::string MonitorLookSummary(int64_t look, std::string_view kind, int64_t sets
                                int64_t reference_only, int64_t other_only, int64_t lower, double alpha_spent,
                                std::string_view decision);
 
+// `import sendings`: "import sendings log.csv: 12 rows landed, 1 rejected".
+std::string ImportSendingsSummary(std::string_view path, int64_t rows_landed, int64_t rows_rejected);
+
 }  // namespace twinprobe

@@ -62,6 +62,7 @@ struct Schedule {
   int hour_open = 9;     // sending hours [hour_open, hour_close), UTC
   int hour_close = 17;
   int sets_per_day = 20;  // sets started per sending day, in vacancy-file order
+  int early_days = 1;     // a sending may be this many days before the first planned one
   SourcePos gap_pos;      // where gap_hours was written (for messages)
 };
 

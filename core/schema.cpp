@@ -366,6 +366,20 @@ CREATE TABLE monitor_look(
 CREATE INDEX monitor_look_seq ON monitor_look(audit_seq);
 )SQL";
 
+// Version 9: how and by whom a probe was sent (`import sendings` reads them
+// from the team's log). A table of its own rather than new columns of
+// `sending`: the digest of a sealed row covers all of its columns, so new
+// columns would change the digest of every sending sealed before and break
+// the chain of every existing store.
+constexpr const char* kMigration9SendingDetail = R"SQL(
+CREATE TABLE sending_detail(
+  sending_id INTEGER PRIMARY KEY REFERENCES sending(id),
+  channel TEXT,                           -- mail | phone | letter | other
+  sent_by TEXT,                           -- as the field team names the sender
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX sending_detail_seq ON sending_detail(audit_seq);
+)SQL";
+
 struct Migration {
   int version;
   const char* sql;
@@ -376,6 +390,8 @@ const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigrat
                                {7, kMigration7Withdrawal}};
                                {5, kMigration5DeskPassphrase}, {6, kMigration6},
                                {8, kMigration8MonitorLook}};
+                               {5, kMigration5DeskPassphrase}, {6, kMigration6},
+                               {9, kMigration9SendingDetail}};
 
 // sqlite_master without SQLite's own objects (sqlite_autoindex_* follow from
 // the tables' SQL, which is compared; sqlite_stat* only guide the planner).
@@ -441,6 +457,7 @@ const std::vector<SealedTable>& SealedTables() {
       {"material_file", {}},
       {"withdrawal", {}},
       {"monitor_look", {}},
+      {"sending_detail", {}},
   };
   return tables;
 }

@@ -24,6 +24,20 @@ void InsertSending(Store& store, const SendingRow& row) {
       "INSERT INTO sending(probe_id, sent_at, entered_by, entered_at, audit_seq) VALUES (?1, ?2, ?3, ?4, ?5)");
   ins.Bind(1, row.probe_id).Bind(2, row.sent_at).Bind(3, row.entered_by).Bind(4, row.entered_at).Bind(5, row.audit_seq)
       .Run();
+  if (row.channel.empty() && row.sent_by.empty()) return;
+  const int64_t sending_id = store.LastInsertId();
+  Stmt detail = store.Prepare(
+      "INSERT INTO sending_detail(sending_id, channel, sent_by, audit_seq) VALUES (?1, ?2, ?3, ?4)");
+  detail.Bind(1, sending_id);
+  if (!row.channel.empty()) detail.Bind(2, row.channel);
+  if (!row.sent_by.empty()) detail.Bind(3, row.sent_by);
+  detail.Bind(4, row.audit_seq).Run();
+}
+
+std::optional<std::string> FirstPlannedSending(Store& store) {
+  Stmt s = store.Prepare("SELECT min(planned_at) FROM current_probe WHERE planned_at IS NOT NULL AND planned_at != ''");
+  if (!s.Step() || s.IsNull(0)) return std::nullopt;
+  return s.Text(0);
 }
 
 }  // namespace twinprobe

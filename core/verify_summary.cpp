@@ -114,6 +114,16 @@ WHERE a.command = 'monitor' ORDER BY a.seq)SQL",
                                  q.Double(12), q.Text(13));
      },
      8},
+    {"import sendings", R"SQL(
+SELECT a.seq, a.at, a.actor, a.summary,
+  (SELECT count(*) FROM import_file x WHERE x.audit_seq = a.seq AND x.kind = 'sendings') = 1, f.path,
+  (SELECT count(*) FROM sending s WHERE s.audit_seq = a.seq), f.rows_rejected
+FROM audit a
+LEFT JOIN import_file f ON f.id = (SELECT max(x.id) FROM import_file x WHERE x.audit_seq = a.seq AND x.kind = 'sendings')
+WHERE a.command = 'import sendings' ORDER BY a.seq)SQL",
+     [](const Stmt& q) -> std::optional<std::string> {
+       return ImportSendingsSummary(q.Text(5), q.Int(6), q.Int(7));
+     }},
 };
 
 }  // namespace

@@ -8,7 +8,7 @@
 // For every command whose summary states facts about single rows (record,
 // sent, decline, review, withdraw), the summary is rebuilt from the sealed rows in the
 // exact wording the command uses, and compared with the stored one;
-// `import outcomes` is checked by its row counts. The wording is a stored
+// `import outcomes` and `import sendings` are checked by their row counts. The wording is a stored
 // format with one definition, core/audit_summaries.h, which the commands
 // and this check both call (tests/core/verify_test.cpp writes each through
 // the real command).

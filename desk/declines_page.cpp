@@ -11,6 +11,17 @@
 
 namespace twinprobe {
 
+namespace {
+
+// The deadline in the words every command uses, as a sentence.
+std::string DeclineSentenceStart(const PendingDecline& d, int hours) {
+  std::string words = DeclineDeadlineWords(d.code, d.probe_ref, d.deadline, hours);
+  words[0] = 'D';
+  return words;
+}
+
+}  // namespace
+
 DeskResponse DeclinesPage(const PageRequest& r, const std::string& notice_html, const std::string& refused_probe,
                           const std::string& refusal) {
   std::string body = notice_html;
@@ -34,7 +45,8 @@ DeskResponse DeclinesPage(const PageRequest& r, const std::string& notice_html, 
     const std::string id = "declined_at-" + d.probe_ref;
     body += "<section class=\"decline\"><h2>" + UserText(d.probe_ref) + " " +
             (d.overdue ? "<span class=\"tag overdue\">overdue</span>" : "<span class=\"tag\">due</span>") +
-            "</h2><dl class=\"facts\"><dt>Decline by</dt><dd>" + EscapeHtml(FormatIsoTime(d.deadline)) +
+            "</h2><p>" + EscapeHtml(DeclineSentenceStart(d, hours)) +
+            ".</p><dl class=\"facts\"><dt>Decline by</dt><dd>" + EscapeHtml(FormatIsoTime(d.deadline)) +
             "</dd><dt>Response</dt><dd>" + UserText(d.code) + ", received " + EscapeHtml(d.received_at) +
             "</dd><dt>Vacancy</dt><dd>" + UserText(d.vacancy_ref) + " (" + UserText(d.employer_key) +
             ")</dd><dt>Profile</dt><dd>" + UserText(d.profile) + "</dd></dl>";

@@ -3,6 +3,7 @@
 // same function as `review`, with its messages.
 #include <charconv>
 
+#include "collector/declines.h"
 #include "collector/mail_review.h"
 #include "core/clock.h"
 #include "core/desk_actor.h"
@@ -136,11 +137,9 @@ DeskResponse MailDecision(const PageRequest& r) {
   for (const auto& w : o.warnings) notice += NoticeBox("error", w);
   const EthicsBlock& ethics = r.design.ethics;
   if (o.positive && ethics.decline_within_hours > 0)
-    notice += NoticeBox("error", "Decline it by " +
-                                     FormatIsoTime(DeclineDeadline(ethics, ParseIsoTime(o.received_at).value_or(0))) +
-                                     " (within " + std::to_string(ethics.decline_within_hours) +
-                                     " hours of receipt) with the letter in ethics/letters/decline-invitation.md, "
-                                     "then mark it on the Declines page.");
+    notice += NoticeBox("error", DeclineReminder(o.code, o.probe_ref,
+                                                 DeclineDeadline(ethics, ParseIsoTime(o.received_at).value_or(0)),
+                                                 ethics.decline_within_hours, "mark it on the Declines page"));
   return Page(r, 200, notice, {});
 }
 

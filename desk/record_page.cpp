@@ -4,6 +4,7 @@
 #include <algorithm>
 #include <cctype>
 
+#include "collector/declines.h"
 #include "collector/history.h"
 #include "collector/responses.h"
 #include "core/clock.h"
@@ -26,7 +27,8 @@ std::string Lower(std::string s) {
 // Which field a refusal of ResponseWriter::Add belongs beside. This reads the
 // message the collector wrote; it decides nothing about the entry.
 std::string RefusedField(const Error& e) {
-  if (e.what.rfind("unknown probe", 0) == 0) return "probe";
+  if (e.what.rfind("unknown probe", 0) == 0 || e.what.find("has no sending recorded") != std::string::npos)
+    return "probe";
   if (e.what.find("response code") != std::string::npos) return "code";
   if (e.what.rfind("unknown channel", 0) == 0) return "channel";
   return "received_at";
@@ -180,11 +182,9 @@ DeskResponse RecordEntry(const PageRequest& r) {
                                      " days; it is stored with the flag 'late'.");
   const EthicsBlock& ethics = r.design.ethics;
   if (v.positive && ethics.decline_within_hours > 0)
-    notice += NoticeBox("error", "Decline it by " +
-                                     FormatIsoTime(DeclineDeadline(ethics, ParseIsoTime(v.received_at).value_or(0))) +
-                                     " (within " + std::to_string(ethics.decline_within_hours) +
-                                     " hours of receipt) with the letter in ethics/letters/decline-invitation.md, "
-                                     "then mark it on the Declines page.");
+    notice += NoticeBox("error", DeclineReminder(v.code, v.probe_ref,
+                                                 DeclineDeadline(ethics, ParseIsoTime(v.received_at).value_or(0)),
+                                                 ethics.decline_within_hours, "mark it on the Declines page"));
   return Page(r, 200, notice, v.probe_ref, {});
 }
 

@@ -124,7 +124,7 @@ DeskResponse MarkSent(const PageRequest& r) {
   std::string landed;
   for (const std::string& probe : probes) {
     // Each probe is its own entry, exactly as one `sent` command per probe.
-    auto s = RecordSending(r.store, probe, at);
+    auto s = RecordSending(r.store, probe, at, r.design.schedule.early_days);
     if (!s.ok()) {
       std::string notice = landed.empty() ? "" : NoticeBox("ok", landed);
       notice += NoticeBox("error", probe + " was not marked sent: " + RefusalText(s.error()));

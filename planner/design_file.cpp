@@ -579,6 +579,7 @@ void DesignReader::ReadSchedule(Design& d) {
   if (!d.schedule.start.empty() && !ParseIsoTime(d.schedule.start))
     Fail(s->get("start"), "[schedule].start '" + d.schedule.start + "' is not a date", "write it as YYYY-MM-DD");
   d.schedule.sets_per_day = static_cast<int>(Integer(*s, "[schedule]", "sets_per_day", 20, 1, 1000000));
+  d.schedule.early_days = static_cast<int>(Integer(*s, "[schedule]", "early_days", 1, 0, 365));
   if (const toml::node* h = s->get("hours")) {
     const toml::array* arr = h->as_array();
     if (!arr || arr->size() != 2 || !arr->get(0)->is_integer() || !arr->get(1)->is_integer()) {
@@ -773,7 +774,7 @@ const std::vector<DesignSectionKeys>& KnownDesignKeys() {
       {"[[profiles.pool]]", {"factor", "level", "levels", "file"}},
       {"[templates]", {"files", "factor_fields"}},
       {"[vacancies]", {"file"}},
-      {"[schedule]", {"start", "gap_hours", "weekdays", "hours", "sets_per_day"}},
+      {"[schedule]", {"start", "gap_hours", "weekdays", "hours", "sets_per_day", "early_days"}},
       {"[outcomes]", {"codes", "positive", "window_days"}},
       {"[strata]", {"columns"}},
       {"[analysis]", {"primary", "correction", "alpha", "looks", "spending", "equivalence_margin"}},

@@ -16,6 +16,9 @@ using testing::RunCli;
 
 namespace {
 
+// Fieldwork times may not lie in the future: the clock at the season's end.
+const std::vector<std::string> kNow = {"TWINPROBE_NOW=2027-04-26T14:59:00Z"};
+
 struct SentStudy {
   testing::TempDir dir;
   std::string study = dir / "s";
@@ -32,12 +35,12 @@ struct SentStudy {
     REQUIRE(coastal.size() >= 4);
   }
   void Sent(const std::string& probe) {
-    auto r = RunCli({"--study", study, "sent", probe, "--at", "2027-03-01T09:00"});
+    auto r = RunCli({"--study", study, "sent", probe, "--at", "2027-03-01T09:00"}, kNow);
     INFO(r.err);
     REQUIRE(r.exit_code == 0);
   }
   void Record(const std::string& probe, const std::string& code, const std::string& at) {
-    auto r = RunCli({"--study", study, "record", probe, code, "--at", at});
+    auto r = RunCli({"--study", study, "record", probe, code, "--at", at}, kNow);
     INFO(r.err);
     REQUIRE(r.exit_code == 0);
   }

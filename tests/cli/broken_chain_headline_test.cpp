@@ -12,15 +12,16 @@ using testing::RunCli;
 namespace {
 
 const std::string kWarning =
-    "The study's audit chain is broken. First broken link: entry 2: rows written by this entry (record) were "
+    "The study's audit chain is broken. First broken link: entry 3: rows written by this entry (record) were "
     "changed, added or deleted since (tables now holding them: response). Stored data changed outside twinprobe; "
     "run 'twinprobe verify' before relying on these numbers.";
 
-// A planned study with one recorded response (audit entry 2), then changed
+// A planned study with one sending (audit entry 2) and one recorded response (entry 3), then changed
 // behind the tool's back.
 struct TamperedStudy {
   testing::PlannedStudy s;
   TamperedStudy() {
+    testing::SendProbes(s.path, {"P00001"}, "2027-03-01");
     REQUIRE(RunCli({"--study", s.path, "record", "P00001", "rejection", "--at", "2027-03-05"}).exit_code == 0);
   }
   void Tamper() { s.Open()->Exec("UPDATE response SET code = 'invitation' WHERE id = 1"); }
@@ -47,7 +48,7 @@ TEST_CASE("issue 24: analyze and report lead with a broken chain in text, JSON a
   CHECK(report_json["audit_warning"] == kWarning);
   CHECK(report_json["report"]["audit_intact"] == false);
   auto html = RunCli({"--study", t.s.path, "report", "--html"}).out;
-  const size_t banner = html.find("<strong>The study's audit chain is broken.</strong> First broken link: entry 2: ");
+  const size_t banner = html.find("<strong>The study's audit chain is broken.</strong> First broken link: entry 3: ");
   REQUIRE(banner != std::string::npos);
   CHECK(banner < html.find("class=\"headline\""));  // before the headline, in the masthead
 }

@@ -54,6 +54,7 @@ TEST_CASE("cli sent: a second sending time replaces the first, which is kept") {
 TEST_CASE("cli import outcomes: summary, reject file and exit code 1 with --skip-bad") {
   testing::PlannedStudy s;
   std::string csv = s.dir / "in.csv";
+  testing::SendProbes(s.path, {"P00001"}, "2027-03-01");
   testing::WriteFile(csv, "probe,code,received_at,source\nP00001,invitation,2027-03-05,x\nP0002,offer,2027-03-06,y\n");
   auto r = RunCli({"--study", s.path, "import", "outcomes", csv, "--skip-bad"});
   CHECK(r.exit_code == 1);

@@ -50,7 +50,7 @@ TEST_CASE("issue 17: --separator reads semicolon and tab files like their comma 
 }
 
 TEST_CASE("issue 17: every importer lists --separator and an unknown one is a usage error") {
-  for (const char* importer : {"outcomes", "pairs", "ranks", "labels"}) {
+  for (const char* importer : {"outcomes", "sendings", "pairs", "ranks", "labels"}) {
     INFO(importer);
     auto help = RunCli({"import", importer, "--help"});
     CHECK(help.exit_code == 0);

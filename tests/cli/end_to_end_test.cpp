@@ -5,6 +5,7 @@
 
 #include "core/audit.h"
 #include "core/store.h"
+#include "testing/pinned_clock.h"
 #include "testing/testing.h"
 
 using namespace twinprobe;
@@ -60,6 +61,7 @@ namespace {
 
 // An initialised and planned study in a temp folder.
 struct PlannedStudy {
+  testing::PinnedClock clock;  // the season's end: fieldwork times may not lie in the future
   testing::TempDir dir;
   std::string study;
   PlannedStudy() : study(dir / "s") {
@@ -95,6 +97,7 @@ TEST_CASE("cli: an unknown probe gives one error line and exit 1, and the store 
 
 TEST_CASE("cli: a failed import rolls back: counts and audit head unchanged") {
   PlannedStudy s;
+  testing::SendProbes(s.study, {"P00001", "P00002", "P00003"}, "2027-03-01");
   REQUIRE(RunCli({"--study", s.study, "record", "P00001", "invitation", "--at", "2027-03-05"}).exit_code == 0);
   auto head_before = nlohmann::json::parse(RunCli({"--study", s.study, "--json", "verify"}).out)["head_hash"];
   testing::WriteFile(s.study + "/in.csv",
@@ -132,7 +135,7 @@ TEST_CASE("cli: a corrected response supersedes the first, both kept, analysis u
   CHECK(fix.out.find("supersedes response 1") != std::string::npos);
   auto early = RunCli({"--study", s.study, "record", "P00001", "invitation", "--at", "2027-02-20"});
   CHECK(early.exit_code == 1);
-  CHECK(early.err.find("is before the probe was sent") != std::string::npos);
+  CHECK(early.err.find("of P00001 is before its sending (2027-03-01T09:00:00Z)") != std::string::npos);
   auto store = Store::Open(s.study + "/study.db", false);
   CHECK(store.value()->QueryInt("SELECT count(*) FROM response") == 2);
   CHECK(store.value()->QueryInt("SELECT count(*) FROM current_response") == 1);

@@ -8,6 +8,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "testing/pinned_clock.h"
 #include "testing/testing.h"
 
 using namespace twinprobe;
@@ -16,6 +17,7 @@ using testing::RunCli;
 namespace {
 
 struct Study {
+  testing::PinnedClock clock;  // the season's end: fieldwork times may not lie in the future
   testing::TempDir dir;
   std::string study;
   Study() : study(dir / "s") { REQUIRE(RunCli({"--study", study, "init"}).exit_code == 0); }

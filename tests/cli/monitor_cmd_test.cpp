@@ -9,6 +9,7 @@
 
 #include "core/store.h"
 #include "stats/sequential.h"
+#include "testing/pinned_clock.h"
 #include "testing/testing.h"
 
 using namespace twinprobe;
@@ -23,6 +24,7 @@ struct SetProbes {
 };
 
 struct MonitoredStudy {
+  testing::PinnedClock clock;  // the season's end: fieldwork times may not lie in the future
   testing::TempDir dir;
   std::string study;
   std::vector<SetProbes> sets;  // in vacancy order
@@ -46,6 +48,14 @@ struct MonitoredStudy {
   // Imports outcomes: pattern[i] is 'a' (both called back), 'b' (reference
   // only), 'c' (other only) or 'd' (neither) for the set with hour[i].
   void Import(const std::string& pattern, const std::vector<int>& hour) {
+    // A response needs a sending: the sets answered were sent first.
+    std::string sendings = "probe,sent_at\n";
+    for (size_t i = 0; i < pattern.size(); ++i)
+      sendings += sets[i].reference + ",2027-03-01T00:00\n" + sets[i].other + ",2027-03-01T00:00\n";
+    testing::WriteFile(study + "/sendings.csv", sendings);
+    auto sent = RunCli({"--study", study, "import", "sendings", study + "/sendings.csv"});
+    INFO(sent.err);
+    REQUIRE(sent.exit_code == 0);
     std::string csv = "probe,code,received_at\n";
     for (size_t i = 0; i < pattern.size(); ++i) {
       const char k = pattern[i];

@@ -6,6 +6,7 @@
 
 #include "core/sha256.h"
 #include "core/store.h"
+#include "testing/pinned_clock.h"
 #include "testing/testing.h"
 
 using namespace twinprobe;
@@ -14,6 +15,7 @@ using testing::RunCli;
 namespace {
 
 struct InitStudy {
+  testing::PinnedClock clock;  // the season's end: fieldwork times may not lie in the future
   testing::TempDir dir;
   std::string study;
   InitStudy() : study(dir / "s") { REQUIRE(RunCli({"--study", study, "init"}).exit_code == 0); }

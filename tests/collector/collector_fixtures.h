@@ -10,13 +10,17 @@
 #include "core/audit.h"
 #include "core/schema.h"
 #include "core/store.h"
+#include "testing/pinned_clock.h"
 #include "testing/testing.h"
 
 namespace twinprobe::testing {
 
 // A study folder made by `twinprobe init` and `twinprobe plan` (the invented
-// Veldmark demo design: 400 vacancies, 800 probes P00001..P00800).
+// Veldmark demo design: 400 vacancies, 800 probes P00001..P00800), with the
+// clock pinned at the end of its 2027 season (fieldwork times may not lie in
+// the future) unless a test pins its own.
 struct PlannedStudy {
+  PinnedClock clock;
   TempDir dir;
   std::string path;
   explicit PlannedStudy(bool plan = true) : path(dir / "study") {

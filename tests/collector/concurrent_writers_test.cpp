@@ -48,6 +48,15 @@ constexpr int kProbes = 800;  // the demo plan
 
 TEST_CASE("concurrency: two writer processes recording 2,000 responses each lose nothing") {
   testing::PlannedStudy s;
+  // A response needs a sending: every probe of the plan was sent first.
+  std::string sendings = "probe,sent_at\n";
+  for (int n = 1; n <= kProbes; ++n) {
+    char probe[16];
+    std::snprintf(probe, sizeof probe, "P%05d", n);
+    sendings += std::string(probe) + ",2027-03-02\n";
+  }
+  testing::WriteFile(s.dir / "sendings.csv", sendings);
+  REQUIRE(testing::RunCli({"--study", s.path, "import", "sendings", s.dir / "sendings.csv"}).exit_code == 0);
   int64_t audit_before = s.Open()->QueryInt("SELECT count(*) FROM audit");
   pid_t pids[2];
   for (int w = 0; w < 2; ++w) {
@@ -87,6 +96,14 @@ TEST_CASE("concurrency: two writer processes recording 2,000 responses each lose
 
 TEST_CASE("concurrency: two shells running 'twinprobe record' at once both land every response") {
   testing::PlannedStudy s;
+  std::string sendings = "probe,sent_at\n";
+  for (int n = 1; n <= 40; ++n) {
+    char probe[16];
+    std::snprintf(probe, sizeof probe, "P%05d", n);
+    sendings += std::string(probe) + ",2027-03-02\n";
+  }
+  testing::WriteFile(s.dir / "sendings.csv", sendings);
+  REQUIRE(testing::RunCli({"--study", s.path, "import", "sendings", s.dir / "sendings.csv"}).exit_code == 0);
   // Two background loops of the real binary; each records 40 responses.
   std::string bin = testing::BinaryPath();
   std::string script;

@@ -36,13 +36,15 @@ TEST_CASE("issue 17: a decline before the offer was received is refused, the sto
   auto r = RunCli({"--study", s.path, "decline", "P00007", "--at", "2027-03-01"});
   CHECK(r.exit_code == 1);
   CHECK(r.out.empty());
-  CHECK(r.err == "twinprobe: the decline time 2027-03-01T00:00:00Z is before the offer to P00007 was received "
+  CHECK(r.err == "twinprobe: the decline time 2027-03-01T00:00:00Z of P00007 is before the offer was received "
                  "(2027-03-04T00:00:00Z) \u2014 check the date; a decline answers a response already received\n");
   CHECK(Fingerprint(s) == before);
   // The same day, by date alone, is not "before" (a date alone is that whole day).
   auto same_day = RunCli({"--study", s.path, "decline", "P00007", "--at", "2027-03-04"});
   CHECK(same_day.exit_code == 0);
-  CHECK(same_day.out == "Recorded that the offer to P00007 was declined at 2027-03-04T00:00:00Z.\n" +
+  CHECK(same_day.out == "Recorded that the offer to P00007 was declined at 2027-03-04T00:00:00Z.\n"
+                        "The deadline was to decline the offer to P00007 by 2027-03-05T00:00:00Z (within 24 hours of "
+                        "receipt): kept.\n" +
                             testing::HeadLine(s.path));
 }
 
@@ -86,7 +88,9 @@ TEST_CASE("issue 17: an info_request is declined as a request for information, t
   Run(s, {"record", "P00009", "info_request", "--at", "2027-03-02T10:30+01:00"});
   auto r = RunCli({"--study", s.path, "decline", "P00009", "--at", "2027-03-02T11:00+01:00"});
   CHECK(r.exit_code == 0);
-  CHECK(r.out == "Recorded that the request for information to P00009 was declined at 2027-03-02T10:00:00Z.\n" +
+  CHECK(r.out == "Recorded that the request for information to P00009 was declined at 2027-03-02T10:00:00Z.\n"
+                 "The deadline was to decline the request for information to P00009 by 2027-03-03T09:30:00Z (within "
+                 "24 hours of receipt): kept.\n" +
                      testing::HeadLine(s.path));
   auto store = s.Open();
   CHECK(store->QueryInt("SELECT sent_at = '2027-03-01T08:00:00Z' FROM sending") == 1);

@@ -7,6 +7,7 @@
 #include <nlohmann/json.hpp>
 
 #include "core/store.h"
+#include "testing/pinned_clock.h"
 #include "testing/testing.h"
 
 using namespace twinprobe;
@@ -15,6 +16,7 @@ using testing::RunCli;
 namespace {
 
 struct Study {
+  testing::PinnedClock clock;  // the season's end: fieldwork times may not lie in the future
   testing::TempDir dir;
   std::string path;
   Study() : path(dir / "s") { REQUIRE(RunCli({"--study", path, "init"}).exit_code == 0); }
@@ -53,7 +55,8 @@ TEST_CASE("ethics: recording an invitation prints the decline deadline and the l
     REQUIRE(RunCli({"--study", s.path, "sent", probe, "--at", "2027-03-01"}).exit_code == 0);
   auto r = RunCli({"--study", s.path, "record", "P00001", "invitation", "--at", "2027-03-04T10:00"});
   REQUIRE(r.exit_code == 0);
-  CHECK(r.out.find("Decline it by 2027-03-05T10:00:00Z (within 24 hours of receipt) with the letter in "
+  CHECK(r.out.find("Decline the invitation to P00001 by 2027-03-05T10:00:00Z (within 24 hours of receipt) with the "
+                   "letter in "
                    "ethics/letters/decline-invitation.md, then run 'twinprobe decline P00001'.") != std::string::npos);
   auto j = nlohmann::json::parse(
       RunCli({"--study", s.path, "--json", "record", "P00002", "offer", "--at", "2027-03-06T08:00"}).out);
@@ -67,7 +70,9 @@ TEST_CASE("ethics: recording an invitation prints the decline deadline and the l
                        "declined; if the employer answered again, record that first with 'twinprobe record'\n");
   auto ok = RunCli({"--study", s.path, "decline", "P00001", "--at", "2027-03-04T15:00"});
   CHECK(ok.exit_code == 0);
-  CHECK(ok.out == "Recorded that the invitation to P00001 was declined at 2027-03-04T15:00:00Z.\n" +
+  CHECK(ok.out == "Recorded that the invitation to P00001 was declined at 2027-03-04T15:00:00Z.\n"
+                  "The deadline was to decline the invitation to P00001 by 2027-03-05T10:00:00Z (within 24 hours of "
+                  "receipt): kept.\n" +
                      testing::HeadLine(s.path));
 }
 
@@ -84,9 +89,9 @@ TEST_CASE("ethics: schedule lists overdue declines first, then those still due, 
   auto text = RunCli({"--study", s.path, "schedule"}, now);
   REQUIRE(text.exit_code == 0);
   auto overdue = text.out.find("OVERDUE: 1 invitation or offer not declined within 24 hours.");
-  auto p1 = text.out.find("  overdue 2027-03-05T10:00:00Z  P00001");
+  auto p1 = text.out.find("  overdue: decline the invitation to P00001 by 2027-03-05T10:00:00Z");
   auto still = text.out.find("Still within the deadline:");
-  auto p2 = text.out.find("  due     2027-03-07T08:00:00Z  P00002");
+  auto p2 = text.out.find("  due: decline the offer to P00002 by 2027-03-07T08:00:00Z");
   auto to_send = text.out.find("probes to send");
   CHECK(overdue == 0);  // the very first line
   CHECK(p1 != std::string::npos);
@@ -105,7 +110,7 @@ TEST_CASE("ethics: schedule lists overdue declines first, then those still due, 
   CHECK(j["declines"][1]["probe"] == "P00002");
   CHECK(j["declines"][1]["overdue"] == false);
 
-  REQUIRE(RunCli({"--study", s.path, "decline", "P00001", "--at", "2027-03-06T12:30"}, now).exit_code == 0);
+  REQUIRE(RunCli({"--study", s.path, "decline", "P00001", "--at", "2027-03-06T11:30"}, now).exit_code == 0);
   auto after = RunCli({"--study", s.path, "schedule"}, now);
   CHECK(after.out.find("OVERDUE") == std::string::npos);
   CHECK(after.out.rfind("1 invitation or offer to decline", 0) == 0);
@@ -117,7 +122,8 @@ TEST_CASE("ethics: purge waits for the retention period, then removes identities
   std::string demo = dir / "demo";
   REQUIRE(RunCli({"demo", "--out", demo}).exit_code == 0);
   REQUIRE(RunCli({"--study", demo, "record", "P00001", "invitation", "--at", "2027-06-01", "--note",
-                  "Ms Invented of HR called"})
+                  "Ms Invented of HR called"},
+                 {"TWINPROBE_NOW=2027-06-01T12:00:00Z"})
               .exit_code == 0);
   testing::WriteFile(demo + "/materials/P00001.txt", "rendered application");
   auto analysis_before = RunCli({"--study", demo, "--json", "analyze"}).out;

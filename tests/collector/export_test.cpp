@@ -160,6 +160,7 @@ TEST_CASE("export: pandas reads the CSV files and the JSON document") {
 
 TEST_CASE("export: --identities adds employer names, mailboxes and notes, the CLI warns") {
   testing::PlannedStudy s;
+  testing::SendProbes(s.path, {"P00001"}, "2027-03-01");
   REQUIRE(RunCli({"--study", s.path, "record", "P00001", "invitation", "--at", "2027-03-05", "--note",
                   "Ms Invented, \"HR\", called"})
               .exit_code == 0);

@@ -15,6 +15,13 @@ struct Outcomes {
   std::unique_ptr<Store> store = study.Open();
   OutcomeScheme scheme;
   std::string csv = study.dir / "outcomes.csv";
+  // A response needs a sending: the probes the files below answer were sent.
+  Outcomes() {
+    for (const char* probe : {"P00001", "P00002", "P00003", "P00004"}) {
+      const bool sent = RecordSending(*store, probe, "2027-03-01T10:00").ok();
+      REQUIRE(sent);
+    }
+  }
   Result<ImportSummary> Import(const std::string& text, bool skip_bad = false) {
     testing::WriteFile(csv, text);
     ImportOptions o;
@@ -72,8 +79,9 @@ TEST_CASE("import outcomes: bad-row battery, each message exact, the store uncha
         o.At(3) + "probe 'P00001' appears twice (first on line 2) \u2014 keep one row per probe; to correct a recorded "
                   "response, import a later file or use 'record'");
   CHECK(fails("P00005,rejection,2027-03-04T11:00\n") ==
-        o.At(3) + "the response time 2027-03-04T11:00:00Z is before the probe was sent (2027-03-04T12:00:00Z) \u2014 "
-                  "check the date; a response cannot precede the application");
+        o.At(3) + "the response time 2027-03-04T11:00:00Z of P00005 is before its sending (2027-03-04T12:00:00Z) "
+                  "\u2014 check the date; if the sending time is wrong, correct it first with 'twinprobe sent P00005 "
+                  "--at TIME'");
   CHECK(fails("P00002,rejection\n") == o.At(3) + "the row has 2 fields but the header has 3 \u2014 check for a missing "
                                                  "or extra comma, or quote fields that contain commas");
   auto no_column = o.Import("probe,code,when\nP00001,invitation,2027-03-05\n");

@@ -157,7 +157,8 @@ TEST_CASE("review cli: lists the queue with evidence, and records decisions as r
   // The same reminders as `record`: no sending recorded, and the decline deadline.
   CHECK(confirm.out == "Recorded invitation for " + p1 +
                            " at 2027-03-04T09:15:00Z from message 1 (confirmed as suggested), a positive callback.\n"
-                           "Decline it by 2027-03-05T09:15:00Z (within 24 hours of receipt) with the letter in "
+                           "Decline the invitation to " +
+                           p1 + " by 2027-03-05T09:15:00Z (within 24 hours of receipt) with the letter in "
                            "ethics/letters/decline-invitation.md, then run 'twinprobe decline " +
                            p1 + "'.\n" + testing::HeadLine(s.study));
   CHECK(confirm.err == "twinprobe: warning: " + p1 +
@@ -238,6 +239,10 @@ TEST_CASE("review cli: a response after the observation window is recorded with 
   auto store = s.Open();
   const std::string probe = mailtest::ProbeFor(*store, "V0104", "kemi.saralon@postbox.example");
   store.reset();
+  // Sent a month before the schedule's start, which the design allows here.
+  std::string toml = testing::ReadFile(s.study + "/study.toml");
+  testing::WriteFile(s.study + "/study.toml", toml.replace(toml.find("start = \"2027-03-01\""), 20,
+                                                           "start = \"2027-03-01\"\nearly_days = 60"));
   REQUIRE(RunCli({"--study", s.study, "sent", probe, "--at", "2027-02-01T09:00"}).exit_code == 0);
   auto r = RunCli({"--study", s.study, "--json", "review", "12", "--confirm"});  // dated 2027-03-12
   INFO(r.err);

@@ -12,6 +12,7 @@
 #include <thread>
 
 #include "core/store.h"
+#include "testing/pinned_clock.h"
 #include "testing/testing.h"
 
 namespace twinprobe::mailtest {
@@ -21,6 +22,7 @@ inline std::string FixturePath(const std::string& rel) { return testing::SourceD
 // tests/fixtures/mail/study copied to a temp folder and planned with the
 // real binary (10 probes: 5 vacancies x 2 profiles).
 struct PlannedMailStudy {
+  testing::PinnedClock clock;  // in the fixture's 2027 season: fieldwork times may not lie in the future
   testing::TempDir dir;
   std::string study;
   PlannedMailStudy() : study(dir / "study") {

@@ -150,6 +150,7 @@ TEST_CASE("mail review: a changed code, an assigned probe and a dismissal") {
 TEST_CASE("mail review: a second response to a probe supersedes the first, both kept") {
   ReadStudy s;
   const std::string probe = mailtest::ProbeFor(*s.store, "V0101", kAldo);
+  REQUIRE(MarkSent(*s.store, probe, "2027-03-01T10:00").ok());  // a response needs a sending
   REQUIRE(RecordResponse(*s.store, s.design.outcomes, {probe, "rejection", "2027-03-03", "phone", "", "record"}).ok());
   auto r = s.Decide(1, ReviewAction::kConfirm);
   REQUIRE(r.ok());
@@ -185,7 +186,7 @@ TEST_CASE("mail review: refusals name the fix and leave the store unchanged") {
   auto early = s.Decide(1, ReviewAction::kConfirm);
   REQUIRE_FALSE(early.ok());
   CHECK(early.error().what ==
-        "the response time 2027-03-04T09:15:00Z is before the probe was sent (2027-03-05T08:00:00Z)");
+        "the response time 2027-03-04T09:15:00Z of " + probe + " is before its sending (2027-03-05T08:00:00Z)");
   CHECK(AuditHead(*s.store) == head_after_sent);
   CHECK(head_after_sent != head);
   CHECK(s.store->QueryInt("SELECT count(*) FROM response") == 0);

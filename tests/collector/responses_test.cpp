@@ -69,11 +69,11 @@ TEST_CASE("record: a response before the sending is refused, on the sending day 
   OutcomeScheme scheme;
   REQUIRE(RecordSending(*store, "P00001", "2027-03-04T09:14").ok());
   auto early = RecordResponse(*store, scheme, Entry("P00001", "rejection", "2027-03-04T09:00"));
-  CHECK(early.error().Message() == "the response time 2027-03-04T09:00:00Z is before the probe was sent "
-                                   "(2027-03-04T09:14:00Z) \u2014 check the date; a response cannot precede the "
-                                   "application");
+  CHECK(early.error().Message() == "the response time 2027-03-04T09:00:00Z of P00001 is before its sending "
+                                   "(2027-03-04T09:14:00Z) \u2014 check the date; if the sending time is wrong, "
+                                   "correct it first with 'twinprobe sent P00001 --at TIME'");
   auto day_before = RecordResponse(*store, scheme, Entry("P00001", "rejection", "2027-03-03"));
-  CHECK(day_before.error().what == "the response time 2027-03-03T00:00:00Z is before the probe was sent "
+  CHECK(day_before.error().what == "the response time 2027-03-03T00:00:00Z of P00001 is before its sending "
                                    "(2027-03-04T09:14:00Z)");
   auto same_day = RecordResponse(*store, scheme, Entry("P00001", "rejection", "2027-03-04"));
   REQUIRE(same_day.ok());
@@ -100,12 +100,20 @@ TEST_CASE("record: outside the observation window is stored with the flag 'late'
   REQUIRE(unsent.ok());
   CHECK(unsent.value().unsent);
   CHECK_FALSE(unsent.value().late);
+  // With the rule on (ResponseRules::require_sending), the same entry is refused.
+  ResponseWriter strict(*store, scheme, 0, "test", "2027-04-26T14:59:00Z", ResponseRules{true, std::nullopt});
+  auto refused = strict.Add(Entry("P00004", "rejection", "2027-03-05"), "");
+  REQUIRE_FALSE(refused.ok());
+  CHECK(refused.error().Message() ==
+        "P00004 has no sending recorded, so no response to it can have come \u2014 record the sending first with "
+        "'twinprobe sent P00004 --at TIME' (or 'twinprobe import sendings FILE.csv' for many)");
 }
 
 TEST_CASE("record: corrections never overwrite, each new response supersedes the current one") {
   testing::PlannedStudy s;
   auto store = s.Open();
   OutcomeScheme scheme;
+  REQUIRE(RecordSending(*store, "P00003", "2027-03-02").ok());
   auto first = RecordResponse(*store, scheme, Entry("P00003", "rejection", "2027-03-04"));
   auto second = RecordResponse(*store, scheme, Entry("P00003", "invitation", "2027-03-04"));
   auto third = RecordResponse(*store, scheme, Entry("P00003", "offer", "2027-03-10"));

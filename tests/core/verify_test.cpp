@@ -21,11 +21,14 @@ TEST_CASE("verify: a freshly migrated store has exactly the reference schema") {
             "the store holds an index 'response_supersedes' on response that twinprobe does not create",
             "the store holds an index 'withdrawal_seq' on withdrawal that twinprobe does not create",
             "the store holds an index 'withdrawal_vacancy' on withdrawal that twinprobe does not create",
+            "the store holds an index 'sending_detail_seq' on sending_detail that twinprobe does not create",
             "the store holds a table 'desk_passphrase' that twinprobe does not create",
             "the store holds a table 'material_file' that twinprobe does not create",
             "the store holds a table 'withdrawal' that twinprobe does not create"});
             "the store holds a table 'material_file' that twinprobe does not create",
             "the store holds a table 'monitor_look' that twinprobe does not create"});
+            "the store holds a table 'material_file' that twinprobe does not create",
+            "the store holds a table 'sending_detail' that twinprobe does not create"});
 }
 
 TEST_CASE("verify: a trigger added to a table is named with its table") {

@@ -145,6 +145,8 @@ TEST_CASE("desk http: a hostile note comes back as text, and no file outside mat
   DeskClient ada(s.url());
   ada.SignIn("Ada Moss", "meadow lantern river");
   const std::string hostile = "<script>alert(1)</script>\"><svg onload=alert(2)>";
+  REQUIRE(ada.Post("/today", {{"csrf", ada.csrf()}, {"probe", "P00004"}, {"sent_at", "2027-03-01T10:00"}}).status ==
+          200);
   auto r = ada.Post("/record", {{"csrf", ada.csrf()}, {"probe", "P00004"}, {"code", "rejection"}, {"note", hostile}});
   REQUIRE(r.status == 200);
   auto page = ada.Get("/probe?id=P00004");
@@ -173,6 +175,8 @@ TEST_CASE("desk http: an oversized request body is refused before it is read") {
           "back, shorten it and send it again.");
   }
   CHECK(testing::FingerprintOf(s.study.db()) == before);
+  REQUIRE(ada.Post("/today", {{"csrf", ada.csrf()}, {"probe", "P00001"}, {"sent_at", "2027-03-01T10:00"}}).status ==
+          200);
   CHECK(ada.Post("/record",
                  {{"csrf", ada.csrf()}, {"probe", "P00001"}, {"code", "rejection"}, {"note", std::string(7000, 'x')}})
             .status == 200);

@@ -62,6 +62,9 @@ std::string StoreState(const std::string& db) {
   return state;
 }
 
+// The fixture's season is 2027: the plausible-time rules need a clock in it.
+const std::vector<std::string> kNow = {"TWINPROBE_NOW=2027-04-26T14:59:00Z"};
+
 }  // namespace
 
 TEST_CASE("bad-input battery: every malformed input gets its exact message, exit 1, and an unchanged store") {
@@ -96,7 +99,7 @@ TEST_CASE("bad-input battery: every malformed input gets its exact message, exit
       for (const auto& command : c["before"]) {
         std::vector<std::string> setup = {"--study", study};
         for (const auto& a : command) setup.push_back(ReplaceAll(a, "$S", study));
-        auto done = testing::RunCli(setup);
+        auto done = testing::RunCli(setup, kNow);
         INFO(c["name"].get<std::string>() << ": " << done.err);
         REQUIRE(done.exit_code == 0);
       }
@@ -105,7 +108,7 @@ TEST_CASE("bad-input battery: every malformed input gets its exact message, exit
     for (const auto& a : c["args"]) args.push_back(ReplaceAll(a, "$S", study));
 
     std::string before = StoreState(study + "/study.db");
-    auto r = testing::RunCli(args);
+    auto r = testing::RunCli(args, kNow);
     INFO(c["name"].get<std::string>());
     CHECK(r.exit_code == 1);
     CHECK(r.err == ReplaceAll(c["stderr"], "$S", study));

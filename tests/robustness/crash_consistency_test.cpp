@@ -21,7 +21,8 @@ namespace fs = std::filesystem;
 
 namespace {
 
-const std::vector<std::string> kPinnedTime = {"TWINPROBE_NOW=2027-02-20T08:00:00Z", "TWINPROBE_ACTOR=tester"};
+// After the responses imported below (fieldwork times may not lie in the future).
+const std::vector<std::string> kPinnedTime = {"TWINPROBE_NOW=2027-05-20T08:00:00Z", "TWINPROBE_ACTOR=tester"};
 
 // The current plan's content without row ids, random keys or timestamps of
 // entry: what a reader of the study relies on.

@@ -286,6 +286,10 @@ TEST_CASE("issue 23: a store of an older schema version verifies against that ve
   // version 5 the table desk_passphrase, version 6 material_file and
   // version 8 monitor_look, each with its indexes.
   st.Sql("DROP TABLE monitor_look; DROP TABLE material_file; DROP TABLE desk_passphrase; DROP INDEX response_supersedes; "
+  // version 5 the table desk_passphrase, version 6 material_file and
+  // version 9 sending_detail, each with its indexes.
+  st.Sql("DROP TABLE sending_detail; DROP TABLE material_file; DROP TABLE desk_passphrase; "
+         "DROP INDEX response_supersedes; "
          "PRAGMA user_version = 3");
   auto j = st.VerifyJson();
   INFO(j.dump(2));

@@ -102,6 +102,14 @@ int WaitCli(int pid) {
   return -1;
 }
 
+void SendProbes(const std::string& study_dir, const std::vector<std::string>& probes, const std::string& at,
+                const std::vector<std::string>& env) {
+  for (const std::string& probe : probes) {
+    CliRun r = RunCli({"--study", study_dir, "sent", probe, "--at", at}, env);
+    if (r.exit_code != 0) throw std::runtime_error("sent " + probe + " --at " + at + ": " + r.err);
+  }
+}
+
 std::string HeadLine(const std::string& study_dir) {
   auto store = Store::OpenReadOnly(study_dir + "/study.db");
   if (!store.ok()) return "(no store: " + store.error().Message() + ")";

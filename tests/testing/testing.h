@@ -46,6 +46,12 @@ std::string ReadFile(const std::string& path);
 std::string HeadLine(const std::string& study_dir);
 void WriteFile(const std::string& path, const std::string& content);
 
+// Marks each probe sent at `at` with one `twinprobe sent` each (a response
+// needs a sending); throws std::runtime_error naming the refusal when one
+// fails. `env` as for RunCli (e.g. "TWINPROBE_NOW=…").
+void SendProbes(const std::string& study_dir, const std::vector<std::string>& probes, const std::string& at,
+                const std::vector<std::string>& env = {});
+
 // Path of the source tree (for fixtures) and of the built binary.
 std::string SourceDir();
 std::string BinaryPath();
