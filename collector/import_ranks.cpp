@@ -83,7 +83,7 @@ Status Parse(const CsvTable& t, const std::string& path, RanksFile& out) {
     }
     if (c_fetched >= 0 && !row.fields[static_cast<size_t>(c_fetched)].empty() &&
         !ParseIsoTime(row.fields[static_cast<size_t>(c_fetched)]))
-      return BadInput(where, "fetched_at '" + row.fields[static_cast<size_t>(c_fetched)] + "' is not a time",
+      return BadInput(where, "fetched_at '" + row.fields[static_cast<size_t>(c_fetched)] + "' " + WhyNotATime(row.fields[static_cast<size_t>(c_fetched)], "is not a time"),
                       "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM (UTC)");
     auto [lit, is_new] = listing_index.emplace(ref, out.listings.size());
     if (is_new) {
