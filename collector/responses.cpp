@@ -5,6 +5,8 @@
 #include "collector/event_time.h"
 #include "core/audit.h"
 #include "core/audit_summaries.h"
+#include "core/clock.h"
+#include "core/echoed_value.h"
 #include "core/response_records.h"
 #include "core/sending_records.h"
 #include "core/suggest.h"
@@ -43,14 +45,14 @@ Result<RecordedResponse> ResponseWriter::Add(const ResponseEntry& e, const std::
                                              const TimeReading& time) {
   int64_t probe_id = records_->FindProbe(e.probe_ref);
   if (probe_id == 0)
-    return BadInput(where, "unknown probe '" + e.probe_ref + "'",
+    return BadInput(where, "unknown probe '" + Echoed(e.probe_ref) + "'",
                     "use a probe reference from 'twinprobe schedule' or the plan (e.g. P00001)");
   if (!scheme_.has_code(e.code))
-    return BadInput(where, "'" + e.code + "' is not a response code of this study" + DidYouMean(e.code, scheme_.codes),
+    return BadInput(where, "'" + Echoed(e.code) + "' is not a response code of this study" + DidYouMean(e.code, scheme_.codes),
                     "use one of: " + JoinCodes(scheme_.codes));
   const auto& channels = ResponseChannels();
   if (!e.channel.empty() && std::find(channels.begin(), channels.end(), e.channel) == channels.end())
-    return BadInput(where, "unknown channel '" + e.channel + "'" + DidYouMean(e.channel, channels),
+    return BadInput(where, "unknown channel '" + Echoed(e.channel) + "'" + DidYouMean(e.channel, channels),
                     "use mail, phone, letter or other");
 
   RecordedResponse out;
@@ -62,7 +64,7 @@ Result<RecordedResponse> ResponseWriter::Add(const ResponseEntry& e, const std::
     std::string text = e.received_at.empty() ? at_ : e.received_at;
     received = ParseEventTime(text);
     if (!received)
-      return BadInput(where, (time.label.empty() ? "" : time.label + " ") + "'" + text + "' is not a date or time",
+      return BadInput(where, (time.label.empty() ? "" : time.label + " ") + "'" + Echoed(text) + "' " + WhyNotATime(text, "is not a date or time"),
                       kTimeFormat);
     out.received_at = received->text();
   }
@@ -120,7 +122,7 @@ Result<SendingRecord> RecordSending(Store& store, const std::string& probe_ref, 
     return BadInput("", "unknown probe '" + probe_ref + "'", "use a probe reference from 'twinprobe schedule'");
   std::string text = sent_at.empty() ? write.at() : sent_at;
   auto t = ParseEventTime(text);
-  if (!t) return BadInput("", "'" + text + "' is not a date or time", kTimeFormat);
+  if (!t) return BadInput("", "'" + text + "' " + WhyNotATime(text, "is not a date or time"), kTimeFormat);
   SendingRecord out;
   out.probe_ref = probe_ref;
   out.sent_at = t->text();
