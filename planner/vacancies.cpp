@@ -58,7 +58,8 @@ Result<std::vector<Vacancy>> ReadVacancies(const std::string& study_dir, const D
     seen[v.ref] = row.line;
     if (v.employer.empty()) return BadInput(where, "vacancy '" + v.ref + "' has no employer", "fill in the employer");
     if (!v.opened_on.empty() && !ParseIsoTime(v.opened_on))
-      return BadInput(where, "opened_on '" + v.opened_on + "' " + WhyNotATime(v.opened_on, "is not a date"), "write it as YYYY-MM-DD");
+      return BadInput(where, "opened_on '" + v.opened_on + "' " + WhyNotATime(v.opened_on, "is not a date"),
+                      "write it as YYYY-MM-DD");
     for (size_t i = 0; i < c_strata.size(); ++i) {
       const std::string& val = row.fields[c_strata[i]];
       if (val.empty())
