@@ -62,7 +62,7 @@ int RunSchedule(Context& ctx, const ScheduleOptions& o) {
   if (!o.due.empty()) {
     auto t = ParseIsoTime(o.due);
     if (!t)
-      return ReportError(BadInput("--due", "'" + o.due + "' is not a date", "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM"));
+      return ReportError(BadInput("--due", "'" + o.due + "' " + WhyNotATime(o.due, "is not a date"), "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM"));
     // A date means "by the end of that day"; a time means "before that time".
     query.due_until = o.due.size() == 10 ? *t + 86400 : *t;
   }

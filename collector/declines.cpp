@@ -62,7 +62,7 @@ Result<DeclineRecord> RecordDecline(Store& store, const OutcomeScheme& scheme, c
   std::string at = declined_at.empty() ? write.at() : declined_at;
   auto t = ParseEventTime(at);
   if (!t)
-    return BadInput("", "'" + at + "' is not a time",
+    return BadInput("", "'" + at + "' " + WhyNotATime(at, "is not a time"),
                     "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM (UTC, or with an offset such as +01:00)");
   std::optional<std::string> code = CurrentResponseCode(store, probe_id);
   if (!code)

@@ -1,5 +1,7 @@
 #include "collector/fetch_run.h"
 
+#include <filesystem>
+
 #include <map>
 
 #include "collector/extract.h"
@@ -72,6 +74,11 @@ Result<FetchReport> RunFetch(Store* store, const Design& design, const std::stri
   report.mode = options.dry_run ? "dry-run" : "fetch";
   SnapshotStore snapshots(snapshot_dir);
   FetchSession session(&client, options.dry_run ? nullptr : &snapshots, options.cancel);
+  // Hosts are paced across processes through files beside the snapshots
+  // (STUDY/fetch-hosts); a dry run writes nothing, so it paces within itself.
+  HostPacing pacing(options.dry_run ? std::string()
+                                    : (std::filesystem::path(snapshot_dir).parent_path() / "fetch-hosts").string());
+  session.SetHostPacing(&pacing);
   std::vector<Extraction> extractions;  // parallel to report.pages
 
   size_t total = 0;

@@ -106,10 +106,18 @@ FetchSession::Attempt FetchSession::Request(const std::string& url, const UrlPar
       return a;
     }
     WaitForHost(parts.Authority(), policy.min_interval_seconds);
+    HostTurn turn;  // another process's requests to the host count too
+    if (pacing_) turn = pacing_->Take(parts.Authority(), policy.min_interval_seconds, [this] { return cancelled(); });
+    if (cancelled()) {
+      a.response.error = "interrupted";
+      a.at = NowIso();
+      return a;
+    }
     a.response = client_->Get(req);
     // The interval counts from the end of the answer, not the start of the
     // request: a slow answer then never shortens the host's quiet time.
     last_request_[parts.Authority()] = Clock::now();
+    turn.Finish();
     a.at = NowIso();
     // Every body that arrived is evidence, error pages included.
     if (snapshots_ && (a.response.status > 0 || !a.response.body.empty())) {

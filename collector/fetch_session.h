@@ -27,6 +27,7 @@
 #include "collector/robots.h"
 #include "collector/snapshot_store.h"
 #include "core/design.h"
+#include "core/host_pacing.h"
 #include "core/listing_pages.h"
 
 namespace twinprobe {
@@ -77,6 +78,10 @@ class FetchSession {
   FetchSession(HttpClient* client, const SnapshotStore* snapshots, const std::atomic<bool>* cancel)
       : client_(client), snapshots_(snapshots), cancel_(cancel) {}
 
+  // Keeps rule 3 across processes too (core/host_pacing.h): every request
+  // waits its host's turn in `pacing`, which must outlive the session.
+  void SetHostPacing(HostPacing* pacing) { pacing_ = pacing; }
+
   // Fetches one page under every rule above.
   PageFetch Fetch(const std::string& url, const FetchPolicy& policy);
 
@@ -108,6 +113,7 @@ class FetchSession {
   HttpClient* client_;
   const SnapshotStore* snapshots_;
   const std::atomic<bool>* cancel_;
+  HostPacing* pacing_ = nullptr;
   std::map<std::string, RobotsRules> robots_;  // by origin, for this run
   std::map<std::string, std::chrono::steady_clock::time_point> last_request_;  // by authority
   std::vector<FetchLogEntry> log_;

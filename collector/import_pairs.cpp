@@ -14,7 +14,10 @@
 #include "collector/event_time.h"
 #include "collector/import_support.h"
 #include "core/audit.h"
+#include "core/clock.h"
+#include "core/echoed_value.h"
 #include "core/csv.h"
+#include "core/import_lock.h"
 #include "core/import_pairs_writer.h"
 #include "core/meta.h"
 #include "core/near_duplicates.h"
@@ -258,7 +261,7 @@ std::optional<Error> CheckRow(const CsvRecord& r, const Columns& c, const Target
   for (auto [col, name, slot] : {std::tuple{c.sent_at, "sent_at", &out.sent}, {c.responded_at, "responded_at", &out.responded}}) {
     if (col < 0 || r.fields[col].empty()) continue;
     *slot = ParseEventTime(r.fields[col]);
-    if (!*slot) return bad(std::string(name) + " '" + r.fields[col] + "' is not a date or time", kTimeFormat);
+    if (!*slot) return bad(std::string(name) + " '" + Echoed(r.fields[col]) + "' " + WhyNotATime(r.fields[col], "is not a date or time"), kTimeFormat);
   }
   if (out.sent && out.responded && IsBefore(*out.responded, *out.sent))
     return bad("responded_at " + out.responded->text() + " is before sent_at " + out.sent->text(),
@@ -670,7 +673,11 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
   auto sha = FileSha256(path);
   if (!sha.ok()) return sha.error();
   std::unique_ptr<Store> store;
+  ImportLock lock;  // held until the import ends: appends check and land one at a time
   if (fs::exists(store_path)) {
+    auto held = AcquireImportLock(store_path);
+    if (!held.ok()) return held.error();
+    lock = std::move(held).value();
     auto opened = Store::Open(store_path, false);
     if (!opened.ok()) return opened.error();
     store = std::move(opened).value();
@@ -730,7 +737,7 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
       return summary;
     }
     auto current = ReadImportPlan(*store);
-    if ((current ? current->id : 0) != t.plan_id)
+    if ((current ? current->id : 0) != t.plan_id || (t.append && 1 + MaxProbeSerial(*store) != t.next_serial))
       return BadInput(store_path, "the study changed while the file was checked", "run the import again");
     std::vector<int64_t> arm_ids = t.arm_ids;
     int64_t plan_id = t.plan_id;

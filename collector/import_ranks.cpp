@@ -82,9 +82,11 @@ Status Parse(const CsvTable& t, const std::string& path, RanksFile& out) {
       fields["score"] = v;
     }
     if (c_fetched >= 0 && !row.fields[static_cast<size_t>(c_fetched)].empty() &&
-        !ParseIsoTime(row.fields[static_cast<size_t>(c_fetched)]))
-      return BadInput(where, "fetched_at '" + row.fields[static_cast<size_t>(c_fetched)] + "' is not a time",
+        !ParseIsoTime(row.fields[static_cast<size_t>(c_fetched)])) {
+      const std::string& fetched = row.fields[static_cast<size_t>(c_fetched)];
+      return BadInput(where, "fetched_at '" + fetched + "' " + WhyNotATime(fetched, "is not a time"),
                       "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM (UTC)");
+    }
     auto [lit, is_new] = listing_index.emplace(ref, out.listings.size());
     if (is_new) {
       ParsedListing l;

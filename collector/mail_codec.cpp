@@ -195,10 +195,75 @@ bool IsUtf8(std::string_view s) {
   return true;
 }
 
+namespace {
+
+// UTF-16 (RFC 2781) to UTF-8 without iconv: every byte pattern has an answer.
+// A lone surrogate or an odd last byte becomes U+FFFD, as the WHATWG Encoding
+// Standard's UTF-16 decoder does.
+std::string Utf16ToUtf8(std::string_view bytes, bool big_endian) {
+  std::string out;
+  out.reserve(bytes.size());
+  auto unit = [&](size_t i) {
+    const auto hi = static_cast<unsigned char>(bytes[big_endian ? i : i + 1]);
+    const auto lo = static_cast<unsigned char>(bytes[big_endian ? i + 1 : i]);
+    return static_cast<uint32_t>(hi << 8 | lo);
+  };
+  size_t i = 0;
+  for (; i + 1 < bytes.size(); i += 2) {
+    uint32_t u = unit(i);
+    if (u >= 0xD800 && u <= 0xDBFF && i + 3 < bytes.size()) {
+      uint32_t low = unit(i + 2);
+      if (low >= 0xDC00 && low <= 0xDFFF) {
+        AppendUtf8(out, 0x10000 + ((u - 0xD800) << 10) + (low - 0xDC00));
+        i += 2;
+        continue;
+      }
+    }
+    AppendUtf8(out, u >= 0xD800 && u <= 0xDFFF ? 0xFFFD : u);
+  }
+  if (i < bytes.size()) AppendUtf8(out, 0xFFFD);
+  return out;
+}
+
+// The byte order of a "utf-16" body: its byte order mark (dropped from
+// `bytes`), else a guess from where the zero bytes stand. RFC 2781 section
+// 4.3 says to assume big-endian without a mark, but mail clients on Windows
+// write little-endian without one; text in Latin script has a zero high byte
+// in most units, so the side with more zeros is the high byte.
+bool Utf16IsBigEndian(std::string_view& bytes) {
+  if (bytes.size() >= 2 && bytes[0] == '\xFE' && bytes[1] == '\xFF') {
+    bytes.remove_prefix(2);
+    return true;
+  }
+  if (bytes.size() >= 2 && bytes[0] == '\xFF' && bytes[1] == '\xFE') {
+    bytes.remove_prefix(2);
+    return false;
+  }
+  size_t zeros_even = 0, zeros_odd = 0;
+  for (size_t i = 0; i < bytes.size(); ++i) (i % 2 == 0 ? zeros_even : zeros_odd) += bytes[i] == '\0';
+  return zeros_even >= zeros_odd;
+}
+
+}  // namespace
+
 std::string ToUtf8(std::string_view bytes, std::string_view charset) {
   std::string cs = Lower(charset);
   // RFC 2231 allows "charset*language"; the language is not ours to use.
   if (size_t star = cs.find('*'); star != std::string::npos) cs.resize(star);
+  // Before the ASCII shortcut: UTF-16 text in Latin script is mostly bytes
+  // below 0x80 (half of them zero), and would otherwise pass through raw.
+  // A byte order mark that agrees with a labelled order is dropped too (the
+  // WHATWG Encoding Standard's decode does the same).
+  if (cs == "utf-16le" || cs == "utf-16be") {
+    const bool big = cs == "utf-16be";
+    if (bytes.size() >= 2 && bytes[0] == (big ? '\xFE' : '\xFF') && bytes[1] == (big ? '\xFF' : '\xFE'))
+      bytes.remove_prefix(2);
+    return Utf16ToUtf8(bytes, big);
+  }
+  if (cs == "utf-16" || cs == "utf16" || cs == "ucs-2") {
+    const bool big = Utf16IsBigEndian(bytes);
+    return Utf16ToUtf8(bytes, big);
+  }
   bool ascii = true;
   for (unsigned char c : bytes) ascii = ascii && c < 0x80;
   if (ascii) return std::string(bytes);

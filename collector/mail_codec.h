@@ -33,7 +33,10 @@ void AppendUtf8(std::string& out, uint32_t cp);
 // WHATWG Encoding Standard does (common practice: mail labelled Latin-1
 // often carries Windows quotes). An unknown charset, or bytes the charset
 // cannot convert, fall back to: the bytes themselves if they are UTF-8, else
-// windows-1252. The result is always valid UTF-8.
+// windows-1252. UTF-16 (utf-16le, utf-16be, and utf-16 by its byte order
+// mark or, without one, by where its zero bytes stand) is decoded here, not by
+// iconv, so a lone surrogate or an odd byte becomes U+FFFD instead of
+// failing. The result is always valid UTF-8.
 std::string ToUtf8(std::string_view bytes, std::string_view charset);
 
 }  // namespace twinprobe

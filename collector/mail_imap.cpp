@@ -45,15 +45,17 @@ UrlParts SplitUrl(const std::string& url) {
   if (colon == std::string::npos) return p;
   p.scheme = Lower(url.substr(0, colon));
   std::string rest = url.substr(colon + 3);
-  size_t slash = rest.find('/');
-  std::string authority = rest.substr(0, slash);
-  p.path = slash == std::string::npos ? "" : rest.substr(slash);
-  size_t at = authority.rfind('@');
-  if (at != std::string::npos) {
-    p.userinfo = authority.substr(0, at);
-    authority = authority.substr(at + 1);
+  // The user part ends at the last '@' of the whole URL, not of the text
+  // before the first '/': a password holding '/', '?' or '#' would otherwise
+  // be read as a host and a folder, and be quoted in the error. A folder name
+  // with '@' in it is given up for that.
+  if (size_t at = rest.rfind('@'); at != std::string::npos) {
+    p.userinfo = rest.substr(0, at);
+    rest = rest.substr(at + 1);
   }
-  p.host_port = authority;
+  size_t slash = rest.find('/');
+  p.host_port = rest.substr(0, slash);
+  p.path = slash == std::string::npos ? "" : rest.substr(slash);
   return p;
 }
 
@@ -98,8 +100,21 @@ ImapOptions ImapOptionsFromEnvironment(const std::string& url) {
 
 std::string RedactedImapUrl(const std::string& url) {
   UrlParts p = SplitUrl(url);
-  if (p.scheme.empty()) return url;
-  return p.scheme + "://" + p.host_port + p.path;
+  if (!p.scheme.empty()) return p.scheme + "://" + p.host_port + p.path;
+  // Not even "scheme://" ("imaps:/ana:pw@host/INBOX", "ana:pw@host"): drop
+  // everything from after a leading "scheme:" and its slashes up to the last
+  // '@', so whatever stands there as a password is never shown.
+  size_t at = url.rfind('@');
+  if (at == std::string::npos) return url;
+  size_t start = 0;
+  while (start < url.size() && std::isalpha(static_cast<unsigned char>(url[start]))) ++start;
+  if (start < url.size() && url[start] == ':') {
+    ++start;
+    while (start < url.size() && url[start] == '/') ++start;
+  } else {
+    start = 0;
+  }
+  return url.substr(0, start) + url.substr(at + 1);
 }
 
 Status CheckImapUrl(const std::string& url) {

@@ -7,6 +7,8 @@
 #include "core/audit.h"
 #include "core/audit_summaries.h"
 #include "core/clock.h"
+#include "core/clock.h"
+#include "core/echoed_value.h"
 #include "core/response_records.h"
 #include "core/sending_records.h"
 #include "core/suggest.h"
@@ -53,14 +55,14 @@ Result<RecordedResponse> ResponseWriter::Add(const ResponseEntry& e, const std::
                                              const TimeReading& time) {
   int64_t probe_id = records_->FindProbe(e.probe_ref);
   if (probe_id == 0)
-    return BadInput(where, "unknown probe '" + e.probe_ref + "'",
+    return BadInput(where, "unknown probe '" + Echoed(e.probe_ref) + "'",
                     "use a probe reference from 'twinprobe schedule' or the plan (e.g. P00001)");
   if (!scheme_.has_code(e.code))
-    return BadInput(where, "'" + e.code + "' is not a response code of this study" + DidYouMean(e.code, scheme_.codes),
+    return BadInput(where, "'" + Echoed(e.code) + "' is not a response code of this study" + DidYouMean(e.code, scheme_.codes),
                     "use one of: " + JoinCodes(scheme_.codes));
   const auto& channels = ResponseChannels();
   if (!e.channel.empty() && std::find(channels.begin(), channels.end(), e.channel) == channels.end())
-    return BadInput(where, "unknown channel '" + e.channel + "'" + DidYouMean(e.channel, channels),
+    return BadInput(where, "unknown channel '" + Echoed(e.channel) + "'" + DidYouMean(e.channel, channels),
                     "use mail, phone, letter or other");
 
   RecordedResponse out;
@@ -72,7 +74,7 @@ Result<RecordedResponse> ResponseWriter::Add(const ResponseEntry& e, const std::
     std::string text = e.received_at.empty() ? at_ : e.received_at;
     received = ParseEventTime(text);
     if (!received)
-      return BadInput(where, (time.label.empty() ? "" : time.label + " ") + "'" + text + "' is not a date or time",
+      return BadInput(where, (time.label.empty() ? "" : time.label + " ") + "'" + Echoed(text) + "' " + WhyNotATime(text, "is not a date or time"),
                       kTimeFormat);
     out.received_at = received->text();
   }
@@ -146,6 +148,7 @@ Result<SendingRecord> AddSending(Store& store, const SendingEntry& e, int early_
                             " (" + w->reason + "), so it is not to be sent",
                     "send only what 'twinprobe schedule' lists; a withdrawn vacancy's unsent applications are left out");
   if (!t) return BadInput(where, "'" + text + "' is not a date or time", kTimeFormat);
+  if (!t) return BadInput("", "'" + text + "' " + WhyNotATime(text, "is not a date or time"), kTimeFormat);
   SendingRecord out;
   out.probe_ref = e.probe_ref;
   out.sent_at = t->text();

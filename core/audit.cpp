@@ -142,6 +142,24 @@ std::string& CommittedHead() {
   return head;
 }
 
+
+// Free text kept outside a row's digest (purge may empty it) must still hash
+// to the SHA-256 sealed for it. `sql` selects (row id, audit_seq, text,
+// sealed SHA-256); a mismatch is reported as `what_row` + id + " was changed
+// after it was written" + `seal`.
+void CheckSealedTexts(Store& store, const std::string& sql, const std::string& what_row, const std::string& seal,
+                      std::vector<AuditProblem>& problems) {
+  RawQuery rows(store, sql);
+  while (rows.Step()) {
+    sqlite3_stmt* r = rows.get();
+    const char* text = reinterpret_cast<const char*>(sqlite3_column_text(r, 2));
+    std::string value(text ? text : "", static_cast<size_t>(sqlite3_column_bytes(r, 2)));
+    const char* sealed = reinterpret_cast<const char*>(sqlite3_column_text(r, 3));
+    if (sealed && Sha256Hex(value) == sealed) continue;
+    problems.push_back({sqlite3_column_int64(r, 1), what_row + std::to_string(sqlite3_column_int64(r, 0)) +
+                                                        " was changed after it was written" + seal});
+  }
+}
 }  // namespace
 
 std::string LastCommittedHead() { return CommittedHead(); }
@@ -262,20 +280,23 @@ AuditReport VerifyAudit(Store& store) {
       Stmt has = store.Prepare("SELECT count(*) FROM pragma_table_info(?1) WHERE name = ?2");
       has.Bind(1, t.name).Bind(2, col + "_sha256");
       if (!has.Step() || has.Int(0) == 0) continue;
-      RawQuery rows(store, "SELECT rowid, audit_seq, \"" + col + "\", \"" + col + "_sha256\" FROM \"" + t.name +
-                               "\" WHERE \"" + col + "\" IS NOT NULL ORDER BY rowid");
-      while (rows.Step()) {
-        sqlite3_stmt* r = rows.get();
-        const char* text = reinterpret_cast<const char*>(sqlite3_column_text(r, 2));
-        std::string value(text ? text : "", static_cast<size_t>(sqlite3_column_bytes(r, 2)));
-        const char* sealed = reinterpret_cast<const char*>(sqlite3_column_text(r, 3));
-        if (sealed && Sha256Hex(value) == sealed) continue;
-        report.problems.push_back({sqlite3_column_int64(r, 1),
-                                   "the " + col + " of " + t.name + " row " + std::to_string(sqlite3_column_int64(r, 0)) +
-                                       " was changed after it was written (it no longer matches " + col + "_sha256)"});
-      }
+      CheckSealedTexts(store,
+                       "SELECT rowid, audit_seq, \"" + col + "\", \"" + col + "_sha256\" FROM \"" + t.name +
+                           "\" WHERE \"" + col + "\" IS NOT NULL ORDER BY rowid",
+                       "the " + col + " of " + t.name + " row ", " (it no longer matches " + col + "_sha256)",
+                       report.problems);
     }
   }
+
+  // The review excerpt of a message is sealed through mail_excerpt_seal
+  // (schema version 13): purge may empty it, nobody may change it. A store of
+  // an older version has no such table, and messages stored before version
+  // 13 have no seal to compare with.
+  if (store.QueryInt("SELECT count(*) FROM sqlite_master WHERE type = 'table' AND name = 'mail_excerpt_seal'") > 0)
+    CheckSealedTexts(store,
+                     "SELECT m.id, m.audit_seq, m.excerpt, s.excerpt_sha256 FROM mail_message m "
+                     "JOIN mail_excerpt_seal s ON s.mail_message_id = m.id WHERE m.excerpt IS NOT NULL ORDER BY m.id",
+                     "the excerpt of mail_message row ", " (it no longer matches mail_excerpt_seal)", report.problems);
 
   Stmt audit = store.Prepare(
       "SELECT seq, at, actor, command, summary, content_sha256, prev_hash, hash FROM audit ORDER BY seq");

@@ -58,7 +58,11 @@ int64_t NowEpoch() {
       .count();
 }
 
-std::optional<int64_t> ParseIsoTime(std::string_view s) {
+namespace {
+
+// The calendar reading without the range check (WhyNotATime tells the two
+// refusals apart).
+std::optional<int64_t> ParseIsoTimeAnyYear(std::string_view s) {
   int y, mo, d, h = 0, mi = 0, se = 0;
   if (!Digits(s, 0, 4, y) || s.size() < 10 || s[4] != '-' || !Digits(s, 5, 2, mo) || s[7] != '-' ||
       !Digits(s, 8, 2, d))
@@ -94,6 +98,20 @@ std::optional<int64_t> ParseIsoTime(std::string_view s) {
   if (mo == 2 && d == 29 && !leap) return std::nullopt;
   return DaysFromCivil(y, static_cast<unsigned>(mo), static_cast<unsigned>(d)) * 86400 + h * 3600 + mi * 60 + se -
          offset_seconds;
+}
+
+}  // namespace
+
+std::optional<int64_t> ParseIsoTime(std::string_view s) {
+  auto t = ParseIsoTimeAnyYear(s);
+  if (!t || *t < kEarliestTime || *t > kLatestTime) return std::nullopt;
+  return t;
+}
+
+std::string WhyNotATime(std::string_view text, std::string_view usual) {
+  if (auto t = ParseIsoTimeAnyYear(text); t && (*t < kEarliestTime || *t > kLatestTime))
+    return "is outside the accepted range " + std::string(kAcceptedTimeRange);
+  return std::string(usual);
 }
 
 std::string FormatIsoTime(int64_t t) {

@@ -4,6 +4,8 @@
 #include <fstream>
 #include <sstream>
 
+#include "core/echoed_value.h"
+
 namespace twinprobe {
 namespace {
 
@@ -189,12 +191,16 @@ Result<std::vector<std::string>> ReadCsvHeader(CsvReader& reader) {
       return BadInput(where, tab ? "the file looks tab-separated" : "the file looks semicolon-separated", fix);
     }
   }
+  if (rec.fields.size() > kMaxCsvColumns)
+    return BadInput(where, "the header has " + WithThousands(rec.fields.size()) + " columns, more than the " +
+                               WithThousands(kMaxCsvColumns) + " a file may have",
+                    "keep only the columns the command reads");
   for (size_t i = 0; i < rec.fields.size(); ++i) {
     if (rec.fields[i].empty())
       return BadInput(where, "column " + std::to_string(i + 1) + " has no name", "name every column");
     for (size_t j = 0; j < i; ++j)
       if (rec.fields[j] == rec.fields[i])
-        return BadInput(where, "the column '" + rec.fields[i] + "' appears twice", "rename one of them");
+        return BadInput(where, "the column '" + Echoed(rec.fields[i]) + "' appears twice", "rename one of them");
   }
   return rec.fields;
 }
@@ -216,7 +222,7 @@ int FindColumn(const std::vector<std::string>& header, const std::string& column
 
 namespace {
 
-Result<CsvTable> ReadCsvStream(std::istream& in, const std::string& name) {
+Result<CsvTable> ReadCsvStream(std::istream& in, const std::string& name, size_t kept_rows = SIZE_MAX) {
   CsvReader reader(in, name);
   CsvTable table;
   auto header = ReadCsvHeader(reader);
@@ -226,7 +232,7 @@ Result<CsvTable> ReadCsvStream(std::istream& in, const std::string& name) {
   while (reader.Next(rec)) {
     Status s = CheckFieldCount(rec, table.header.size(), name);
     if (!s.ok()) return s.error();
-    table.rows.push_back(rec);
+    if (table.row_count++ < kept_rows) table.rows.push_back(rec);
   }
   if (reader.error()) return *reader.error();
   return table;
@@ -234,10 +240,10 @@ Result<CsvTable> ReadCsvStream(std::istream& in, const std::string& name) {
 
 }  // namespace
 
-Result<CsvTable> ReadCsvFile(const std::string& path) {
+Result<CsvTable> ReadCsvFile(const std::string& path, size_t kept_rows) {
   std::ifstream in(path, std::ios::binary);
   if (!in) return BadInput(path, "cannot read the file", "check the path");
-  return ReadCsvStream(in, path);
+  return ReadCsvStream(in, path, kept_rows);
 }
 
 Result<CsvTable> ReadCsvText(const std::string& text, const std::string& name) {

@@ -15,6 +15,7 @@
 // Positions in messages are FILE:LINE:COL, both 1-based; LINE counts line
 // breaks (a quoted line break inside a field counts too, so positions match
 // what an editor shows) and COL counts characters (UTF-8 code points).
+#include <cstddef>
 #include <cstdint>
 #include <istream>
 #include <optional>
@@ -83,6 +84,11 @@ class CsvReader {
   char separator_ = ',';
 };
 
+// The widest header a CSV may have. Every file twinprobe reads needs a few
+// dozen columns; a header of 40,000 took 27 s to check, so a wider one is
+// refused before its names are compared.
+inline constexpr size_t kMaxCsvColumns = 1000;
+
 // Reads and checks a header record: every column named, no name twice, and
 // not one column holding ';' or a tab (a file saved with another separator:
 // "the file looks semicolon-separated — save it as CSV with commas, or pass
@@ -99,13 +105,17 @@ int FindColumn(const std::vector<std::string>& header, const std::string& column
 struct CsvTable {
   std::vector<std::string> header;
   std::vector<CsvRecord> rows;
+  size_t row_count = 0;  // rows in the file (more than rows.size() past a bound)
   // Index of a header column, or -1.
   int Column(const std::string& name) const { return FindColumn(header, name); }
 };
 
 // Reads the file at `path`. Every record must have as many fields as the
-// header; errors name FILE:LINE.
-Result<CsvTable> ReadCsvFile(const std::string& path);
+// header; errors name FILE:LINE. At most `kept_rows` rows are kept in
+// `rows`; the rest are read, checked and counted in `row_count` in constant
+// memory, so a caller with a bound can name the whole count without paying
+// for it.
+Result<CsvTable> ReadCsvFile(const std::string& path, size_t kept_rows = SIZE_MAX);
 Result<CsvTable> ReadCsvText(const std::string& text, const std::string& name);
 
 // Quotes a field for writing when it needs it (RFC 4180): fields holding a

@@ -1,5 +1,7 @@
 #include "core/mail_log.h"
 
+#include "core/sha256.h"
+
 namespace twinprobe {
 namespace {
 
@@ -18,7 +20,9 @@ MailLog::MailLog(Store& store)
       insert_(store.Prepare(
           "INSERT INTO mail_message(message_id, mailbox, from_addr, to_addr, subject, sent_date, body_sha256, "
           "excerpt, probe_id, match_reason, suggested_code, evidence, audit_seq) "
-          "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13)")) {}
+          "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13)")),
+      seal_(store.Prepare(
+          "INSERT INTO mail_excerpt_seal(mail_message_id, excerpt_sha256, audit_seq) VALUES (?1, ?2, ?3)")) {}
 
 std::optional<int64_t> MailLog::Find(const std::string& key) {
   find_.Bind(1, key);
@@ -42,7 +46,11 @@ int64_t MailLog::Insert(int64_t seq, const MailMessageRow& row) {
   insert_.Bind(10, row.match_reason);
   BindOptional(insert_, 11, row.suggested_code);
   insert_.Bind(12, row.evidence).Bind(13, seq).Run();
-  return store_.LastInsertId();
+  const int64_t id = store_.LastInsertId();
+  // The excerpt is left out of the row's digest (purge clears it); its
+  // SHA-256 is sealed beside it instead (schema version 13).
+  seal_.Bind(1, id).Bind(2, Sha256Hex(row.excerpt)).Bind(3, seq).Run();
+  return id;
 }
 
 std::vector<MailProbeRow> ReadMailProbes(Store& store) {

@@ -21,7 +21,7 @@ struct MailMessageRow {
   std::optional<std::string> subject_digest;   // "hmac:…" (KeyedDigest) of the subject
   std::optional<std::string> sent_date;        // ISO time, UTC
   std::string body_sha256;
-  std::string excerpt;              // JSON, unsealed (purge clears it)
+  std::string excerpt;              // JSON; outside the row digest (purge clears it), its SHA-256 sealed in mail_excerpt_seal
   std::optional<int64_t> probe_id;  // set when matched to one probe
   std::string match_reason;
   std::optional<std::string> suggested_code;
@@ -42,6 +42,7 @@ class MailLog {
   Store& store_;
   Stmt find_;
   Stmt insert_;
+  Stmt seal_;  // mail_excerpt_seal
 };
 
 // A probe of the current plan with what matching needs: its profile's

@@ -380,6 +380,20 @@ CREATE TABLE sending_detail(
 CREATE INDEX sending_detail_seq ON sending_detail(audit_seq);
 )SQL";
 
+// Version 13: the excerpt of a message that `review` shows as evidence is
+// sealed through its SHA-256. mail_message.excerpt stays outside the row's
+// digest because purge clears it; its digest lives in a new table (a new
+// column would change the digest of rows sealed earlier) written in the same
+// entry as the message, so an edited excerpt no longer matches and a removed
+// seal breaks the entry. Messages stored before version 13 have no seal.
+constexpr const char* kMigration13ExcerptSeal = R"SQL(
+CREATE TABLE mail_excerpt_seal(
+  mail_message_id INTEGER PRIMARY KEY REFERENCES mail_message(id),
+  excerpt_sha256 TEXT NOT NULL,           -- of mail_message.excerpt as written
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX mail_excerpt_seal_seq ON mail_excerpt_seal(audit_seq);
+)SQL";
+
 struct Migration {
   int version;
   const char* sql;
@@ -392,6 +406,8 @@ const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigrat
                                {8, kMigration8MonitorLook}};
                                {5, kMigration5DeskPassphrase}, {6, kMigration6},
                                {9, kMigration9SendingDetail}};
+                               {5, kMigration5DeskPassphrase}, {6, kMigration6},
+                                 {13, kMigration13ExcerptSeal}};
 
 // sqlite_master without SQLite's own objects (sqlite_autoindex_* follow from
 // the tables' SQL, which is compared; sqlite_stat* only guide the planner).
@@ -458,6 +474,7 @@ const std::vector<SealedTable>& SealedTables() {
       {"withdrawal", {}},
       {"monitor_look", {}},
       {"sending_detail", {}},
+      {"mail_excerpt_seal", {}},
   };
   return tables;
 }

@@ -24,6 +24,10 @@ std::string NearestName(const std::string& word, const std::vector<std::string>&
   std::string best;
   int best_d = std::max<int>(1, static_cast<int>(word.size()) / 3) + 1;
   for (const auto& c : candidates) {
+    // The distance is at least the difference in length: a 2 MB word is
+    // never compared cell by cell with a ten-letter key.
+    const size_t longer = std::max(word.size(), c.size()), shorter = std::min(word.size(), c.size());
+    if (longer - shorter >= static_cast<size_t>(best_d)) continue;
     int d = EditDistance(word, c);
     if (d < best_d) {
       best_d = d;

@@ -11,6 +11,7 @@
 #include <stdexcept>
 
 #include "core/clock.h"
+#include "core/echoed_value.h"
 #include "core/suggest.h"
 #include "planner/mail_section.h"
 #include "planner/name_pools.h"
@@ -88,7 +89,7 @@ void DesignReader::CheckKeys(const toml::table& t, const std::string& section,
   for (const auto& [key, node] : t) {
     std::string k(key.str());
     if (std::find(allowed.begin(), allowed.end(), k) == allowed.end())
-      Fail(&node, "unknown key '" + k + "' in " + section + DidYouMean(k, allowed),
+      Fail(&node, "unknown key '" + Echoed(k) + "' in " + section + DidYouMean(k, allowed),
            "the keys allowed here are: " + [&] {
              std::string s;
              for (const auto& a : allowed) s += (s.empty() ? "" : ", ") + a;
@@ -577,7 +578,7 @@ void DesignReader::ReadSchedule(Design& d) {
   CheckKeys(*s, "[schedule]", KeysOf("[schedule]"));
   d.schedule.start = String(*s, "[schedule]", "start", false, "");
   if (!d.schedule.start.empty() && !ParseIsoTime(d.schedule.start))
-    Fail(s->get("start"), "[schedule].start '" + d.schedule.start + "' is not a date", "write it as YYYY-MM-DD");
+    Fail(s->get("start"), "[schedule].start '" + d.schedule.start + "' " + WhyNotATime(d.schedule.start, "is not a date"), "write it as YYYY-MM-DD");
   d.schedule.sets_per_day = static_cast<int>(Integer(*s, "[schedule]", "sets_per_day", 20, 1, 1000000));
   d.schedule.early_days = static_cast<int>(Integer(*s, "[schedule]", "early_days", 1, 0, 365));
   if (const toml::node* h = s->get("hours")) {

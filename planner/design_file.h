@@ -16,6 +16,12 @@ namespace twinprobe {
 // 1,048,576 arms) is refused at once instead of costing gigabytes.
 inline constexpr int64_t kMaxArms = 100;
 
+// The most probes a plan may have (vacancies x probes per set), and so the
+// most applications `render` writes. `check` holds a plan and its renderings
+// in memory, about 3 KB a probe: 100,000 probes take some 300 MB. The
+// vacancies beyond the bound are counted, never kept (planner/vacancies.h).
+inline constexpr int64_t kMaxProbes = 100000;
+
 // Reads DIR/study.toml. Files the design names (name pools, templates) are
 // checked to exist inside DIR.
 Result<Design> LoadDesign(const std::string& study_dir);

@@ -1,18 +1,32 @@
 #include "planner/vacancies.h"
 
+#include <algorithm>
 #include <filesystem>
 #include <unordered_map>
 
 #include "core/clock.h"
 #include "core/csv.h"
+#include "core/echoed_value.h"
+#include "planner/design_file.h"
 
 namespace twinprobe {
 
 Result<std::vector<Vacancy>> ReadVacancies(const std::string& study_dir, const Design& design) {
   std::string path = (std::filesystem::path(study_dir) / design.vacancies_file).string();
-  auto table = ReadCsvFile(path);
+  // Bound the plan before it is built: the vacancies past the most a plan can
+  // hold are counted, not kept.
+  const int64_t per_set = design.kind == "unpaired" ? 1 : std::max<int64_t>(1, static_cast<int64_t>(design.arms.size()));
+  const size_t most_vacancies = static_cast<size_t>(kMaxProbes / per_set);
+  auto table = ReadCsvFile(path, most_vacancies);
   if (!table.ok()) return table.error();
   const CsvTable& t = table.value();
+  if (t.row_count > most_vacancies)
+    return BadInput(path,
+                    "the plan would have " + WithThousands(t.row_count * static_cast<size_t>(per_set)) + " probes (" +
+                        WithThousands(t.row_count) + " vacancies \u00d7 " + std::to_string(per_set) +
+                        (per_set == 1 ? " probe" : " probes") + " each), more than the " +
+                        WithThousands(static_cast<size_t>(kMaxProbes)) + " a plan may have",
+                    "split the vacancies into studies of at most " + WithThousands(most_vacancies) + " vacancies");
   int c_ref = t.Column("vacancy"), c_emp = t.Column("employer"), c_contact = t.Column("contact"),
       c_open = t.Column("opened_on");
   if (c_ref < 0) return BadInput(path + ":1", "the column 'vacancy' is missing", "add a column 'vacancy' with a unique reference per opening");
@@ -44,7 +58,8 @@ Result<std::vector<Vacancy>> ReadVacancies(const std::string& study_dir, const D
     seen[v.ref] = row.line;
     if (v.employer.empty()) return BadInput(where, "vacancy '" + v.ref + "' has no employer", "fill in the employer");
     if (!v.opened_on.empty() && !ParseIsoTime(v.opened_on))
-      return BadInput(where, "opened_on '" + v.opened_on + "' is not a date", "write it as YYYY-MM-DD");
+      return BadInput(where, "opened_on '" + v.opened_on + "' " + WhyNotATime(v.opened_on, "is not a date"),
+                      "write it as YYYY-MM-DD");
     for (size_t i = 0; i < c_strata.size(); ++i) {
       const std::string& val = row.fields[c_strata[i]];
       if (val.empty())

@@ -12,56 +12,12 @@
 
 using namespace twinprobe;
 using testing::FixtureServer;
+using testing::ListingStudyToml;
 using testing::RunCli;
 
 namespace {
 
 const std::vector<std::string> kEnv = {"no_proxy='*'", "http_proxy=", "https_proxy=", "TWINPROBE_ACTOR=tester"};
-
-// A listing study of the fixture board. Queries are the board's paths, so
-// one source meets every kind of page in one run.
-std::string StudyToml(const FixtureServer& server, const std::string& name_rule = "h3.name",
-                      const std::string& optional = "[\"salary\"]") {
-  return R"(# Listing audit of the Veldmark Jobs Exchange (invented), served by the test fixture.
-[study]
-id = "veldmark-listing-audit"
-kind = "listing"
-
-[[factor]]
-name = "origin"
-levels = ["inland", "coastal"]
-
-[[source]]
-name = "veldmark-jobs"
-allow_hosts = [")" + server.host() + R"("]
-url = "http://)" + server.host() + R"(/{query}?where={location}&page={page}"
-queries = ["search", "private", "broken", "missing-field", "fail", "away", "empty", "moved"]
-locations = ["Orlinde"]
-page_limit = 6
-min_interval_seconds = 0.1
-user_agent = "VeldmarkListingAudit/1.0"
-contact = "listing-audit@newsroom.example"
-timeout_seconds = 5
-retries = 1
-backoff_seconds = 0.1
-
-[source.extract]
-list = "ol#results"
-items = "li.candidate"
-key = "id"
-optional = )" + optional + R"(
-
-[source.extract.fields]
-id = "@data-candidate"
-name = ")" + name_rule + R"("
-profile = "a.profile @href"
-salary = ".salary"
-
-[ethics]
-approval = "VREB-2027-031 - Veldmark Research Ethics Board, invented"
-retention_days = 180
-)";
-}
 
 struct ListingStudy {
   testing::TempDir dir;
@@ -79,7 +35,7 @@ struct ListingStudy {
 TEST_CASE("fetch cli: one run fetches, skips and fails as the rules say, stores it all, and sums it up") {
   FixtureServer server;
   ListingStudy s;
-  s.Write(StudyToml(server));
+  s.Write(ListingStudyToml(server));
   auto r = RunCli({"--study", s.study, "fetch"}, kEnv);
   INFO(r.out << r.err);
   CHECK(r.exit_code == 1);  // pages failed; what was fetched is stored all the same
@@ -120,7 +76,7 @@ TEST_CASE("fetch cli: one run fetches, skips and fails as the rules say, stores 
 TEST_CASE("fetch cli: --json gives the summary and one entry per page") {
   FixtureServer server;
   ListingStudy s;
-  s.Write(StudyToml(server));
+  s.Write(ListingStudyToml(server));
   auto r = RunCli({"--study", s.study, "--json", "fetch"}, kEnv);
   INFO(r.err);
   auto j = nlohmann::json::parse(r.out);
@@ -142,9 +98,9 @@ TEST_CASE("fetch cli: --replay re-extracts from the snapshots without network an
   std::string toml;
   {
     FixtureServer server;
-    s.Write(StudyToml(server));
+    s.Write(ListingStudyToml(server));
     REQUIRE(RunCli({"--study", s.study, "fetch"}, kEnv).exit_code == 1);
-    toml = StudyToml(server, "h3.name", "[\"salary\", \"name\"]");  // the fixed rule: a name may be missing
+    toml = ListingStudyToml(server, "h3.name", "[\"salary\", \"name\"]");  // the fixed rule: a name may be missing
   }  // the server is gone: the replay cannot use the network
   s.Write(toml);
   auto r = RunCli({"--study", s.study, "fetch", "--replay"}, kEnv);
@@ -167,7 +123,7 @@ TEST_CASE("fetch cli: --replay re-extracts from the snapshots without network an
 TEST_CASE("fetch cli: --dry-run lists URLs with robots verdicts, fetches only robots.txt and stores nothing") {
   FixtureServer server;
   ListingStudy s;
-  s.Write(StudyToml(server));
+  s.Write(ListingStudyToml(server));
   auto r = RunCli({"--study", s.study, "fetch", "--dry-run"}, kEnv);
   INFO(r.out << r.err);
   CHECK(r.exit_code == 0);
@@ -188,7 +144,7 @@ TEST_CASE("fetch cli: --dry-run lists URLs with robots verdicts, fetches only ro
 TEST_CASE("fetch cli: a bad selector is one positioned error line, exit 1, and no store is made") {
   FixtureServer server;
   ListingStudy s;
-  s.Write(StudyToml(server, "h3..name"));
+  s.Write(ListingStudyToml(server, "h3..name"));
   auto r = RunCli({"--study", s.study, "fetch"}, kEnv);
   CHECK(r.exit_code == 1);
   CHECK(r.err == "twinprobe: " + s.study + "/study.toml:32:8: field 'name': bad selector 'h3..name': column 4: '.' must "
@@ -200,7 +156,7 @@ TEST_CASE("fetch cli: a bad selector is one positioned error line, exit 1, and n
 TEST_CASE("issue 24: check and fetch ask a listing audit for the same safeguards, and nothing about declines") {
   FixtureServer server;
   ListingStudy s;
-  std::string toml = StudyToml(server);
+  std::string toml = ListingStudyToml(server);
   s.Write(toml.substr(0, toml.find("retention_days = 180\n")));
   const std::string missing = "twinprobe: " + s.study + "/study.toml: [ethics].retention_days is missing \u2014 state "
                               "how many days identifying data is kept after fieldwork (see ethics/README.md)\n";
@@ -222,7 +178,7 @@ TEST_CASE("issue 24: check and fetch ask a listing audit for the same safeguards
 TEST_CASE("fetch cli: an unknown --source is named with a suggestion") {
   FixtureServer server;
   ListingStudy s;
-  s.Write(StudyToml(server));
+  s.Write(ListingStudyToml(server));
   auto r = RunCli({"--study", s.study, "fetch", "--source", "veldmark-job"}, kEnv);
   CHECK(r.exit_code == 1);
   CHECK(r.err == "twinprobe: there is no source 'veldmark-job' in the design (did you mean 'veldmark-jobs'?) \u2014 use "
@@ -232,7 +188,7 @@ TEST_CASE("fetch cli: an unknown --source is named with a suggestion") {
 TEST_CASE("fetch cli: import labels links item keys to factor levels, bad levels are refused with their line") {
   FixtureServer server;
   ListingStudy s;
-  s.Write(StudyToml(server));
+  s.Write(ListingStudyToml(server));
   testing::WriteFile(s.dir / "labels.csv", "item_key,origin\nvjx-2301,coastal\nvjx-3251,inland\nvjx-9730,\n");
   auto r = RunCli({"--study", s.study, "import", "labels", s.dir / "labels.csv"}, kEnv);
   INFO(r.err);

@@ -94,4 +94,49 @@ class FixtureServer {
   int port_ = 0;
 };
 
+// A listing study of the fixture board. Queries are the board's paths, so
+// one source meets every kind of page in one run.
+inline std::string ListingStudyToml(const FixtureServer& server, const std::string& name_rule = "h3.name",
+                                    const std::string& optional = "[\"salary\"]") {
+  return R"(# Listing audit of the Veldmark Jobs Exchange (invented), served by the test fixture.
+[study]
+id = "veldmark-listing-audit"
+kind = "listing"
+
+[[factor]]
+name = "origin"
+levels = ["inland", "coastal"]
+
+[[source]]
+name = "veldmark-jobs"
+allow_hosts = [")" + server.host() + R"("]
+url = "http://)" + server.host() + R"(/{query}?where={location}&page={page}"
+queries = ["search", "private", "broken", "missing-field", "fail", "away", "empty", "moved"]
+locations = ["Orlinde"]
+page_limit = 6
+min_interval_seconds = 0.1
+user_agent = "VeldmarkListingAudit/1.0"
+contact = "listing-audit@newsroom.example"
+timeout_seconds = 5
+retries = 1
+backoff_seconds = 0.1
+
+[source.extract]
+list = "ol#results"
+items = "li.candidate"
+key = "id"
+optional = )" + optional + R"(
+
+[source.extract.fields]
+id = "@data-candidate"
+name = ")" + name_rule + R"("
+profile = "a.profile @href"
+salary = ".salary"
+
+[ethics]
+approval = "VREB-2027-031 - Veldmark Research Ethics Board, invented"
+retention_days = 180
+)";
+}
+
 }  // namespace twinprobe::testing

@@ -5,7 +5,8 @@
 // codec's own UTF-8 test); a failure carries a reason and no items; a
 // success has positions 1..n, a non-empty key equal to the key field, every
 // required field in rule order, and text values that are valid UTF-8 with
-// white space collapsed.
+// white space collapsed. Each input's peak memory stays under 256 MB above
+// its start (tests/fuzz/fuzz_memory.h).
 #include <cstddef>
 #include <cstdint>
 #include <cstring>
@@ -15,6 +16,7 @@
 #include "collector/extract.h"
 #include "collector/mail_codec.h"
 #include "tests/fuzz/fuzz_check.h"
+#include "tests/fuzz/fuzz_memory.h"
 
 using namespace twinprobe;
 
@@ -101,6 +103,9 @@ void Check(std::string_view html, const ListingRules& rules) {
 extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
   static const ListingRules board = CompileRules(BoardSource(), "study.toml").value();
   static const ListingRules loose = CompileRules(LooseSource(), "study.toml").value();
+  // The stated bound: a page costs less than 256 MB above where it started,
+  // ASan included (collector/html_bounds.h caps errors and depth).
+  fuzz::InputMemoryBound bound(256);
   std::string_view html(reinterpret_cast<const char*>(data), size);
   Check(html, board);
   Check(html, loose);

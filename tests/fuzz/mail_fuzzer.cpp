@@ -6,7 +6,8 @@
 // lowercased, hold an '@' and are not repeated; search-text offsets stay
 // inside the text; evidence contexts are valid UTF-8; an mbox either splits
 // into messages that together hold no more bytes than the file (each found
-// at "PATH:LINE") or is refused with a positioned message.
+// at "PATH:LINE") or is refused with a positioned message. Each input's
+// peak memory stays under 256 MB above its start (tests/fuzz/fuzz_memory.h).
 #include <unistd.h>
 
 #include <algorithm>
@@ -25,6 +26,7 @@
 #include "collector/mail_text.h"
 #include "planner/mail_section.h"
 #include "tests/fuzz/fuzz_check.h"
+#include "tests/fuzz/fuzz_memory.h"
 
 using namespace twinprobe;
 
@@ -110,6 +112,10 @@ void CheckMbox(std::string_view bytes) {
 }  // namespace
 
 extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
+  // The stated bound: a message (and the same bytes as an mbox) costs less
+  // than 256 MB above where it started, ASan included; HTML parts are capped
+  // by collector/html_bounds.h.
+  fuzz::InputMemoryBound bound(256);
   std::string_view raw(reinterpret_cast<const char*>(data), size);
   CheckMessage(raw);
   CheckMbox(raw);

@@ -5,30 +5,18 @@
 // (getrusage via wait4), as in html_cost_test.cpp.
 #include <catch2/catch.hpp>
 
-#include <sys/resource.h>
-#include <sys/wait.h>
-#include <unistd.h>
-
 #include <chrono>
-#include <functional>
 #include <regex>
 #include <string>
 
 #include "planner/design_file.h"
 #include "testing/testing.h"
+#include "robustness/peak_memory.h"
 
 using namespace twinprobe;
+using testing::PeakKbInChild;
 
 namespace {
-
-long PeakKbInChild(const std::function<bool()>& work) {
-  pid_t pid = fork();
-  if (pid == 0) _exit(work() ? 0 : 1);
-  int status = 0;
-  struct rusage usage {};
-  if (wait4(pid, &status, 0, &usage) != pid || !WIFEXITED(status) || WEXITSTATUS(status) != 0) return -1;
-  return usage.ru_maxrss;
-}
 
 // The robustness fixture's design with `factors` two-level factors (the
 // first one, origin, keeps its name pools) and the given [arms] section.

@@ -5,30 +5,16 @@
 // peak resident memory (getrusage via wait4).
 #include <catch2/catch.hpp>
 
-#include <sys/resource.h>
-#include <sys/wait.h>
-#include <unistd.h>
-
-#include <functional>
 #include <string>
 
 #include "collector/extract.h"
 #include "collector/mail_html.h"
+#include "robustness/peak_memory.h"
 
 using namespace twinprobe;
+using testing::PeakKbInChild;
 
 namespace {
-
-// Peak resident set of a child running `work` (kilobytes), or -1 if the
-// child failed. The child inherits the test binary's pages, which count too.
-long PeakKbInChild(const std::function<bool()>& work) {
-  pid_t pid = fork();
-  if (pid == 0) _exit(work() ? 0 : 1);
-  int status = 0;
-  struct rusage usage {};
-  if (wait4(pid, &status, 0, &usage) != pid || !WIFEXITED(status) || WEXITSTATUS(status) != 0) return -1;
-  return usage.ru_maxrss;
-}
 
 std::string UnclosedDivs(int n) {
   std::string html = "<html><body>";

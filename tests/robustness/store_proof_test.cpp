@@ -291,6 +291,10 @@ TEST_CASE("issue 23: a store of an older schema version verifies against that ve
   st.Sql("DROP TABLE sending_detail; DROP TABLE material_file; DROP TABLE desk_passphrase; "
          "DROP INDEX response_supersedes; "
          "PRAGMA user_version = 3");
+  // version 5 the table desk_passphrase, version 6 material_file and version
+  // 13 mail_excerpt_seal, each with its indexes.
+  st.Sql("DROP TABLE mail_excerpt_seal; DROP TABLE material_file; DROP TABLE desk_passphrase; "
+         "DROP INDEX response_supersedes; PRAGMA user_version = 3");
   auto j = st.VerifyJson();
   INFO(j.dump(2));
   CHECK(j["ok"] == true);
@@ -298,4 +302,39 @@ TEST_CASE("issue 23: a store of an older schema version verifies against that ve
   auto raw = Store::OpenReadOnly(st.s.db());
   REQUIRE(raw.ok());
   CHECK(raw.value()->schema_version() == 3);
+}
+
+TEST_CASE("issue 23: an edited review excerpt is caught, a purged one is not a break") {
+  Study st;
+  testing::WriteFile(st.s.path + "/in.mbox",
+                     "From hanne.ostrel@orlinde-bakehouse.example Thu Mar  4 09:15:00 2027\n"
+                     "From: Hanne Ostrel <hanne.ostrel@orlinde-bakehouse.example>\n"
+                     "To: someone@postbox.example\n"
+                     "Message-ID: <seal-1@orlinde-bakehouse.example>\n"
+                     "Subject: Your application\n\n"
+                     "We regret to tell you that the position has been filled.\n");
+  auto mail = RunCli({"--study", st.s.path, "mail", "--mbox", st.s.path + "/in.mbox"}, kEnv);
+  INFO(mail.err);
+  REQUIRE(mail.exit_code == 0);
+  auto intact = st.VerifyJson();
+  REQUIRE(intact["ok"] == true);
+  const int64_t seq = intact["entries"].get<int64_t>();
+  CHECK(st.s.Open()->QueryInt("SELECT count(*) FROM mail_excerpt_seal") == 1);
+
+  // What purge does: the excerpt emptied, its seal kept.
+  st.Sql("UPDATE mail_message SET excerpt = NULL");
+  CHECK(st.VerifyJson()["ok"] == true);
+
+  st.Sql("UPDATE mail_message SET excerpt = '{\"text\":\"We would like to invite you to an interview.\"}'");
+  auto text = st.Verify();
+  CHECK(text.exit_code == 1);
+  auto j = st.VerifyJson();
+  CHECK(j["ok"] == false);
+  CHECK(HasProblem(j, seq,
+                   "the excerpt of mail_message row 1 was changed after it was written (it no longer matches "
+                   "mail_excerpt_seal)"));
+
+  // Removing the seal instead breaks the entry that wrote it.
+  st.Sql("DELETE FROM mail_excerpt_seal");
+  CHECK(st.VerifyJson()["ok"] == false);
 }
