@@ -37,6 +37,7 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   }
   r.kind = f.kind;
   r.plan_origin = f.plan_origin;
+  r.records = stored.records;
   r.study_id = stored.study_id;
   r.title = stored.title.empty() ? r.study_id : stored.title;
   r.positive_codes = scheme.positive;
@@ -89,6 +90,18 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
     ar.rate = ar.probes ? static_cast<double>(ar.positive) / static_cast<double>(ar.probes) : 0.0;
     if (ar.probes) ar.ci = stats::ClopperPearson(ar.positive, ar.probes, r.confidence);
   }
+  if (r.kind == "unpaired" && r.arms.size() >= 2) {
+    std::vector<int64_t> positives, totals;
+    bool any_positive = false, all_present = true;
+    for (const ArmResult& ar : r.arms) {
+      positives.push_back(ar.positive);
+      totals.push_back(ar.probes);
+      any_positive = any_positive || ar.positive > 0;
+      all_present = all_present && ar.probes > 0;
+    }
+    if (any_positive && all_present)
+      r.impact_vs_highest = stats::ImpactRatios(positives, totals, stats::kHighestRate, r.confidence);
+  }
   if (paired) {
     r.has_paired = true;
     r.reference_label = f.arms[0].label;
@@ -104,7 +117,9 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   r.response_times = ComputeResponseTimes(f, scheme);
   r.employers = paired ? SummariseEmployers(f.employers) : EmployerOutcomes{};
   TestByEmployer(r.employers, static_cast<uint64_t>(f.seed.value_or(0)), r.mcnemar_exact_p, r.alpha);
-  r.balance = ComputeBalance(f);
+  // Records were not assigned to groups by a plan: there is no design
+  // balance to check.
+  if (!r.records) r.balance = ComputeBalance(f);
   r.preregistration = CheckPreregistration(reading.freeze, stored, f, current_design, plan);
   return r;
 }

@@ -52,6 +52,7 @@ void RegisterEthicsCommands(CLI::App& app, Context& ctx);   // decline, purge (e
 void AddImportResponses(CLI::App& import, Context& ctx);  // outcomes, pairs (collect_cmds.cpp)
 void AddImportRanks(CLI::App& import, Context& ctx);      // ranks (import_ranks_cmd.cpp)
 void AddImportLabels(CLI::App& import, Context& ctx);     // labels (fetch_cmd.cpp)
+void RegisterImportApplications(CLI::App& import, Context& ctx);  // applications (import_applications_cmd.cpp)
 void AddRankCalculators(CLI::App& calc, Context& ctx);    // wilcoxon, emd (calc_ranks_cmd.cpp)
 
 // Prints "twinprobe: <message>" to stderr and returns the error's exit code.

@@ -15,6 +15,7 @@ void RegisterImportCommands(CLI::App& app, Context& ctx) {
   // header can name it as the fix.
   import->preparse_callback([](std::size_t) { SetCsvDialect({',', true}); });
   AddImportResponses(*import, ctx);
+  RegisterImportApplications(*import, ctx);
   AddImportRanks(*import, ctx);
   AddImportLabels(*import, ctx);
   for (CLI::App* importer : import->get_subcommands({}))
