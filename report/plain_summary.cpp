@@ -52,8 +52,13 @@ std::string RecordsWhatWasTested(const AnalysisResult& r) {
     // Without a vacancy column each application is its own vacancy: no
     // vacancies to speak of.
     << (r.vacancies == r.probes_planned ? std::string() : " in " + Count(r.vacancies, "vacancy", "vacancies"))
-    << ", each with its recorded outcome. The applicants were real and "
-    << "were not matched: they may differ in qualifications, experience and other respects that the data do not hold.";
+    << ", each with its recorded outcome.";
+  if (r.kind == "unpaired")
+    o << " The applicants were real and were not matched: they may differ in qualifications, experience and other "
+         "respects that the data do not hold.";
+  else
+    o << " Each vacancy has one application from each group; the data do not show how alike the applications "
+         "were, so a difference may also reflect qualifications the data do not hold.";
   return o.str();
 }
 
@@ -156,8 +161,10 @@ std::string HowSure(const AnalysisResult& r) {
   std::ostringstream o;
   const int conf = static_cast<int>(std::lround(r.confidence * 100));
   if (!r.has_paired && r.records) {
-    if (!r.effects.comparisons.empty()) {
-      const ArmComparison& c = r.effects.comparisons.front();
+    // Sets keep their pairing (McNemar, in the comparisons below the
+    // summary); only independent applications get Fisher's test here.
+    for (const ArmComparison& c : r.effects.comparisons) {
+      if (c.paired) continue;
       o << "Fisher's exact test, two-sided, " << (c.fisher.p.p < r.alpha ? "rejects" : "does not reject")
         << " equal selection rates of " << ArmName(r.arms.front().label) << " and " << ArmName(c.other_label)
         << " applicants at the study's threshold of " << Alpha(r.alpha) << " (" << PlainP(c.fisher.p.p) << "). ";
@@ -190,7 +197,9 @@ std::string HowSure(const AnalysisResult& r) {
     o << "That is not below the study's threshold of " << Alpha(r.alpha)
       << ", so the test does not show a difference. This is not proof that there is none; a larger study may find one. ";
   o << "The " << conf
-    << "% confidence intervals of the callback rates show how high or low each group's true callback rate may plausibly be.";
+    << (r.records ? "% confidence intervals of the rates show how high or low each group's true rate may plausibly be."
+                  : "% confidence intervals of the callback rates show how high or low each group's true callback rate "
+                    "may plausibly be.");
   return o.str();
 }
 
