@@ -113,6 +113,7 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   if (!listings.ok()) return listings.error();
   r.listings = listings.value();
   r.effects = ComputeEffects(effects_in);
+  r.stages = ComputeHiringStages(stored.stages, effects_in.arm_labels, reading.code_counts, r.correction, r.confidence);
   r.design = SummariseDesign(f, stored);
   r.response_times = ComputeResponseTimes(f, scheme);
   r.employers = paired ? SummariseEmployers(f.employers) : EmployerOutcomes{};

@@ -27,6 +27,7 @@
 #include "analysis/employer_outcomes.h"
 #include "analysis/flow.h"
 #include "analysis/response_times.h"
+#include "analysis/stages.h"
 #include "stats/binomial.h"
 #include "stats/impact.h"
 #include "stats/mcnemar.h"
@@ -74,6 +75,7 @@ struct AnalysisResult {
   // Unpaired designs: each arm's selection rate over the highest arm's
   // (stats/impact.h; the 29 CFR 1607.4(D) reading), in arm order.
   std::vector<stats::ImpactRatio> impact_vs_highest;
+  HiringStages stages;  // analysis/stages.h (records imported with --stages)
 
   // Paired design: reference arm vs the other arm.
   bool has_paired = false;

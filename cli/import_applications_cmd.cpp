@@ -128,6 +128,9 @@ void RegisterImportApplications(CLI::App& import, Context& ctx) {
   cmd->add_option("--factor", o->import.factor, "The attribute that tells the groups apart, e.g. gender (default: group)");
   cmd->add_option("--positive", o->import.positive,
                   "Outcome values that count as positive, e.g. yes,invited (default: 1, or the default response codes)");
+  cmd->add_option("--stages", o->import.stages,
+                  "Hiring stages in order, e.g. applied,screened,interview,offer,hire; the outcome column holds the "
+                  "furthest stage each application reached");
   cmd->add_option("--strata", o->strata, "Comma-separated stratum columns, e.g. site,role")
       ->each([o](const std::string&) { o->strata_given = true; });
   cmd->add_option("--id", o->import.base.study_id, "Study id for a new study (default: the folder's name)");

@@ -75,6 +75,14 @@ Result<PairsImportSummary> ImportApplications(const std::string& store_path, con
   base.column_names = columns.value();
   base.factor = factor;
   base.positive = SplitCommas(o.positive);
+  base.stages = SplitCommas(o.stages);
+  if (!o.stages.empty()) {
+    std::vector<std::string> sorted = base.stages;
+    std::sort(sorted.begin(), sorted.end());
+    if (base.stages.size() < 2 || std::adjacent_find(sorted.begin(), sorted.end()) != sorted.end())
+      return BadInput("--stages", "'" + o.stages + "' does not name two or more different stages",
+                      "list the stages in order, e.g. --stages applied,screened,interview,offer,hire");
+  }
   return ImportPairs(store_path, design, path, base);
 }
 

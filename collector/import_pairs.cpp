@@ -36,9 +36,9 @@ constexpr const char* kTimeFormat = "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM 
 const std::vector<std::string> kFixedColumns = {"vacancy", "arm", "outcome", "sent_at", "responded_at",
                                                 "probe", "employer"};
 
-std::string Join(const std::vector<std::string>& v) {
+std::string Join(const std::vector<std::string>& v, const std::string& separator = ", ") {
   std::string s;
-  for (const auto& x : v) s += (s.empty() ? "" : ", ") + x;
+  for (const auto& x : v) s += (s.empty() ? "" : separator) + x;
   return s;
 }
 
@@ -87,6 +87,7 @@ struct Target {
   int64_t next_serial = 1;
   bool records = false;     // applicant records (import applications)
   bool open_codes = false;  // --positive given: any outcome value is a code, collected in pass 1
+  bool staged = false;      // --stages given: the outcome is the furthest stage reached
   // Records of an unpaired study may leave out the vacancy column; with it,
   // a vacancy holds any number of applications and is also a stratum.
   bool many_per_vacancy() const { return records && kind == "unpaired"; }
@@ -158,6 +159,9 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
     }
     t.strata = stored;
     t.strata_source = "the study (set by its first import)";
+    if (!o.stages.empty() && o.stages != MetaList(*store, "stages"))
+      return BadInput("", "--stages " + Join(o.stages) + " differs from the study's stages",
+                      "a later import keeps the stages of the first; leave --stages out");
     if (!o.positive.empty() && o.positive != t.scheme.positive)
       return BadInput("", "--positive " + Join(o.positive) + " differs from the study's positive outcomes (" +
                               Join(t.scheme.positive) + ")",
@@ -177,8 +181,9 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
     if (!o.kind.empty() && o.kind != t.kind)
       return BadInput("", "--kind " + o.kind + " differs from study.toml's kind (" + t.kind + ")",
                       "leave --kind out, or import into a folder without study.toml");
-    if (!o.positive.empty())
-      return BadInput("", "--positive is given, but study.toml's [outcomes] says which codes are positive",
+    if (!o.positive.empty() || !o.stages.empty())
+      return BadInput("", std::string(o.stages.empty() ? "--positive" : "--stages") +
+                              " is given, but study.toml's [outcomes] says which codes there are and which are positive",
                       "leave --positive out, or import into a folder without study.toml");
     t.scheme = design->outcomes;
     for (const auto& a : design->arms) t.arms.push_back(a.label);
@@ -189,7 +194,15 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
     t.discover = true;
     t.kind = o.kind;
     t.scheme = SchemeWithoutDesign();
-    if (!o.positive.empty()) {
+    if (!o.stages.empty()) {
+      t.staged = true;
+      t.scheme.codes = o.stages;
+      t.scheme.positive = o.positive.empty() ? std::vector<std::string>(o.stages.begin() + 1, o.stages.end()) : o.positive;
+      for (const std::string& value : t.scheme.positive)
+        if (!t.scheme.has_code(value))
+          return BadInput("", "--positive '" + value + "' is not one of the stages" + DidYouMean(value, o.stages),
+                          "name stages of --stages: " + Join(o.stages));
+    } else if (!o.positive.empty()) {
       t.open_codes = true;
       t.scheme.codes.clear();
       t.scheme.positive = o.positive;
@@ -300,6 +313,9 @@ std::optional<Error> CheckRow(const CsvRecord& r, const Columns& c, const Target
     // The codes are stored comma-joined (core/meta.h).
     if (outcome.find(',') != std::string::npos)
       return bad("outcome '" + outcome + "' holds a comma", "write outcome values without commas");
+  } else if (t.staged && !t.scheme.has_code(outcome)) {
+    return bad("outcome '" + outcome + "' is not one of the stages" + DidYouMean(outcome, t.scheme.codes),
+               "write the furthest stage each application reached: " + Join(t.scheme.codes));
   } else if (!t.scheme.has_code(outcome))
     return bad("outcome '" + outcome + "' is not " + (t.has_design ? "a code of this study's scheme" : "1, 0 or a response code") +
                    // A one-letter value is one edit from "0" and "1": no useful guess.
@@ -833,6 +849,7 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
       plan_id = StorePlanHeader(*store, write->seq(), "import", HeaderDesign(design, t, store_path, path, o), arm_ids);
       // What the rows are: the report words a study of records differently.
       if (o.records) StoreMetaValue(*store, write->seq(), "data", "applications");
+      if (!o.stages.empty()) StoreMetaValue(*store, write->seq(), "stages", Join(o.stages, ","));
       summary.new_plan = true;
     }
     summary.plan_id = plan_id;

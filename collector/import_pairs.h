@@ -57,6 +57,10 @@ struct PairsImportOptions {
   // Outcome values that count as positive. When given (without a design),
   // any value is an outcome and the scheme's codes are the values seen.
   std::vector<std::string> positive;
+  // Hiring stages in order: the outcome is the furthest stage reached, so
+  // the codes are exactly these (positive: --positive, else every stage
+  // after the first). Stored for the stage analysis.
+  std::vector<std::string> stages;
 };
 
 struct PairsImportSummary {

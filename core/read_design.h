@@ -33,6 +33,9 @@ struct StoredDesign {
   // The plan holds applicant records (`import applications`), not probes
   // that were sent: the report words them as what they are.
   bool records = false;
+  // Hiring stages in order (`import applications --stages`; meta "stages"):
+  // each application's outcome is the furthest stage it reached.
+  std::vector<std::string> stages;
 };
 
 // Reads the meta table and, when there is a current plan, its factors,

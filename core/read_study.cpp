@@ -8,6 +8,7 @@ StudyReading ReadStudy(Store& store, const OutcomeScheme& scheme, const Fieldwor
   r.design = ReadStoredDesign(store);
   r.freeze = ReadFreeze(store);
   r.listings = ReadListings(store);
+  if (!r.design.stages.empty()) r.code_counts = ReadCodeCounts(store);
   return r;
 }
 

@@ -11,6 +11,7 @@
 #include "core/read_design.h"
 #include "core/read_freeze.h"
 #include "core/read_listings.h"
+#include "core/stage_counts.h"
 
 namespace twinprobe {
 
@@ -21,6 +22,7 @@ struct StudyReading {
   StoredDesign design;
   std::optional<FreezeRecord> freeze;
   ListingData listings;
+  std::vector<StageCodeCount> code_counts;  // filled when the plan has hiring stages (design.stages)
 };
 
 // `scheme` decides which response codes are positive (the design's scheme

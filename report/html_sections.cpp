@@ -1,6 +1,7 @@
 #include "report/html_sections.h"
 
 #include "report/fieldwork_state.h"
+#include "report/stages_report.h"
 
 namespace twinprobe {
 namespace {
@@ -19,6 +20,7 @@ bool HasPlan(const AnalysisResult& r) { return !r.listings.listing_only; }
 // Nothing sent or nothing closed yet: no rates, tables or employer findings.
 bool HasFindings(const AnalysisResult& r) { return HasPlan(r) && EarlyStateSentence(r).empty(); }
 bool HasPairedFindings(const AnalysisResult& r) { return r.has_paired && HasFindings(r); }
+bool HasStages(const AnalysisResult& r) { return r.stages.present && HasFindings(r); }
 
 }  // namespace
 
@@ -31,6 +33,7 @@ const std::vector<HtmlSection>& HtmlSections() {
       {"rates", "Positive callbacks by group", &HasFindings, {&RatesChart}},
       {"paired", "Pairs: who was treated better", &HasPairedFindings, {&PairedTable, &PairedTest, &PairedEffects}},
       {"comparisons", "Each group against the reference", &HasComparisons, {&ComparisonsForest}},
+      {"stages", "Hiring stages", &HasStages, {&StagesFunnel}},
       {"strata", "Results within each stratum", &HasStrata, {&StrataForest, &StrataTables, &AcrossStrataTable}},
       {"responses", "What came back, and how fast", &HasFindings, {&ResponseCodes, &ResponseTimesChart}},
       {"employers", "Employers (by pseudonym)", &HasEmployers, {&EmployerTable}},

@@ -10,6 +10,7 @@
 #include "analysis/strongest_evidence.h"
 #include "report/design_report.h"
 #include "report/effects_report.h"
+#include "report/stages_report.h"
 #include "report/employer_flip_text.h"
 #include "report/plain_summary.h"
 
@@ -380,6 +381,7 @@ void FindingsBlock(std::ostringstream& o, const AnalysisResult& r) {
            "not evidence that there is none.\n";
   }
   o << RenderEffectsText(r);
+  o << RenderStagesText(r);
 }
 
 }  // namespace

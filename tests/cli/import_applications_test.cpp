@@ -212,3 +212,69 @@ TEST_CASE("import applications: bad options and columns say what is wrong and le
                     "arm, outcome, sent_at, responded_at, probe or employer\n");
   CHECK_FALSE(std::filesystem::exists(study + "/study.db"));
 }
+
+TEST_CASE("import applications: five hiring stages give per-stage rates and Fisher tests as R") {
+  testing::TempDir dir;
+  const std::string study = dir / "hr";
+  auto r = RunCli({"--study", study, "import", "applications", HrFile(), "--kind", "unpaired", "--columns",
+                   "arm=gender,outcome=furthest_stage,vacancy=req_id", "--reference", "woman", "--factor", "gender",
+                   "--stages", "applied,screened,interview,offer,hire"});
+  CHECK(r.exit_code == 0);
+  CHECK(r.out.rfind("Created an unpaired study of applications from " + HrFile() +
+                        ": 129 applications in 14 vacancies; gender woman (reference) compared with man; a positive "
+                        "outcome is screened, interview, offer and hire; strata vacancy.\n",
+                    0) == 0);
+  auto j = nlohmann::json::parse(RunCli({"--study", study, "--json", "analyze"}).out);
+  const auto& stages = j["stages"]["stages"];
+  REQUIRE(stages.size() == 5);
+  CHECK(j["stages"]["correction"] == "holm");
+  // d$k <- match(d$furthest_stage, st); for stage k: reached = sum(d$k >= k) by gender,
+  // fisher.test(matrix(c(rw, rm, nw - rw, nm - rm), 2))$p.value (among all) and
+  // fisher.test(matrix(c(rw, rm, pw - rw, pm - rm), 2))$p.value (among the previous stage);
+  // adjusted: p.adjust(c(...), "holm") over the four stages after "applied".
+  struct Expected {
+    int64_t woman_reached, woman_previous, man_reached, man_previous;
+    double p_all, p_previous, p_all_holm, p_previous_holm;
+  };
+  const Expected expected[] = {
+      {37, 64, 40, 65, 0.72130428820644088, 0.72130428820644088, 0.72130428820644088, 0.77192982456140347},
+      {15, 37, 26, 40, 0.058418982200258818, 0.040839386022070566, 0.11683796440051764, 0.16335754408828226},
+      {4, 15, 15, 26, 0.011469374612289727, 0.10281593552639973, 0.034408123836869184, 0.30844780657919918},
+      {3, 4, 14, 15, 0.0077055011237762419, 0.38596491228070173, 0.030822004495104968, 0.77192982456140347},
+  };
+  CHECK(stages[0]["groups"][0]["reached"] == 64);
+  CHECK(stages[0]["groups"][1]["reached"] == 65);
+  for (size_t k = 1; k < 5; ++k) {
+    INFO(stages[k]["stage"]);
+    const Expected& e = expected[k - 1];
+    CHECK(stages[k]["groups"][0]["reached"] == e.woman_reached);
+    CHECK(stages[k]["groups"][0]["at_previous_stage"] == e.woman_previous);
+    CHECK(stages[k]["groups"][1]["reached"] == e.man_reached);
+    CHECK(stages[k]["groups"][1]["at_previous_stage"] == e.man_previous);
+    const auto& t = stages[k]["tests"][0];
+    CHECK_THAT(t["p_among_all"].get<double>(), WithinRel(e.p_all, 1e-9));
+    CHECK_THAT(t["p_among_previous"].get<double>(), WithinRel(e.p_previous, 1e-9));
+    CHECK_THAT(t["p_among_all_adjusted"].get<double>(), WithinRel(e.p_all_holm, 1e-9));
+    CHECK_THAT(t["p_among_previous_adjusted"].get<double>(), WithinRel(e.p_previous_holm, 1e-9));
+  }
+  auto text = RunCli({"--study", study, "analyze"}).out;
+  CHECK(text.find("  interview: woman 15/64 (23.4%), of previous 15/37 (40.5%); man 26/65 (40.0%), of previous 26/40 "
+                  "(65.0%);\n    man: among all p = 0.0584 (adjusted 0.117); among the previous stage p = 0.0408 "
+                  "(adjusted 0.163)\n") != std::string::npos);
+  REQUIRE(RunCli({"--study", study, "report", "--out", dir / "r.html"}).exit_code == 0);
+  const std::string page = testing::ReadFile(dir / "r.html");
+  CHECK(page.find("id=\"fig-stages\"") != std::string::npos);
+  CHECK(page.find("Hiring funnel by group.") != std::string::npos);
+}
+
+TEST_CASE("import applications: an outcome that is no stage names the stages") {
+  testing::TempDir dir;
+  auto r = RunCli({"--study", dir / "hr", "import", "applications", HrFile(), "--kind", "unpaired", "--columns",
+                   "arm=gender,outcome=furthest_stage", "--reference", "woman", "--stages",
+                   "applied,screened,interviewed,offer,hire"});
+  CHECK(r.exit_code == 1);
+  CHECK(r.err == "twinprobe: " + HrFile() +
+                     ":5: outcome 'interview' is not one of the stages (did you mean 'interviewed'?) \u2014 write the "
+                     "furthest stage each application reached: applied, screened, interviewed, offer, hire\n");
+  CHECK_FALSE(std::filesystem::exists(dir / "hr/study.db"));
+}
