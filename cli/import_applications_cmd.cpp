@@ -10,6 +10,7 @@
 #include "cli/command.h"
 #include "cli/near_duplicate_output.h"
 #include "collector/import_applications.h"
+#include "core/comma_list.h"
 #include "planner/design_file.h"
 #include "report/plural.h"
 
@@ -49,15 +50,7 @@ int RunImportApplications(Context& ctx, ApplicationsCmdOptions& o) {
     design = std::move(d).value();
   }
   PairsImportOptions& base = o.import.base;
-  base.strata.clear();
-  for (size_t start = 0; start <= o.strata.size();) {
-    size_t comma = o.strata.find(',', start);
-    if (comma == std::string::npos) comma = o.strata.size();
-    std::string item = o.strata.substr(start, comma - start);
-    size_t b = item.find_first_not_of(' '), e = item.find_last_not_of(' ');
-    if (b != std::string::npos) base.strata.push_back(item.substr(b, e - b + 1));
-    start = comma + 1;
-  }
+  base.strata = SplitCommaList(o.strata);
   base.strata_given = o.strata_given;
   base.reject_path = o.rejects;
   auto r = ImportApplications(StorePath(ctx), design ? &*design : nullptr, o.file, o.import);

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cctype>
 
+#include "core/comma_list.h"
 #include "core/suggest.h"
 
 namespace twinprobe {
@@ -11,20 +12,6 @@ namespace {
 // The roles a file's columns can be mapped to (the importer's own names).
 const std::vector<std::string> kRoles = {"vacancy", "arm", "outcome", "sent_at", "responded_at", "probe", "employer"};
 const std::vector<std::string> kKinds = {"paired", "sets", "unpaired"};
-
-std::vector<std::string> SplitCommas(const std::string& text) {
-  std::vector<std::string> out;
-  size_t start = 0;
-  while (start <= text.size()) {
-    size_t comma = text.find(',', start);
-    if (comma == std::string::npos) comma = text.size();
-    std::string item = text.substr(start, comma - start);
-    size_t b = item.find_first_not_of(' '), e = item.find_last_not_of(' ');
-    if (b != std::string::npos) out.push_back(item.substr(b, e - b + 1));
-    start = comma + 1;
-  }
-  return out;
-}
 
 // A factor name is used in sentences and as a level's prefix ("sex=female").
 bool IsFactorName(const std::string& name) {
@@ -38,7 +25,7 @@ bool IsFactorName(const std::string& name) {
 
 Result<std::vector<std::pair<std::string, std::string>>> ParseColumnMap(const std::string& text) {
   std::vector<std::pair<std::string, std::string>> out;
-  for (const std::string& entry : SplitCommas(text)) {
+  for (const std::string& entry : SplitCommaList(text)) {
     size_t eq = entry.find('=');
     if (eq == std::string::npos || eq == 0 || eq + 1 == entry.size())
       return BadInput("--columns", "'" + entry + "' is not ROLE=COLUMN",
@@ -74,8 +61,8 @@ Result<PairsImportSummary> ImportApplications(const std::string& store_path, con
   base.kind = o.kind;
   base.column_names = columns.value();
   base.factor = factor;
-  base.positive = SplitCommas(o.positive);
-  base.stages = SplitCommas(o.stages);
+  base.positive = SplitCommaList(o.positive);
+  base.stages = SplitCommaList(o.stages);
   if (!o.stages.empty()) {
     std::vector<std::string> sorted = base.stages;
     std::sort(sorted.begin(), sorted.end());

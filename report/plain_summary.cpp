@@ -114,12 +114,13 @@ std::string WhatWasFound(const AnalysisResult& r) {
   std::ostringstream o;
   std::vector<std::string> codes;
   for (const auto& c : r.positive_codes) codes.push_back(CodeName(c));
+  // "3 of 10 applications from inland applicants (30.0%)", per arm.
+  std::vector<std::string> parts;
+  for (const auto& a : r.arms)
+    parts.push_back(std::to_string(a.positive) + " of " + std::to_string(a.probes) + " applications from " +
+                    ArmName(a.label) + " applicants (" + FormatPercent(a.rate) + ")");
   if (r.records) {
     o << "A positive outcome is " << Join(codes, " or ") << ". ";
-    std::vector<std::string> parts;
-    for (const auto& a : r.arms)
-      parts.push_back(std::to_string(a.positive) + " of " + std::to_string(a.probes) + " applications from " +
-                      ArmName(a.label) + " applicants (" + FormatPercent(a.rate) + ")");
     o << "The outcome was positive for " << Join(parts, " and ") << ".";
     for (size_t i = 0; i < r.impact_vs_highest.size(); ++i) {
       const stats::ImpactRatio& q = r.impact_vs_highest[i];
@@ -132,10 +133,6 @@ std::string WhatWasFound(const AnalysisResult& r) {
     return o.str();
   }
   o << "A positive answer means " << Join(codes, " or ") << ". ";
-  std::vector<std::string> parts;
-  for (const auto& a : r.arms)
-    parts.push_back(std::to_string(a.positive) + " of " + std::to_string(a.probes) + " applications from " +
-                    ArmName(a.label) + " applicants (" + FormatPercent(a.rate) + ")");
   o << "Employers answered positively to " << Join(parts, " and ") << ".";
   if (r.has_paired) {
     const auto& t = r.paired;
