@@ -38,6 +38,7 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   }
   r.kind = f.kind;
   r.plan_origin = f.plan_origin;
+  r.records = stored.records;
   r.study_id = stored.study_id;
   r.title = stored.title.empty() ? r.study_id : stored.title;
   r.positive_codes = scheme.positive;
@@ -90,6 +91,18 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
     ar.rate = ar.probes ? static_cast<double>(ar.positive) / static_cast<double>(ar.probes) : 0.0;
     if (ar.probes) ar.ci = stats::ClopperPearson(ar.positive, ar.probes, r.confidence);
   }
+  if (r.kind == "unpaired" && r.arms.size() >= 2) {
+    std::vector<int64_t> positives, totals;
+    bool any_positive = false, all_present = true;
+    for (const ArmResult& ar : r.arms) {
+      positives.push_back(ar.positive);
+      totals.push_back(ar.probes);
+      any_positive = any_positive || ar.positive > 0;
+      all_present = all_present && ar.probes > 0;
+    }
+    if (any_positive && all_present)
+      r.impact_vs_highest = stats::ImpactRatios(positives, totals, stats::kHighestRate, r.confidence);
+  }
   if (paired) {
     r.has_paired = true;
     r.reference_label = f.arms[0].label;
@@ -106,6 +119,7 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
     return std::any_of(r.effects.single_strata.begin(), r.effects.single_strata.end(),
                        [&](const SingleStratum& one) { return one.column == t.name; });
   });
+  r.stages = ComputeHiringStages(stored.stages, effects_in.arm_labels, reading.code_counts, r.correction, r.confidence);
   r.design = SummariseDesign(f, stored);
   r.response_times = ComputeResponseTimes(f, scheme);
   r.employers = paired ? SummariseEmployers(f.employers) : EmployerOutcomes{};
@@ -113,6 +127,10 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   r.balance = ComputeBalance(f);
   r.preregistration = CheckPreregistration(reading.freeze, stored, f, current_design, plan, reading.monitor_looks);
   if (r.has_paired) r.early_stop = ComputeEarlyStop(reading.monitor_looks);
+  // Records were not assigned to groups by a plan: there is no design
+  // balance to check.
+  if (!r.records) r.balance = ComputeBalance(f);
+  r.preregistration = CheckPreregistration(reading.freeze, stored, f, current_design, plan);
   return r;
 }
 

@@ -28,7 +28,9 @@
 #include "analysis/employer_outcomes.h"
 #include "analysis/flow.h"
 #include "analysis/response_times.h"
+#include "analysis/stages.h"
 #include "stats/binomial.h"
+#include "stats/impact.h"
 #include "stats/mcnemar.h"
 
 namespace twinprobe {
@@ -53,6 +55,7 @@ struct AnalysisResult {
   std::string title;
   std::string kind;            // paired | sets | unpaired
   std::string plan_origin;     // plan | import
+  bool records = false;        // applicant records (import applications), not probes sent
   double confidence = 0.95;    // 1 - alpha
   double alpha = 0.05;
   std::string correction;      // the design's multiple-comparison method
@@ -70,6 +73,10 @@ struct AnalysisResult {
   StudyFlow flow;               // analysis/flow.h
 
   std::vector<ArmResult> arms;  // reference first
+  // Unpaired designs: each arm's selection rate over the highest arm's
+  // (stats/impact.h; the 29 CFR 1607.4(D) reading), in arm order.
+  std::vector<stats::ImpactRatio> impact_vs_highest;
+  HiringStages stages;  // analysis/stages.h (records imported with --stages)
 
   // Paired design: reference arm vs the other arm.
   bool has_paired = false;

@@ -63,7 +63,9 @@ BalanceReport ComputeBalance(const Fieldwork& f, int replicates) {
   if (!b.templates.empty())
     report.tables.push_back(
         MakeTable("template", "arm x template", arms, Columns(b.templates), b.templates, seed, replicates));
-  {
+  // Imported data without send times have no send order, only the order of
+  // the file's rows: nothing to test.
+  if (f.plan_origin != "import" || f.probes_sent > 0) {
     std::map<std::pair<int, std::string>, int64_t> orders;
     int max_order = 0;
     for (const auto& [cell, n] : b.send_orders) {

@@ -1,5 +1,6 @@
 #include "analysis/effects.h"
 
+#include <algorithm>
 #include <map>
 
 #include "stats/paired_midp.h"
@@ -40,9 +41,28 @@ ArmComparison Compare(const std::vector<const SetOutcome*>& sets, int other, con
     if (c.table.a + c.table.b > 0) c.reference_wilson = stats::Wilson(c.table.a, c.table.a + c.table.b, in.confidence);
     if (c.table.c + c.table.d > 0) c.other_wilson = stats::Wilson(c.table.c, c.table.c + c.table.d, in.confidence);
     c.p = c.fisher.p;
+    const int64_t n_ref = c.table.a + c.table.b, n_other = c.table.c + c.table.d;
+    if (n_ref > 0 && n_other > 0 && c.table.a + c.table.c > 0) {
+      c.has_rate_contrast = true;
+      c.impact = stats::ImpactRatioOf(c.table.c, n_other, c.table.a, n_ref, in.confidence);
+      c.difference = stats::NewcombeDifference(c.table.c, n_other, c.table.a, n_ref, in.confidence);
+    }
   }
   c.p_adjusted = c.p.p;
   return c;
+}
+
+// A table that enters the stratified analysis (both rows and both columns
+// filled) with an expected count below 5 under independence.
+bool HasSparseTable(const std::vector<stats::Table2x2>& tables) {
+  for (const stats::Table2x2& t : tables) {
+    const double r1 = static_cast<double>(t.a + t.b), r2 = static_cast<double>(t.c + t.d);
+    const double c1 = static_cast<double>(t.a + t.c), c2 = static_cast<double>(t.b + t.d);
+    const double n = r1 + r2;
+    if (r1 == 0 || r2 == 0 || c1 == 0 || c2 == 0) continue;
+    if (std::min(r1, r2) * std::min(c1, c2) / n < 5) return true;
+  }
+  return false;
 }
 
 template <typename T>
@@ -105,6 +125,9 @@ Effects ComputeEffects(const EffectsInput& in) {
       } else {
         across.mh = stats::MantelHaenszel(across.tables, in.confidence);
         across.breslow_day = stats::BreslowDay(across.tables);
+        across.sparse = HasSparseTable(across.tables);
+        if (across.sparse)
+          across.exact = stats::ExactCommonOddsRatio(across.tables, stats::Alternative::kTwoSided, in.confidence);
       }
       e.across.push_back(std::move(across));
     }

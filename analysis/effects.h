@@ -36,8 +36,11 @@
 
 #include "stats/adjust.h"
 #include "stats/equivalence.h"
+#include "stats/exact_stratified.h"
 #include "stats/fisher.h"
 #include "stats/homogeneity.h"
+#include "stats/impact.h"
+#include "stats/newcombe.h"
 #include "stats/mcnemar.h"
 #include "stats/paired.h"
 #include "stats/stratified.h"
@@ -83,6 +86,12 @@ struct ArmComparison {
   stats::FisherResult fisher;
   stats::SampleOddsRatio woolf;
   stats::Interval reference_wilson, other_wilson;
+  // The other arm's rate over the reference's (stats/impact.h) and minus it
+  // with Newcombe's hybrid score interval (stats/newcombe.h); set when both
+  // arms have applications and one is positive.
+  bool has_rate_contrast = false;
+  stats::ImpactRatio impact;
+  stats::RateDifference difference;
   // the headline p (exact McNemar or two-sided Fisher) and its adjusted value
   stats::PValue p;
   double p_adjusted = 1;
@@ -108,6 +117,15 @@ struct AcrossStrata {
   std::vector<stats::Table2x2> tables;
   stats::MantelHaenszelResult mh;
   stats::BreslowDayResult breslow_day;
+  // Sparse strata: some table used has an expected count below 5 under
+  // independence (Cochran 1954, Biometrics 10:417-451, the rule for
+  // chi-square approximations). Then the asymptotic CMH and Breslow–Day
+  // are unreliable; the exact conditional test of a common odds ratio (as R's
+  // mantelhaen.test(exact = TRUE), stats/exact_stratified.h) is given, and
+  // the report warns about Breslow–Day. `exact` is empty when not sparse or
+  // too costly.
+  bool sparse = false;
+  std::optional<stats::ExactStratifiedResult> exact;
 };
 
 // A stratum column whose analysed sets all share one value: a stratified

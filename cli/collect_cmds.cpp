@@ -10,6 +10,7 @@
 #include "collector/import_outcomes.h"
 #include "collector/import_pairs.h"
 #include "collector/responses.h"
+#include "core/comma_list.h"
 #include "core/clock.h"
 #include "core/ethics_gate.h"
 #include "planner/design_file.h"
@@ -159,20 +160,6 @@ int RunImportOutcomes(Context& ctx, const ImportCmdOptions& o) {
   return s.rows_rejected ? 1 : 0;
 }
 
-std::vector<std::string> SplitList(const std::string& text) {
-  std::vector<std::string> out;
-  size_t start = 0;
-  while (start <= text.size()) {
-    size_t comma = text.find(',', start);
-    if (comma == std::string::npos) comma = text.size();
-    std::string item = text.substr(start, comma - start);
-    size_t b = item.find_first_not_of(' '), e = item.find_last_not_of(' ');
-    if (b != std::string::npos) out.push_back(item.substr(b, e - b + 1));
-    start = comma + 1;
-  }
-  return out;
-}
-
 int RunImportPairs(Context& ctx, const ImportCmdOptions& o) {
   std::optional<Design> design;
   if (std::filesystem::exists(DesignPath(ctx.study_dir))) {
@@ -181,7 +168,7 @@ int RunImportPairs(Context& ctx, const ImportCmdOptions& o) {
     design = std::move(d).value();
   }
   PairsImportOptions options;
-  options.strata = SplitList(o.strata);
+  options.strata = SplitCommaList(o.strata);
   options.strata_given = o.strata_given;
   options.reference = o.reference;
   options.skip_bad = o.skip_bad;
@@ -222,7 +209,7 @@ int RunImportPairs(Context& ctx, const ImportCmdOptions& o) {
   } else if (s.already_imported) {
     std::cout << "This file was imported before; nothing was added.\n";
   } else {
-    std::cout << (s.new_plan ? "Created a " + s.kind + " study from " : "Added to the study from ") << o.file << ": "
+    std::cout << (s.new_plan ? "Created " + std::string(s.kind == "unpaired" ? "an " : "a ") + s.kind + " study from " : "Added to the study from ") << o.file << ": "
               << s.rows_landed << (s.rows_landed == 1 ? " probe" : " probes") << " in " << s.vacancies_landed
               << (s.vacancies_landed == 1 ? " vacancy" : " vacancies");
     if (s.new_plan) {

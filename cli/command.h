@@ -54,6 +54,7 @@ void AddImportResponses(CLI::App& import, Context& ctx);  // outcomes, pairs (co
 void AddImportRanks(CLI::App& import, Context& ctx);      // ranks (import_ranks_cmd.cpp)
 void AddImportLabels(CLI::App& import, Context& ctx);     // labels (fetch_cmd.cpp)
 void RegisterImportSendings(CLI::App& import, Context& ctx);  // sendings (import_sendings_cmd.cpp)
+void RegisterImportApplications(CLI::App& import, Context& ctx);  // applications (import_applications_cmd.cpp)
 void AddRankCalculators(CLI::App& calc, Context& ctx);    // wilcoxon, emd (calc_ranks_cmd.cpp)
 
 // A command line to suggest in a "Next:" or "then run" sentence, naming the

@@ -16,6 +16,7 @@ void RegisterImportCommands(CLI::App& app, Context& ctx) {
   import->preparse_callback([](std::size_t) { SetCsvDialect({',', true}); });
   AddImportResponses(*import, ctx);
   RegisterImportSendings(*import, ctx);
+  RegisterImportApplications(*import, ctx);
   AddImportRanks(*import, ctx);
   AddImportLabels(*import, ctx);
   for (CLI::App* importer : import->get_subcommands({}))

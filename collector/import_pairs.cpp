@@ -39,11 +39,14 @@ constexpr const char* kTimeFormat = "write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM 
 const std::vector<std::string> kFixedColumns = {"vacancy", "arm", "outcome", "sent_at", "responded_at",
                                                 "probe", "employer"};
 
-std::string Join(const std::vector<std::string>& v) {
+std::string Join(const std::vector<std::string>& v, const std::string& separator = ", ") {
   std::string s;
-  for (const auto& x : v) s += (s.empty() ? "" : ", ") + x;
+  for (const auto& x : v) s += (s.empty() ? "" : separator) + x;
   return s;
 }
+
+// What the rows are called in messages.
+std::string RowNoun(bool records) { return records ? "application" : "probe"; }
 
 std::string Quoted(const std::vector<std::string>& v) {
   std::string s;
@@ -85,6 +88,12 @@ struct Target {
   std::string strata_source;  // names where the strata came from, for messages
   std::unordered_set<std::string> existing_vacancies, existing_probes;
   int64_t next_serial = 1;
+  bool records = false;     // applicant records (import applications)
+  bool open_codes = false;  // --positive given: any outcome value is a code, collected in pass 1
+  bool staged = false;      // --stages given: the outcome is the furthest stage reached
+  // Records of an unpaired study may leave out the vacancy column; with it,
+  // a vacancy holds any number of applications and is also a stratum.
+  bool many_per_vacancy() const { return records && kind == "unpaired"; }
 
   void IndexArms() {
     arm_of.clear();
@@ -127,8 +136,12 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
       t.append = true;
       t.plan_id = p->id;
       t.kind = p->kind;
+      if (!o.kind.empty() && o.kind != t.kind)
+        return BadInput("", "--kind " + o.kind + " differs from the study's kind (" + t.kind + ")",
+                        "a later import joins the study of the first; leave --kind out");
     }
   }
+  t.records = o.records;
   if (t.append) {
     for (const ImportArmRow& a : ReadImportArms(*store, t.plan_id)) {
       if (a.is_reference) t.reference = static_cast<int>(t.arms.size());
@@ -149,6 +162,13 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
     }
     t.strata = stored;
     t.strata_source = "the study (set by its first import)";
+    if (!o.stages.empty() && o.stages != MetaList(*store, "stages"))
+      return BadInput("", "--stages " + Join(o.stages) + " differs from the study's stages",
+                      "a later import keeps the stages of the first; leave --stages out");
+    if (!o.positive.empty() && o.positive != t.scheme.positive)
+      return BadInput("", "--positive " + Join(o.positive) + " differs from the study's positive outcomes (" +
+                              Join(t.scheme.positive) + ")",
+                      "a later import keeps the outcomes of the first; leave --positive out");
     // --id names a new study; on a later import it would be dropped without
     // a word, so a different id is refused like a different --strata.
     const std::string stored_id = MetaValue(*store, "study_id").value_or("");
@@ -161,6 +181,13 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
   } else if (design) {
     t.has_design = true;
     t.kind = design->kind;
+    if (!o.kind.empty() && o.kind != t.kind)
+      return BadInput("", "--kind " + o.kind + " differs from study.toml's kind (" + t.kind + ")",
+                      "leave --kind out, or import into a folder without study.toml");
+    if (!o.positive.empty() || !o.stages.empty())
+      return BadInput("", std::string(o.stages.empty() ? "--positive" : "--stages") +
+                              " is given, but study.toml's [outcomes] says which codes there are and which are positive",
+                      "leave --positive out, or import into a folder without study.toml");
     t.scheme = design->outcomes;
     for (const auto& a : design->arms) t.arms.push_back(a.label);
     t.reference = design->reference_arm;
@@ -168,7 +195,21 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
     t.strata_source = o.strata_given ? "--strata" : "study.toml [strata]";
   } else {
     t.discover = true;
+    t.kind = o.kind;
     t.scheme = SchemeWithoutDesign();
+    if (!o.stages.empty()) {
+      t.staged = true;
+      t.scheme.codes = o.stages;
+      t.scheme.positive = o.positive.empty() ? std::vector<std::string>(o.stages.begin() + 1, o.stages.end()) : o.positive;
+      for (const std::string& value : t.scheme.positive)
+        if (!t.scheme.has_code(value))
+          return BadInput("", "--positive '" + value + "' is not one of the stages" + DidYouMean(value, o.stages),
+                          "name stages of --stages: " + Join(o.stages));
+    } else if (!o.positive.empty()) {
+      t.open_codes = true;
+      t.scheme.codes.clear();
+      t.scheme.positive = o.positive;
+    }
     t.strata = o.strata;
     t.strata_source = "--strata";
   }
@@ -191,18 +232,31 @@ struct Columns {
   std::vector<int> strata;
 };
 
-Result<Columns> FindColumns(const std::vector<std::string>& header, const Target& t, const std::string& path,
-                            std::vector<std::string>& ignored) {
+// `header` holds the role names (after --columns); `file_header` the
+// file's own, for messages.
+Result<Columns> FindColumns(const std::vector<std::string>& header, const std::vector<std::string>& file_header,
+                            Target& t, const std::string& path, std::vector<std::string>& ignored) {
   Columns c;
   c.count = header.size();
   std::vector<std::string> other;
-  for (const auto& h : header)
-    if (FindColumn(kFixedColumns, h) < 0 && FindColumn(t.strata, h) < 0 && !IsRejectColumn(h)) other.push_back(h);
-  for (const char* required : {"vacancy", "arm", "outcome"})
-    if (FindColumn(header, required) < 0)
+  for (size_t i = 0; i < header.size(); ++i)
+    if (FindColumn(kFixedColumns, header[i]) < 0 && FindColumn(t.strata, header[i]) < 0 && !IsRejectColumn(header[i]))
+      other.push_back(file_header[i]);
+  for (const char* required : {"vacancy", "arm", "outcome"}) {
+    if (FindColumn(header, required) >= 0) continue;
+    if (std::string(required) == "vacancy" && t.many_per_vacancy()) continue;  // each row is its own
+    if (t.records)
       return BadInput(path + ":1", std::string("the column '") + required + "' is missing" + DidYouMean(required, other),
-                      "a pairs file has the columns vacancy,arm,outcome, optionally sent_at,responded_at,probe,employer, "
-                      "and its stratum columns");
+                      std::string("name the file's ") + required + " column with --columns " + required +
+                          "=COLUMN; the file's columns are " + Quoted(file_header));
+    return BadInput(path + ":1", std::string("the column '") + required + "' is missing" + DidYouMean(required, other),
+                    "a pairs file has the columns vacancy,arm,outcome, optionally sent_at,responded_at,probe,employer, "
+                    "and its stratum columns");
+  }
+  // An unpaired study's requisitions are strata: the Mantel–Haenszel
+  // analysis compares the groups within each one.
+  if (t.many_per_vacancy() && FindColumn(header, "vacancy") >= 0 && FindColumn(t.strata, "vacancy") < 0)
+    t.strata.push_back("vacancy");
   for (const auto& s : t.strata) {
     int i = FindColumn(header, s);
     if (i < 0)
@@ -230,6 +284,13 @@ std::string OutcomeFix(const Target& t) {
   return fix;
 }
 
+// The vacancy a row belongs to; without a vacancy column (records of an
+// unpaired study) each row is a vacancy of its own, keyed by its line.
+std::string VacancyKey(const CsvRecord& r, const Columns& c) {
+  if (c.vacancy >= 0) return r.fields[c.vacancy];
+  return "\x01" + std::to_string(r.line);
+}
+
 // One row's values, checked on their own (cross-row checks come after).
 struct Row {
   int arm = -1;  // -1: a value not seen yet (discover mode)
@@ -250,8 +311,15 @@ std::optional<Error> CheckRow(const CsvRecord& r, const Columns& c, const Target
     return bad("unknown arm '" + arm + "'" + DidYouMean(arm, t.AcceptedArmValues()),
                "use one of the study's arms: " + Join(t.arms));
   const std::string& outcome = r.fields[c.outcome];
-  if (outcome.empty()) return bad("the outcome is empty", OutcomeFix(t));
-  if (!t.scheme.has_code(outcome))
+  if (outcome.empty()) return bad("the outcome is empty", t.open_codes ? "give every row its outcome" : OutcomeFix(t));
+  if (t.open_codes) {
+    // The codes are stored comma-joined (core/meta.h).
+    if (outcome.find(',') != std::string::npos)
+      return bad("outcome '" + outcome + "' holds a comma", "write outcome values without commas");
+  } else if (t.staged && !t.scheme.has_code(outcome)) {
+    return bad("outcome '" + outcome + "' is not one of the stages" + DidYouMean(outcome, t.scheme.codes),
+               "write the furthest stage each application reached: " + Join(t.scheme.codes));
+  } else if (!t.scheme.has_code(outcome))
     return bad("outcome '" + outcome + "' is not " + (t.has_design ? "a code of this study's scheme" : "1, 0 or a response code") +
                    // A one-letter value is one edit from "0" and "1": no useful guess.
                    (outcome.size() < 3 ? std::string() : DidYouMean(outcome, t.scheme.codes)),
@@ -369,20 +437,20 @@ class Checker {
 std::optional<Error> Checker::Examine(const CsvRecord& r, uint32_t& v) {
   Status count = CheckFieldCount(r, c_.count, path_);
   if (!count.ok()) return count.error();
-  const std::string& ref = r.fields[c_.vacancy];
+  const std::string ref = VacancyKey(r, c_);
   if (ref.empty()) return At(r.line, "the vacancy is empty", "give every row the reference of its vacancy");
-  if (t_.existing_vacancies.count(ref))
+  if (c_.vacancy >= 0 && t_.existing_vacancies.count(ref))
     return At(r.line, "vacancy '" + ref + "' is already in the study (from an earlier import)",
               "import only new vacancies; a corrected reject file can be imported as it is");
   v = book_.Add(ref);
   Row row;
   if (auto err = CheckRow(r, c_, t_, path_, row)) return err;
-  if (t_.kind == "unpaired" && book_.first_good_line[v] != 0)
+  if (t_.kind == "unpaired" && !t_.many_per_vacancy() && book_.first_good_line[v] != 0)
     return At(r.line,
               "vacancy '" + ref + "' has a second row (the first is on line " +
                   std::to_string(book_.first_good_line[v]) + ")",
               "an unpaired study sends one application per vacancy; keep one row per vacancy");
-  if (row.arm >= 0 && book_.arm_line[row.arm][v] != 0)
+  if (row.arm >= 0 && !t_.many_per_vacancy() && book_.arm_line[row.arm][v] != 0)
     return At(r.line,
               "vacancy '" + ref + "' has a second row for arm '" + t_.arms[row.arm] + "' (the first is on line " +
                   std::to_string(book_.arm_line[row.arm][v]) + ")",
@@ -418,6 +486,14 @@ std::optional<Error> Checker::Examine(const CsvRecord& r, uint32_t& v) {
     if (!inserted)
       return At(r.line, "probe '" + probe + "' appears twice (first on line " + std::to_string(it->second) + ")",
                 "give each probe its own reference");
+  }
+  if (t_.open_codes && !t_.scheme.has_code(r.fields[c_.outcome])) {
+    if (t_.scheme.codes.size() == kMaxArms)
+      return At(r.line, "a " + std::to_string(kMaxArms + 1) + "th distinct value '" + r.fields[c_.outcome] +
+                            "' in the outcome column",
+                "is 'outcome' the right column? it holds each application's result (at most " +
+                    std::to_string(kMaxArms) + " distinct values)");
+    t_.scheme.codes.push_back(r.fields[c_.outcome]);
   }
   // The row is good: remember it.
   for (size_t i = 0; i < c_.strata.size(); ++i) {
@@ -510,8 +586,18 @@ std::optional<Error> Checker::Finish(const PairsImportOptions& o) {
                 book_.arm_line.begin() + static_cast<long>(ref) + 1);
     t_.reference = 0;
     t_.IndexArms();
-    t_.kind = t_.arms.size() == 2 ? "paired" : "sets";
+    if (o.kind.empty()) t_.kind = t_.arms.size() == 2 ? "paired" : "sets";
+    if (t_.kind == "paired" && t_.arms.size() != 2)
+      return BadInput("", "--kind paired compares two groups, but the arm column holds " +
+                              std::to_string(t_.arms.size()) + ": " + Quoted(t_.arms),
+                      "use --kind sets (one application of each group per vacancy) or --kind unpaired");
   }
+  if (t_.open_codes)
+    for (const std::string& value : t_.scheme.positive)
+      if (!t_.scheme.has_code(value))
+        return BadInput("", "--positive '" + value + "' is not a value of the outcome column" +
+                                DidYouMean(value, t_.scheme.codes),
+                        "the outcome column of " + path_ + " holds " + Quoted(t_.scheme.codes));
   // Every remaining vacancy needs one row per arm (an unpaired study has
   // one row per vacancy, checked row by row).
   book_.missing_arm.assign(book_.bad_line.size(), -1);
@@ -555,22 +641,24 @@ class Lander {
         next_vacancy_id_(writer_.next_vacancy_id()), next_probe_id_(writer_.next_probe_id()) {}
 
   void Land(const CsvRecord& r, uint32_t v, const Row& row, PairsImportSummary& summary) {
+    std::string probe_ref;
+    if (c_.probe >= 0) {
+      probe_ref = r.fields[c_.probe];
+    } else {
+      char ref[24];
+      int n = std::snprintf(ref, sizeof ref, "P%05lld", static_cast<long long>(serial_++));
+      probe_ref.assign(ref, static_cast<size_t>(n));
+    }
     if (vacancy_id_[v] == 0) {
       vacancy_id_[v] = next_vacancy_id_++;
-      writer_.AddVacancy(vacancy_id_[v], r.fields[c_.vacancy], EmployerOf(r));
+      // Without a vacancy column each application is a vacancy of its own,
+      // under the application's reference.
+      writer_.AddVacancy(vacancy_id_[v], c_.vacancy >= 0 ? r.fields[c_.vacancy] : probe_ref, EmployerOf(r));
       for (size_t i = 0; i < c_.strata.size(); ++i) writer_.AddStratum(vacancy_id_[v], t_.strata[i], r.fields[c_.strata[i]]);
       ++summary.vacancies_landed;
     }
     const int64_t probe_id = next_probe_id_++;
-    if (c_.probe >= 0) {
-      writer_.AddProbe(probe_id, r.fields[c_.probe], vacancy_id_[v], arm_ids_[static_cast<size_t>(row.arm)],
-                       ++probes_in_[v]);
-    } else {
-      char ref[24];
-      int n = std::snprintf(ref, sizeof ref, "P%05lld", static_cast<long long>(serial_++));
-      writer_.AddProbe(probe_id, std::string_view(ref, static_cast<size_t>(n)), vacancy_id_[v],
-                       arm_ids_[static_cast<size_t>(row.arm)], ++probes_in_[v]);
-    }
+    writer_.AddProbe(probe_id, probe_ref, vacancy_id_[v], arm_ids_[static_cast<size_t>(row.arm)], ++probes_in_[v]);
     if (row.sent) {
       writer_.AddSending(probe_id, CanonicalEventText(r.fields[c_.sent_at]));
       ++summary.sendings;
@@ -623,17 +711,38 @@ Design HeaderDesign(const Design* design, const Target& t, const std::string& st
   d.seed = 0;
   d.kind = t.kind;
   Factor f;
-  f.name = "arm";
+  f.name = o.factor.empty() ? "arm" : o.factor;
   f.levels = t.arms;
   f.reference = t.arms[static_cast<size_t>(t.reference)];
   d.factors = {f};
   d.arms.clear();
   for (size_t i = 0; i < t.arms.size(); ++i)
-    d.arms.push_back(Arm{t.arms[i], {{"arm", t.arms[i]}}, static_cast<int>(i) == t.reference});
+    d.arms.push_back(Arm{t.arms[i], {{f.name, t.arms[i]}}, static_cast<int>(i) == t.reference});
   d.reference_arm = t.reference;
   d.outcomes = t.scheme;
   d.strata = t.strata;
   return d;
+}
+
+// The header under the importer's own names: each column that --columns
+// maps to a role (arm=group) is read as that role.
+Result<std::vector<std::string>> RoleHeader(const std::vector<std::string>& file_header, const PairsImportOptions& o,
+                                            const std::string& path) {
+  std::vector<std::string> header = file_header;
+  for (const auto& [role, column] : o.column_names) {
+    int i = FindColumn(file_header, column);
+    if (i < 0)
+      return BadInput(path + ":1", "the column '" + column + "' named by --columns " + role + "=" + column +
+                                       " is missing" + DidYouMean(column, file_header),
+                      "name one of the file's columns: " + Quoted(file_header));
+    int own = FindColumn(file_header, role);
+    if (own >= 0 && own != i)
+      return BadInput(path + ":1", "the file has a column '" + role + "' of its own, and --columns maps '" + column +
+                                       "' to " + role,
+                      "leave " + role + "= out of --columns, or rename one of the two columns");
+    header[static_cast<size_t>(i)] = role;
+  }
+  return header;
 }
 
 std::string PartnerReason(const std::string& ref, int64_t bad_line) {
@@ -696,7 +805,9 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
   CsvReader reader(in, path);
   auto header = ReadCsvHeader(reader);
   if (!header.ok()) return header.error();
-  auto columns = FindColumns(header.value(), t, path, summary.ignored_columns);
+  auto roles = RoleHeader(header.value(), o, path);
+  if (!roles.ok()) return roles.error();
+  auto columns = FindColumns(roles.value(), header.value(), t, path, summary.ignored_columns);
   if (!columns.ok()) return columns.error();
   const Columns& c = columns.value();
   const int64_t file_bytes = FileSize(path);
@@ -731,7 +842,7 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
   std::unique_ptr<AuditedWrite> write;
   std::unique_ptr<Lander> lander;
   if (any_good) {
-    write = std::make_unique<AuditedWrite>(*store, "import pairs");
+    write = std::make_unique<AuditedWrite>(*store, o.records ? "import applications" : "import pairs");
     if (AlreadyImported(*store, "pairs", sha.value())) {  // another process was quicker
       summary.already_imported = true;
       return summary;
@@ -743,6 +854,9 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
     int64_t plan_id = t.plan_id;
     if (!t.append) {
       plan_id = StorePlanHeader(*store, write->seq(), "import", HeaderDesign(design, t, store_path, path, o), arm_ids);
+      // What the rows are: the report words a study of records differently.
+      if (o.records) StoreMetaValue(*store, write->seq(), "data", "applications");
+      if (!o.stages.empty()) StoreMetaValue(*store, write->seq(), "stages", Join(o.stages, ","));
       summary.new_plan = true;
     }
     summary.plan_id = plan_id;
@@ -768,7 +882,7 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
       if (next_bad < bad.size() && bad[next_bad].line == r.line) {
         status = rejects.Add(r.line, bad[next_bad++].reason, r.fields);
       } else {
-        const std::string& ref = r.fields[c.vacancy];
+        const std::string ref = VacancyKey(r, c);
         auto it = book.index.find(ref);
         if (it == book.index.end() || CheckRow(r, c, t, path, row) || row.arm < 0)
           return Internal("import pairs: " + path + ":" + std::to_string(r.line) + " changed between the two passes");
@@ -799,8 +913,11 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
   summary.arms = t.arms;
   if (t.reference > 0) std::rotate(summary.arms.begin(), summary.arms.begin() + t.reference, summary.arms.begin() + t.reference + 1);
   summary.strata = t.strata;
+  summary.positive = t.scheme.positive;
+  summary.factor = design ? "" : (o.factor.empty() ? "arm" : o.factor);
   RecordImportFile(*store, write->seq(), "pairs", sha.value(), path, summary.rows_landed, summary.rows_rejected);
-  summary.audit_hash = write->Commit("import pairs " + path + ": " + std::to_string(summary.rows_landed) + " probes in " +
+  summary.audit_hash = write->Commit(std::string(o.records ? "import applications " : "import pairs ") + path + ": " +
+                                     std::to_string(summary.rows_landed) + " " + RowNoun(o.records) + "s in " +
                                      std::to_string(summary.vacancies_landed) + " vacancies landed, " +
                                      std::to_string(summary.rows_rejected) + " rows rejected");
   return summary;

@@ -30,6 +30,7 @@
 // nothing.
 #include <cstdint>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "core/design.h"
@@ -47,6 +48,19 @@ struct PairsImportOptions {
   bool raw_cells = false;           // reject file cells as they are, formula-like ones included
   std::string study_id;             // id of a new study without a design (default: the folder's name)
   bool progress = true;             // a progress bar on stderr when it is a terminal
+  // Set by `import applications` (collector/import_applications.h), which
+  // shares this importer; `import pairs` leaves them empty.
+  bool records = false;  // the rows are applicant records, not probes sent
+  std::string kind;      // paired | sets | unpaired; "" decides by the number of arms
+  std::vector<std::pair<std::string, std::string>> column_names;  // (role, the file's column)
+  std::string factor;    // the factor's name in a new study ("" names it "arm")
+  // Outcome values that count as positive. When given (without a design),
+  // any value is an outcome and the scheme's codes are the values seen.
+  std::vector<std::string> positive;
+  // Hiring stages in order: the outcome is the furthest stage reached, so
+  // the codes are exactly these (positive: --positive, else every stage
+  // after the first). Stored for the stage analysis.
+  std::vector<std::string> stages;
 };
 
 struct PairsImportSummary {
@@ -56,6 +70,8 @@ struct PairsImportSummary {
   std::string kind;                // paired | sets
   std::vector<std::string> arms;   // labels, reference first
   std::vector<std::string> strata;
+  std::string factor;              // the factor's name (a new study)
+  std::vector<std::string> positive;  // outcome values counted positive
   int64_t rows_landed = 0;
   int64_t rows_rejected = 0;
   int64_t vacancies_landed = 0;

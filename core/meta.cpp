@@ -11,6 +11,11 @@ std::optional<std::string> MetaValue(Store& store, const std::string& key) {
   return s.Text(0);
 }
 
+void StoreMetaValue(Store& store, int64_t seq, const std::string& key, const std::string& value) {
+  Stmt s = store.Prepare("INSERT INTO meta(key, value, audit_seq) VALUES (?1, ?2, ?3)");
+  s.Bind(1, key).Bind(2, value).Bind(3, seq).Run();
+}
+
 std::vector<std::string> MetaList(Store& store, const std::string& key) {
   std::vector<std::string> out;
   auto v = MetaValue(store, key);

@@ -12,6 +12,8 @@ StoredDesign ReadStoredDesign(Store& store) {
   d.scheme = StoredOutcomeScheme(store);
   d.has_window = MetaValue(store, "outcomes.window_days").has_value();
   d.strata_columns = MetaList(store, "strata");
+  d.records = MetaValue(store, "data").value_or("") == "applications";
+  d.stages = MetaList(store, "stages");
 
   Stmt p = store.Prepare("SELECT id FROM current_plan");
   if (!p.Step()) return d;

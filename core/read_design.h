@@ -30,6 +30,12 @@ struct StoredDesign {
   std::vector<StoredFactor> factors;        // of the current plan, by id
   std::map<int64_t, int64_t> profiles_by_arm;  // arm id -> fictitious applicants
   int64_t employers = 0;  // distinct employer pseudonyms among the plan's vacancies
+  // The plan holds applicant records (`import applications`), not probes
+  // that were sent: the report words them as what they are.
+  bool records = false;
+  // Hiring stages in order (`import applications --stages`; meta "stages"):
+  // each application's outcome is the furthest stage it reached.
+  std::vector<std::string> stages;
 };
 
 // Reads the meta table and, when there is a current plan, its factors,

@@ -9,6 +9,7 @@ StudyReading ReadStudy(Store& store, const OutcomeScheme& scheme, const Fieldwor
   r.freeze = ReadFreeze(store);
   r.monitor_looks = ReadMonitorLooks(store);
   r.listings = ReadListings(store);
+  if (!r.design.stages.empty()) r.code_counts = ReadCodeCounts(store);
   return r;
 }
 

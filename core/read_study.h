@@ -12,6 +12,7 @@
 #include "core/read_freeze.h"
 #include "core/read_listings.h"
 #include "core/monitor_looks.h"
+#include "core/stage_counts.h"
 
 namespace twinprobe {
 
@@ -23,6 +24,7 @@ struct StudyReading {
   std::optional<FreezeRecord> freeze;
   ListingData listings;
   std::vector<StoredLook> monitor_looks;  // interim looks taken (core/monitor_looks.h)
+  std::vector<StageCodeCount> code_counts;  // filled when the plan has hiring stages (design.stages)
 };
 
 // `scheme` decides which response codes are positive (the design's scheme

@@ -1,5 +1,6 @@
 #include "report/effects_report.h"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <sstream>
@@ -54,6 +55,15 @@ nlohmann::json ComparisonJson(const ArmComparison& c) {
     j["sample_odds_ratio"] = {{"estimate", JsonNumber(c.woolf.estimate)}, {"conf_int", Ci(c.woolf.ci)}, {"method", "Woolf"}};
     j["reference_rate_wilson"] = Ci(c.reference_wilson);
     j["other_rate_wilson"] = Ci(c.other_wilson);
+    if (c.has_rate_contrast) {
+      j["impact_ratio"] = {{"estimate", JsonNumber(c.impact.ratio)},
+                           {"conf_int", Ci(c.impact.koopman_score)},
+                           {"method", "Koopman score, two-sided"},
+                           {"conf_int_katz_log", Ci(c.impact.katz_log)}};
+      j["rate_difference"] = {{"estimate", JsonNumber(c.difference.difference)},
+                              {"conf_int", Ci(c.difference.ci)},
+                              {"method", "Newcombe hybrid score (1998, method 10), two-sided"}};
+    }
   }
   return j;
 }
@@ -95,9 +105,13 @@ void ComparisonText(std::ostringstream& o, const ArmComparison& c, const Analysi
     o << "  " << c.other_label << " vs " << ref << ": " << t.c << "/" << t.c + t.d << " positive " << FmtCi(c.other_wilson)
       << " vs " << t.a << "/" << t.a + t.b << " " << FmtCi(c.reference_wilson) << " (Wilson " << cl << ").\n"
       << "    Fisher's exact test, two-sided, " << (c.fisher.p.p < r.alpha ? "rejects" : "does not reject")
-      << " equal callback rates at alpha " << Fmt(r.alpha) << ": " << PEquals(c.fisher.p) << "; conditional MLE odds ratio (reference vs other) "
+      << (r.records ? " equal selection rates at alpha " : " equal callback rates at alpha ") << Fmt(r.alpha) << ": " << PEquals(c.fisher.p) << "; conditional MLE odds ratio (reference vs other) "
       << Fmt(c.fisher.estimate) << ", " << cl << " two-sided exact CI " << FmtCi(c.fisher.ci) << "; sample odds ratio "
       << Fmt(c.woolf.estimate) << " " << FmtCi(c.woolf.ci) << " (Woolf, two-sided).\n";
+    if (c.has_rate_contrast)
+      o << "    rate ratio (impact ratio) " << Fmt(c.impact.ratio) << ", " << cl << " two-sided CI (Koopman score) "
+        << FmtCi(c.impact.koopman_score) << "; rate difference " << Fmt(c.difference.difference) << ", " << cl
+        << " two-sided CI (Newcombe 1998, method 10) " << FmtCi(c.difference.ci) << ".\n";
   }
 }
 
@@ -194,7 +208,14 @@ nlohmann::json EffectsJson(const AnalysisResult& r) {
                   {"p_corrected", JsonNumber(a.mh.chi2_corrected_p.p)}}},
          {"breslow_day", {{"statistic", JsonNumber(a.breslow_day.statistic)}, {"df", JsonNumber(a.breslow_day.df)},
                           {"p", JsonNumber(a.breslow_day.p.p)}, {"tarone_statistic", JsonNumber(a.breslow_day.tarone)},
-                          {"tarone_p", JsonNumber(a.breslow_day.tarone_p.p)}, {"strata_used", a.breslow_day.strata_used}}}});
+                          {"tarone_p", JsonNumber(a.breslow_day.tarone_p.p)}, {"strata_used", a.breslow_day.strata_used}}},
+         {"sparse", a.sparse},
+         {"exact_conditional",
+          a.exact ? nlohmann::json{{"statistic", a.exact->statistic},
+                                   {"p", JsonNumber(a.exact->p.p)},
+                                   {"conditional_mle_odds_ratio", JsonNumber(a.exact->estimate)},
+                                   {"conf_int", Ci(a.exact->ci)}}
+                  : nlohmann::json(nullptr)}});
   }
   return j;
 }
@@ -205,25 +226,32 @@ std::string RenderEffectsText(const AnalysisResult& r) {
   std::ostringstream o;
   const std::string ref = r.arms.empty() ? "reference" : r.arms.front().label;
   const bool paired = e.comparisons.front().paired;
-  o << "\nComparisons with the reference arm (" << ref << ")\n";
+  o << (r.records ? "\nComparisons with the reference group (" : "\nComparisons with the reference arm (") << ref << ")\n";
   if (paired)
     o << "within sets: exact conditional McNemar test (two-sided), mid-p and the asymptotic McNemar test; the\n"
          "callback-rate ratio (a+b)/(a+c) with Bonett and Price's (2006) paired interval; the conditional odds\n"
          "ratio b/c with the exact (Clopper-Pearson) and mid-p intervals of b/(b+c); net discrimination rates\n"
          "with Newcombe's (1998, method 10) score interval. Every interval is two-sided.\n";
   else
-    o << "probes counted independently: Fisher's exact test (two-sided), the conditional\n"
-         "maximum-likelihood odds ratio with its exact interval, the sample odds ratio with Woolf's interval.\n";
+    o << (r.records ? "applications counted independently" : "probes counted independently")
+      << ": Fisher's exact test (two-sided), the conditional\n"
+         "maximum-likelihood odds ratio with its exact interval, the sample odds ratio with Woolf's interval,\n"
+         "the rate ratio with Koopman's score interval and the rate difference with Newcombe's (1998, method\n"
+         "10) interval.\n";
   for (const auto& c : e.comparisons) ComparisonText(o, c, r, ref);
   if (e.comparisons.size() > 1) {
     o << "  p-values adjusted across the " << e.comparisons.size() << " comparisons (" << e.correction << "):";
     for (const auto& c : e.comparisons) o << " " << c.other_label << " " << Fmt(c.p_adjusted) << ";";
     o << "\n";
   }
-  if (!e.strata.empty()) {
+  const auto shown = [&r](const StratumComparison& s) { return !(s.column == "vacancy" && r.records); };
+  if (std::any_of(e.strata.begin(), e.strata.end(), shown)) {
     o << "\nBy stratum (" << (paired ? "exact McNemar p, conditional odds ratio" : "Fisher's exact p, conditional MLE odds ratio")
       << "; p adjusted with " << e.correction << " within each stratum column):\n";
     for (const auto& s : e.strata) {
+      // One line per vacancy would bury the report: those tables are in the
+      // JSON only.
+      if (!shown(s)) continue;
       const auto& c = s.result;
       char line[400];
       if (paired)
@@ -255,6 +283,18 @@ std::string RenderEffectsText(const AnalysisResult& r) {
       << "  Breslow-Day test of equal odds ratios: X^2 = " << Fmt(a.breslow_day.statistic) << " on "
       << Fmt(a.breslow_day.df) << " df (" << PEquals(a.breslow_day.p) << "); with Tarone's correction "
       << Fmt(a.breslow_day.tarone) << " (" << PEquals(a.breslow_day.tarone_p) << ").\n";
+    if (a.sparse) {
+      o << "  Some tables are sparse (an expected count below 5, the rule of Cochran 1954, Biometrics 10:417-451), so\n"
+           "  the Breslow-Day test and the CMH X^2 are unreliable here; ";
+      if (a.exact)
+        o << "the exact conditional test of a common odds ratio\n  (as R's mantelhaen.test(exact = TRUE)), two-sided: "
+          << PEquals(a.exact->p) << "; conditional MLE odds ratio " << Fmt(a.exact->estimate) << ", "
+          << Percent(r.confidence) << " two-sided exact CI " << FmtCi(a.exact->ci) << ".\n";
+      else
+        o << "the exact conditional test was too large to compute.\n";
+    }
+    if (a.column == "vacancy" && r.records)
+      o << "  The table of each vacancy is in the JSON output (analyze --json).\n";
   }
   return o.str();
 }

@@ -49,7 +49,7 @@ std::string RenderHtmlReport(const AnalysisResult& r, const ReportContext& ctx) 
       "<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">"
       "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">"
       "<meta name=\"generator\" content=\"twinprobe " + EscapeHtml(ctx.tool_version) + "\">"
-      "<title>" + EscapeHtml(r.title) + " \u2014 correspondence test report</title><style>" + ReportCss() +
+      "<title>" + EscapeHtml(r.title) + (r.records ? " \u2014 report on application records" : " \u2014 correspondence test report") + "</title><style>" + ReportCss() +
       "</style></head>\n<body>";
   o += Masthead(r, ctx);
   o += Contents(r);

@@ -1,6 +1,7 @@
 #include "report/html_sections.h"
 
 #include "report/fieldwork_state.h"
+#include "report/stages_report.h"
 
 namespace twinprobe {
 namespace {
@@ -20,6 +21,7 @@ bool HasPlan(const AnalysisResult& r) { return !r.listings.listing_only; }
 // Nothing sent or nothing closed yet: no rates, tables or employer findings.
 bool HasFindings(const AnalysisResult& r) { return HasPlan(r) && EarlyStateSentence(r).empty(); }
 bool HasPairedFindings(const AnalysisResult& r) { return r.has_paired && HasFindings(r); }
+bool HasStages(const AnalysisResult& r) { return r.stages.present && HasFindings(r); }
 
 }  // namespace
 
@@ -33,6 +35,8 @@ const std::vector<HtmlSection>& HtmlSections() {
       {"paired", "Pairs: who was treated better", &HasPairedFindings, {&PairedTable, &PairedTest, &PairedEffects}},
       {"comparisons", "Each group against the reference", &HasComparisons, {&ComparisonsForest}},
       {"strata", "Results within each stratum", &HasStrata, {&SingleStrataNote, &StrataForest, &StrataTables, &AcrossStrataTable}},
+      {"stages", "Hiring stages", &HasStages, {&StagesFunnel}},
+      {"strata", "Results within each stratum", &HasStrata, {&StrataForest, &StrataTables, &AcrossStrataTable}},
       {"responses", "What came back, and how fast", &HasFindings, {&ResponseCodes, &ResponseTimesChart}},
       {"employers", "Employers (by pseudonym)", &HasEmployers, {&EmployerTable}},
       {"listing-audit", "Ranked listings (listing audit)", &HasListings,

@@ -131,7 +131,25 @@ std::string MethodsText(const AnalysisResult& r, const ReportContext&) {
   return o;
 }
 
-std::string CautionsText(const AnalysisResult&, const ReportContext& ctx) {
+// A study of applicant records (import applications): the same points as
+// RecordsCautionsBlock in report/text_report.cpp.
+std::string RecordsCautionsText() {
+  std::string o = "<ul class=\"cautions\">";
+  o += "<li><strong>Records, not an experiment.</strong> The applications were real and not matched; a difference "
+       "between groups may reflect qualifications, experience or other differences that the data do not hold, as "
+       "well as unequal treatment.</li>";
+  o += "<li><strong>The four-fifths rule.</strong> The Uniform Guidelines on Employee Selection Procedures (1978, 29 "
+       "CFR 1607.4(D)) read a selection rate below four-fifths of the highest group's as generally evidence of "
+       "adverse impact. It is a rule of thumb, not a test: read it with the interval of the ratio.</li>";
+  o += "<li><strong>Personal data.</strong> Applicant records are personal data; keep the study store under your "
+       "data-protection plan.</li>";
+  o += "<li><strong>What each p-value tests.</strong> Every p-value names its test and whether it is one- or "
+       "two-sided. A test that does not reject equal selection rates is not proof that they are equal.</li>";
+  return o + "</ul>";
+}
+
+std::string CautionsText(const AnalysisResult& r, const ReportContext& ctx) {
+  if (r.records) return RecordsCautionsText();
   std::string o = "<ul class=\"cautions\">";
   o += "<li><strong>Ethics review.</strong> A correspondence test deceives employers and takes their time. It should "
        "run only with the approval of an ethics review board, with few applications per employer and every "
@@ -162,10 +180,12 @@ std::string StampTable(const AnalysisResult& r, const ReportContext& ctx) {
       {"Study", r.study_id},
       {"Design hash (SHA-256)", r.design.design_sha256.empty() ? "none" : r.design.design_sha256},
       {"Random seed", r.design.has_seed ? std::to_string(r.design.seed) : "none"},
-      {"Data", std::to_string(r.vacancies) + " vacancies, " + std::to_string(r.probes_planned) +
-                   " applications planned, " + std::to_string(r.probes_sent) + " sent, " +
-                   std::to_string(r.responses) + " with a response, " + std::to_string(r.sets_analysed) +
-                   " sets analysed"},
+      {"Data", r.records ? Count(r.probes_planned, "application", "applications") + " in " +
+                               Count(r.vacancies, "vacancy", "vacancies") + " (records imported from a file)"
+                         : std::to_string(r.vacancies) + " vacancies, " + std::to_string(r.probes_planned) +
+                               " applications planned, " + std::to_string(r.probes_sent) + " sent, " +
+                               std::to_string(r.responses) + " with a response, " + std::to_string(r.sets_analysed) +
+                               " sets analysed"},
   };
   if (!ctx.audit_head.empty())
     rows.push_back({"Audit chain", Count(ctx.audit_entries, "entry", "entries") + ", " +

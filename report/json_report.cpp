@@ -8,6 +8,7 @@
 #include "report/design_report.h"
 #include "report/early_stop_report.h"
 #include "report/effects_report.h"
+#include "report/stages_report.h"
 #include "report/json_number.h"
 
 namespace twinprobe {
@@ -236,6 +237,7 @@ std::string RenderJsonReport(const AnalysisResult& r) {
     j["paired"] = p;
   }
   j["effects"] = EffectsJson(r);
+  if (r.stages.present) j["stages"] = StagesJson(r.stages);
   j["design"] = DesignJson(r.design);
   j["response_times"] = ResponseTimesJson(r.response_times);
   j["employers"] = EmployersJson(r.employers);

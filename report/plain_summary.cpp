@@ -32,7 +32,53 @@ std::string Alpha(double alpha) {
   return o.str();
 }
 
+// The factor's name for sentences ("gender"), "group" when it has none.
+std::string FactorWords(const AnalysisResult& r) {
+  std::vector<std::string> factors;
+  for (const auto& f : r.design.factors) factors.push_back(f.name);
+  return factors.empty() || (factors.size() == 1 && factors[0] == "arm") ? std::string("group") : Join(factors, " and ");
+}
+
+// Applicant records (import applications): real applications, not matched
+// fictitious ones, so the sentences say what the data are and what a
+// difference in them may reflect.
+std::string RecordsWhatWasTested(const AnalysisResult& r) {
+  std::ostringstream o;
+  std::vector<std::string> arms;
+  for (const auto& a : r.arms) arms.push_back(ArmName(a.label));
+  o << "This study asked whether the outcome of job applications differs by the applicant's " << FactorWords(r)
+    << " (" << Join(arms, " or ") << "). The data are the records of "
+    << Count(r.probes_planned, "application", "applications")
+    // Without a vacancy column each application is its own vacancy: no
+    // vacancies to speak of.
+    << (r.vacancies == r.probes_planned ? std::string() : " in " + Count(r.vacancies, "vacancy", "vacancies"))
+    << ", each with its recorded outcome.";
+  if (r.kind == "unpaired")
+    o << " The applicants were real and were not matched: they may differ in qualifications, experience and other "
+         "respects that the data do not hold.";
+  else
+    o << " Each vacancy has one application from each group; the data do not show how alike the applications "
+         "were, so a difference may also reflect qualifications the data do not hold.";
+  return o.str();
+}
+
+std::string RecordsWhatItDoesNotShow(const AnalysisResult& r) {
+  std::string s =
+      "These are records, not an experiment: a difference in outcome between groups may reflect unequal treatment, "
+      "or job-relevant differences between the applicants that the data do not hold, or both. ";
+  bool by_vacancy = false;
+  for (const auto& a : r.effects.across) by_vacancy = by_vacancy || a.column == "vacancy";
+  if (by_vacancy)
+    s += "The comparison within vacancies removes differences between vacancies (where and for what people applied), "
+         "not differences between the applicants of one vacancy. ";
+  s += "The four-fifths rule of the Uniform Guidelines on Employee Selection Procedures (1978, 29 CFR 1607.4(D)) "
+       "is a rule of thumb for when a selection-rate ratio deserves attention, not a test; the tests and intervals "
+       "above say how far chance could explain the difference.";
+  return s;
+}
+
 std::string WhatWasTested(const AnalysisResult& r) {
+  if (r.records) return RecordsWhatWasTested(r);
   std::ostringstream o;
   std::vector<std::string> factors, arms;
   for (const auto& f : r.design.factors) factors.push_back(f.name);
@@ -80,11 +126,25 @@ std::string WhatWasFound(const AnalysisResult& r) {
   std::ostringstream o;
   std::vector<std::string> codes;
   for (const auto& c : r.positive_codes) codes.push_back(CodeName(c));
-  o << "A positive answer means " << Join(codes, " or ") << ". ";
+  // "3 of 10 applications from inland applicants (30.0%)", per arm.
   std::vector<std::string> parts;
   for (const auto& a : r.arms)
     parts.push_back(std::to_string(a.positive) + " of " + std::to_string(a.probes) + " applications from " +
                     ArmName(a.label) + " applicants (" + FormatPercent(a.rate) + ")");
+  if (r.records) {
+    o << "A positive outcome is " << Join(codes, " or ") << ". ";
+    o << "The outcome was positive for " << Join(parts, " and ") << ".";
+    for (size_t i = 0; i < r.impact_vs_highest.size(); ++i) {
+      const stats::ImpactRatio& q = r.impact_vs_highest[i];
+      if (q.ratio >= 1 || std::isnan(q.ratio)) continue;
+      char ratio[32];
+      std::snprintf(ratio, sizeof ratio, "%.2f", q.ratio);
+      o << " The selection rate of " << ArmName(r.arms[i].label) << " applicants was " << ratio
+        << " times the highest group's" << (q.below_four_fifths ? ", below four-fifths." : ", not below four-fifths.");
+    }
+    return o.str();
+  }
+  o << "A positive answer means " << Join(codes, " or ") << ". ";
   o << "Employers answered positively to " << Join(parts, " and ") << ".";
   if (r.has_paired) {
     const auto& t = r.paired;
@@ -109,6 +169,19 @@ std::string WhatWasFound(const AnalysisResult& r) {
 std::string HowSure(const AnalysisResult& r) {
   std::ostringstream o;
   const int conf = static_cast<int>(std::lround(r.confidence * 100));
+  if (!r.has_paired && r.records) {
+    // Sets keep their pairing (McNemar, in the comparisons below the
+    // summary); only independent applications get Fisher's test here.
+    for (const ArmComparison& c : r.effects.comparisons) {
+      if (c.paired) continue;
+      o << "Fisher's exact test, two-sided, " << (c.fisher.p.p < r.alpha ? "rejects" : "does not reject")
+        << " equal selection rates of " << ArmName(r.arms.front().label) << " and " << ArmName(c.other_label)
+        << " applicants at the study's threshold of " << Alpha(r.alpha) << " (" << PlainP(c.fisher.p.p) << "). ";
+    }
+    o << "The " << conf << "% confidence intervals of the selection rates show how high or low each group's rate "
+      << "may plausibly be.";
+    return o.str();
+  }
   if (!r.has_paired) {
     o << "The " << conf
       << "% confidence intervals of the callback rates show how high or low each group's true callback rate may plausibly be.";
@@ -133,7 +206,9 @@ std::string HowSure(const AnalysisResult& r) {
     o << "That is not below the study's threshold of " << Alpha(r.alpha)
       << ", so the test does not show a difference. This is not proof that there is none; a larger study may find one. ";
   o << "The " << conf
-    << "% confidence intervals of the callback rates show how high or low each group's true callback rate may plausibly be.";
+    << (r.records ? "% confidence intervals of the rates show how high or low each group's true rate may plausibly be."
+                  : "% confidence intervals of the callback rates show how high or low each group's true callback rate "
+                    "may plausibly be.");
   return o.str();
 }
 
@@ -168,7 +243,9 @@ std::string Headline(const AnalysisResult& r) {
   if (!r.has_paired) {
     std::vector<std::string> parts;
     for (const auto& a : r.arms) parts.push_back(ArmName(a.label) + " " + FormatPercent(a.rate));
-    return "Share of applications answered positively: " + Join(parts, " and ") + ".";
+    return std::string(r.records ? "Share of applications with a positive outcome: "
+                                 : "Share of applications answered positively: ") +
+           Join(parts, " and ") + ".";
   }
   const auto& t = r.paired;
   const ArmResult& ref = r.arms[0];
@@ -247,7 +324,7 @@ std::vector<SummaryParagraph> PlainSummary(const AnalysisResult& r) {
   return {{"What was tested", WhatWasTested(r)},
           {"What was found", WhatWasFound(r)},
           {"How sure we are", HowSure(r)},
-          {"What this does not show", WhatItDoesNotShow()}};
+          {"What this does not show", r.records ? RecordsWhatItDoesNotShow(r) : WhatItDoesNotShow()}};
 }
 
 }  // namespace twinprobe

@@ -11,6 +11,7 @@
 #include "report/design_report.h"
 #include "report/early_stop_report.h"
 #include "report/effects_report.h"
+#include "report/stages_report.h"
 #include "report/employer_flip_text.h"
 #include "report/plain_summary.h"
 
@@ -63,6 +64,24 @@ void CautionsBlock(std::ostringstream& o) {
             "listing positions) are descriptive only.", "  ");
 }
 
+// The cautions of a study of applicant records (import applications):
+// there was no deception and no fieldwork; what the numbers can and cannot
+// carry is the point. The HTML report lists the same (RecordsCautionsText in
+// report/html_sections_about.cpp).
+void RecordsCautionsBlock(std::ostringstream& o) {
+  o << "\nCautions.\n"
+    << Wrap("Records, not an experiment. The applications were real and not matched; a difference between groups "
+            "may reflect qualifications, experience or other differences that the data do not hold, as well as "
+            "unequal treatment.", "  ")
+    << Wrap("The four-fifths rule. The Uniform Guidelines on Employee Selection Procedures (1978, 29 CFR "
+            "1607.4(D)) read a selection rate below four-fifths of the highest group's as generally evidence of "
+            "adverse impact. It is a rule of thumb, not a test: read it with the interval of the ratio.", "  ")
+    << Wrap("Personal data. Applicant records are personal data; keep the study store under your "
+            "data-protection plan.", "  ")
+    << Wrap("What each p-value tests. Every p-value above names its test and whether it is one- or two-sided. A "
+            "test that does not reject equal selection rates is not proof that they are equal.", "  ");
+}
+
 void PlainWords(std::ostringstream& o, const AnalysisResult& r) {
   for (const auto& p : PlainSummary(r)) o << p.heading << ".\n" << Wrap(p.text, "  ") << "\n";
 }
@@ -75,7 +94,8 @@ void DesignBlock(std::ostringstream& o, const AnalysisResult& r) {
     for (size_t k = 0; k < d.factors[i].levels.size(); ++k) o << (k ? ", " : "") << d.factors[i].levels[k];
     o << "; reference " << d.factors[i].reference << ")";
   }
-  o << "; " << d.employers << " employers (by pseudonym); observation window " << d.window_days << " days.\n";
+  if (r.records) o << "; " << d.employers << " employers (by pseudonym).\n";
+  else o << "; " << d.employers << " employers (by pseudonym); observation window " << d.window_days << " days.\n";
   if (!d.first_sent_at.empty()) o << "Fieldwork: " << d.first_sent_at << " to " << d.last_sent_at << ".\n";
   o << "Design hash (SHA-256): " << (d.design_sha256.empty() ? "none" : d.design_sha256);
   if (d.has_seed) o << "; seed " << d.seed;
@@ -286,6 +306,17 @@ std::string RenderTextReport(const AnalysisResult& r) {
   std::ostringstream o;
   o << r.title << "\n" << std::string(std::min<size_t>(r.title.size(), 78), '=') << "\n\n";
   PlainWords(o, r);
+  if (r.records) {
+    // Records have no fieldwork: no sending, no window, no flow of sets.
+    o << "Study " << r.study_id << " (" << r.kind << " design, applicant records imported from a file).\n"
+      << Count(r.probes_planned, "application", "applications") << " in " << Count(r.vacancies, "vacancy", "vacancies")
+      << ", each with its recorded outcome.\n\n";
+    FindingsBlock(o, r);
+    DesignBlock(o, r);
+    o << "\n" << RenderPreregistrationText(r.preregistration);
+    RecordsCautionsBlock(o);
+    return o.str();
+  }
   o << "Study " << r.study_id << " (" << r.kind << " design, plan from " << r.plan_origin << ").\n";
   o << r.vacancies << " vacancies, " << r.probes_planned << " probes planned, " << r.probes_sent << " sent, "
     << r.responses << " with a recorded response";
@@ -320,9 +351,9 @@ namespace {
 
 // The rates, the paired table and test, and the effects.
 void FindingsBlock(std::ostringstream& o, const AnalysisResult& r) {
-  o << "Positive callback (";
+  o << (r.records ? "Positive outcome (" : "Positive callback (");
   for (size_t i = 0; i < r.positive_codes.size(); ++i) o << (i ? ", " : "") << r.positive_codes[i];
-  o << ") by arm, with exact Clopper-Pearson " << static_cast<int>(std::lround(r.confidence * 100))
+  o << (r.records ? ") by group, with" : ") by arm, with") << " exact Clopper-Pearson " << static_cast<int>(std::lround(r.confidence * 100))
     << "% intervals:\n";
   for (const auto& a : r.arms) {
     char line[256];
@@ -354,6 +385,7 @@ void FindingsBlock(std::ostringstream& o, const AnalysisResult& r) {
            "not evidence that there is none.\n";
   }
   o << RenderEffectsText(r);
+  o << RenderStagesText(r);
 }
 
 }  // namespace
