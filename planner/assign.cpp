@@ -143,8 +143,10 @@ Result<Plan> AssignProbes(const Design& d, const std::vector<Vacancy>& vacancies
 
   std::vector<SetDesign> set_design(vacancies.size());
   std::vector<int> orientation(vacancies.size(), 0);  // 1: the mirror-image row (odd k)
-  // Per set group: uses of the square's rows and of the mirror image's.
-  std::vector<int64_t> mirror_uses(static_cast<size_t>(std::max(1, n_groups)), 0), square_uses(mirror_uses);
+  // Odd k: per set group and square row, uses of the row and of its mirror image.
+  std::vector<std::vector<int64_t>> mirror_uses(static_cast<size_t>(std::max(1, n_groups)),
+                                                std::vector<int64_t>(static_cast<size_t>(n_square_rows), 0));
+  auto square_uses = mirror_uses;
   BalancedGrid grid = unpaired ? BalancedGrid(n_arms, n_templates) : BalancedGrid(n_templates, n_square_rows);
   for (const auto& [key, all_members] : blocks)
     for (int g = 0; g < std::max(1, n_groups); ++g) {
@@ -155,18 +157,18 @@ Result<Plan> AssignProbes(const Design& d, const std::vector<Vacancy>& vacancies
       rng.Shuffle(cells);
       for (size_t j = 0; j < members.size(); ++j) set_design[members[j]] = {cells[j].first, cells[j].second};
       if (!mirrored) continue;
-      // Odd k: a row's uses within the block alternate between the square
-      // and its mirror image, so each pass over the rows is one Latin square
-      // (positions stay balanced up to one) and square and mirror together
-      // give every arm every other arm as predecessor equally often. The
-      // block starts with whichever its group has used less in the plan, so
-      // the carry-over stays balanced within each group (the pairs counted).
+      // Odd k: a row's uses alternate between the square and its mirror
+      // image, each row starting with whichever it has used less in its
+      // group. So every row is used as square and as mirror equally often,
+      // up to one, over the plan: every arm follows every other arm of its
+      // set equally often, and positions stay within two of each other in
+      // each block and over the plan (two passes over the rows make a square
+      // and its mirror, each arm in each position twice).
       const size_t gi = static_cast<size_t>(g);
-      const int flip = mirror_uses[gi] < square_uses[gi] ? 1 : 0;
-      std::vector<int> row_uses(static_cast<size_t>(n_square_rows), 0);
       for (int v : members) {
-        orientation[v] = (row_uses[static_cast<size_t>(set_design[v].order_row)]++ + flip) % 2;
-        ++(orientation[v] ? mirror_uses[gi] : square_uses[gi]);
+        const size_t r = static_cast<size_t>(set_design[v].order_row);
+        orientation[v] = mirror_uses[gi][r] < square_uses[gi][r] ? 1 : 0;
+        ++(orientation[v] ? mirror_uses[gi][r] : square_uses[gi][r]);
       }
     }
 

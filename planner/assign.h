@@ -16,10 +16,11 @@
 //     often, up to one (Latin-square rotation of templates over arms), and
 //     over the whole plan too;
 //   - send order: every arm holds every position equally often within each
-//     block, up to one, and every arm directly follows every other arm of its
+//     block and over the plan, up to one (up to two for an odd number of
+//     arms per set, whose orders come from a square and its mirror image), and every arm directly follows every other arm of its
 //     set about equally often (Williams 1949: one balanced Latin square for
 //     an even number k of arms per set; for odd k the square and its mirror
-//     image, whose uses alternate row by row);
+//     image, each row used as both equally often, up to one, per set group);
 //   - no two probes of one set share a template; no name is used twice at one
 //     employer; no employer gets more probes than [ethics].cap_per_employer;
 //   - the first probe of a set goes at a random open minute of its sending

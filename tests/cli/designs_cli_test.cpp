@@ -64,7 +64,7 @@ TEST_CASE("cli designs: check and freeze refuse looks that monitor could not wat
   AgeStudyFolder s;
   testing::WriteFile(s.study + "/study.toml", testing::AgeStudyToml() + "\n[analysis]\nlooks = [150]\n");
   const std::string message =
-      "twinprobe: " + s.study + "/study.toml:72:9: [analysis].looks plans interim looks, but monitor can only watch a "
+      "twinprobe: " + s.study + "/study.toml:61:9: [analysis].looks plans interim looks, but monitor can only watch a "
       "paired design (two arms, a set of two probes per vacancy) and this design is 'sets' — remove looks and "
       "analyse once at the end of fieldwork with 'twinprobe analyze'\n";
   for (const char* command : {"check", "freeze"}) {

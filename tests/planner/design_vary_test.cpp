@@ -74,16 +74,16 @@ TEST_CASE("design vary: templates are counted per vacancy, not per arm") {
 
 TEST_CASE("design vary: labels must name levels and scores must give one distinct number per level") {
   Error unknown = Refusal(Replace(testing::AgeStudyToml(), "\"58\" = \"aged 58\"", "\"59\" = \"aged 59\""));
-  CHECK(unknown.where == "study.toml:13:49");
+  CHECK(unknown.where == "study.toml:14:55");
   CHECK(unknown.what == "labels names '59', which is not a level of 'age' (did you mean '58'?)");
   Error count = Refusal(Replace(testing::AgeStudyToml(), "scores = [28, 45, 58]", "scores = [28, 45]"));
-  CHECK(count.where == "study.toml:12:10");
+  CHECK(count.where == "study.toml:13:10");
   CHECK(count.what == "[[factor]].scores of 'age' must list 3 numbers, one per level in the order of levels");
   CHECK(count.fix == "write scores = [28, 45, 58] beside levels (a score says where an ordered level lies)");
   Error text = Refusal(Replace(testing::AgeStudyToml(), "scores = [28, 45, 58]", "scores = [28, \"45\", 58]"));
   CHECK(text.what == count.what);
   Error same = Refusal(Replace(testing::AgeStudyToml(), "scores = [28, 45, 58]", "scores = [28, 45, 45.0]"));
-  CHECK(same.where == "study.toml:12:19");
+  CHECK(same.where == "study.toml:13:19");
   CHECK(same.what == "levels '45' and '58' of 'age' have the same score, so the trend test could not order them");
   Error empty = Refusal(Replace(testing::AgeStudyToml(), "\"f\" = \"woman\"", "\"f\" = \"\""));
   CHECK(empty.what == "the label of level 'f' must be a text in quotes, not empty");
@@ -102,7 +102,7 @@ TEST_CASE("design vary: looks in a paired design with a between factor are refus
   INFO((without_looks.ok() ? "" : without_looks.error().Message()));
   REQUIRE(without_looks.ok());
   Error e = Refusal(toml + "\n[analysis]\nlooks = [150]\n");
-  CHECK(e.where == "study.toml:72:9");
+  CHECK(e.where == "study.toml:61:9");
   CHECK(e.what == "[analysis].looks plans interim looks, but monitor can only watch a paired design (two arms, a set of "
                   "two probes per vacancy) and this design has 4 arms, because factor 'gender' varies between vacancies");
   CHECK(e.fix == "remove looks and analyse once at the end of fieldwork with 'twinprobe analyze'");
