@@ -15,10 +15,14 @@ TEST_CASE("verify: a freshly migrated store has exactly the reference schema") {
         std::vector<std::string>{
             "the store holds an index 'desk_passphrase_member' on desk_passphrase that twinprobe does not create",
             "the store holds an index 'desk_passphrase_seq' on desk_passphrase that twinprobe does not create",
+            "the store holds an index 'factor_design_seq' on factor_design that twinprobe does not create",
+            "the store holds an index 'level_design_seq' on level_design that twinprobe does not create",
             "the store holds an index 'material_file_probe' on material_file that twinprobe does not create",
             "the store holds an index 'material_file_seq' on material_file that twinprobe does not create",
             "the store holds an index 'response_supersedes' on response that twinprobe does not create",
             "the store holds a table 'desk_passphrase' that twinprobe does not create",
+            "the store holds a table 'factor_design' that twinprobe does not create",
+            "the store holds a table 'level_design' that twinprobe does not create",
             "the store holds a table 'material_file' that twinprobe does not create"});
 }
 
