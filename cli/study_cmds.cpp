@@ -4,7 +4,9 @@
 #include <fstream>
 #include <iostream>
 #include <memory>
+#include <cstdio>
 #include <set>
+#include <sstream>
 
 #include <nlohmann/json.hpp>
 
@@ -13,12 +15,16 @@
 #include "cli/near_duplicate_output.h"
 #include "core/material_files.h"
 #include "core/ethics_gate.h"
+#include "core/factor_signal.h"
 #include "core/sha256.h"
+#include "planner/carry_over.h"
+#include "planner/design_words.h"
 #include "planner/freeze.h"
 #include "planner/materials_check.h"
 #include "planner/plan_store.h"
 #include "planner/study_check.h"
 #include "report/design_report.h"
+#include "report/p_value.h"
 #include "report/plural.h"
 #include "templates/embedded.h"
 
@@ -94,6 +100,78 @@ std::string Join(const std::vector<std::string>& v) {
   return s;
 }
 
+// How each factor varies, its labels, scores and signal (check --json).
+nlohmann::json FactorsJson(const Design& d) {
+  nlohmann::json out = nlohmann::json::array();
+  for (const auto& f : d.factors) {
+    nlohmann::json labels = nlohmann::json::object();
+    for (const auto& l : f.levels) labels[l] = f.LevelLabel(l);
+    out.push_back({{"name", f.name},
+                   {"label", f.DisplayName()},
+                   {"vary", d.kind == "unpaired" ? "between" : f.vary},
+                   {"levels", f.levels},
+                   {"level_labels", labels},
+                   {"scores", f.scores.empty() ? nlohmann::json() : nlohmann::json(f.scores)},
+                   {"signal", DescribeSignal(SignalOf(d, f))}});
+  }
+  return out;
+}
+
+// The carry-over table (planner/carry_over.h) as text: the test, then arms x
+// ("first", previous arms); "-" marks a pair that cannot occur.
+std::string RenderCarryOverText(const CarryOverBalance& b) {
+  if (!b.present || b.pairs == 0) return "";
+  std::ostringstream o;
+  char statistic[80];
+  std::snprintf(statistic, sizeof statistic, "X2 = %.2f, df = %d, ", b.test.statistic, b.test.df);
+  const std::string line = b.test.df > 0 ? statistic + PEquals(b.test.p) : "no test: one possible pair per set group";
+  o << "Carry-over (probes per arm by the arm sent just before it in the same set; chi-square test of\n"
+       "equal counts over the possible pairs, where a balanced plan gives X2 near 0 and p near 1):\n"
+    << "  arm x previous arm: " << line << "; largest difference between two possible pairs: " << b.max_spread
+    << "\n";
+  std::vector<std::string> columns{"first"};
+  columns.insert(columns.end(), b.arms.begin(), b.arms.end());
+  auto cell = [&](size_t i, size_t j) -> std::string {
+    if (j == 0) return std::to_string(b.first[i]);
+    return b.possible[i][j - 1] ? std::to_string(b.after[i][j - 1]) : "-";
+  };
+  size_t label_width = 0;
+  for (const auto& a : b.arms) label_width = std::max(label_width, a.size());
+  std::vector<size_t> widths;
+  for (size_t j = 0; j < columns.size(); ++j) {
+    size_t w = columns[j].size();
+    for (size_t i = 0; i < b.arms.size(); ++i) w = std::max(w, cell(i, j).size());
+    widths.push_back(w);
+  }
+  o << "    " << std::string(label_width, ' ');
+  for (size_t j = 0; j < columns.size(); ++j) o << "  " << std::string(widths[j] - columns[j].size(), ' ') << columns[j];
+  o << "\n";
+  for (size_t i = 0; i < b.arms.size(); ++i) {
+    o << "    " << b.arms[i] << std::string(label_width - b.arms[i].size(), ' ');
+    for (size_t j = 0; j < columns.size(); ++j) {
+      std::string c = cell(i, j);
+      o << "  " << std::string(widths[j] - c.size(), ' ') << c;
+    }
+    o << "\n";
+  }
+  return o.str();
+}
+
+
+nlohmann::json CarryOverJson(const CarryOverBalance& b) {
+  if (!b.present) return nullptr;
+  return {{"arms", b.arms},
+          {"first", b.first},
+          {"after", b.after},
+          {"possible", b.possible},
+          {"pairs", b.pairs},
+          {"max_spread", b.max_spread},
+          {"test", {{"method", "pearson_chi_square_goodness_of_fit"},
+                    {"statistic", b.test.statistic},
+                    {"df", b.test.df},
+                    {"p", b.test.p}}}};
+}
+
 int RunCheck(Context& ctx) {
   auto study = CheckStudy(ctx.study_dir);
   if (!study.ok()) return ReportError(study.error());
@@ -140,7 +218,9 @@ int RunCheck(Context& ctx) {
                      {"renderings", rep.renderings},
                      {"controlled_fields", rep.controlled_fields},
                      {"controlled_fields_used", controlled_used},
-                     {"leaks", LeaksJson(rep)}};
+                     {"leaks", LeaksJson(rep)},
+                     {"factors", FactorsJson(s.design)},
+                     {"variation", DescribeVariation(s.design)}};
     std::cout << j.dump(2) << "\n";
   }
   if (!rep.ok()) return ReportLeaks(rep);
@@ -148,6 +228,7 @@ int RunCheck(Context& ctx) {
     std::cout << "Design " << s.design.study_id << " is valid: " << s.design.kind << " design, "
               << s.design.arms.size() << " arms, " << s.vacancies.size() << " vacancies, "
               << s.design.templates.size() << " templates.\n";
+    std::cout << "Factors: " << DescribeVariation(s.design) << ".\n";
     std::cout << "One-attribute proof: " << rep.sets_checked << (s.design.kind == "unpaired" ? " probes" : " sets")
               << " rendered (" << rep.renderings << " renderings compared); the probes differ only in fields a factor "
               << "controls (used by the templates: " << (controlled_used.empty() ? "none" : Join(controlled_used))
@@ -181,6 +262,7 @@ int RunPlan(Context& ctx) {
          "; reports will list this plan as a deviation from the pre-registration");
   const auto& sum = summary.value();
   BalanceReport balance = ComputeBalance(ReadFieldwork(*store.value(), s.design.outcomes));
+  const CarryOverBalance carry_over = ComputeCarryOver(s.design, proof.value().plan);
   if (ctx.json) {
     std::cout << nlohmann::json{{"plan_id", sum.plan_id},
                                 {"vacancies", sum.vacancies},
@@ -191,13 +273,14 @@ int RunPlan(Context& ctx) {
                                                                            {"files", moved->files},
                                                                            {"to", moved->to}}
                                                           : nlohmann::json()},
-                                {"balance", BalanceJson(balance)}}
+                                {"balance", BalanceJson(balance)},
+                                {"carry_over", CarryOverJson(carry_over)}}
                      .dump(2)
               << "\n";
   } else {
     std::cout << "Planned " << sum.probes << " probes to " << sum.vacancies << " vacancies with " << sum.profiles
               << " profiles (plan " << sum.plan_id << ", store " << StorePath(ctx) << ").\n\n"
-              << RenderBalanceText(balance);
+              << RenderBalanceText(balance) << RenderCarryOverText(carry_over);
     if (moved)
       std::cout << "Moved the materials of plan " << moved->old_plan << " (" << Count(moved->files, "file", "files") << ") to "
                 << moved->to << ": they do not belong to plan " << sum.plan_id

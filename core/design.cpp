@@ -5,6 +5,11 @@
 
 namespace twinprobe {
 
+std::string Factor::LevelLabel(const std::string& level) const {
+  auto it = labels.find(level);
+  return it == labels.end() ? level : it->second;
+}
+
 bool OutcomeScheme::is_positive(const std::string& code) const {
   return std::find(positive.begin(), positive.end(), code) != positive.end();
 }

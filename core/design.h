@@ -25,6 +25,19 @@ struct Factor {
   // e.g. birth_year = ["2003", "1979"] for levels ["younger", "older"]. The
   // factor controls these fields: they may differ between the probes of a set.
   std::map<std::string, std::vector<std::string>> fields;
+  // "within": every vacancy receives every level (its set holds one probe
+  // per level); "between": each vacancy receives one level, drawn by blocked
+  // randomisation within the strata (planner/assign.h).
+  std::string vary = "within";
+  std::string label;                          // display name; "" = name
+  std::map<std::string, std::string> labels;  // level -> display label
+  std::vector<double> scores;                 // one per level (ordered levels), or empty
+
+  bool is_between() const { return vary == "between"; }
+  // The level's display label, else the level itself.
+  std::string LevelLabel(const std::string& level) const;
+  // The factor's display label, else its name.
+  std::string DisplayName() const { return label.empty() ? name : label; }
 };
 
 // One combination of levels, e.g. {origin: "coastal"}. label is

@@ -4,6 +4,7 @@
 #include <optional>
 
 #include "core/clock.h"
+#include "core/factor_signal.h"
 #include "core/sha256.h"
 #include "core/store.h"
 
@@ -54,12 +55,38 @@ int64_t StorePlanHeader(Store& store, int64_t seq, PlanOrigin origin, const Desi
   Stmt ins_factor = store.Prepare("INSERT INTO factor(plan_id, name, audit_seq) VALUES (?1, ?2, ?3)");
   Stmt ins_level = store.Prepare(
       "INSERT INTO level(factor_id, name, is_reference, audit_seq) VALUES (?1, ?2, ?3, ?4)");
+  // How a factor varies, its labels, scores and signal: a row only when
+  // something differs from what a store without these tables means (varied
+  // within, signalled by the name alone, no label or score), so plain
+  // designs store exactly the rows they always did.
+  Stmt ins_factor_design = store.Prepare(
+      "INSERT INTO factor_design(factor_id, vary, label, signal_by_name, signal_fields, audit_seq) "
+      "VALUES (?1, ?2, ?3, ?4, ?5, ?6)");
+  Stmt ins_level_design =
+      store.Prepare("INSERT INTO level_design(level_id, label, score, audit_seq) VALUES (?1, ?2, ?3, ?4)");
   for (const auto& f : design.factors) {
     ins_factor.Bind(1, plan_id).Bind(2, f.name).Bind(3, seq).Run();
     int64_t fid = store.LastInsertId();
-    for (const auto& l : f.levels) {
+    const FactorSignal signal = SignalOf(design, f);
+    if (f.is_between() || !f.label.empty() || !signal.by_name || !signal.fields.empty()) {
+      ins_factor_design.Bind(1, fid).Bind(2, FactorVaryName(f.is_between() ? FactorVary::kBetween : FactorVary::kWithin));
+      if (f.label.empty()) ins_factor_design.BindNull(3);
+      else ins_factor_design.Bind(3, f.label);
+      ins_factor_design.Bind(4, int64_t{signal.by_name ? 1 : 0}).Bind(5, join(signal.fields)).Bind(6, seq).Run();
+    }
+    for (size_t i = 0; i < f.levels.size(); ++i) {
+      const std::string& l = f.levels[i];
       ins_level.Bind(1, fid).Bind(2, l).Bind(3, l == f.reference ? 1 : 0).Bind(4, seq).Run();
-      level_ids[{f.name, l}] = store.LastInsertId();
+      const int64_t lid = store.LastInsertId();
+      level_ids[{f.name, l}] = lid;
+      auto label = f.labels.find(l);
+      if (label == f.labels.end() && f.scores.empty()) continue;
+      ins_level_design.Bind(1, lid);
+      if (label == f.labels.end()) ins_level_design.BindNull(2);
+      else ins_level_design.Bind(2, label->second);
+      if (f.scores.empty()) ins_level_design.BindNull(3);
+      else ins_level_design.Bind(3, f.scores[i]);
+      ins_level_design.Bind(4, seq).Run();
     }
   }
   Stmt ins_arm = store.Prepare("INSERT INTO arm(plan_id, label, is_reference, audit_seq) VALUES (?1, ?2, ?3, ?4)");

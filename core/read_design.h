@@ -1,7 +1,8 @@
 #pragma once
 // What the store remembers of the design beyond the fieldwork
 // (core/fieldwork.h): the study's name, the outcome scheme and strata the
-// plan was made with, the factors and levels, profiles per arm and the
+// plan was made with, the factors and levels (how each varies, display
+// labels, scores and signal), profiles per arm and the
 // number of employers (vacancies per stratum value: core/fieldwork.h). Counts and names only;
 // nothing here identifies an employer.
 #include <cstdint>
@@ -10,6 +11,7 @@
 #include <vector>
 
 #include "core/design.h"
+#include "core/factor_signal.h"
 
 namespace twinprobe {
 
@@ -19,6 +21,15 @@ struct StoredFactor {
   std::string name;
   std::vector<std::string> levels;  // in the order they were declared
   std::string reference;            // "" when none is marked
+  bool between = false;             // varied between vacancies (each vacancy one level)
+  std::string label;                // display label; "" = none
+  std::vector<std::string> level_labels;  // per level; "" = none
+  std::vector<double> scores;             // per level (ordered levels), or empty
+  FactorSignal signal;                    // how the factor shows in the applications
+
+  // The display label of the factor, else its name; of a level, else the level.
+  std::string DisplayName() const { return label.empty() ? name : label; }
+  std::string LevelLabel(const std::string& level) const;
 };
 
 struct StoredDesign {

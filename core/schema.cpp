@@ -394,6 +394,29 @@ CREATE TABLE mail_excerpt_seal(
 CREATE INDEX mail_excerpt_seal_seq ON mail_excerpt_seal(audit_seq);
 )SQL";
 
+// Version 11: how each factor varies (within or between vacancies), the
+// display labels and scores of factors and levels, and which template fields
+// signal a factor (its name fields, its own fields). New tables rather than
+// new columns, so rows sealed earlier keep their digest; a factor or level
+// without a row is one varied within vacancies, signalled by the name, with
+// neither label nor score (every plan before this version).
+constexpr const char* kMigration11 = R"SQL(
+CREATE TABLE factor_design(
+  factor_id INTEGER PRIMARY KEY REFERENCES factor(id),
+  vary TEXT NOT NULL CHECK (vary IN ('within', 'between')),
+  label TEXT,                             -- display label; NULL = the factor's name
+  signal_by_name INTEGER NOT NULL,        -- 1: the name pools are keyed by it
+  signal_fields TEXT NOT NULL,            -- template fields it sets, comma-separated
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX factor_design_seq ON factor_design(audit_seq);
+CREATE TABLE level_design(
+  level_id INTEGER PRIMARY KEY REFERENCES level(id),
+  label TEXT,                             -- display label; NULL = the level's name
+  score REAL,                             -- ordered levels' score; NULL = none
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX level_design_seq ON level_design(audit_seq);
+)SQL";
+
 struct Migration {
   int version;
   const char* sql;
@@ -408,6 +431,8 @@ const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigrat
                                {9, kMigration9SendingDetail}};
                                {5, kMigration5DeskPassphrase}, {6, kMigration6},
                                  {13, kMigration13ExcerptSeal}};
+                               {5, kMigration5DeskPassphrase}, {6, kMigration6},
+                               {11, kMigration11}};
 
 // sqlite_master without SQLite's own objects (sqlite_autoindex_* follow from
 // the tables' SQL, which is compared; sqlite_stat* only guide the planner).
@@ -475,6 +500,8 @@ const std::vector<SealedTable>& SealedTables() {
       {"monitor_look", {}},
       {"sending_detail", {}},
       {"mail_excerpt_seal", {}},
+      {"factor_design", {}},
+      {"level_design", {}},
   };
   return tables;
 }

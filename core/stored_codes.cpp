@@ -41,5 +41,7 @@ std::optional<CorrectionMethod> ParseCorrectionMethod(std::string_view text) {
   return Parse(kCorrectionMethodNames, text);
 }
 std::string_view CorrectionMethodName(CorrectionMethod method) { return Name(kCorrectionMethodNames, method); }
+std::optional<FactorVary> ParseFactorVary(std::string_view text) { return Parse(kFactorVaryNames, text); }
+std::string_view FactorVaryName(FactorVary vary) { return Name(kFactorVaryNames, vary); }
 
 }  // namespace twinprobe

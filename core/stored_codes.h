@@ -63,6 +63,14 @@ inline constexpr std::pair<CorrectionMethod, std::string_view> kCorrectionMethod
     {CorrectionMethod::kBY, "by"},
 };
 
+// factor_design.vary and [[factor]] vary: whether every vacancy receives
+// every level of the factor, or one level each.
+enum class FactorVary { kWithin, kBetween };
+inline constexpr std::pair<FactorVary, std::string_view> kFactorVaryNames[] = {
+    {FactorVary::kWithin, "within"},
+    {FactorVary::kBetween, "between"},
+};
+
 std::optional<DesignKind> ParseDesignKind(std::string_view text);
 std::string_view DesignKindName(DesignKind kind);
 std::optional<PlanOrigin> ParsePlanOrigin(std::string_view text);
@@ -75,5 +83,7 @@ std::optional<ReviewDecision> ParseReviewDecision(std::string_view text);
 std::string_view ReviewDecisionName(ReviewDecision decision);
 std::optional<CorrectionMethod> ParseCorrectionMethod(std::string_view text);
 std::string_view CorrectionMethodName(CorrectionMethod method);
+std::optional<FactorVary> ParseFactorVary(std::string_view text);
+std::string_view FactorVaryName(FactorVary vary);
 
 }  // namespace twinprobe

@@ -9,6 +9,7 @@
 #include "core/pseudonym.h"
 #include "planner/balanced_grid.h"
 #include "planner/send_calendar.h"
+#include "planner/set_groups.h"
 #include "stats/random.h"
 
 namespace twinprobe {
@@ -32,23 +33,32 @@ std::string Where(const Design& d, const Vacancy& v) {
   return (v.file.empty() ? d.vacancies_file : v.file) + ":" + std::to_string(v.line);
 }
 
+// The place of arm `arm` among the arms of group `g`.
+int WithinIndex(const std::vector<SetGroup>& groups, int g, int arm) {
+  const auto& arms = groups[static_cast<size_t>(g)].arms;
+  return static_cast<int>(std::find(arms.begin(), arms.end(), arm) - arms.begin());
+}
+
 }  // namespace
 
 std::vector<std::vector<int>> SendOrderSquare(int k) {
-  // Williams (1949): for even k the sequence 0, 1, k-1, 2, k-2, … shifted by
-  // the row number gives a Latin square in which every ordered pair of
-  // distinct symbols is adjacent exactly once.
+  // Williams (1949): the sequence 0, 1, k-1, 2, k-2, … shifted by the row
+  // number. For even k every ordered pair of distinct symbols is adjacent
+  // exactly once; for odd k (where 0, 1, 2 is this sequence at k = 3) only
+  // together with the mirror image (WilliamsOrders).
   std::vector<int> base(k);
-  if (k % 2 == 0) {
-    for (int j = 0, lo = 1, hi = k - 1; j < k; ++j)
-      base[j] = j == 0 ? 0 : (j % 2 == 1 ? lo++ : hi--);
-  } else {
-    std::iota(base.begin(), base.end(), 0);
-  }
+  for (int j = 0, lo = 1, hi = k - 1; j < k; ++j) base[j] = j == 0 ? 0 : (j % 2 == 1 ? lo++ : hi--);
   std::vector<std::vector<int>> square(k, std::vector<int>(k));
   for (int r = 0; r < k; ++r)
     for (int j = 0; j < k; ++j) square[r][j] = (base[j] + r) % k;
   return square;
+}
+
+std::vector<std::vector<int>> WilliamsOrders(int k) {
+  auto rows = SendOrderSquare(k);
+  if (k % 2 == 1 && k >= 3)
+    for (int r = 0; r < k; ++r) rows.emplace_back(rows[static_cast<size_t>(r)].rbegin(), rows[static_cast<size_t>(r)].rend());
+  return rows;
 }
 
 std::string StratumBlockKey(const Design& d, const Vacancy& v) {
@@ -63,7 +73,11 @@ Result<Plan> AssignProbes(const Design& d, const std::vector<Vacancy>& vacancies
   const bool unpaired = d.kind == "unpaired";
   const int n_arms = static_cast<int>(d.arms.size());
   const int n_templates = std::max<int>(1, static_cast<int>(d.templates.size()));
-  const int per_set = unpaired ? 1 : n_arms;
+  // The arms a vacancy receives: one group per level of the between factors
+  // (one group of every arm without them). Unpaired: one arm per vacancy.
+  const std::vector<SetGroup> groups = unpaired ? std::vector<SetGroup>{} : SetGroups(d);
+  const int n_groups = static_cast<int>(groups.size());
+  const int per_set = unpaired ? 1 : static_cast<int>(groups.front().arms.size());
 
   auto profiles = BuildProfiles(d, pools);
   if (!profiles.ok()) return profiles.error();
@@ -107,18 +121,56 @@ Result<Plan> AssignProbes(const Design& d, const std::vector<Vacancy>& vacancies
   for (size_t v = 0; v < vacancies.size(); ++v) blocks[StratumBlockKey(d, vacancies[v])].push_back(static_cast<int>(v));
 
   // Global relabellings: which template is template 0 of the rotation, and
-  // which arm each symbol of the send-order square stands for.
+  // which within arm each symbol of the send orders stands for.
   const std::vector<int> template_of = RandomPermutation(n_templates, rng);
-  const std::vector<int> arm_of_symbol = RandomPermutation(n_arms, rng);
-  const auto square = SendOrderSquare(n_arms);
+  const std::vector<int> arm_of_symbol = RandomPermutation(unpaired ? n_arms : per_set, rng);
+  const auto orders = WilliamsOrders(unpaired ? n_arms : per_set);
+  const int n_square_rows = unpaired ? n_arms : per_set;
+  const bool mirrored = !unpaired && static_cast<int>(orders.size()) > n_square_rows;  // odd k: square and mirror image
+
+  // Between factors: each stratum block's vacancies get the groups in
+  // balanced numbers (blocked randomisation; extras to the groups used least
+  // so far, so the plan's totals differ by at most one too).
+  std::vector<int> group_of(vacancies.size(), 0);
+  if (n_groups > 1) {
+    BalancedGrid between(n_groups, 1);
+    for (const auto& [key, members] : blocks) {
+      auto cells = between.Block(static_cast<int64_t>(members.size()), rng);
+      rng.Shuffle(cells);
+      for (size_t j = 0; j < members.size(); ++j) group_of[members[j]] = cells[j].first;
+    }
+  }
 
   std::vector<SetDesign> set_design(vacancies.size());
-  BalancedGrid grid = unpaired ? BalancedGrid(n_arms, n_templates) : BalancedGrid(n_templates, n_arms);
-  for (const auto& [key, members] : blocks) {
-    auto cells = grid.Block(static_cast<int64_t>(members.size()), rng);
-    rng.Shuffle(cells);
-    for (size_t j = 0; j < members.size(); ++j) set_design[members[j]] = {cells[j].first, cells[j].second};
-  }
+  std::vector<int> orientation(vacancies.size(), 0);  // 1: the mirror-image row (odd k)
+  // Odd k: per set group and square row, uses of the row and of its mirror image.
+  std::vector<std::vector<int64_t>> mirror_uses(static_cast<size_t>(std::max(1, n_groups)),
+                                                std::vector<int64_t>(static_cast<size_t>(n_square_rows), 0));
+  auto square_uses = mirror_uses;
+  BalancedGrid grid = unpaired ? BalancedGrid(n_arms, n_templates) : BalancedGrid(n_templates, n_square_rows);
+  for (const auto& [key, all_members] : blocks)
+    for (int g = 0; g < std::max(1, n_groups); ++g) {
+      std::vector<int> members;
+      for (int v : all_members)
+        if (group_of[v] == g) members.push_back(v);
+      auto cells = grid.Block(static_cast<int64_t>(members.size()), rng);
+      rng.Shuffle(cells);
+      for (size_t j = 0; j < members.size(); ++j) set_design[members[j]] = {cells[j].first, cells[j].second};
+      if (!mirrored) continue;
+      // Odd k: a row's uses alternate between the square and its mirror
+      // image, each row starting with whichever it has used less in its
+      // group. So every row is used as square and as mirror equally often,
+      // up to one, over the plan: every arm follows every other arm of its
+      // set equally often, and positions stay within two of each other in
+      // each block and over the plan (two passes over the rows make a square
+      // and its mirror, each arm in each position twice).
+      const size_t gi = static_cast<size_t>(g);
+      for (int v : members) {
+        const size_t r = static_cast<size_t>(set_design[v].order_row);
+        orientation[v] = mirror_uses[gi][r] < square_uses[gi][r] ? 1 : 0;
+        ++(orientation[v] ? mirror_uses[gi][r] : square_uses[gi][r]);
+      }
+    }
 
   // Names: each arm walks its profiles in a shuffled cycle, skipping names
   // already used at the vacancy's employer.
@@ -140,8 +192,11 @@ Result<Plan> AssignProbes(const Design& d, const std::vector<Vacancy>& vacancies
     const SetDesign& sd = set_design[v];
     std::vector<int> arms;
     if (unpaired) arms.push_back(sd.offset);
-    else
-      for (int pos = 0; pos < n_arms; ++pos) arms.push_back(arm_of_symbol[square[sd.order_row][pos]]);
+    else {
+      const auto& order = orders[static_cast<size_t>(sd.order_row + orientation[v] * n_square_rows)];
+      const auto& members = groups[static_cast<size_t>(group_of[v])].arms;
+      for (int pos = 0; pos < per_set; ++pos) arms.push_back(members[static_cast<size_t>(arm_of_symbol[order[pos]])]);
+    }
 
     auto& used = names_at_employer[employer[v]];
     int64_t minute = calendar.DrawTimeOnDay(day, rng);
@@ -172,7 +227,8 @@ Result<Plan> AssignProbes(const Design& d, const std::vector<Vacancy>& vacancies
       p.vacancy = static_cast<int>(v);
       p.arm = a;
       p.profile = profile;
-      p.template_index = unpaired ? template_of[sd.order_row] : template_of[(sd.offset + a) % n_templates];
+      // Templates rotate over the within arms (the arm's place in its group).
+      p.template_index = unpaired ? template_of[sd.order_row] : template_of[(sd.offset + WithinIndex(groups, group_of[v], a)) % n_templates];
       p.send_order = static_cast<int>(k) + 1;
       p.planned_at = minute * 60;
       plan.probes.push_back(p);

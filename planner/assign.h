@@ -6,14 +6,21 @@
 //
 // What it guarantees (tests/planner/assign_test.cpp checks each over many
 // seeds and random designs):
-//   - paired / sets: every vacancy gets one probe per arm; unpaired: one probe,
-//     its arm drawn within the vacancy's stratum block;
+//   - paired / sets: every vacancy gets one probe per arm of its set
+//     (planner/set_groups.h: every arm, or with factors varied between
+//     vacancies the arms of one between level, drawn by blocked
+//     randomisation so each stratum block holds every between level equally
+//     often, up to one); unpaired: one probe, its arm drawn within the
+//     vacancy's stratum block;
 //   - within each stratum block every template carries every arm equally
 //     often, up to one (Latin-square rotation of templates over arms), and
 //     over the whole plan too;
 //   - send order: every arm holds every position equally often within each
-//     block, up to one (rows of a Latin square: Williams' square for an even
-//     number of arms, so each arm also follows each other arm equally often);
+//     block and over the plan, up to one (up to two for an odd number of
+//     arms per set, whose orders come from a square and its mirror image), and every arm directly follows every other arm of its
+//     set about equally often (Williams 1949: one balanced Latin square for
+//     an even number k of arms per set; for odd k the square and its mirror
+//     image, each row used as both equally often, up to one, per set group);
 //   - no two probes of one set share a template; no name is used twice at one
 //     employer; no employer gets more probes than [ethics].cap_per_employer;
 //   - the first probe of a set goes at a random open minute of its sending
@@ -53,9 +60,16 @@ Result<Plan> AssignProbes(const Design& design, const std::vector<Vacancy>& vaca
                           const std::vector<NameList>& pools);
 
 // The send-order square for k arms: row r lists the arm symbols in send
-// order. Williams' design for even k (each symbol follows each other symbol
-// once), the cyclic square for odd k. Every row and column is a permutation.
+// order, row r = (0, 1, k-1, 2, k-2, …) + r mod k (Williams 1949). Every row
+// and column is a permutation; for even k each symbol directly follows each
+// other symbol exactly once.
 std::vector<std::vector<int>> SendOrderSquare(int k);
+
+// The send orders a plan draws from: the square for even k (k rows); for odd
+// k >= 3 the square and then its mirror image (row k + r is row r reversed,
+// 2k rows), in which each symbol directly follows each other symbol exactly
+// twice (Williams 1949).
+std::vector<std::vector<int>> WilliamsOrders(int k);
 
 // The stratum block of a vacancy: its stratum values joined (the design's
 // column order), "" without strata.

@@ -4,6 +4,7 @@
 #include <toml++/toml.h>
 
 #include <algorithm>
+#include <cmath>
 #include <filesystem>
 #include <fstream>
 #include <set>
@@ -14,9 +15,11 @@
 #include "core/echoed_value.h"
 #include "core/suggest.h"
 #include "planner/mail_section.h"
+#include "planner/monitorable.h"
 #include "planner/name_pools.h"
 #include "planner/profiles.h"
 #include "planner/send_calendar.h"
+#include "planner/set_groups.h"
 #include "planner/source_section.h"
 #include "planner/toml_list.h"
 
@@ -68,6 +71,8 @@ class DesignReader : public TomlErrorSink {
   void ReadStudy(Design& d);
   void ReadFactors(Design& d);
   void ReadFactorFields(const toml::table& t, const Design& d, Factor& f);
+  void ReadFactorDisplay(const toml::table& t, Factor& f);
+  void CheckSetGroups(Design& d);
   void ReadPool(const toml::table& t, Design& d);
   void CheckPattern(const toml::table& p, const std::string& key, const std::string& pattern);
   void ReadArms(Design& d);
@@ -238,6 +243,7 @@ void DesignReader::ReadFactors(Design& d) {
     for (const auto& g : d.factors)
       if (g.name == f.name) Fail(t.get("name"), "factor '" + f.name + "' is declared twice", "rename or remove one");
     ReadFactorFields(t, d, f);
+    ReadFactorDisplay(t, f);
     d.factors.push_back(f);
   }
 }
@@ -283,6 +289,63 @@ void DesignReader::ReadFactorFields(const toml::table& t, const Design& d, Facto
       return;
     }
     f.fields[field] = values;
+  }
+}
+
+// vary, label, labels = { "28" = "aged 28" } and scores = [28, 45, 58].
+void DesignReader::ReadFactorDisplay(const toml::table& t, Factor& f) {
+  f.vary = String(t, "[[factor]]", "vary", false, "within");
+  if (f.vary != "within" && f.vary != "between") {
+    Fail(t.get("vary"), "[[factor]].vary of '" + f.name + "' must be \"within\" or \"between\", got '" + f.vary + "'" +
+                            DidYouMean(f.vary, {"within", "between"}),
+         "write vary = \"within\" (each vacancy receives every level) or vary = \"between\" (each vacancy one level)");
+    return;
+  }
+  f.label = String(t, "[[factor]]", "label", false);
+  if (const toml::node* n = t.get("labels")) {
+    if (!n->is_table()) {
+      Fail(n, "[[factor]].labels of '" + f.name + "' must be a table of texts, level = label",
+           "write labels = { \"" + (f.levels.empty() ? std::string("level") : f.levels.front()) + "\" = \"…\" }");
+      return;
+    }
+    for (const auto& [k, v] : *n->as_table()) {
+      std::string level(k.str());
+      if (std::find(f.levels.begin(), f.levels.end(), level) == f.levels.end()) {
+        Fail(&v, "labels names '" + level + "', which is not a level of '" + f.name + "'" + DidYouMean(level, f.levels),
+             "label one of its levels");
+        return;
+      }
+      if (!v.is_string() || v.as_string()->get().empty()) {
+        Fail(&v, "the label of level '" + level + "' must be a text in quotes, not empty", "write \"" + level + "\" = \"…\"");
+        return;
+      }
+      f.labels[level] = std::string(v.as_string()->get());
+    }
+  }
+  if (const toml::node* n = t.get("scores")) {
+    const toml::array* arr = n->as_array();
+    std::vector<double> scores;
+    if (arr)
+      for (const auto& el : *arr) {
+        if (el.is_integer()) scores.push_back(static_cast<double>(el.as_integer()->get()));
+        else if (el.is_floating_point() && std::isfinite(el.as_floating_point()->get()))
+          scores.push_back(el.as_floating_point()->get());
+      }
+    if (!arr || scores.size() != arr->size() || scores.size() != f.levels.size()) {
+      Fail(n, "[[factor]].scores of '" + f.name + "' must list " + std::to_string(f.levels.size()) +
+                  " numbers, one per level in the order of levels",
+           "write scores = [28, 45, 58] beside levels (a score says where an ordered level lies)");
+      return;
+    }
+    for (size_t i = 0; i < scores.size(); ++i)
+      for (size_t j = 0; j < i; ++j)
+        if (scores[i] == scores[j]) {
+          Fail(arr->get(i), "levels '" + f.levels[j] + "' and '" + f.levels[i] + "' of '" + f.name +
+                                "' have the same score, so the trend test could not order them",
+               "give every level its own score");
+          return;
+        }
+    f.scores = scores;
   }
 }
 
@@ -417,6 +480,12 @@ void DesignReader::ReadArms(Design& d) {
     return;
   }
   d.reference_arm = static_cast<int>(ref - d.arms.begin());
+  const bool any_between =
+      std::any_of(d.factors.begin(), d.factors.end(), [](const Factor& f) { return f.is_between(); });
+  if (any_between && d.kind != "unpaired") {
+    CheckSetGroups(d);
+    return;
+  }
   if (d.kind == "paired" && d.arms.size() != 2)
     Fail(a ? static_cast<const toml::node*>(a) : nullptr,
          "a paired study needs exactly two arms, this design has " + std::to_string(d.arms.size()),
@@ -424,6 +493,60 @@ void DesignReader::ReadArms(Design& d) {
   else if (d.arms.size() < 2)
     Fail(a ? static_cast<const toml::node*>(a) : nullptr, "the design has only one arm, so nothing is compared",
          "list at least two arms");
+}
+
+// With a factor varied between vacancies, a vacancy receives the arms of
+// one between level (planner/set_groups.h). Every such set must hold the
+// same within arms, or the between levels would be compared on different
+// contrasts, and a set must still compare something.
+void DesignReader::CheckSetGroups(Design& d) {
+  auto at = [&](const Factor& f) { return label_ + ":" + std::to_string(f.pos.line) + ":" + std::to_string(f.pos.column); };
+  const auto within = std::find_if(d.factors.begin(), d.factors.end(), [](const Factor& f) { return !f.is_between(); });
+  if (within == d.factors.end()) {
+    if (!error_)
+      error_ = BadInput(at(d.factors.front()),
+                        "every factor varies between vacancies, so each vacancy of this " + d.kind +
+                            " study would receive one probe and no set would compare anything",
+                        "let the attribute under test vary within vacancies (vary = \"within\"), or use kind = "
+                        "\"unpaired\"");
+    return;
+  }
+  const auto groups = SetGroups(d);
+  auto within_of = [&](const SetGroup& g) {
+    std::set<std::string> labels;
+    for (int a : g.arms) labels.insert(WithinLabel(d, d.arms[static_cast<size_t>(a)]));
+    return labels;
+  };
+  const std::set<std::string> first = within_of(groups.front());
+  for (const auto& g : groups) {
+    const std::set<std::string> mine = within_of(g);
+    if (mine == first) continue;
+    const std::set<std::string>& more = mine.size() < first.size() ? first : mine;
+    const SetGroup& lacking = mine.size() < first.size() ? g : groups.front();
+    const std::set<std::string> lacking_set = within_of(lacking);
+    std::string missing;
+    for (const auto& l : more)
+      if (!lacking_set.count(l)) missing += (missing.empty() ? "" : ", ") + l;
+    if (missing.empty())
+      for (const auto& l : lacking_set)
+        if (!more.count(l)) missing += (missing.empty() ? "" : ", ") + l;
+    if (!error_)
+      error_ = BadInput(label_, "the vacancies that receive " + ArmLabel(lacking.between) +
+                                    " would not receive the same arms as the others (missing: " + missing + ")",
+                        "give every level of a between factor the same arms of the within factors: use include = "
+                        "\"all\" or list the missing arms in [arms].list");
+    return;
+  }
+  const size_t per_set = groups.front().arms.size();
+  if (d.kind == "paired" && per_set != 2) {
+    if (!error_)
+      error_ = BadInput(at(*within), "a paired study needs two arms per vacancy, this design gives each vacancy " +
+                                         std::to_string(per_set),
+                        "use kind = \"sets\" for more arms per vacancy");
+  } else if (per_set < 2 && !error_) {
+    error_ = BadInput(at(*within), "each vacancy would receive one arm, so nothing is compared within it",
+                      "let a factor with two or more levels vary within vacancies");
+  }
 }
 
 void DesignReader::CheckPattern(const toml::table& p, const std::string& key, const std::string& pattern) {
@@ -566,10 +689,17 @@ void DesignReader::ReadTemplates(Design& d) {
     for (size_t i = 0; i < d.templates.size(); ++i) CheckFile(files->as_array()->get(i), d.templates[i], "the template");
   d.factor_fields = Strings(*t, "[templates]", "factor_fields", false,
                             {"given_name", "family_name", "full_name", "mailbox", "phone"});
-  if (d.kind != "unpaired" && d.templates.size() < d.arms.size() && !error_)
-    Fail(files, "a " + d.kind + " study with " + std::to_string(d.arms.size()) + " arms needs at least " +
-                    std::to_string(d.arms.size()) + " templates, so no two probes of one set share one",
-         "add templates to [templates].files");
+  const size_t per_set = d.arms.empty() ? 0 : d.kind == "unpaired" ? 1 : SetGroups(d).front().arms.size();
+  if (d.kind != "unpaired" && d.templates.size() < per_set && !error_) {
+    if (per_set == d.arms.size())
+      Fail(files, "a " + d.kind + " study with " + std::to_string(d.arms.size()) + " arms needs at least " +
+                      std::to_string(d.arms.size()) + " templates, so no two probes of one set share one",
+           "add templates to [templates].files");
+    else
+      Fail(files, "a " + d.kind + " study with " + std::to_string(per_set) + " arms per vacancy needs at least " +
+                      std::to_string(per_set) + " templates, so no two probes of one set share one",
+           "add templates to [templates].files");
+  }
 }
 
 void DesignReader::ReadSchedule(Design& d) {
@@ -689,13 +819,10 @@ void DesignReader::ReadRest(Design& d) {
           }
           d.analysis.looks.push_back(static_cast<int>(el.as_integer()->get()));
         }
-      // Interim looks are a group-sequential McNemar test (analysis/monitor.h):
-      // it needs a set of two probes per vacancy. Planned looks in any other
-      // design would promise monitoring that `monitor` refuses mid-fieldwork.
-      if (arr && d.kind != "paired")
-        Fail(looks,
-             "[analysis].looks plans interim looks, but monitor can only watch a paired design (two arms, a set of "
-             "two probes per vacancy) and this design is '" + d.kind + "'",
+      // Planned looks in a design `monitor` cannot watch would promise
+      // monitoring that it refuses mid-fieldwork (planner/monitorable.h).
+      if (std::string why = MonitorRefusal(d); arr && !why.empty())
+        Fail(looks, "[analysis].looks plans interim looks, but " + why,
              "remove looks and analyse once at the end of fieldwork with 'twinprobe analyze'");
     }
   }
@@ -769,7 +896,7 @@ const std::vector<DesignSectionKeys>& KnownDesignKeys() {
        {"study", "factor", "arms", "profiles", "templates", "vacancies", "schedule", "outcomes", "strata", "analysis",
         "ethics", "source", "mail", "team"}},
       {"[study]", {"id", "title", "seed", "kind"}},
-      {"[[factor]]", {"name", "levels", "reference", "fields"}},
+      {"[[factor]]", {"name", "levels", "reference", "fields", "vary", "label", "labels", "scores"}},
       {"[arms]", {"include", "list"}},
       {"[profiles]", {"mailbox", "phone", "pool"}},
       {"[[profiles.pool]]", {"factor", "level", "levels", "file"}},

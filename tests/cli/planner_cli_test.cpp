@@ -56,6 +56,7 @@ TEST_CASE("cli check: the example study passes and the proof is summarised") {
   REQUIRE(r.exit_code == 0);
   CHECK(r.out ==
         "Design veldmark-callbacks-demo is valid: paired design, 2 arms, 400 vacancies, 2 templates.\n"
+        "Factors: origin varies within each vacancy (2 levels).\n"
         "One-attribute proof: 400 sets rendered (1600 renderings compared); the probes differ only in fields a factor "
         "controls (used by the templates: full_name, mailbox, phone).\n");
   auto j = nlohmann::json::parse(s.Run({"--json", "check"}).out);

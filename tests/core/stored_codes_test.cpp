@@ -32,6 +32,7 @@ TEST_CASE("stored codes: every spelling parses back to its code and none is used
   CheckRoundTrip(kExtractionStateNames, ParseExtractionState, ExtractionStateName);
   CheckRoundTrip(kReviewDecisionNames, ParseReviewDecision, ReviewDecisionName);
   CheckRoundTrip(kCorrectionMethodNames, ParseCorrectionMethod, CorrectionMethodName);
+  CheckRoundTrip(kFactorVaryNames, ParseFactorVary, FactorVaryName);
 }
 
 TEST_CASE("stored codes: the spellings are the ones earlier versions wrote") {
@@ -57,6 +58,8 @@ TEST_CASE("stored codes: the spellings are the ones earlier versions wrote") {
   CHECK(CorrectionMethodName(CorrectionMethod::kHommel) == "hommel");
   CHECK(CorrectionMethodName(CorrectionMethod::kBH) == "bh");
   CHECK(CorrectionMethodName(CorrectionMethod::kBY) == "by");
+  CHECK(FactorVaryName(FactorVary::kWithin) == "within");
+  CHECK(FactorVaryName(FactorVary::kBetween) == "between");
 }
 
 TEST_CASE("stored codes: a spelling outside the table parses to nothing (case and blanks count)") {

@@ -16,6 +16,8 @@ TEST_CASE("verify: a freshly migrated store has exactly the reference schema") {
             "the store holds an index 'desk_passphrase_member' on desk_passphrase that twinprobe does not create",
             "the store holds an index 'desk_passphrase_seq' on desk_passphrase that twinprobe does not create",
             "the store holds an index 'mail_excerpt_seal_seq' on mail_excerpt_seal that twinprobe does not create",
+            "the store holds an index 'factor_design_seq' on factor_design that twinprobe does not create",
+            "the store holds an index 'level_design_seq' on level_design that twinprobe does not create",
             "the store holds an index 'material_file_probe' on material_file that twinprobe does not create",
             "the store holds an index 'material_file_seq' on material_file that twinprobe does not create",
             "the store holds an index 'monitor_look_seq' on monitor_look that twinprobe does not create",
@@ -31,6 +33,8 @@ TEST_CASE("verify: a freshly migrated store has exactly the reference schema") {
             "the store holds a table 'material_file' that twinprobe does not create",
             "the store holds a table 'sending_detail' that twinprobe does not create"});
             "the store holds a table 'mail_excerpt_seal' that twinprobe does not create",
+            "the store holds a table 'factor_design' that twinprobe does not create",
+            "the store holds a table 'level_design' that twinprobe does not create",
             "the store holds a table 'material_file' that twinprobe does not create"});
 }
 

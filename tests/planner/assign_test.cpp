@@ -99,7 +99,9 @@ std::string Violation(const testing::RandomStudy& s, const Plan& plan) {
       if (Spread(arm_template) > 1) return "block arm x template cells differ by more than one";
     } else {
       if (Spread(arm_template) > 1) return "block arm x template cells differ by more than one";
-      if (Spread(arm_position) > 1) return "block arm x send position cells differ by more than one";
+      const int64_t block_slack = A % 2 == 1 && A >= 3 ? 2 : 1;  // odd: square and mirror (planner/assign.h)
+      if (Spread(arm_position) > block_slack)
+        return "block arm x send position cells differ by more than " + std::to_string(block_slack);
     }
   }
   if (unpaired) {
@@ -107,7 +109,12 @@ std::string Violation(const testing::RandomStudy& s, const Plan& plan) {
     if (Spread(global_template) > 1) return "plan template counts differ by more than one";
   } else {
     if (Spread(global_arm_template) > 1) return "plan arm x template cells differ by more than one";
-    if (Spread(global_arm_position) > 1) return "plan arm x send position cells differ by more than one";
+    // For an odd number of arms the send orders are a Williams square and its
+    // mirror image, each row used as both equally often up to one, so a
+    // position cell is within two of the others (planner/assign.h).
+    const int64_t position_slack = A % 2 == 1 && A >= 3 ? 2 : 1;
+    if (Spread(global_arm_position) > position_slack)
+      return "plan arm x send position cells differ by more than " + std::to_string(position_slack);
   }
 
   // Names and the cap per employer.

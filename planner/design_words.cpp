@@ -1,0 +1,22 @@
+#include "planner/design_words.h"
+
+namespace twinprobe {
+
+std::string DescribeVariation(const Design& d) {
+  std::string strata;
+  for (size_t i = 0; i < d.strata.size(); ++i)
+    strata += (i == 0 ? "" : i + 1 == d.strata.size() ? " and " : ", ") + d.strata[i];
+  const std::string balanced = strata.empty() ? "balanced over the plan" : "balanced within " + strata;
+  std::string out;
+  for (const Factor& f : d.factors) {
+    const std::string levels = std::to_string(f.levels.size()) + " levels";
+    out += out.empty() ? "" : "; ";
+    if (f.is_between() || d.kind == "unpaired")
+      out += f.name + " is assigned between vacancies (" + levels + ", " + balanced + ")";
+    else
+      out += f.name + " varies within each vacancy (" + levels + ")";
+  }
+  return out;
+}
+
+}  // namespace twinprobe
