@@ -25,6 +25,9 @@ struct Factor {
   // e.g. birth_year = ["2003", "1979"] for levels ["younger", "older"]. The
   // factor controls these fields: they may differ between the probes of a set.
   std::map<std::string, std::vector<std::string>> fields;
+  // Ordered levels: one number per level in `levels` order (e.g. ages 28,
+  // 45, 58), for the trend test; empty when the levels are not ordered.
+  std::vector<double> scores;
 };
 
 // One combination of levels, e.g. {origin: "coastal"}. label is

@@ -4,10 +4,13 @@ namespace twinprobe {
 
 StudyReading ReadStudy(Store& store, const OutcomeScheme& scheme, const FieldworkOptions& options) {
   StudyReading r;
-  r.fieldwork = ReadFieldwork(store, scheme, options);
+  FieldworkOptions with_sets = options;
+  with_sets.completion_order = true;
+  r.fieldwork = ReadFieldwork(store, scheme, with_sets);
   r.design = ReadStoredDesign(store);
   r.freeze = ReadFreeze(store);
   r.listings = ReadListings(store);
+  r.layout = ReadProbeLayout(store);
   return r;
 }
 

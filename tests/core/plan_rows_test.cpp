@@ -23,7 +23,7 @@ std::unique_ptr<Store> MemoryStore() {
 Design PairDesign() {
   Design d;
   d.study_id = "veldmark-clerks";
-  d.factors = {Factor{"origin", {"inland", "coastal"}, "inland", {}, {}}};
+  d.factors = {Factor{"origin", {"inland", "coastal"}, "inland", {}, {}, {}}};
   d.arms = {Arm{"origin=inland", {{"origin", "inland"}}, true}, Arm{"origin=coastal", {{"origin", "coastal"}}, false}};
   return d;
 }
