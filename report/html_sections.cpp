@@ -19,6 +19,9 @@ bool HasPlan(const AnalysisResult& r) { return !r.listings.listing_only; }
 // Nothing sent or nothing closed yet: no rates, tables or employer findings.
 bool HasFindings(const AnalysisResult& r) { return HasPlan(r) && EarlyStateSentence(r).empty(); }
 bool HasPairedFindings(const AnalysisResult& r) { return r.has_paired && HasFindings(r); }
+bool HasKLevels(const AnalysisResult& r) { return r.k_levels.present && HasFindings(r); }
+bool HasAdjusted(const AnalysisResult& r) { return r.adjusted.present && HasFindings(r); }
+bool HasEmployerSets(const AnalysisResult& r) { return r.employer_sets.available && HasFindings(r); }
 
 }  // namespace
 
@@ -31,9 +34,12 @@ const std::vector<HtmlSection>& HtmlSections() {
       {"rates", "Positive callbacks by group", &HasFindings, {&RatesChart}},
       {"paired", "Pairs: who was treated better", &HasPairedFindings, {&PairedTable, &PairedTest, &PairedEffects}},
       {"comparisons", "Each group against the reference", &HasComparisons, {&ComparisonsForest}},
+      {"levels", "Every level compared", &HasKLevels, {&LevelTests, &LevelPairs, &TwoFactorTable}},
+      {"adjusted", "Adjusted for template and send position", &HasAdjusted, {&AdjustedTable}},
       {"strata", "Results within each stratum", &HasStrata, {&StrataForest, &StrataTables, &AcrossStrataTable}},
       {"responses", "What came back, and how fast", &HasFindings, {&ResponseCodes, &ResponseTimesChart}},
       {"employers", "Employers (by pseudonym)", &HasEmployers, {&EmployerTable}},
+      {"employers-sets", "Employers (by pseudonym)", &HasEmployerSets, {&EmployerSetsTable}},
       {"listing-audit", "Ranked listings (listing audit)", &HasListings,
        {&ListingOverview, &ListingComparisons, &ListingStrata, &ListingStructure}},
       {"methods", "Methods and sources", nullptr, {&MethodsText}},

@@ -7,6 +7,8 @@
 
 #include "report/design_report.h"
 #include "report/effects_report.h"
+#include "report/adjusted_model_report.h"
+#include "report/k_level_report.h"
 #include "report/json_number.h"
 
 namespace twinprobe {
@@ -235,6 +237,8 @@ std::string RenderJsonReport(const AnalysisResult& r) {
     j["paired"] = p;
   }
   j["effects"] = EffectsJson(r);
+  if (r.k_levels.present) j["k_levels"] = KLevelJson(r.k_levels);
+  if (r.adjusted.present) j["adjusted_model"] = AdjustedJson(r.adjusted);
   j["design"] = DesignJson(r.design);
   j["response_times"] = ResponseTimesJson(r.response_times);
   j["employers"] = EmployersJson(r.employers);

@@ -11,6 +11,8 @@
 #include "report/design_report.h"
 #include "report/effects_report.h"
 #include "report/employer_flip_text.h"
+#include "report/adjusted_model_report.h"
+#include "report/k_level_report.h"
 #include "report/plain_summary.h"
 
 namespace twinprobe {
@@ -20,8 +22,6 @@ std::string FormatPercent(double rate) {
   std::snprintf(buf, sizeof buf, "%.1f%%", rate * 100.0);
   return buf;
 }
-
-namespace {
 
 // Wraps plain text at 78 columns (words never split).
 std::string Wrap(const std::string& text, const std::string& indent) {
@@ -38,6 +38,8 @@ std::string Wrap(const std::string& text, const std::string& indent) {
   if (!line.empty()) out += indent + line + "\n";
   return out;
 }
+
+namespace {
 
 // The cautions the plain summary points to ("see the cautions at the end of
 // this report"); the HTML report lists the same points (CautionsText in
@@ -350,6 +352,8 @@ void FindingsBlock(std::ostringstream& o, const AnalysisResult& r) {
            "not evidence that there is none.\n";
   }
   o << RenderEffectsText(r);
+  o << RenderAdjustedText(r);
+  o << RenderKLevelText(r);
 }
 
 }  // namespace
