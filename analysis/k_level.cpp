@@ -102,6 +102,19 @@ TrendResult ClogitSlope(const KLevelInput& in, const KLevelFactor& f, const std:
   return t;
 }
 
+LevelPair FromPairwise(const stats::PairwiseComparison& c, const KLevelFactor& f, bool paired) {
+  LevelPair p;
+  p.paired = paired;
+  p.first = f.levels[static_cast<size_t>(c.first)];
+  p.second = f.levels[static_cast<size_t>(c.second)];
+  p.rate_first = c.rate_first;
+  p.rate_second = c.rate_second;
+  p.difference = c.difference;
+  p.p = c.p;
+  p.p_adjusted = c.p_adjusted;
+  return p;
+}
+
 FactorAnalysis AnalyzeFactor(const KLevelInput& in, const KLevelFactor& f, stats::Adjustment method) {
   FactorAnalysis fa;
   fa.name = f.name;
@@ -139,20 +152,13 @@ FactorAnalysis AnalyzeFactor(const KLevelInput& in, const KLevelFactor& f, stats
     o.p_exact = q.p_exact;
     fa.overall = o;
     for (const auto& c : stats::PairwiseWithin(rows, method)) {
-      LevelPair p;
-      p.first = f.levels[static_cast<size_t>(c.first)];
-      p.second = f.levels[static_cast<size_t>(c.second)];
-      p.rate_first = c.rate_first;
-      p.rate_second = c.rate_second;
-      p.difference = c.difference;
+      LevelPair p = FromPairwise(c, f, true);
       for (const auto& row : rows) {
         const int x = row[static_cast<size_t>(c.first)], y = row[static_cast<size_t>(c.second)];
         (x ? (y ? p.pairs.a : p.pairs.b) : (y ? p.pairs.c : p.pairs.d)) += 1;
       }
       p.net = stats::NetDiscriminationRates(p.pairs, in.confidence);
       p.conditional_or = stats::ConditionalOddsRatio(p.pairs, in.confidence);
-      p.p = c.p;
-      p.p_adjusted = c.p_adjusted;
       fa.pairwise.push_back(p);
     }
     if (scored) fa.trend = ClogitSlope(in, f, arm_level);
@@ -168,18 +174,7 @@ FactorAnalysis AnalyzeFactor(const KLevelInput& in, const KLevelFactor& f, stats
   o.p_exact = kt.p_exact;
   o.min_expected = kt.min_expected;
   fa.overall = o;
-  for (const auto& c : stats::PairwiseBetween(positive, probes, method)) {
-    LevelPair p;
-    p.paired = false;
-    p.first = f.levels[static_cast<size_t>(c.first)];
-    p.second = f.levels[static_cast<size_t>(c.second)];
-    p.rate_first = c.rate_first;
-    p.rate_second = c.rate_second;
-    p.difference = c.difference;
-    p.p = c.p;
-    p.p_adjusted = c.p_adjusted;
-    fa.pairwise.push_back(p);
-  }
+  for (const auto& c : stats::PairwiseBetween(positive, probes, method)) fa.pairwise.push_back(FromPairwise(c, f, false));
   if (scored) {
     const stats::TrendTest tt = stats::CochranArmitage(positive, probes, f.scores);
     fa.trend.present = true;

@@ -4,6 +4,7 @@
 #include <cstdio>
 #include <sstream>
 
+#include "report/effects_report.h"
 #include "report/json_number.h"
 #include "report/p_value.h"
 #include "report/plural.h"
@@ -12,12 +13,7 @@
 namespace twinprobe {
 namespace {
 
-std::string Fmt(double v) {
-  if (std::isinf(v)) return v > 0 ? "infinite" : "0";
-  char buf[32];
-  std::snprintf(buf, sizeof buf, "%.3g", v);
-  return buf;
-}
+std::string Fmt(double v) { return FormatEstimate(v); }
 
 }  // namespace
 
@@ -26,7 +22,8 @@ std::string RenderAdjustedText(const AnalysisResult& r) {
   if (!m.present) return "";
   std::ostringstream o;
   o << "\nAdjusted for template and send position (conditional logistic regression, one stratum per vacancy, "
-    << Count(m.sets, "informative set", "informative sets") << "):\n";
+    << Count(m.sets, "informative set", "informative sets")
+    << "; odds ratios against the reference arm, the first template and send position 1):\n";
   if (!m.failure.empty()) {
     o << "  the model could not be fitted: " << m.failure << ".\n";
     return o.str();

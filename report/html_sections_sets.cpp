@@ -4,6 +4,7 @@
 #include <cmath>
 #include <cstdio>
 
+#include "report/effects_report.h"
 #include "report/html_escape.h"
 #include "report/html_parts.h"
 #include "report/html_sections.h"
@@ -16,15 +17,8 @@
 namespace twinprobe {
 namespace {
 
-std::string Fmt(double v) {
-  if (std::isnan(v)) return "undefined";
-  if (std::isinf(v)) return v > 0 ? "infinite" : "0";
-  char buf[32];
-  std::snprintf(buf, sizeof buf, "%.3g", v);
-  return buf;
-}
-
-std::string Ci(const stats::Interval& ci) { return "[" + Fmt(ci.low) + ", " + Fmt(ci.high) + "]"; }
+std::string Fmt(double v) { return FormatEstimate(v); }
+std::string Ci(const stats::Interval& ci) { return FormatInterval(ci); }
 
 }  // namespace
 
@@ -101,7 +95,8 @@ std::string AdjustedTable(const AnalysisResult& r, const ReportContext&) {
     o += html::Para("Left out: " + group + ", which is confounded with the groups in these sets (it cannot be told apart from them).");
   HtmlTable t;
   t.caption = "Conditional logistic regression on group, template and send position (" +
-              std::to_string(m.sets) + " informative sets; profile " +
+              std::to_string(m.sets) + " informative sets; odds ratios against the reference group, the first template and send "
+              "position 1; profile " +
               std::to_string(static_cast<int>(std::lround(r.confidence * 100))) + "% intervals)";
   t.headers = {"term", "odds ratio", "interval", "Wald p"};
   for (const AdjustedTerm& x : m.terms)

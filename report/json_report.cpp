@@ -239,6 +239,14 @@ std::string RenderJsonReport(const AnalysisResult& r) {
   j["effects"] = EffectsJson(r);
   if (r.k_levels.present) j["k_levels"] = KLevelJson(r.k_levels);
   if (r.adjusted.present) j["adjusted_model"] = AdjustedJson(r.adjusted);
+  if (r.employer_sets.available) {
+    nlohmann::json rows = nlohmann::json::array();
+    for (const EmployerSetRow& e : r.employer_sets.unequal_rows)
+      rows.push_back({{"pseudonym", e.pseudonym}, {"sets", e.sets}, {"unequal", e.unequal}, {"positive", e.positive}});
+    j["employer_sets"] = {{"employers", r.employer_sets.employers},
+                          {"employers_unequal", r.employer_sets.employers_unequal},
+                          {"unequal", rows}};
+  }
   j["design"] = DesignJson(r.design);
   j["response_times"] = ResponseTimesJson(r.response_times);
   j["employers"] = EmployersJson(r.employers);

@@ -4,6 +4,7 @@
 #include <cstdio>
 #include <sstream>
 
+#include "report/effects_report.h"
 #include "report/json_number.h"
 #include "report/p_value.h"
 #include "report/plural.h"
@@ -12,17 +13,9 @@
 namespace twinprobe {
 namespace {
 
-std::string Fmt(double v) {
-  if (std::isnan(v)) return "undefined";
-  if (std::isinf(v)) return v > 0 ? "infinite" : "-infinite";
-  char buf[32];
-  std::snprintf(buf, sizeof buf, "%.3g", v);
-  return buf;
-}
-
-std::string FmtCi(const stats::Interval& ci) { return "[" + Fmt(ci.low) + ", " + Fmt(ci.high) + "]"; }
-
-std::string Percent(double confidence) { return std::to_string(static_cast<int>(std::lround(confidence * 100))) + "%"; }
+std::string Fmt(double v) { return FormatEstimate(v); }
+std::string FmtCi(const stats::Interval& ci) { return FormatInterval(ci); }
+std::string Percent(double confidence) { return ConfidencePercent(confidence); }
 
 nlohmann::json Ci(const stats::Interval& ci) { return nlohmann::json::array({JsonNumber(ci.low), JsonNumber(ci.high)}); }
 
