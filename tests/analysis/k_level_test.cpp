@@ -111,8 +111,8 @@ TEST_CASE("k levels: three ages within sets against R (Cochran's Q, pairwise McN
 }
 
 TEST_CASE("k levels: exact permutation Cochran's Q on a small table against R's enumeration") {
-  // Six sets, four arms: the Cochran's Q check of the statsmodels test suite
-  // (Q = 0.75); the exact p is R's enumeration of every arrangement
+  // Six sets, four arms (Q = 0.75 from Cochran's definition in R); the
+  // exact p is R's enumeration of every arrangement
   // (tests/reference/models/klevel.R, KIND sets, ARG exact: mean(ss >= sum(C^2))).
   KLevelInput in;
   in.kind = "sets";
@@ -129,7 +129,8 @@ TEST_CASE("k levels: exact permutation Cochran's Q on a small table against R's 
   const FactorAnalysis& f = k.factors[0];
   CHECK(f.name == "arm");
   REQUIRE(f.overall);
-  CHECK_THAT(f.overall->statistic, WithinRel(0.75, 1e-12));                   // statsmodels cochrans_q test: Q = 0.75
+  // R, Cochran's (1950) definition: (k - 1) * (k * sum(C^2) - N^2) / (k * N - sum(R^2)) = 0.75.
+  CHECK_THAT(f.overall->statistic, WithinRel(0.75, 1e-12));
   CHECK_THAT(f.overall->p_asymptotic, WithinRel(0.861385080405, 1e-9));      // R: pchisq(0.75, 3, lower.tail = FALSE)
   const auto r = testing::RunR(
       "m <- rbind(c(1,1,0,1), c(0,1,1,1), c(0,0,1,0), c(1,1,1,1), c(0,1,0,0), c(1,0,0,1)); k <- 4\n"
