@@ -8,6 +8,40 @@
 namespace twinprobe {
 namespace {
 
+// The k-level analysis reads the same complete sets as the effects; scores
+// come from the design file in use (the store keeps levels, not scores).
+KLevelInput KLevelInputFor(const EffectsInput& e, const StoredDesign& stored, const Design* current_design) {
+  KLevelInput in;
+  in.kind = e.kind;
+  in.arm_labels = e.arm_labels;
+  in.sets = e.sets;
+  in.correction = e.correction;
+  in.confidence = e.confidence;
+  for (const StoredFactor& sf : stored.factors) {
+    KLevelFactor f{sf.name, sf.levels, sf.reference.empty() && !sf.levels.empty() ? sf.levels[0] : sf.reference, {}};
+    if (current_design)
+      for (const Factor& df : current_design->factors)
+        if (df.name == sf.name && df.levels == sf.levels) f.scores = df.scores;
+    in.factors.push_back(std::move(f));
+  }
+  return in;
+}
+
+// The complete sets with each probe's template and send position (the
+// layout lists a vacancy's probes in the order of its SetProbe list).
+std::vector<std::vector<LaidOutProbe>> LaidOutSets(const Fieldwork& f, const ProbeLayouts& layout) {
+  std::vector<std::vector<LaidOutProbe>> sets;
+  for (const CompletedSet& c : f.completed) {
+    auto it = layout.find(c.vacancy_id);
+    if (it == layout.end() || it->second.size() != c.probes.size()) continue;
+    std::vector<LaidOutProbe> set;
+    for (size_t i = 0; i < c.probes.size(); ++i)
+      set.push_back({c.probes[i].arm, c.probes[i].positive, it->second[i].template_path, it->second[i].send_order});
+    sets.push_back(std::move(set));
+  }
+  return sets;
+}
+
 void AddPair(stats::PairedCounts& t, bool ref_pos, bool other_pos, int64_t n) {
   (ref_pos ? (other_pos ? t.a : t.b) : (other_pos ? t.c : t.d)) += n;
 }
@@ -120,9 +154,12 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
                        [&](const SingleStratum& one) { return one.column == t.name; });
   });
   r.stages = ComputeHiringStages(stored.stages, effects_in.arm_labels, reading.code_counts, r.correction, r.confidence);
+  r.k_levels = AnalyzeKLevels(KLevelInputFor(effects_in, stored, current_design));
+  if (r.kind != "unpaired") r.adjusted = FitAdjustedModel(LaidOutSets(f, reading.layout), effects_in.arm_labels, r.confidence);
   r.design = SummariseDesign(f, stored);
   r.response_times = ComputeResponseTimes(f, scheme);
   r.employers = paired ? SummariseEmployers(f.employers) : EmployerOutcomes{};
+  if (r.kind == "sets") r.employer_sets = SummariseEmployerSets(f.employers, f.arms.size());
   TestByEmployer(r.employers, static_cast<uint64_t>(f.seed.value_or(0)), r.mcnemar_exact_p, r.alpha);
   r.balance = ComputeBalance(f);
   r.preregistration = CheckPreregistration(reading.freeze, stored, f, current_design, plan, reading.monitor_looks);

@@ -20,12 +20,15 @@
 #include "analysis/deviations.h"
 #include "analysis/early_stop.h"
 #include "analysis/listing_analysis.h"
+#include "analysis/adjusted_model.h"
 #include "analysis/effects.h"
+#include "analysis/k_level.h"
 #include "core/design.h"
 #include "core/status.h"
 #include "core/read_study.h"
 #include "analysis/design_summary.h"
 #include "analysis/employer_outcomes.h"
+#include "analysis/employer_sets.h"
 #include "analysis/flow.h"
 #include "analysis/response_times.h"
 #include "analysis/stages.h"
@@ -90,9 +93,16 @@ struct AnalysisResult {
   // Every comparison with the reference arm, per-stratum tests corrected for
   // multiplicity, Mantel–Haenszel and Breslow–Day (analysis/effects.h).
   Effects effects;
+  // A factor with three or more levels, or two factors: overall, pairwise,
+  // trend and two-factor tests (analysis/k_level.h; present = false otherwise).
+  KLevelAnalysis k_levels;
+  // Paired and sets designs: the arm effect adjusted for template and send
+  // position by conditional logistic regression (analysis/adjusted_model.h).
+  AdjustedModel adjusted;
   DesignSummary design;              // analysis/design_summary.h
   ResponseTimes response_times;      // analysis/response_times.h
   EmployerOutcomes employers;        // analysis/employer_outcomes.h (pseudonyms only)
+  EmployerSetsSummary employer_sets; // sets of three or more probes (analysis/employer_sets.h)
   BalanceReport balance;                   // arm x template / send order / stratum / weekday (analysis/balance.h)
   PreregistrationStatus preregistration;  // freeze and deviations from it (analysis/deviations.h)
   EarlyStop early_stop;                   // after a stored monitor stop (analysis/early_stop.h)

@@ -38,6 +38,9 @@ struct Factor {
   std::string LevelLabel(const std::string& level) const;
   // The factor's display label, else its name.
   std::string DisplayName() const { return label.empty() ? name : label; }
+  // Ordered levels: one number per level in `levels` order (e.g. ages 28,
+  // 45, 58), for the trend test; empty when the levels are not ordered.
+  std::vector<double> scores;
 };
 
 // One combination of levels, e.g. {origin: "coastal"}. label is

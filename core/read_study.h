@@ -8,6 +8,7 @@
 
 #include "core/design.h"
 #include "core/fieldwork.h"
+#include "core/probe_layout.h"
 #include "core/read_design.h"
 #include "core/read_freeze.h"
 #include "core/read_listings.h"
@@ -25,10 +26,15 @@ struct StudyReading {
   ListingData listings;
   std::vector<StoredLook> monitor_looks;  // interim looks taken (core/monitor_looks.h)
   std::vector<StageCodeCount> code_counts;  // filled when the plan has hiring stages (design.stages)
+  // Template and send position of every probe (the adjusted model); the
+  // fieldwork's `completed` sets carry the outcomes it is joined with.
+  ProbeLayouts layout;
 };
 
 // `scheme` decides which response codes are positive (the design's scheme
-// when there is a design file, else the stored one).
+// when there is a design file, else the stored one). The fieldwork is read
+// with its completion order (Fieldwork::completed), whatever `options` say:
+// the adjusted model joins it with `layout`.
 StudyReading ReadStudy(Store& store, const OutcomeScheme& scheme, const FieldworkOptions& options = {});
 
 }  // namespace twinprobe

@@ -11,6 +11,23 @@
 #include "report/text_report.h"
 
 namespace twinprobe {
+
+std::string FormatEstimate(double v) {
+  if (std::isnan(v)) return "undefined";
+  if (std::isinf(v)) return v > 0 ? "infinite" : "-infinite";
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.3g", v);
+  return buf;
+}
+
+std::string FormatInterval(const stats::Interval& ci) {
+  return "[" + FormatEstimate(ci.low) + ", " + FormatEstimate(ci.high) + "]";
+}
+
+std::string ConfidencePercent(double confidence) {
+  return std::to_string(static_cast<int>(std::lround(confidence * 100))) + "%";
+}
+
 namespace {
 
 nlohmann::json Ci(const stats::Interval& ci) { return nlohmann::json::array({JsonNumber(ci.low), JsonNumber(ci.high)}); }
@@ -68,17 +85,9 @@ nlohmann::json ComparisonJson(const ArmComparison& c) {
   return j;
 }
 
-std::string Fmt(double v) {
-  if (std::isnan(v)) return "undefined";
-  if (std::isinf(v)) return v > 0 ? "infinite" : "-infinite";
-  char buf[32];
-  std::snprintf(buf, sizeof buf, "%.3g", v);
-  return buf;
-}
-
-std::string FmtCi(const stats::Interval& ci) { return "[" + Fmt(ci.low) + ", " + Fmt(ci.high) + "]"; }
-
-std::string Percent(double confidence) { return std::to_string(static_cast<int>(std::lround(confidence * 100))) + "%"; }
+std::string Fmt(double v) { return FormatEstimate(v); }
+std::string FmtCi(const stats::Interval& ci) { return FormatInterval(ci); }
+std::string Percent(double confidence) { return ConfidencePercent(confidence); }
 
 void ComparisonText(std::ostringstream& o, const ArmComparison& c, const AnalysisResult& r, const std::string& ref) {
   const std::string cl = Percent(r.confidence);

@@ -11,6 +11,13 @@
 
 namespace twinprobe {
 
+// Numbers as the report sections print them: an estimate to 3 significant
+// digits ("undefined" for NaN, "infinite"/"-infinite"), an interval as
+// "[low, high]", a confidence level as "95%".
+std::string FormatEstimate(double v);
+std::string FormatInterval(const stats::Interval& ci);
+std::string ConfidencePercent(double confidence);
+
 std::string RenderEffectsText(const AnalysisResult& result);
 nlohmann::json EffectsJson(const AnalysisResult& result);
 // One sentence on the equivalence test (analysis/effects.h): the margin, the

@@ -22,6 +22,9 @@ bool HasPlan(const AnalysisResult& r) { return !r.listings.listing_only; }
 bool HasFindings(const AnalysisResult& r) { return HasPlan(r) && EarlyStateSentence(r).empty(); }
 bool HasPairedFindings(const AnalysisResult& r) { return r.has_paired && HasFindings(r); }
 bool HasStages(const AnalysisResult& r) { return r.stages.present && HasFindings(r); }
+bool HasKLevels(const AnalysisResult& r) { return r.k_levels.present && HasFindings(r); }
+bool HasAdjusted(const AnalysisResult& r) { return r.adjusted.present && HasFindings(r); }
+bool HasEmployerSets(const AnalysisResult& r) { return r.employer_sets.available && HasFindings(r); }
 
 }  // namespace
 
@@ -36,9 +39,12 @@ const std::vector<HtmlSection>& HtmlSections() {
       {"comparisons", "Each group against the reference", &HasComparisons, {&ComparisonsForest}},
       {"strata", "Results within each stratum", &HasStrata, {&SingleStrataNote, &StrataForest, &StrataTables, &AcrossStrataTable}},
       {"stages", "Hiring stages", &HasStages, {&StagesFunnel}},
+      {"levels", "Every level compared", &HasKLevels, {&LevelTests, &LevelPairs, &TwoFactorTable}},
+      {"adjusted", "Adjusted for template and send position", &HasAdjusted, {&AdjustedTable}},
       {"strata", "Results within each stratum", &HasStrata, {&StrataForest, &StrataTables, &AcrossStrataTable}},
       {"responses", "What came back, and how fast", &HasFindings, {&ResponseCodes, &ResponseTimesChart}},
       {"employers", "Employers (by pseudonym)", &HasEmployers, {&EmployerTable}},
+      {"employers-sets", "Employers (by pseudonym)", &HasEmployerSets, {&EmployerSetsTable}},
       {"listing-audit", "Ranked listings (listing audit)", &HasListings,
        {&ListingOverview, &ListingComparisons, &ListingStrata, &ListingStructure}},
       {"methods", "Methods and sources", nullptr, {&MethodsText}},

@@ -50,6 +50,12 @@ std::string ComparisonsForest(const AnalysisResult&, const ReportContext&);
 std::string StrataForest(const AnalysisResult&, const ReportContext&);
 std::string AcrossStrataTable(const AnalysisResult&, const ReportContext&);
 std::string SingleStrataNote(const AnalysisResult&, const ReportContext&);
+// html_sections_sets.cpp (analysis/k_level.h, adjusted_model.h, employer_sets.h)
+std::string LevelTests(const AnalysisResult&, const ReportContext&);
+std::string LevelPairs(const AnalysisResult&, const ReportContext&);
+std::string TwoFactorTable(const AnalysisResult&, const ReportContext&);
+std::string AdjustedTable(const AnalysisResult&, const ReportContext&);
+std::string EmployerSetsTable(const AnalysisResult&, const ReportContext&);
 // html_sections_listing.cpp (analysis/listing_analysis.h)
 std::string ListingOverview(const AnalysisResult&, const ReportContext&);
 std::string ListingComparisons(const AnalysisResult&, const ReportContext&);

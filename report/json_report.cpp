@@ -9,6 +9,8 @@
 #include "report/early_stop_report.h"
 #include "report/effects_report.h"
 #include "report/stages_report.h"
+#include "report/adjusted_model_report.h"
+#include "report/k_level_report.h"
 #include "report/json_number.h"
 
 namespace twinprobe {
@@ -238,6 +240,16 @@ std::string RenderJsonReport(const AnalysisResult& r) {
   }
   j["effects"] = EffectsJson(r);
   if (r.stages.present) j["stages"] = StagesJson(r.stages);
+  if (r.k_levels.present) j["k_levels"] = KLevelJson(r.k_levels);
+  if (r.adjusted.present) j["adjusted_model"] = AdjustedJson(r.adjusted);
+  if (r.employer_sets.available) {
+    nlohmann::json rows = nlohmann::json::array();
+    for (const EmployerSetRow& e : r.employer_sets.unequal_rows)
+      rows.push_back({{"pseudonym", e.pseudonym}, {"sets", e.sets}, {"unequal", e.unequal}, {"positive", e.positive}});
+    j["employer_sets"] = {{"employers", r.employer_sets.employers},
+                          {"employers_unequal", r.employer_sets.employers_unequal},
+                          {"unequal", rows}};
+  }
   j["design"] = DesignJson(r.design);
   j["response_times"] = ResponseTimesJson(r.response_times);
   j["employers"] = EmployersJson(r.employers);

@@ -7,6 +7,7 @@
 #include <sstream>
 
 #include "report/text_report.h"
+#include "report/verdict_sets.h"
 
 namespace twinprobe {
 namespace {
@@ -182,6 +183,7 @@ std::string HowSure(const AnalysisResult& r) {
       << "may plausibly be.";
     return o.str();
   }
+  if (const std::string sets = SetsHowSure(r); !sets.empty()) return sets;
   if (!r.has_paired) {
     o << "The " << conf
       << "% confidence intervals of the callback rates show how high or low each group's true callback rate may plausibly be.";
@@ -240,6 +242,7 @@ std::string Headline(const AnalysisResult& r) {
   }
   if (const std::string early = EarlyStateSentence(r); !early.empty()) return early;
   if (r.sets_analysed == 0 || r.arms.empty()) return "No complete set of applications has been analysed yet.";
+  if (const std::string sets = SetsHeadline(r); !sets.empty()) return sets;
   if (!r.has_paired) {
     std::vector<std::string> parts;
     for (const auto& a : r.arms) parts.push_back(ArmName(a.label) + " " + FormatPercent(a.rate));

@@ -13,6 +13,8 @@
 #include "report/effects_report.h"
 #include "report/stages_report.h"
 #include "report/employer_flip_text.h"
+#include "report/adjusted_model_report.h"
+#include "report/k_level_report.h"
 #include "report/plain_summary.h"
 
 namespace twinprobe {
@@ -22,8 +24,6 @@ std::string FormatPercent(double rate) {
   std::snprintf(buf, sizeof buf, "%.1f%%", rate * 100.0);
   return buf;
 }
-
-namespace {
 
 // Wraps plain text at 78 columns (words never split).
 std::string Wrap(const std::string& text, const std::string& indent) {
@@ -40,6 +40,8 @@ std::string Wrap(const std::string& text, const std::string& indent) {
   if (!line.empty()) out += indent + line + "\n";
   return out;
 }
+
+namespace {
 
 // The cautions the plain summary points to ("see the cautions at the end of
 // this report"); the HTML report lists the same points (CautionsText in
@@ -386,6 +388,8 @@ void FindingsBlock(std::ostringstream& o, const AnalysisResult& r) {
   }
   o << RenderEffectsText(r);
   o << RenderStagesText(r);
+  o << RenderAdjustedText(r);
+  o << RenderKLevelText(r);
 }
 
 }  // namespace

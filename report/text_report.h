@@ -15,5 +15,7 @@ std::string RenderTextReport(const AnalysisResult& result);
 std::string RenderTextReport(const AnalysisResult& result, const ReportContext& context);
 
 std::string FormatPercent(double rate);  // "24.8%"
+// Plain text wrapped at 78 columns, each line prefixed by `indent`.
+std::string Wrap(const std::string& text, const std::string& indent);
 
 }  // namespace twinprobe

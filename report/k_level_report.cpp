@@ -1,0 +1,217 @@
+#include "report/k_level_report.h"
+
+#include <cmath>
+#include <cstdio>
+#include <sstream>
+
+#include "report/effects_report.h"
+#include "report/json_number.h"
+#include "report/p_value.h"
+#include "report/plural.h"
+#include "report/text_report.h"
+
+namespace twinprobe {
+namespace {
+
+std::string Fmt(double v) { return FormatEstimate(v); }
+std::string FmtCi(const stats::Interval& ci) { return FormatInterval(ci); }
+std::string Percent(double confidence) { return ConfidencePercent(confidence); }
+
+nlohmann::json Ci(const stats::Interval& ci) { return nlohmann::json::array({JsonNumber(ci.low), JsonNumber(ci.high)}); }
+
+std::string Verb(double p, double alpha) { return p < alpha ? "rejects" : "does not reject"; }
+
+void PairText(std::ostringstream& o, const LevelPair& p, const std::string& factor, double confidence) {
+  o << "  " << factor << " " << p.first << " vs " << p.second << ": " << FormatPercent(p.rate_first) << " vs "
+    << FormatPercent(p.rate_second);
+  if (p.paired) {
+    const auto& t = p.pairs;
+    o << " in " << Count(t.n(), "set", "sets") << " (a " << t.a << ", only " << p.first << " " << t.b << ", only "
+      << p.second << " " << t.c << ", d " << t.d << "); exact McNemar, two-sided, " << PEquals(p.p) << ", adjusted "
+      << FormatP(p.p_adjusted) << ".\n"
+      << "    net discrimination (b-c)/(a+b+c) = " << Fmt(p.net.among_positive.estimate) << " "
+      << FmtCi(p.net.among_positive.ci) << " (" << Percent(confidence) << " two-sided, Newcombe); conditional odds ratio b/c = "
+      << Fmt(p.conditional_or.estimate) << " " << FmtCi(p.conditional_or.ci) << " (exact).\n";
+  } else {
+    o << "; Fisher's exact test, two-sided, " << PEquals(p.p) << ", adjusted " << FormatP(p.p_adjusted) << ".\n";
+  }
+}
+
+}  // namespace
+
+std::string OverallSentence(const FactorAnalysis& f, double alpha) {
+  if (!f.overall) return "";
+  const OverallTest& t = *f.overall;
+  std::ostringstream o;
+  const std::string levels = std::to_string(f.levels.size()) + " levels of " + f.name;
+  if (t.method == "cochran_q") {
+    o << "Cochran's Q test of equal positive rates across the " << levels << " (within sets, "
+      << Count(t.informative_sets, "informative set", "informative sets") << ") " << Verb(t.p(), alpha)
+      << " equality at alpha " << Fmt(alpha) << ": Q = " << Fmt(t.statistic) << " on " << t.df << " df, "
+      << (t.p_exact ? "exact permutation " : "chi-square ") << PEquals(t.p());
+    if (t.p_exact) o << " (chi-square " << PEquals(t.p_asymptotic) << ")";
+  } else {
+    o << "The test of equal positive rates across the " << levels << " (k x 2 table of probes) " << Verb(t.p(), alpha)
+      << " equality at alpha " << Fmt(alpha) << ": " << (t.p_exact ? "Freeman-Halton exact " : "Pearson chi-square ")
+      << PEquals(t.p()) << "; Pearson X^2 = " << Fmt(t.statistic) << " on " << t.df << " df, " << PEquals(t.p_asymptotic);
+  }
+  o << ".";
+  return o.str();
+}
+
+std::string TrendSentence(const FactorAnalysis& f, double alpha, double confidence) {
+  const TrendResult& t = f.trend;
+  if (!t.present) return "";
+  std::ostringstream o;
+  std::string scores;
+  for (size_t i = 0; i < t.scores.size(); ++i) scores += (i ? ", " : "") + Fmt(t.scores[i]);
+  if (!t.defined) return "The trend test across " + f.name + " (scores " + scores + ") is not defined: " + t.note + ".";
+  if (t.method == "cochran_armitage") {
+    o << "The Cochran-Armitage test for a linear trend across " << f.name << " (scores " << scores << "), two-sided, "
+      << Verb(t.p, alpha) << " the hypothesis of no linear trend at alpha " << Fmt(alpha) << ": X^2 = " << Fmt(t.statistic) << " on 1 df, " << PEquals(t.p) << "; rates "
+      << (t.z >= 0 ? "rise" : "fall") << " with the score.";
+  } else {
+    o << "The conditional logistic regression slope across " << f.name << " (scores " << scores
+      << "; likelihood-ratio test, two-sided) " << Verb(t.p, alpha) << " the hypothesis of no linear trend at alpha "
+      << Fmt(alpha) << ": odds ratio per score unit "
+      << Fmt(t.odds_ratio) << ", " << Percent(confidence) << " profile CI " << FmtCi(t.ci) << ", LR X^2 = "
+      << Fmt(t.statistic) << " on 1 df, " << PEquals(t.p) << ".";
+  }
+  return o.str();
+}
+
+std::string EffectTestSentence(const EffectTest& t, double alpha) {
+  if (!t.estimable) return t.name + ": not estimable by the conditional model (" + t.note + ").";
+  std::ostringstream o;
+  o << t.name << ": the likelihood-ratio test " << Verb(t.p, alpha) << " the hypothesis of no effect at alpha " << Fmt(alpha)
+    << ": X^2 = " << Fmt(t.statistic) << " on " << t.df << " df, " << PEquals(t.p) << ".";
+  return o.str();
+}
+
+std::string RenderKLevelText(const AnalysisResult& r) {
+  const KLevelAnalysis& k = r.k_levels;
+  if (!k.present) return "";
+  std::ostringstream o;
+  for (const FactorAnalysis& f : k.factors) {
+    o << "\nFactor " << f.name << " (" << (f.within ? "varied within sets" : "varied between vacancies or unpaired")
+      << "), positive callback by level:\n";
+    for (const LevelRate& l : f.levels) {
+      char line[160];
+      std::snprintf(line, sizeof line, "  %-20s %6lld / %-6lld %7s\n", l.level.c_str(), static_cast<long long>(l.positive),
+                    static_cast<long long>(l.probes), FormatPercent(l.rate).c_str());
+      o << line;
+    }
+    if (const std::string s = OverallSentence(f, r.alpha); !s.empty()) o << Wrap(s, "  ");
+    if (!f.pairwise.empty()) {
+      o << "  Every pair of levels (" << (f.within ? "exact McNemar on the sets holding both" : "Fisher's exact test")
+        << "; p adjusted by " << r.effects.correction << " over the " << Count(static_cast<int64_t>(f.pairwise.size()), "pair", "pairs")
+        << "):\n";
+      for (const LevelPair& p : f.pairwise) PairText(o, p, f.name, r.confidence);
+    }
+    if (const std::string s = TrendSentence(f, r.alpha, r.confidence); !s.empty()) o << Wrap(s, "  ");
+  }
+  const TwoFactorModel& m = k.model;
+  if (m.present) {
+    o << "\nTwo factors: conditional logistic regression on the sets (exact conditional likelihood, "
+      << Count(m.sets, "informative set", "informative sets") << "):\n";
+    if (!m.failure.empty()) {
+      o << "  the model could not be fitted: " << m.failure << ".\n";
+      return o.str();
+    }
+    for (const EffectTest& t : m.tests) o << Wrap(EffectTestSentence(t, r.alpha), "  ");
+    for (const ModelTerm& t : m.terms)
+      o << "  odds ratio " << t.name << " = " << Fmt(t.odds_ratio) << ", " << Percent(r.confidence) << " profile CI "
+        << FmtCi(t.ci) << " (Wald " << PEquals(t.p_wald) << ")\n";
+  }
+  return o.str();
+}
+
+nlohmann::json KLevelJson(const KLevelAnalysis& k) {
+  nlohmann::json j;
+  j["present"] = k.present;
+  j["factors"] = nlohmann::json::array();
+  for (const FactorAnalysis& f : k.factors) {
+    nlohmann::json fj{{"name", f.name}, {"vary", f.within ? "within" : "between"}};
+    fj["levels"] = nlohmann::json::array();
+    for (const LevelRate& l : f.levels)
+      fj["levels"].push_back({{"level", l.level}, {"probes", l.probes}, {"positive", l.positive}, {"rate", JsonNumber(l.rate)}});
+    if (f.overall) {
+      const OverallTest& t = *f.overall;
+      fj["overall"] = {{"test", t.method == "cochran_q" ? "Cochran's Q" : "Pearson chi-square on the k x 2 table"},
+                       {"statistic", JsonNumber(t.statistic)},
+                       {"df", t.df},
+                       {"p_asymptotic", JsonNumber(t.p_asymptotic)},
+                       {"p_exact", t.p_exact ? JsonNumber(*t.p_exact) : nlohmann::json(nullptr)},
+                       {"exact_test", t.method == "cochran_q" ? "permutation within sets" : "Freeman-Halton"},
+                       {"p", JsonNumber(t.p())}};
+      if (t.method == "cochran_q") {
+        fj["overall"]["sets"] = t.sets;
+        fj["overall"]["informative_sets"] = t.informative_sets;
+      } else {
+        fj["overall"]["min_expected"] = JsonNumber(t.min_expected);
+      }
+    }
+    fj["pairwise"] = nlohmann::json::array();
+    for (const LevelPair& p : f.pairwise) {
+      nlohmann::json pj{{"first", p.first},           {"second", p.second},
+                        {"rate_first", JsonNumber(p.rate_first)}, {"rate_second", JsonNumber(p.rate_second)},
+                        {"difference", JsonNumber(p.difference)}, {"test", p.paired ? "exact McNemar" : "Fisher exact"},
+                        {"p", JsonNumber(p.p)},           {"p_adjusted", JsonNumber(p.p_adjusted)}};
+      if (p.paired) {
+        pj["table"] = {{"a", p.pairs.a}, {"b", p.pairs.b}, {"c", p.pairs.c}, {"d", p.pairs.d}, {"n", p.pairs.n()}};
+        pj["net_discrimination_among_positive"] = {{"estimate", JsonNumber(p.net.among_positive.estimate)},
+                                                   {"conf_int", Ci(p.net.among_positive.ci)}};
+        pj["paired_difference"] = {{"estimate", JsonNumber(p.net.over_all.estimate)}, {"conf_int", Ci(p.net.over_all.ci)}};
+        pj["conditional_odds_ratio"] = {{"estimate", JsonNumber(p.conditional_or.estimate)},
+                                        {"conf_int", Ci(p.conditional_or.ci)}};
+      }
+      fj["pairwise"].push_back(pj);
+    }
+    if (f.trend.present) {
+      const TrendResult& t = f.trend;
+      fj["trend"] = {{"test", t.method == "cochran_armitage" ? "Cochran-Armitage" : "conditional logistic slope"},
+                     {"scores", t.scores},
+                     {"defined", t.defined},
+                     {"statistic", JsonNumber(t.statistic)},
+                     {"df", 1},
+                     {"p", JsonNumber(t.p)}};
+      if (t.method == "cochran_armitage") fj["trend"]["z"] = JsonNumber(t.z);
+      else {
+        fj["trend"]["slope"] = JsonNumber(t.slope);
+        fj["trend"]["odds_ratio_per_unit"] = JsonNumber(t.odds_ratio);
+        fj["trend"]["conf_int"] = Ci(t.ci);
+      }
+      if (!t.note.empty()) fj["trend"]["note"] = t.note;
+    }
+    j["factors"].push_back(fj);
+  }
+  if (k.model.present) {
+    nlohmann::json mj{{"method", "conditional logistic regression (exact conditional likelihood)"},
+                      {"informative_sets", k.model.sets}};
+    if (!k.model.failure.empty()) mj["failure"] = k.model.failure;
+    mj["tests"] = nlohmann::json::array();
+    for (const EffectTest& t : k.model.tests) {
+      nlohmann::json tj{{"effect", t.name}, {"estimable", t.estimable}};
+      if (t.estimable) {
+        tj["lr_statistic"] = JsonNumber(t.statistic);
+        tj["df"] = t.df;
+        tj["p"] = JsonNumber(t.p);
+      } else {
+        tj["note"] = t.note;
+      }
+      mj["tests"].push_back(tj);
+    }
+    mj["terms"] = nlohmann::json::array();
+    for (const ModelTerm& t : k.model.terms)
+      mj["terms"].push_back({{"term", t.name},
+                             {"coefficient", JsonNumber(t.coefficient)},
+                             {"standard_error", JsonNumber(t.standard_error)},
+                             {"odds_ratio", JsonNumber(t.odds_ratio)},
+                             {"conf_int", Ci(t.ci)},
+                             {"p_wald", JsonNumber(t.p_wald)}});
+    j["two_factor_model"] = mj;
+  }
+  return j;
+}
+
+}  // namespace twinprobe
