@@ -41,5 +41,9 @@ std::optional<CorrectionMethod> ParseCorrectionMethod(std::string_view text) {
   return Parse(kCorrectionMethodNames, text);
 }
 std::string_view CorrectionMethodName(CorrectionMethod method) { return Name(kCorrectionMethodNames, method); }
+std::optional<MergePreference> ParseMergePreference(std::string_view text) {
+  return Parse(kMergePreferenceNames, text);
+}
+std::string_view MergePreferenceName(MergePreference prefer) { return Name(kMergePreferenceNames, prefer); }
 
 }  // namespace twinprobe

@@ -63,6 +63,13 @@ inline constexpr std::pair<CorrectionMethod, std::string_view> kCorrectionMethod
     {CorrectionMethod::kBY, "by"},
 };
 
+// merge_choice.prefer: which store's current response a conflict kept.
+enum class MergePreference { kMain, kOffice };
+inline constexpr std::pair<MergePreference, std::string_view> kMergePreferenceNames[] = {
+    {MergePreference::kMain, "main"},      // the main store's, restated after the office's
+    {MergePreference::kOffice, "office"},  // the merged office's
+};
+
 std::optional<DesignKind> ParseDesignKind(std::string_view text);
 std::string_view DesignKindName(DesignKind kind);
 std::optional<PlanOrigin> ParsePlanOrigin(std::string_view text);
@@ -75,5 +82,7 @@ std::optional<ReviewDecision> ParseReviewDecision(std::string_view text);
 std::string_view ReviewDecisionName(ReviewDecision decision);
 std::optional<CorrectionMethod> ParseCorrectionMethod(std::string_view text);
 std::string_view CorrectionMethodName(CorrectionMethod method);
+std::optional<MergePreference> ParseMergePreference(std::string_view text);
+std::string_view MergePreferenceName(MergePreference prefer);
 
 }  // namespace twinprobe
