@@ -63,12 +63,12 @@ nlohmann::json HistoryJson(const std::vector<PlacedResponse>& history) {
   return out;
 }
 
-void PrintHistory(const std::string& label, const std::vector<PlacedResponse>& history) {
-  std::cout << "    " << ForTerminal(label) << ":\n";
+void PrintHistory(const std::string& indent, const std::string& label, const std::vector<PlacedResponse>& history) {
+  std::cout << indent << "    " << ForTerminal(label) << ":\n";
   for (const PlacedResponse& e : history) {
     char line[64];
     std::snprintf(line, sizeof line, "      response %-5lld ", static_cast<long long>(e.id));
-    std::cout << line << ForTerminal(e.code) << ", received " << (e.received_at.empty() ? "(time unknown)" : e.received_at)
+    std::cout << indent << line << ForTerminal(e.code) << ", received " << (e.received_at.empty() ? "(time unknown)" : e.received_at)
               << ", entered by " << ForTerminal(e.entered_by) << " at " << e.entered_at;
     if (e.place != label) std::cout << " (from " << ForTerminal(e.place) << ")";
     if (e.current) std::cout << " — current";
@@ -86,14 +86,15 @@ nlohmann::json ConflictsJson(const std::vector<MergeConflict>& conflicts) {
   return out;
 }
 
-void PrintConflicts(const std::string& title, const std::vector<MergeConflict>& conflicts) {
-  std::cout << title << "\n";
+// `indent` sets the list in when it belongs to an office's merge.
+void PrintConflicts(const std::string& indent, const std::string& title, const std::vector<MergeConflict>& conflicts) {
+  std::cout << indent << title << "\n";
   for (const MergeConflict& c : conflicts) {
-    std::cout << "  " << ForTerminal(c.histories.probe_ref) << ": main has "
+    std::cout << indent << "  " << ForTerminal(c.histories.probe_ref) << ": main has "
               << ForTerminal(c.histories.main_current->code) << ", office " << ForTerminal(c.office) << " has "
               << ForTerminal(c.histories.office_current->code) << "\n";
-    PrintHistory("main", c.histories.main);
-    PrintHistory(c.office, c.histories.office);
+    PrintHistory(indent, "main", c.histories.main);
+    PrintHistory(indent, c.office, c.histories.office);
   }
 }
 
@@ -105,7 +106,7 @@ int RunMerge(Context& ctx, const std::vector<std::string>& folders, const std::s
   const MergeOutcome& m = r.value();
   if (!m.conflicts.empty()) {
     if (ctx.json) std::cout << nlohmann::json{{"merged", false}, {"conflicts", ConflictsJson(m.conflicts)}}.dump(2) << "\n";
-    else PrintConflicts("Conflicts (different current responses in two places):", m.conflicts);
+    else PrintConflicts("", "Conflicts (different current responses in two places):", m.conflicts);
     return ReportError(BadInput(
         "merge",
         Count(static_cast<int64_t>(m.conflicts.size()), "probe has", "probes have") +
@@ -144,7 +145,7 @@ int RunMerge(Context& ctx, const std::vector<std::string>& folders, const std::s
               << Count(o.counts.mail_messages, "mail message", "mail messages") << ", "
               << Count(o.counts.review_decisions, "review decision", "review decisions") << ".\n";
     if (!o.resolved.empty())
-      PrintConflicts("  Conflicts decided by --prefer " + ForTerminal(prefer) + " (sealed):", o.resolved);
+      PrintConflicts("  ", "Conflicts decided by --prefer " + ForTerminal(prefer) + " (sealed):", o.resolved);
   }
   return 0;
 }

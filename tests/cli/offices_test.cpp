@@ -242,9 +242,17 @@ TEST_CASE("offices: different answers in two places stop the merge until --prefe
   CHECK(unknown.err == "twinprobe: --prefer: 'upland' is neither 'main' nor an office being merged — use one of: main, "
                        "north-fen\n");
 
-  auto kept = Run(o.main, {"merge", o.folders[0], "--prefer", "main"});
+  auto kept = Run(o.main, {"--json", "merge", o.folders[0], "--prefer", "main"});
   INFO(kept.err);
   REQUIRE(kept.exit_code == 0);
+  auto j = nlohmann::json::parse(kept.out);
+  CHECK(j["merged"] == true);
+  CHECK(j["offices"][0]["office"] == "north-fen");
+  CHECK(j["offices"][0]["choices"] == 1);
+  CHECK(j["offices"][0]["resolved"][0]["probe"] == probes[0]);
+  CHECK(j["offices"][0]["resolved"][0]["main"][0]["code"] == "invitation");
+  CHECK(j["offices"][0]["resolved"][0]["office_history"][0]["entered_by"] == "nina");
+  CHECK(j["audit_head"] == testing::HeadLine(o.main).substr(12, 64));
   CHECK(CurrentCode(o.main, probes[0]) == "invitation");
   CHECK(Count(o.main, "SELECT count(*) FROM response") == 3);  // main's, the office's, main's restated
   CHECK(Count(o.main, "SELECT count(*) FROM merge_choice WHERE prefer = 'main'") == 1);
