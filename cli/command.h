@@ -47,6 +47,7 @@ void RegisterMonitor(CLI::App& app, Context& ctx);          // monitor_cmd.cpp
 void RegisterCalcCommands(CLI::App& app, Context& ctx);     // calc binom|mcnemar|...|emd (calc_cmd.cpp)
 void RegisterDemo(CLI::App& app, Context& ctx);             // demo_cmd.cpp
 void RegisterEthicsCommands(CLI::App& app, Context& ctx);   // decline, purge (ethics_cmds.cpp)
+void RegisterOfficeCommands(CLI::App& app, Context& ctx);   // handout, merge, status (office_cmds.cpp)
 
 // The parts of the `import` and `calc` groups that live beside related
 // commands; only RegisterImportCommands and RegisterCalcCommands call them.

@@ -24,6 +24,7 @@ constexpr Registrar kCommandGroups[] = {
     &RegisterFreeze,           // freeze
     &RegisterPower,            // power
     &RegisterRender,           // render
+    &RegisterOfficeCommands,   // handout, merge, status
     &RegisterSchedule,         // schedule
     &RegisterCollectCommands,  // sent, record
     &RegisterImportCommands,   // import outcomes|pairs|ranks|labels

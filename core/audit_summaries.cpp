@@ -61,4 +61,24 @@ std::string ImportSendingsSummary(std::string_view path, int64_t rows_landed, in
          std::to_string(rows_rejected) + " rejected";
 }
 
+std::string HandoutSummary(std::string_view office, int64_t vacancies, int64_t probes, std::string_view office_head) {
+  return "handout to office " + std::string(office) + ": " + std::to_string(vacancies) + " vacancies, " +
+         std::to_string(probes) + " probes (office head " + std::string(office_head.substr(0, 16)) + ")";
+}
+
+std::string OfficeHandoutSummary(std::string_view office, std::string_view plan_hash, int64_t vacancies,
+                                 int64_t probes) {
+  return "handout of plan " + std::string(plan_hash.substr(0, 16)) + " to office " + std::string(office) + ": " +
+         std::to_string(vacancies) + " vacancies, " + std::to_string(probes) + " probes";
+}
+
+std::string MergeSummary(std::string_view office, int64_t head_seq, std::string_view head_hash,
+                         const MergedRowCounts& c) {
+  return "merge office " + std::string(office) + " up to its entry " + std::to_string(head_seq) + " (head " +
+         std::string(head_hash.substr(0, 16)) + "): sendings " + std::to_string(c.sendings) + ", responses " +
+         std::to_string(c.responses) + ", declines " + std::to_string(c.declines) + ", mail messages " +
+         std::to_string(c.mail_messages) + ", review decisions " + std::to_string(c.review_decisions) +
+         ", conflict choices " + std::to_string(c.choices);
+}
+
 }  // namespace twinprobe

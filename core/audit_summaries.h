@@ -47,4 +47,25 @@ std::string MonitorLookSummary(int64_t look, std::string_view kind, int64_t sets
 // `import sendings`: "import sendings log.csv: 12 rows landed, 1 rejected".
 std::string ImportSendingsSummary(std::string_view path, int64_t rows_landed, int64_t rows_rejected);
 
+// `handout` in the main store: "handout to office north-fen: 136 vacancies,
+// 272 probes (office head 0123456789abcdef)"; the head is the office chain's
+// first, shortened to 16 hex digits (the sealed handout row keeps it whole).
+std::string HandoutSummary(std::string_view office, int64_t vacancies, int64_t probes, std::string_view office_head);
+
+// `handout`, the first entry of an office's store: "handout of plan
+// 0123456789abcdef to office north-fen: 136 vacancies, 272 probes".
+std::string OfficeHandoutSummary(std::string_view office, std::string_view plan_hash, int64_t vacancies,
+                                 int64_t probes);
+
+// What one merge brought in from an office (rows of each kind).
+struct MergedRowCounts {
+  int64_t sendings = 0, responses = 0, declines = 0, mail_messages = 0, review_decisions = 0, choices = 0;
+};
+
+// `merge`: "merge office north-fen up to its entry 41 (head
+// 0123456789abcdef): sendings 12, responses 30, declines 1, mail messages 0,
+// review decisions 0, conflict choices 1".
+std::string MergeSummary(std::string_view office, int64_t head_seq, std::string_view head_hash,
+                         const MergedRowCounts& counts);
+
 }  // namespace twinprobe

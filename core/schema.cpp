@@ -417,6 +417,68 @@ CREATE TABLE level_design(
 CREATE INDEX level_design_seq ON level_design(audit_seq);
 )SQL";
 
+// Version 12: several field offices, one study (collector/handout.h,
+// collector/merge.h). The main store seals each handout (the office, the
+// office chain's first head, and its vacancies: a vacancy is handed out once,
+// so handout_vacancy's key is the vacancy). The office store seals where it
+// came from (office_origin). Each merge seals the office chain's head it
+// brought in (office_merge), which office row every merged row came from
+// (merged_row: a later merge adds only rows the office wrote after that head,
+// and maps an office's response ids to the main store's), and every choice
+// made on a conflict (merge_choice).
+constexpr const char* kMigration12Offices = R"SQL(
+CREATE TABLE handout(
+  id INTEGER PRIMARY KEY,
+  office TEXT NOT NULL UNIQUE,
+  folder TEXT NOT NULL,
+  plan_id INTEGER NOT NULL REFERENCES plan(id),
+  plan_hash TEXT NOT NULL,                -- hash of the audit entry that wrote the plan
+  office_head TEXT NOT NULL,              -- the office chain's head after its handout entry
+  handed_at TEXT NOT NULL,
+  audit_seq INTEGER NOT NULL);
+CREATE TABLE handout_vacancy(
+  vacancy_id INTEGER PRIMARY KEY REFERENCES vacancy(id),  -- handed out once
+  handout_id INTEGER NOT NULL REFERENCES handout(id),
+  audit_seq INTEGER NOT NULL);
+CREATE TABLE office_origin(
+  id INTEGER PRIMARY KEY,
+  office TEXT NOT NULL,
+  study_id TEXT NOT NULL,
+  plan_hash TEXT NOT NULL,
+  main_head TEXT NOT NULL,                -- the main chain's head when it was handed out
+  handed_at TEXT NOT NULL,
+  audit_seq INTEGER NOT NULL);
+CREATE TABLE office_merge(
+  id INTEGER PRIMARY KEY,
+  office TEXT NOT NULL,
+  office_head TEXT NOT NULL,              -- the office chain's head that was merged
+  office_head_seq INTEGER NOT NULL,
+  audit_seq INTEGER NOT NULL);
+CREATE TABLE merged_row(
+  id INTEGER PRIMARY KEY,
+  office TEXT NOT NULL,
+  tbl TEXT NOT NULL,                      -- sending | response | decline | mail_message | review_decision
+  office_row INTEGER NOT NULL,
+  main_row INTEGER NOT NULL,
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX merged_row_main ON merged_row(tbl, main_row);
+CREATE INDEX merged_row_office ON merged_row(office, tbl, office_row);
+CREATE TABLE merge_choice(
+  id INTEGER PRIMARY KEY,
+  office TEXT NOT NULL,
+  probe_id INTEGER NOT NULL REFERENCES probe(id),
+  prefer TEXT NOT NULL,                   -- main | office
+  main_response INTEGER REFERENCES response(id),
+  office_response INTEGER REFERENCES response(id),
+  audit_seq INTEGER NOT NULL);
+CREATE INDEX handout_seq ON handout(audit_seq);
+CREATE INDEX handout_vacancy_seq ON handout_vacancy(audit_seq);
+CREATE INDEX office_origin_seq ON office_origin(audit_seq);
+CREATE INDEX office_merge_seq ON office_merge(audit_seq);
+CREATE INDEX merged_row_seq ON merged_row(audit_seq);
+CREATE INDEX merge_choice_seq ON merge_choice(audit_seq);
+)SQL";
+
 struct Migration {
   int version;
   const char* sql;
@@ -433,6 +495,8 @@ const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigrat
                                  {13, kMigration13ExcerptSeal}};
                                {5, kMigration5DeskPassphrase}, {6, kMigration6},
                                {11, kMigration11}};
+                               {5, kMigration5DeskPassphrase}, {6, kMigration6},
+                               {12, kMigration12Offices}};
 
 // sqlite_master without SQLite's own objects (sqlite_autoindex_* follow from
 // the tables' SQL, which is compared; sqlite_stat* only guide the planner).
@@ -502,6 +566,8 @@ const std::vector<SealedTable>& SealedTables() {
       {"mail_excerpt_seal", {}},
       {"factor_design", {}},
       {"level_design", {}},
+      {"handout", {}},       {"handout_vacancy", {}}, {"office_origin", {}}, {"office_merge", {}},
+      {"merged_row", {}},    {"merge_choice", {}},
   };
   return tables;
 }

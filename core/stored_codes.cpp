@@ -43,5 +43,9 @@ std::optional<CorrectionMethod> ParseCorrectionMethod(std::string_view text) {
 std::string_view CorrectionMethodName(CorrectionMethod method) { return Name(kCorrectionMethodNames, method); }
 std::optional<FactorVary> ParseFactorVary(std::string_view text) { return Parse(kFactorVaryNames, text); }
 std::string_view FactorVaryName(FactorVary vary) { return Name(kFactorVaryNames, vary); }
+std::optional<MergePreference> ParseMergePreference(std::string_view text) {
+  return Parse(kMergePreferenceNames, text);
+}
+std::string_view MergePreferenceName(MergePreference prefer) { return Name(kMergePreferenceNames, prefer); }
 
 }  // namespace twinprobe

@@ -71,6 +71,13 @@ inline constexpr std::pair<FactorVary, std::string_view> kFactorVaryNames[] = {
     {FactorVary::kBetween, "between"},
 };
 
+// merge_choice.prefer: which store's current response a conflict kept.
+enum class MergePreference { kMain, kOffice };
+inline constexpr std::pair<MergePreference, std::string_view> kMergePreferenceNames[] = {
+    {MergePreference::kMain, "main"},      // the main store's, restated after the office's
+    {MergePreference::kOffice, "office"},  // the merged office's
+};
+
 std::optional<DesignKind> ParseDesignKind(std::string_view text);
 std::string_view DesignKindName(DesignKind kind);
 std::optional<PlanOrigin> ParsePlanOrigin(std::string_view text);
@@ -85,5 +92,7 @@ std::optional<CorrectionMethod> ParseCorrectionMethod(std::string_view text);
 std::string_view CorrectionMethodName(CorrectionMethod method);
 std::optional<FactorVary> ParseFactorVary(std::string_view text);
 std::string_view FactorVaryName(FactorVary vary);
+std::optional<MergePreference> ParseMergePreference(std::string_view text);
+std::string_view MergePreferenceName(MergePreference prefer);
 
 }  // namespace twinprobe

@@ -17,6 +17,7 @@ namespace {
 // rows cannot make the summary (e.g. a response of no probe).
 struct SummaryRule {
   const char* command;
+  const char* needs_table;  // a table the query reads that older schema versions lack; nullptr: none
   const char* sql;
   std::optional<std::string> (*rebuild)(const Stmt& q);
   int since_version = 1;  // the schema version that made its table (an older store has no such entries)
@@ -26,7 +27,7 @@ struct SummaryRule {
 int64_t IntOr0(const Stmt& q, int col) { return q.IsNull(col) ? 0 : q.Int(col); }
 
 constexpr SummaryRule kRules[] = {
-    {"record", R"SQL(
+    {"record", nullptr, R"SQL(
 SELECT a.seq, a.at, a.actor, a.summary,
   (SELECT count(*) FROM response x WHERE x.audit_seq = a.seq) = 1, p.ref, r.code, r.flags, r.supersedes
 FROM audit a
@@ -37,7 +38,7 @@ WHERE a.command = 'record' ORDER BY a.seq)SQL",
        if (q.IsNull(5)) return std::nullopt;
        return RecordSummary(q.Text(5), q.Text(6), !q.IsNull(7) && q.Text(7) == "late", IntOr0(q, 8));
      }},
-    {"sent", R"SQL(
+    {"sent", nullptr, R"SQL(
 SELECT a.seq, a.at, a.actor, a.summary,
   (SELECT count(*) FROM sending x WHERE x.audit_seq = a.seq) = 1, p.ref, s.sent_at,
   (SELECT e.sent_at FROM sending e WHERE e.probe_id = s.probe_id AND e.id < s.id ORDER BY e.id DESC LIMIT 1)
@@ -49,7 +50,7 @@ WHERE a.command = 'sent' ORDER BY a.seq)SQL",
        if (q.IsNull(5)) return std::nullopt;
        return SentSummary(q.Text(5), q.Text(6), q.IsNull(7) ? "" : q.Text(7));
      }},
-    {"decline", R"SQL(
+    {"decline", nullptr, R"SQL(
 SELECT a.seq, a.at, a.actor, a.summary,
   (SELECT count(*) FROM decline x WHERE x.audit_seq = a.seq) = 1, p.ref, d.declined_at
 FROM audit a
@@ -74,7 +75,7 @@ WHERE a.command = 'withdraw' ORDER BY a.seq)SQL",
      7},
     // A review either dismissed its message and recorded no response, or
     // recorded exactly the one response its decision names.
-    {"review", R"SQL(
+    {"review", nullptr, R"SQL(
 SELECT a.seq, a.at, a.actor, a.summary,
   (SELECT count(*) FROM review_decision x WHERE x.audit_seq = a.seq) = 1, d.mail_message_id, d.decision,
   d.response_id IS NULL, (SELECT count(*) FROM response x WHERE x.audit_seq = a.seq),
@@ -90,7 +91,7 @@ WHERE a.command = 'review' ORDER BY a.seq)SQL",
        if (responses != 1 || !q.Int(9) || q.IsNull(11)) return std::nullopt;
        return ReviewRecordedSummary(q.Int(5), q.Text(6), q.Text(10), q.Text(11), IntOr0(q, 12));
      }},
-    {"import outcomes", R"SQL(
+    {"import outcomes", nullptr, R"SQL(
 SELECT a.seq, a.at, a.actor, a.summary,
   (SELECT count(*) FROM import_file x WHERE x.audit_seq = a.seq AND x.kind = 'outcomes') = 1, f.path,
   (SELECT count(*) FROM response r WHERE r.audit_seq = a.seq), f.rows_rejected
@@ -124,6 +125,58 @@ WHERE a.command = 'import sendings' ORDER BY a.seq)SQL",
      [](const Stmt& q) -> std::optional<std::string> {
        return ImportSendingsSummary(q.Text(5), q.Int(6), q.Int(7));
      }},
+    // A handout writes one entry in each store: the main store's seals a
+    // handout row with its vacancies, the office's first entry an
+    // office_origin row with the plan's rows.
+    {"handout", "handout", R"SQL(
+SELECT a.seq, a.at, a.actor, a.summary,
+  (SELECT count(*) FROM handout x WHERE x.audit_seq = a.seq) +
+    (SELECT count(*) FROM office_origin x WHERE x.audit_seq = a.seq) = 1,
+  h.id IS NOT NULL, h.office, (SELECT count(*) FROM handout_vacancy x WHERE x.handout_id = h.id AND x.audit_seq = a.seq),
+  (SELECT count(*) FROM probe p JOIN handout_vacancy v ON v.vacancy_id = p.vacancy_id
+     WHERE v.handout_id = h.id AND p.plan_id = h.plan_id), h.office_head,
+  o.office, o.plan_hash, (SELECT count(*) FROM vacancy x WHERE x.audit_seq = a.seq),
+  (SELECT count(*) FROM probe x WHERE x.audit_seq = a.seq)
+FROM audit a
+LEFT JOIN handout h ON h.id = (SELECT max(x.id) FROM handout x WHERE x.audit_seq = a.seq)
+LEFT JOIN office_origin o ON o.id = (SELECT max(x.id) FROM office_origin x WHERE x.audit_seq = a.seq)
+WHERE a.command = 'handout' ORDER BY a.seq)SQL",
+     [](const Stmt& q) -> std::optional<std::string> {
+       if (q.Int(5)) return HandoutSummary(q.Text(6), q.Int(7), q.Int(8), q.Text(9));
+       if (q.IsNull(10)) return std::nullopt;
+       return OfficeHandoutSummary(q.Text(10), q.Text(11), q.Int(12), q.Int(13));
+     }},
+    // A merge's counts come from merged_row, and the rows it sealed must be
+    // exactly those: every sending and decline one merged row, every response
+    // one merged row or one restatement of a choice for the main store.
+    {"merge", "office_merge", R"SQL(
+SELECT a.seq, a.at, a.actor, a.summary,
+  (SELECT count(*) FROM office_merge x WHERE x.audit_seq = a.seq) = 1, m.office, m.office_head_seq, m.office_head,
+  (SELECT count(*) FROM merged_row x WHERE x.audit_seq = a.seq AND x.tbl = 'sending'),
+  (SELECT count(*) FROM merged_row x WHERE x.audit_seq = a.seq AND x.tbl = 'response'),
+  (SELECT count(*) FROM merged_row x WHERE x.audit_seq = a.seq AND x.tbl = 'decline'),
+  (SELECT count(*) FROM merged_row x WHERE x.audit_seq = a.seq AND x.tbl = 'mail_message'),
+  (SELECT count(*) FROM merged_row x WHERE x.audit_seq = a.seq AND x.tbl = 'review_decision'),
+  (SELECT count(*) FROM merge_choice x WHERE x.audit_seq = a.seq),
+  (SELECT count(*) FROM sending x WHERE x.audit_seq = a.seq),
+  (SELECT count(*) FROM decline x WHERE x.audit_seq = a.seq),
+  (SELECT count(*) FROM response x WHERE x.audit_seq = a.seq),
+  (SELECT count(*) FROM merge_choice x WHERE x.audit_seq = a.seq AND x.prefer = 'main')
+FROM audit a
+LEFT JOIN office_merge m ON m.id = (SELECT max(x.id) FROM office_merge x WHERE x.audit_seq = a.seq)
+WHERE a.command = 'merge' ORDER BY a.seq)SQL",
+     [](const Stmt& q) -> std::optional<std::string> {
+       MergedRowCounts c;
+       c.sendings = q.Int(8);
+       c.responses = q.Int(9);
+       c.declines = q.Int(10);
+       c.mail_messages = q.Int(11);
+       c.review_decisions = q.Int(12);
+       c.choices = q.Int(13);
+       if (q.Int(14) != c.sendings || q.Int(15) != c.declines || q.Int(16) != c.responses + q.Int(17))
+         return std::nullopt;
+       return MergeSummary(q.Text(5), q.Int(6), q.Text(7), c);
+     }},
 };
 
 }  // namespace
@@ -134,6 +187,11 @@ std::vector<AuditProblem> CheckSummaries(Store& store) {
   for (const SummaryRule& rule : kRules) {
     if (store.schema_version() < rule.since_version) continue;
     if (version < rule.since_version) continue;
+    if (rule.needs_table) {
+      Stmt has = store.Prepare("SELECT count(*) FROM sqlite_master WHERE type = 'table' AND name = ?1");
+      has.Bind(1, rule.needs_table);
+      if (!has.Step() || has.Int(0) == 0) continue;  // a store of an older version: no such entries
+    }
     Stmt q = store.Prepare(rule.sql);
     while (q.Step()) {
       const std::string stored = q.Text(3);

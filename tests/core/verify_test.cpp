@@ -18,9 +18,17 @@ TEST_CASE("verify: a freshly migrated store has exactly the reference schema") {
             "the store holds an index 'mail_excerpt_seal_seq' on mail_excerpt_seal that twinprobe does not create",
             "the store holds an index 'factor_design_seq' on factor_design that twinprobe does not create",
             "the store holds an index 'level_design_seq' on level_design that twinprobe does not create",
+            "the store holds an index 'handout_seq' on handout that twinprobe does not create",
+            "the store holds an index 'handout_vacancy_seq' on handout_vacancy that twinprobe does not create",
             "the store holds an index 'material_file_probe' on material_file that twinprobe does not create",
             "the store holds an index 'material_file_seq' on material_file that twinprobe does not create",
             "the store holds an index 'monitor_look_seq' on monitor_look that twinprobe does not create",
+            "the store holds an index 'merge_choice_seq' on merge_choice that twinprobe does not create",
+            "the store holds an index 'merged_row_main' on merged_row that twinprobe does not create",
+            "the store holds an index 'merged_row_office' on merged_row that twinprobe does not create",
+            "the store holds an index 'merged_row_seq' on merged_row that twinprobe does not create",
+            "the store holds an index 'office_merge_seq' on office_merge that twinprobe does not create",
+            "the store holds an index 'office_origin_seq' on office_origin that twinprobe does not create",
             "the store holds an index 'response_supersedes' on response that twinprobe does not create",
             "the store holds an index 'withdrawal_seq' on withdrawal that twinprobe does not create",
             "the store holds an index 'withdrawal_vacancy' on withdrawal that twinprobe does not create",
@@ -36,6 +44,13 @@ TEST_CASE("verify: a freshly migrated store has exactly the reference schema") {
             "the store holds a table 'factor_design' that twinprobe does not create",
             "the store holds a table 'level_design' that twinprobe does not create",
             "the store holds a table 'material_file' that twinprobe does not create"});
+            "the store holds a table 'handout' that twinprobe does not create",
+            "the store holds a table 'handout_vacancy' that twinprobe does not create",
+            "the store holds a table 'material_file' that twinprobe does not create",
+            "the store holds a table 'merge_choice' that twinprobe does not create",
+            "the store holds a table 'merged_row' that twinprobe does not create",
+            "the store holds a table 'office_merge' that twinprobe does not create",
+            "the store holds a table 'office_origin' that twinprobe does not create"});
 }
 
 TEST_CASE("verify: a trigger added to a table is named with its table") {

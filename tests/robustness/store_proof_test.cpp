@@ -299,6 +299,11 @@ TEST_CASE("issue 23: a store of an older schema version verifies against that ve
   // version 11 factor_design and level_design, each with its indexes.
   st.Sql("DROP TABLE level_design; DROP TABLE factor_design; DROP TABLE material_file; DROP TABLE desk_passphrase; "
          "DROP INDEX response_supersedes; PRAGMA user_version = 3");
+  // version 5 the table desk_passphrase, version 6 material_file and
+  // version 12 the offices' tables, each with its indexes.
+  st.Sql("DROP TABLE material_file; DROP TABLE desk_passphrase; DROP INDEX response_supersedes; "
+         "DROP TABLE merge_choice; DROP TABLE merged_row; DROP TABLE office_merge; DROP TABLE office_origin; "
+         "DROP TABLE handout_vacancy; DROP TABLE handout; PRAGMA user_version = 3");
   auto j = st.VerifyJson();
   INFO(j.dump(2));
   CHECK(j["ok"] == true);
