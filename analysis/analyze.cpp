@@ -161,13 +161,11 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   r.employers = paired ? SummariseEmployers(f.employers) : EmployerOutcomes{};
   if (r.kind == "sets") r.employer_sets = SummariseEmployerSets(f.employers, f.arms.size());
   TestByEmployer(r.employers, static_cast<uint64_t>(f.seed.value_or(0)), r.mcnemar_exact_p, r.alpha);
-  r.balance = ComputeBalance(f);
-  r.preregistration = CheckPreregistration(reading.freeze, stored, f, current_design, plan, reading.monitor_looks);
-  if (r.has_paired) r.early_stop = ComputeEarlyStop(reading.monitor_looks);
   // Records were not assigned to groups by a plan: there is no design
   // balance to check.
   if (!r.records) r.balance = ComputeBalance(f);
-  r.preregistration = CheckPreregistration(reading.freeze, stored, f, current_design, plan);
+  r.preregistration = CheckPreregistration(reading.freeze, stored, f, current_design, plan, reading.monitor_looks);
+  if (r.has_paired) r.early_stop = ComputeEarlyStop(reading.monitor_looks);
   return r;
 }
 

@@ -7,7 +7,6 @@
 #include "core/audit.h"
 #include "core/audit_summaries.h"
 #include "core/clock.h"
-#include "core/clock.h"
 #include "core/echoed_value.h"
 #include "core/response_records.h"
 #include "core/sending_records.h"
@@ -142,13 +141,11 @@ Result<SendingRecord> AddSending(Store& store, const SendingEntry& e, int early_
                     "use mail, phone, letter or other");
   std::string text = e.sent_at.empty() ? at : e.sent_at;
   auto t = ParseEventTime(text);
-  if (!t) return BadInput("", "'" + text + "' is not a date or time", kTimeFormat);
+  if (!t) return BadInput(where, "'" + text + "' " + WhyNotATime(text, "is not a date or time"), kTimeFormat);
   if (auto w = WithdrawalOfProbe(store, probe_id); w && LastSentAt(store, probe_id).empty())
-    return BadInput("", probe_ref + " belongs to vacancy " + w->vacancy_ref + ", withdrawn at " + w->withdrawn_at +
+    return BadInput(where, e.probe_ref + " belongs to vacancy " + w->vacancy_ref + ", withdrawn at " + w->withdrawn_at +
                             " (" + w->reason + "), so it is not to be sent",
                     "send only what 'twinprobe schedule' lists; a withdrawn vacancy's unsent applications are left out");
-  if (!t) return BadInput(where, "'" + text + "' is not a date or time", kTimeFormat);
-  if (!t) return BadInput("", "'" + text + "' " + WhyNotATime(text, "is not a date or time"), kTimeFormat);
   SendingRecord out;
   out.probe_ref = e.probe_ref;
   out.sent_at = t->text();

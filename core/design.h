@@ -31,16 +31,15 @@ struct Factor {
   std::string vary = "within";
   std::string label;                          // display name; "" = name
   std::map<std::string, std::string> labels;  // level -> display label
-  std::vector<double> scores;                 // one per level (ordered levels), or empty
+  // Ordered levels: one number per level in `levels` order (e.g. ages 28,
+  // 45, 58), for the trend test; empty when the levels are not ordered.
+  std::vector<double> scores;
 
   bool is_between() const { return vary == "between"; }
   // The level's display label, else the level itself.
   std::string LevelLabel(const std::string& level) const;
   // The factor's display label, else its name.
   std::string DisplayName() const { return label.empty() ? name : label; }
-  // Ordered levels: one number per level in `levels` order (e.g. ages 28,
-  // 45, 58), for the trend test; empty when the levels are not ordered.
-  std::vector<double> scores;
 };
 
 // One combination of levels, e.g. {origin: "coastal"}. label is

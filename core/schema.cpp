@@ -486,17 +486,8 @@ struct Migration {
 
 const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigration3}, {4, kMigration4},
                                {5, kMigration5DeskPassphrase}, {6, kMigration6},
-                               {7, kMigration7Withdrawal}};
-                               {5, kMigration5DeskPassphrase}, {6, kMigration6},
-                               {8, kMigration8MonitorLook}};
-                               {5, kMigration5DeskPassphrase}, {6, kMigration6},
-                               {9, kMigration9SendingDetail}};
-                               {5, kMigration5DeskPassphrase}, {6, kMigration6},
-                                 {13, kMigration13ExcerptSeal}};
-                               {5, kMigration5DeskPassphrase}, {6, kMigration6},
-                               {11, kMigration11}};
-                               {5, kMigration5DeskPassphrase}, {6, kMigration6},
-                               {12, kMigration12Offices}};
+                               {7, kMigration7Withdrawal}, {8, kMigration8MonitorLook}, {9, kMigration9SendingDetail},
+                               {11, kMigration11}, {12, kMigration12Offices}, {13, kMigration13ExcerptSeal}};
 
 // sqlite_master without SQLite's own objects (sqlite_autoindex_* follow from
 // the tables' SQL, which is compared; sqlite_stat* only guide the planner).

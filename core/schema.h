@@ -9,12 +9,7 @@ namespace twinprobe {
 
 class Store;
 
-constexpr int kSchemaVersion = 7;  // bump together with a new migration
-constexpr int kSchemaVersion = 8;  // bump together with a new migration
-constexpr int kSchemaVersion = 9;  // bump together with a new migration
 constexpr int kSchemaVersion = 13;  // bump together with a new migration
-constexpr int kSchemaVersion = 11;  // bump together with a new migration
-constexpr int kSchemaVersion = 12;  // bump together with a new migration
 
 // Applies every migration above the store's user_version in one write
 // transaction (BEGIN IMMEDIATE) that re-reads the version once it holds the

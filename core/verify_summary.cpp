@@ -20,8 +20,6 @@ struct SummaryRule {
   const char* needs_table;  // a table the query reads that older schema versions lack; nullptr: none
   const char* sql;
   std::optional<std::string> (*rebuild)(const Stmt& q);
-  int since_version = 1;  // the schema version that made its table (an older store has no such entries)
-  int since_version = 1;  // the schema version that made the rule's tables (verify reads older stores unmigrated)
 };
 
 int64_t IntOr0(const Stmt& q, int col) { return q.IsNull(col) ? 0 : q.Int(col); }
@@ -61,18 +59,6 @@ WHERE a.command = 'decline' ORDER BY a.seq)SQL",
        if (q.IsNull(5)) return std::nullopt;
        return DeclineSummary(q.Text(5), q.Text(6));
      }},
-    {"withdraw", R"SQL(
-SELECT a.seq, a.at, a.actor, a.summary,
-  (SELECT count(*) FROM withdrawal x WHERE x.audit_seq = a.seq) = 1, v.ref, w.withdrawn_at, w.reason
-FROM audit a
-LEFT JOIN withdrawal w ON w.id = (SELECT max(x.id) FROM withdrawal x WHERE x.audit_seq = a.seq)
-LEFT JOIN vacancy v ON v.id = w.vacancy_id
-WHERE a.command = 'withdraw' ORDER BY a.seq)SQL",
-     [](const Stmt& q) -> std::optional<std::string> {
-       if (q.IsNull(5)) return std::nullopt;
-       return WithdrawSummary(q.Text(5), q.Text(6), q.Text(7));
-     },
-     7},
     // A review either dismissed its message and recorded no response, or
     // recorded exactly the one response its decision names.
     {"review", nullptr, R"SQL(
@@ -101,8 +87,18 @@ WHERE a.command = 'import outcomes' ORDER BY a.seq)SQL",
      [](const Stmt& q) -> std::optional<std::string> {
        return ImportOutcomesSummary(q.Text(5), q.Int(6), q.Int(7));
      }},
-    // `monitor` seals one look per entry (core/monitor_looks.h).
-    {"monitor", R"SQL(
+    {"withdraw", "withdrawal", R"SQL(
+SELECT a.seq, a.at, a.actor, a.summary,
+  (SELECT count(*) FROM withdrawal x WHERE x.audit_seq = a.seq) = 1, v.ref, w.withdrawn_at, w.reason
+FROM audit a
+LEFT JOIN withdrawal w ON w.id = (SELECT max(x.id) FROM withdrawal x WHERE x.audit_seq = a.seq)
+LEFT JOIN vacancy v ON v.id = w.vacancy_id
+WHERE a.command = 'withdraw' ORDER BY a.seq)SQL",
+     [](const Stmt& q) -> std::optional<std::string> {
+       if (q.IsNull(5)) return std::nullopt;
+       return WithdrawSummary(q.Text(5), q.Text(6), q.Text(7));
+     }},
+    {"monitor", "monitor_look", R"SQL(
 SELECT a.seq, a.at, a.actor, a.summary,
   (SELECT count(*) FROM monitor_look x WHERE x.audit_seq = a.seq) = 1, m.look, m.kind, m.sets, m.planned_sets,
   m.reference_only, m.other_only, m.lower, m.alpha_spent, m.decision
@@ -113,9 +109,8 @@ WHERE a.command = 'monitor' ORDER BY a.seq)SQL",
        if (q.IsNull(5)) return std::nullopt;
        return MonitorLookSummary(q.Int(5), q.Text(6), q.Int(7), q.Int(8), q.Int(9), q.Int(10), q.Int(11),
                                  q.Double(12), q.Text(13));
-     },
-     8},
-    {"import sendings", R"SQL(
+     }},
+    {"import sendings", "sending_detail", R"SQL(
 SELECT a.seq, a.at, a.actor, a.summary,
   (SELECT count(*) FROM import_file x WHERE x.audit_seq = a.seq AND x.kind = 'sendings') = 1, f.path,
   (SELECT count(*) FROM sending s WHERE s.audit_seq = a.seq), f.rows_rejected
@@ -183,10 +178,7 @@ WHERE a.command = 'merge' ORDER BY a.seq)SQL",
 
 std::vector<AuditProblem> CheckSummaries(Store& store) {
   std::vector<AuditProblem> out;
-  const int version = store.schema_version();
   for (const SummaryRule& rule : kRules) {
-    if (store.schema_version() < rule.since_version) continue;
-    if (version < rule.since_version) continue;
     if (rule.needs_table) {
       Stmt has = store.Prepare("SELECT count(*) FROM sqlite_master WHERE type = 'table' AND name = ?1");
       has.Bind(1, rule.needs_table);

@@ -73,7 +73,6 @@ class DesignReader : public TomlErrorSink {
   void ReadFactorFields(const toml::table& t, const Design& d, Factor& f);
   void ReadFactorDisplay(const toml::table& t, Factor& f);
   void CheckSetGroups(Design& d);
-  void ReadFactorScores(const toml::table& t, Factor& f);
   void ReadPool(const toml::table& t, Design& d);
   void CheckPattern(const toml::table& p, const std::string& key, const std::string& pattern);
   void ReadArms(Design& d);
@@ -245,39 +244,8 @@ void DesignReader::ReadFactors(Design& d) {
       if (g.name == f.name) Fail(t.get("name"), "factor '" + f.name + "' is declared twice", "rename or remove one");
     ReadFactorFields(t, d, f);
     ReadFactorDisplay(t, f);
-    ReadFactorScores(t, f);
     d.factors.push_back(f);
   }
-}
-
-// scores = [28, 45, 58]: one number per level, strictly increasing or
-// decreasing in `levels` order, marking the levels as ordered (the trend
-// test of analysis/k_level.h).
-void DesignReader::ReadFactorScores(const toml::table& t, Factor& f) {
-  const toml::node* n = t.get("scores");
-  if (!n || error_) return;
-  const toml::array* arr = n->as_array();
-  const std::string fix = "write one number per level, in the order of levels, e.g. scores = [28, 45, 58]";
-  if (!arr || arr->size() != f.levels.size()) {
-    Fail(n, "factor '" + f.name + "' has " + std::to_string(f.levels.size()) + " levels, so scores needs " +
-                std::to_string(f.levels.size()) + " numbers",
-         fix);
-    return;
-  }
-  for (const auto& el : *arr) {
-    const auto v = el.value<double>();
-    if (!v || !std::isfinite(*v)) {
-      Fail(&el, "a score of factor '" + f.name + "' is not a number", fix);
-      return;
-    }
-    f.scores.push_back(*v);
-  }
-  bool up = true, down = true;
-  for (size_t i = 1; i < f.scores.size(); ++i) {
-    up = up && f.scores[i] > f.scores[i - 1];
-    down = down && f.scores[i] < f.scores[i - 1];
-  }
-  if (!up && !down) Fail(n, "the scores of factor '" + f.name + "' are not in order", "list them increasing or decreasing, as the levels are ordered");
 }
 
 // fields = { birth_year = ["2003", "1979"] }: one text per level.
@@ -929,7 +897,6 @@ const std::vector<DesignSectionKeys>& KnownDesignKeys() {
         "ethics", "source", "mail", "team"}},
       {"[study]", {"id", "title", "seed", "kind"}},
       {"[[factor]]", {"name", "levels", "reference", "fields", "vary", "label", "labels", "scores"}},
-      {"[[factor]]", {"name", "levels", "reference", "fields", "scores"}},
       {"[arms]", {"include", "list"}},
       {"[profiles]", {"mailbox", "phone", "pool"}},
       {"[[profiles.pool]]", {"factor", "level", "levels", "file"}},

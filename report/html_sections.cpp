@@ -41,7 +41,6 @@ const std::vector<HtmlSection>& HtmlSections() {
       {"stages", "Hiring stages", &HasStages, {&StagesFunnel}},
       {"levels", "Every level compared", &HasKLevels, {&LevelTests, &LevelPairs, &TwoFactorTable}},
       {"adjusted", "Adjusted for template and send position", &HasAdjusted, {&AdjustedTable}},
-      {"strata", "Results within each stratum", &HasStrata, {&StrataForest, &StrataTables, &AcrossStrataTable}},
       {"responses", "What came back, and how fast", &HasFindings, {&ResponseCodes, &ResponseTimesChart}},
       {"employers", "Employers (by pseudonym)", &HasEmployers, {&EmployerTable}},
       {"employers-sets", "Employers (by pseudonym)", &HasEmployerSets, {&EmployerSetsTable}},

@@ -24,7 +24,6 @@ Design PairDesign() {
   Design d;
   d.study_id = "veldmark-clerks";
   d.factors = {Factor{"origin", {"inland", "coastal"}, "inland", {}, {}, "within", "", {}, {}}};
-  d.factors = {Factor{"origin", {"inland", "coastal"}, "inland", {}, {}, {}}};
   d.arms = {Arm{"origin=inland", {{"origin", "inland"}}, true}, Arm{"origin=coastal", {{"origin", "coastal"}}, false}};
   return d;
 }
