@@ -12,6 +12,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include <filesystem>
 #include <map>
 #include <regex>
 #include <sstream>
@@ -30,13 +31,14 @@ using twinprobe::testing::WriteFile;
 
 const char* kFieldworkClock = "TWINPROBE_NOW=2027-03-05T12:00:00Z";
 
-// The tour's command lines: the `twinprobe …` lines of the ```sh blocks
-// between "## A short tour" and the next "## " heading, comments cut.
+// The tour's command lines: the `twinprobe …` and `mkdir …` lines of the
+// ```sh blocks between "## A short tour" and the next "## " heading,
+// comments cut, a line ending in " \" joined with the next.
 std::vector<std::string> TourLines(const std::string& readme) {
   std::vector<std::string> out;
   std::istringstream in(readme);
   std::string line;
-  bool in_tour = false, in_block = false;
+  bool in_tour = false, in_block = false, continued = false;
   while (std::getline(in, line)) {
     if (line.rfind("## ", 0) == 0) in_tour = line == "## A short tour";
     if (!in_tour) continue;
@@ -44,10 +46,19 @@ std::vector<std::string> TourLines(const std::string& readme) {
       in_block = !in_block && line == "```sh";
       continue;
     }
-    if (!in_block || line.rfind("twinprobe ", 0) != 0) continue;
+    if (!in_block) continue;
     if (const size_t hash = line.find(" #"); hash != std::string::npos) line.erase(hash);
     while (!line.empty() && line.back() == ' ') line.pop_back();
-    out.push_back(line);
+    if (continued) {  // the line before ended in " \\": this one goes on with it
+      const size_t text = line.find_first_not_of(' ');
+      out.back() += " " + (text == std::string::npos ? std::string() : line.substr(text));
+    } else if (line.rfind("twinprobe ", 0) == 0 || line.rfind("mkdir ", 0) == 0) {
+      out.push_back(line);
+    } else {
+      continue;
+    }
+    continued = out.back().size() >= 2 && out.back().compare(out.back().size() - 2, 2, " \\") == 0;
+    if (continued) out.back().erase(out.back().size() - 2);
   }
   return out;
 }
@@ -114,6 +125,21 @@ std::string Applications() {
          "T-005,inland,0,clerk,Orlinde\nT-005,coastal,1,clerk,Orlinde\n";
 }
 
+// An invented applicant file as an HR department keeps it, under its own
+// column names: 24 applications in three requisitions.
+std::string Applicants() {
+  std::string csv = "applicant,req_id,gender,invited\n";
+  const char* rows[] = {"R-101,woman,yes", "R-101,woman,no", "R-101,man,yes", "R-101,man,yes",
+                        "R-101,woman,no",  "R-101,man,no",   "R-102,woman,yes", "R-102,man,yes",
+                        "R-102,man,no",    "R-102,woman,no", "R-102,man,yes",   "R-102,woman,no",
+                        "R-103,woman,yes", "R-103,man,no",   "R-103,man,yes",   "R-103,woman,no",
+                        "R-103,woman,yes", "R-103,man,yes",  "R-103,man,no",    "R-103,woman,no",
+                        "R-101,man,yes",   "R-102,woman,yes", "R-103,man,yes",  "R-101,woman,no"};
+  int n = 0;
+  for (const char* row : rows) csv += "A" + std::to_string(++n) + "," + row + "\n";
+  return csv;
+}
+
 }  // namespace
 
 TEST_CASE("readme tour: every command of the short tour runs as written, in order") {
@@ -123,10 +149,14 @@ TEST_CASE("readme tour: every command of the short tour runs as written, in orde
   REQUIRE(lines.size() >= 20);
   twinprobe::testing::TempDir dir;
   std::string first_sent;  // the probe of the tour's first `sent` line
-  std::map<std::string, std::string> printed;  // command word -> what it printed last
+  std::map<std::string, std::string> printed;  // "STUDY COMMAND" -> what it printed last
   for (const auto& line : lines) {
     INFO("$ " << line);
     auto words = Words(line);
+    if (words.front() == "mkdir") {
+      std::filesystem::create_directories(dir / words.at(1));
+      continue;
+    }
     words.erase(words.begin());  // "twinprobe"
     const std::string study = StudyOf(words);
     for (size_t i = 0; i + 1 < words.size(); ++i)
@@ -138,6 +168,8 @@ TEST_CASE("readme tour: every command of the short tour runs as written, in orde
     if (Has(words, "responses.csv"))
       WriteFile(dir / "responses.csv", "probe,code,received_at,channel\nP00002,rejection,2027-03-04T10:00,mail\n");
     if (Has(words, "applications.csv")) WriteFile(dir / "applications.csv", Applications());
+    if (Has(words, "applicants.csv")) WriteFile(dir / "applicants.csv", Applicants());
+    if (Has(words, "sendings.csv")) WriteFile(dir / "sendings.csv", "probe,sent_at,channel,by\nP00002,2027-03-01T10:05,mail,Ada Moss\n");
     std::string clock = kFieldworkClock;
     if (Has(words, "purge") && !Has(words, "--dry-run")) {
       std::vector<std::string> dry = {"--study", study, "--json", "purge", "--dry-run"};
@@ -153,14 +185,15 @@ TEST_CASE("readme tour: every command of the short tour runs as written, in orde
     CHECK_FALSE(r.out.empty());
     for (const auto& w : words)
       if (w.rfind("-", 0) != 0 && w != study) {
-        printed[w] = r.out;  // the first word that is neither an option nor the folder: the command
+        printed[study + " " + w] = r.out;  // the study and the command (the first word that is neither)
         break;
       }
   }
   // What the tour promises along the way.
-  CHECK(printed["sent"].rfind("Marked " + first_sent + " as sent at 2027-03-01T09:14:00Z.\n", 0) == 0);
-  CHECK(printed["mail"].find("Matched to a probe (1)") != std::string::npos);
-  CHECK(printed["analyze"].find("Flow of the study:") != std::string::npos);
-  CHECK(printed["verify"].rfind("The audit chain is intact", 0) == 0);
-  CHECK(printed["purge"].rfind("Purged: ", 0) == 0);
+  CHECK(printed["my-study sent"].rfind("Marked " + first_sent + " as sent at 2027-03-01T09:14:00Z.\n", 0) == 0);
+  CHECK(printed["my-study mail"].find("Matched to a probe (1)") != std::string::npos);
+  CHECK(printed["my-study analyze"].find("Flow of the study:") != std::string::npos);
+  CHECK(printed["my-study verify"].rfind("The audit chain is intact", 0) == 0);
+  CHECK(printed["my-study purge"].rfind("Purged: ", 0) == 0);
+  CHECK(printed["hr-audit analyze"].find("applications") != std::string::npos);
 }

@@ -242,14 +242,14 @@ TEST_CASE("issue 24: a listing audit's store (ranked lists, no plan) exports its
 
 TEST_CASE("issue 16: export states each probe by the one closed rule: open, late, withdrawn") {
   testing::PlannedStudy s;
-  const std::vector<std::string> now = {"TWINPROBE_NOW=2027-03-10T12:00:00Z"};
+  const std::vector<std::string> now = {"TWINPROBE_NOW=2027-04-19T12:00:00Z"};
   // P00001 sent, no answer yet (open); P00003 answered after its window
   // (late, closed); P00005's vacancy withdrawn; P00007 answered in time.
   for (const char* p : {"P00001", "P00003", "P00007"})
-    REQUIRE(RunCli({"--study", s.path, "sent", p, "--at", "2027-01-20T09:00"}, now).exit_code == 0);
-  REQUIRE(RunCli({"--study", s.path, "sent", "P00001", "--at", "2027-03-01T09:00"}, now).exit_code == 0);
-  REQUIRE(RunCli({"--study", s.path, "record", "P00003", "invitation", "--at", "2027-03-01"}, now).exit_code == 0);
-  REQUIRE(RunCli({"--study", s.path, "record", "P00007", "rejection", "--at", "2027-01-25"}, now).exit_code == 0);
+    REQUIRE(RunCli({"--study", s.path, "sent", p, "--at", "2027-03-01T09:00"}, now).exit_code == 0);
+  REQUIRE(RunCli({"--study", s.path, "sent", "P00001", "--at", "2027-04-10T09:00"}, now).exit_code == 0);
+  REQUIRE(RunCli({"--study", s.path, "record", "P00003", "invitation", "--at", "2027-04-10"}, now).exit_code == 0);
+  REQUIRE(RunCli({"--study", s.path, "record", "P00007", "rejection", "--at", "2027-03-06"}, now).exit_code == 0);
   std::string vacancy;
   {
     auto store = s.Open();
@@ -269,8 +269,8 @@ TEST_CASE("issue 16: export states each probe by the one closed rule: open, late
   REQUIRE(state < h.size());
   std::map<std::string, std::pair<std::string, std::string>> by_probe;  // probe -> (late, state)
   for (const auto& row : probes.value().rows) by_probe[row.fields[0]] = {row.fields[late], row.fields[state]};
-  // The window runs from the first sending (20 January), so P00001's
-  // second sending does not reopen it: 28 days end on 17 February.
+  // The window runs from the first sending (1 March), so P00001's
+  // second sending does not reopen it: 28 days end on 29 March.
   CHECK(by_probe["P00001"] == std::pair<std::string, std::string>{"", "closed"});
   CHECK(by_probe["P00003"] == std::pair<std::string, std::string>{"1", "closed"});
   CHECK(by_probe["P00005"] == std::pair<std::string, std::string>{"", "withdrawn"});
@@ -278,13 +278,13 @@ TEST_CASE("issue 16: export states each probe by the one closed rule: open, late
   CHECK(by_probe["P00009"] == std::pair<std::string, std::string>{"", "not_sent"});
 
   // Earlier in the season the same probes are open.
-  auto early = RunCli({"--study", s.path, "export", "--out", s.dir / "y"}, {"TWINPROBE_NOW=2027-02-01T00:00:00Z"});
+  auto early = RunCli({"--study", s.path, "export", "--out", s.dir / "y"}, {"TWINPROBE_NOW=2027-03-13T00:00:00Z"});
   REQUIRE(early.exit_code == 0);
   auto again = ReadCsvFile(s.dir / "y/probes.csv");
   REQUIRE(again.ok());
   for (const auto& row : again.value().rows) by_probe[row.fields[0]] = {row.fields[late], row.fields[state]};
   CHECK(by_probe["P00001"] == std::pair<std::string, std::string>{"", "open"});
-  // The answer of 1 March has not come at this clock, but the store holds it:
+  // The answer of 10 April has not come at this clock, but the store holds it:
   // it is late whatever the clock, and closes nothing before the window ends.
   CHECK(by_probe["P00003"] == std::pair<std::string, std::string>{"1", "open"});
   CHECK(by_probe["P00007"] == std::pair<std::string, std::string>{"0", "closed"});
