@@ -330,6 +330,13 @@ TEST_CASE("field season: a 200-vacancy paired study through time agrees with the
   for (const auto& d : replanned["preregistration"]["deviations"]) kinds.insert(d["kind"].get<std::string>());
   CHECK(kinds.count("design_edited") == 1);
   CHECK(kinds.count("plan_from_other_design") == 1);
+  // The cut vacancy list is a deviation of its own, named by its file (the
+  // freeze records every input of the analysis).
+  bool vacancy_file_listed = false;
+  for (const auto& d : replanned["preregistration"]["deviations"])
+    if (d.contains("file") && d["file"].is_string() && d["file"].get<std::string>() == "vacancies.csv")
+      vacancy_file_listed = true;
+  CHECK(vacancy_file_listed);
 
   // The ledger: sets 0-149 sent in full (the reference on day i/10 of
   // March, the other a day later), 150-159 only the reference, 160-199
