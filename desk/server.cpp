@@ -1,5 +1,8 @@
 #include "desk/server.h"
 
+#include <chrono>
+#include <thread>
+
 #include <httplib.h>
 
 #include <iostream>
@@ -119,6 +122,11 @@ Result<std::unique_ptr<DeskServer>> DeskServer::Bind(Desk& desk, const ServeOpti
 
 void DeskServer::Run() { impl_->server->listen_after_bind(); }
 
-void DeskServer::Stop() { impl_->server->stop(); }
+void DeskServer::Stop() {
+  // cpp-httplib's stop() does nothing until listen_after_bind() has set the
+  // server running, so a stop asked for in that moment would be lost.
+  while (!impl_->server->is_running()) std::this_thread::sleep_for(std::chrono::milliseconds(5));
+  impl_->server->stop();
+}
 
 }  // namespace twinprobe

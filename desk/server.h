@@ -30,6 +30,9 @@ class DeskServer {
   std::string url() const;
   // Serves until Stop() (from any thread).
   void Run();
+  // Stops a running server; a signal that comes before Run() has started
+  // listening would be lost (the server is not running yet), so Stop waits
+  // for it to be running first.
   void Stop();
 
  private:
