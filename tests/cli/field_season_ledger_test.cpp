@@ -385,9 +385,14 @@ TEST_CASE("field season: a 200-vacancy paired study through time agrees with the
   season.CheckAnalysis(sets, mid, reference, true);
   const Expected at_mid = Tally(sets, mid, reference);
   CHECK(at_mid.sets_open > 0);  // the point of a mid-fieldwork look
-  auto monitor = nlohmann::json::parse(season.Cli({"--json", "monitor"}, mid).out);
+  // An unplanned look mid-season is stored and sealed with the alpha it spent.
+  auto monitor = nlohmann::json::parse(season.Cli({"--json", "monitor", "--look-now"}, mid).out);
   CHECK(monitor["completed_sets"] == at_mid.sets_analysed);
   CHECK(monitor["planned_sets"] == at_mid.sets_analysed + at_mid.sets_open + at_mid.sets_incomplete);
+  CHECK(monitor["new_looks"] == 1);
+  REQUIRE(monitor["looks"].size() == 1);
+  CHECK(monitor["looks"][0]["kind"] == "unplanned");
+  const double alpha_mid = monitor["looks"][0]["alpha_spent"].get<double>();
 
   // The end: the late answers have come, every window is over.
   const int64_t end = At("2027-06-01T12:00:00Z");
@@ -396,8 +401,15 @@ TEST_CASE("field season: a 200-vacancy paired study through time agrees with the
   const Expected at_end = Tally(sets, end, reference);
   CHECK(at_end.sets_open == 0);
   CHECK(at_end.responses_late == 15);  // sets 5, 15, …, 155 less the withdrawn 155
-  monitor = nlohmann::json::parse(season.Cli({"--json", "monitor"}, end).out);
+  // The look at the end keeps the stored one as it was and spends only
+  // what it left (the alpha carried, not spent afresh).
+  monitor = nlohmann::json::parse(season.Cli({"--json", "monitor", "--look-now"}, end).out);
   CHECK(monitor["completed_sets"] == at_end.sets_analysed);
+  REQUIRE(monitor["looks"].size() == 2);
+  CHECK(monitor["looks"][0]["taken_before"] == true);
+  CHECK(monitor["looks"][0]["alpha_spent"].get<double>() == alpha_mid);
+  CHECK(monitor["looks"][1]["alpha_spent"].get<double>() >= alpha_mid);
+  CHECK(season.Cli({"verify"}, end).out.rfind("The audit chain is intact", 0) == 0);
 }
 
 TEST_CASE("field season: a 3-arm sets study through time agrees with the script's ledger") {
