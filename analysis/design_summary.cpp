@@ -1,5 +1,7 @@
 #include "analysis/design_summary.h"
 
+#include "core/factor_signal.h"
+
 #include <set>
 
 namespace twinprobe {
@@ -13,7 +15,9 @@ DesignSummary SummariseDesign(const Fieldwork& f, const StoredDesign& stored) {
   d.plan_created_at = f.plan_created_at;
   if (stored.has_window) d.window_days = stored.scheme.window_days;
   d.strata_columns = stored.strata_columns;
-  for (const auto& sf : stored.factors) d.factors.push_back({sf.name, sf.levels, sf.reference});
+  for (const auto& sf : stored.factors)
+    d.factors.push_back({sf.name, sf.levels, sf.reference, DescribeSignal(sf.signal), sf.between, sf.label,
+                         sf.level_labels});
   for (const auto& a : f.arms) {
     auto it = stored.profiles_by_arm.find(a.id);
     d.arms.push_back({a.label, a.is_reference, it == stored.profiles_by_arm.end() ? 0 : it->second, a.probes_planned});

@@ -17,6 +17,10 @@ struct DesignFactorSummary {
   std::string name;
   std::vector<std::string> levels;  // in the order they were declared
   std::string reference;            // the reference level ("" when none is marked)
+  std::string signal;               // how its levels show in the applications, in words (DescribeSignal)
+  bool between = false;             // varied between vacancies (each vacancy one level)
+  std::string label;                // display label of the factor ("" = its name)
+  std::vector<std::string> level_labels;  // per level ("" = the level itself)
 };
 
 struct DesignArmSummary {

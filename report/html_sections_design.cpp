@@ -30,9 +30,19 @@ std::string Plain(double v) {
 
 std::string DesignFactors(const AnalysisResult& r, const ReportContext&) {
   const auto& d = r.design;
+  // How each factor showed in the applications, from the design the plan
+  // stored (a name pool keyed by it, template fields it sets).
+  std::string signal;
+  if (d.factors.size() == 1 && !d.factors.front().signal.empty()) {
+    signal = "signalled by " + d.factors.front().signal;
+  } else {
+    for (const auto& x : d.factors)
+      if (!x.signal.empty()) signal += (signal.empty() ? "signalled by " : "; ") + x.signal + " (" + x.name + ")";
+  }
+  if (signal.empty()) signal = "signalled by the applicant's name and contact details";
   std::string o = html::Para(
       "A factor is the protected attribute under test; its levels are the groups compared. The applications in a set "
-      "differed only in the factor's level, signalled by the applicant's name and contact details." +
+      "differed only in the factor's level, " + signal + "." +
       std::string(r.plan_origin == "plan" && d.templates.size() > 1
                        ? " The CV templates were rotated so that each group used each template equally often."
                        : ""));
@@ -41,7 +51,18 @@ std::string DesignFactors(const AnalysisResult& r, const ReportContext&) {
     HtmlTable f;
     f.caption = "Factors";
     f.headers = {"Factor", "Levels", "Reference level"};
-    for (const auto& x : d.factors) f.rows.push_back({HeadCell(x.name), Cell(Joined(x.levels)), Cell(x.reference)});
+    for (const auto& x : d.factors) {
+      // A level with a display label reads "28 (aged 28)"; a factor varied
+      // between vacancies says so after its name.
+      std::vector<std::string> levels;
+      for (size_t i = 0; i < x.levels.size(); ++i)
+        levels.push_back(i < x.level_labels.size() && !x.level_labels[i].empty()
+                             ? x.levels[i] + " (" + x.level_labels[i] + ")"
+                             : x.levels[i]);
+      const std::string name = (x.label.empty() ? x.name : x.label + " (" + x.name + ")") +
+                               (x.between ? ", between vacancies" : "");
+      f.rows.push_back({HeadCell(name), Cell(Joined(levels)), Cell(x.reference)});
+    }
     o += RenderTable(f);
   }
   if (!d.arms.empty()) {

@@ -76,3 +76,20 @@ TEST_CASE("cli designs: check and freeze refuse looks that monitor could not wat
   }
   CHECK_FALSE(std::filesystem::exists(s.study + "/study.db"));
 }
+
+TEST_CASE("cli designs: the report describes each factor's signal and labels from the design") {
+  AgeStudyFolder s;
+  REQUIRE(RunCli({"--study", s.study, "plan"}).exit_code == 0);
+  const std::string out = s.study + "/reports/report.html";
+  auto r = RunCli({"--study", s.study, "report", "--out", out});
+  INFO(r.err);
+  REQUIRE(r.exit_code == 0);
+  const std::string html = testing::ReadFile(out);
+  // Age shows through the template's years, gender through the name pools
+  // (the signal the design states), not always "the applicant's name".
+  CHECK(html.find("signalled by the template fields birth_year and graduation_year (age); the applicant&#39;s name "
+                  "and contact details (gender)") != std::string::npos);
+  CHECK(html.find("28 (aged 28), 45 (aged 45), 58 (aged 58)") != std::string::npos);
+  CHECK(html.find("age (years) (age)") != std::string::npos);
+  CHECK(html.find("gender, between vacancies") != std::string::npos);
+}

@@ -45,7 +45,7 @@ AnalysisResult HostileResult() {
   r.design.has_seed = true;
   r.design.seed = 7;
   r.design.window_days = 28;
-  r.design.factors = {{"origin<u>", {"<b>inland</b>", "coastal"}, "<b>inland</b>"}};
+  r.design.factors = {{"origin<u>", {"<b>inland</b>", "coastal"}, "<b>inland</b>", "", false, "", {}}};
   r.design.arms = {{kRef, true, 3, 10}, {kOther, false, 3, 10}};
   r.design.strata_columns = {"occupation<br>"};
   r.design.strata = {{"occupation<br>", kStratum, 4}, {"occupation<br>", "clerk", 6}};
