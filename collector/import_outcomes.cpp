@@ -29,16 +29,10 @@ Result<ImportSummary> ImportOutcomes(Store& store, const OutcomeScheme& scheme, 
   if (!header_result.ok()) return header_result.error();
   const std::vector<std::string> header = std::move(header_result).value();
   ImportSummary summary;
-  for (const char* required : {"probe", "code", "received_at"}) {
-    if (FindColumn(header, required) >= 0) continue;
-    std::vector<std::string> unknown;
-    for (const auto& h : header)
-      if (FindColumn(kKnownColumns, h) < 0) unknown.push_back(h);
-    return BadInput(path + ":1", std::string("the column '") + required + "' is missing" + DidYouMean(required, unknown),
-                    "an outcomes file has the columns probe,code,received_at and optionally channel,note");
-  }
-  for (const auto& h : header)
-    if (FindColumn(kKnownColumns, h) < 0 && !IsRejectColumn(h)) summary.ignored_columns.push_back(h);
+  auto ignored = CheckImportColumns(path, header, kKnownColumns, {"probe", "code", "received_at"},
+                                    "an outcomes file has the columns probe,code,received_at and optionally channel,note");
+  if (!ignored.ok()) return ignored.error();
+  summary.ignored_columns = std::move(ignored).value();
   const int c_probe = FindColumn(header, "probe"), c_code = FindColumn(header, "code"),
             c_at = FindColumn(header, "received_at"), c_channel = FindColumn(header, "channel"),
             c_note = FindColumn(header, "note");

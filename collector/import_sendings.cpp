@@ -31,16 +31,10 @@ Result<SendingsImportSummary> ImportSendings(Store& store, const std::string& pa
   if (!header_result.ok()) return header_result.error();
   const std::vector<std::string> header = std::move(header_result).value();
   SendingsImportSummary summary;
-  for (const char* required : {"probe", "sent_at"}) {
-    if (FindColumn(header, required) >= 0) continue;
-    std::vector<std::string> unknown;
-    for (const auto& h : header)
-      if (FindColumn(kKnownColumns, h) < 0) unknown.push_back(h);
-    return BadInput(path + ":1", std::string("the column '") + required + "' is missing" + DidYouMean(required, unknown),
-                    "a sendings file has the columns probe,sent_at and optionally channel,by");
-  }
-  for (const auto& h : header)
-    if (FindColumn(kKnownColumns, h) < 0 && !IsRejectColumn(h)) summary.ignored_columns.push_back(h);
+  auto ignored = CheckImportColumns(path, header, kKnownColumns, {"probe", "sent_at"},
+                                    "a sendings file has the columns probe,sent_at and optionally channel,by");
+  if (!ignored.ok()) return ignored.error();
+  summary.ignored_columns = std::move(ignored).value();
   const int c_probe = FindColumn(header, "probe"), c_at = FindColumn(header, "sent_at"),
             c_channel = FindColumn(header, "channel"), c_by = FindColumn(header, "by");
 

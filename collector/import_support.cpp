@@ -5,6 +5,7 @@
 #include "core/csv.h"
 #include "core/input_file.h"
 #include "core/sha256.h"
+#include "core/suggest.h"
 #include "core/spreadsheet_cell.h"
 
 namespace twinprobe {
@@ -30,6 +31,22 @@ int64_t FileSize(const std::string& path) {
 }
 
 bool IsRejectColumn(const std::string& column) { return column.rfind("reject_", 0) == 0; }
+
+Result<std::vector<std::string>> CheckImportColumns(const std::string& path, const std::vector<std::string>& header,
+                                                    const std::vector<std::string>& known,
+                                                    const std::vector<std::string>& required,
+                                                    const std::string& columns_fix) {
+  std::vector<std::string> unknown;
+  for (const auto& h : header)
+    if (FindColumn(known, h) < 0) unknown.push_back(h);
+  for (const auto& column : required)
+    if (FindColumn(header, column) < 0)
+      return BadInput(path + ":1", "the column '" + column + "' is missing" + DidYouMean(column, unknown), columns_fix);
+  std::vector<std::string> ignored;
+  for (const auto& h : unknown)
+    if (!IsRejectColumn(h)) ignored.push_back(h);
+  return ignored;
+}
 
 std::string DefaultRejectPath(const std::string& path) { return path + ".rejects.csv"; }
 

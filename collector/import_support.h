@@ -23,6 +23,17 @@ int64_t FileSize(const std::string& path);
 // columns named reject_* so a corrected reject file imports as it is.
 bool IsRejectColumn(const std::string& column);
 
+// The header of a file of one row per probe checked against the columns an
+// importer knows: a missing `required` column is refused at FILE:1, with the
+// nearest unknown column as a suggestion and `columns_fix` as the fix (e.g.
+// "an outcomes file has the columns probe,code,received_at and optionally
+// channel,note"); otherwise the columns it will ignore (unknown ones, not
+// reject_*), in header order.
+Result<std::vector<std::string>> CheckImportColumns(const std::string& path, const std::vector<std::string>& header,
+                                                    const std::vector<std::string>& known,
+                                                    const std::vector<std::string>& required,
+                                                    const std::string& columns_fix);
+
 // Writes rejected rows: reject_line, reject_reason, then the original
 // columns, as RFC 4180 CSV with CRLF line ends. Opens the file at the first
 // row, so nothing is written when no row is rejected. The file is written
