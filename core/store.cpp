@@ -19,6 +19,22 @@ namespace {
 // several people recording at once; waiting a while is better than an error.
 constexpr int kBusyTimeoutMs = 30000;
 
+// The busy handler covers most waits, but SQLite reports BUSY at once where
+// waiting could deadlock: BEGIN IMMEDIATE in WAL edge cases (a checkpoint),
+// and switching a new file to WAL while another process creates the same
+// store. Those statements are retried for about 10 s before failing.
+void ExecRetryingBusy(Store& store, std::string_view sql) {
+  for (int attempt = 0;; ++attempt) {
+    try {
+      store.Exec(sql);
+      return;
+    } catch (const StoreError&) {
+      if (attempt >= 200) throw;
+      std::this_thread::sleep_for(std::chrono::milliseconds(50));
+    }
+  }
+}
+
 }  // namespace
 
 Stmt::Stmt(sqlite3* db, std::string_view sql) : db_(db) {
@@ -103,7 +119,7 @@ Result<std::unique_ptr<Store>> Store::Open(const std::string& path, bool create)
   sqlite3_busy_timeout(db, kBusyTimeoutMs);
   try {
     store->Exec("PRAGMA foreign_keys = ON");
-    if (!in_memory) store->Exec("PRAGMA journal_mode = WAL");
+    if (!in_memory) ExecRetryingBusy(*store, "PRAGMA journal_mode = WAL");
     store->Exec("PRAGMA synchronous = NORMAL");
     int version = store->schema_version();
     if (version > kSchemaVersion)
@@ -155,19 +171,7 @@ int64_t Store::QueryInt(std::string_view sql) {
 
 int Store::schema_version() { return static_cast<int>(QueryInt("PRAGMA user_version")); }
 
-Transaction::Transaction(Store& store) : store_(store) {
-  // The busy handler covers most waits; BEGIN IMMEDIATE can still report BUSY
-  // in WAL edge cases (e.g. a checkpoint), so retry a while before failing.
-  for (int attempt = 0;; ++attempt) {
-    try {
-      store_.Exec("BEGIN IMMEDIATE");
-      return;
-    } catch (const StoreError&) {
-      if (attempt >= 200) throw;
-      std::this_thread::sleep_for(std::chrono::milliseconds(50));
-    }
-  }
-}
+Transaction::Transaction(Store& store) : store_(store) { ExecRetryingBusy(store_, "BEGIN IMMEDIATE"); }
 
 Transaction::~Transaction() {
   if (!committed_) {
