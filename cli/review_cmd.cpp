@@ -184,11 +184,6 @@ int RunReview(Context& ctx, const ReviewOptions& o) {
     Warn("the response came " + std::to_string(r.days_after_sending) + " days after " + r.probe_ref +
          " was sent, outside the observation window of " + std::to_string(settings.value().outcomes.window_days) +
          " days; it is stored with the flag 'late'");
-  if (r.unsent)
-    Warn(r.probe_ref +
-         " has no sending recorded, so the observation window cannot be checked \u2014 record it with "
-         "'twinprobe sent " +
-         r.probe_ref + " --at TIME'");
   const EthicsBlock& ethics = settings.value().ethics;
   std::string decline_by;
   if (r.positive && ethics.decline_within_hours > 0)

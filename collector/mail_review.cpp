@@ -7,6 +7,7 @@
 #include "core/audit_summaries.h"
 #include "core/mail_log.h"
 #include "core/mail_reviews.h"
+#include "core/sending_records.h"
 
 namespace twinprobe {
 namespace {
@@ -129,17 +130,21 @@ Result<ReviewOutcome> DecideReview(Store& store, const OutcomeScheme& scheme, co
   entry.channel = "mail";
   entry.note = "mail message " + n;
   entry.origin = "mail-review";
-  // A reply in the study's mailbox proves the application left: an unsent
-  // probe is warned about, not refused (collector/responses.h ResponseRules).
-  ResponseRules rules;
-  rules.require_sending = false;  // also the default for now
-  auto recorded = AddResponse(store, scheme, entry, write.seq(), write.actor(), write.at(), "", rules);
+  // A reply suggests the application left, but not when: recording it would
+  // leave the window unmeasured, so the message stays in the queue until the
+  // sending is recorded (the same rule as `record`).
+  if (int64_t probe_id = FindProbe(store, out.probe_ref); probe_id != 0 && LastSentAt(store, probe_id).empty())
+    return BadInput("",
+                    "message " + n + " is matched to " + out.probe_ref +
+                        ", which has no sending recorded, so it was not recorded as a response and stays in the queue",
+                    "record the sending first with 'twinprobe sent " + out.probe_ref +
+                        " --at TIME' (or 'twinprobe import sendings FILE.csv'), then review message " + n + " again");
+  auto recorded = AddResponse(store, scheme, entry, write.seq(), write.actor(), write.at(), "");
   if (!recorded.ok()) return recorded.error();
   out.response_id = recorded.value().response_id;
   out.received_at = recorded.value().received_at;
   out.positive = recorded.value().positive;
   out.late = recorded.value().late;
-  out.unsent = recorded.value().unsent;
   out.days_after_sending = recorded.value().days_after_sending;
   out.superseded = recorded.value().superseded;
   out.decision = out.probe_ref == item.probe_ref && out.code == item.suggested_code ? ReviewDecision::kConfirmed

@@ -63,7 +63,6 @@ struct ReviewOutcome {
   int64_t response_id = 0;  // 0 when dismissed
   std::string probe_ref, code, received_at;
   bool positive = false, late = false;
-  bool unsent = false;  // the probe has no sending: the window could not be checked
   int64_t days_after_sending = 0;
   int64_t superseded = 0;
   std::vector<std::string> warnings;  // e.g. the probe belongs to another profile
@@ -71,8 +70,8 @@ struct ReviewOutcome {
 };
 
 // Records the decision. Errors: no such message; it was decided before;
-// --confirm without a suggestion or without a probe; a code or probe
-// AddResponse refuses; no date in the message and no `at`; --probe or --at
+// --confirm without a suggestion or without a probe; a probe with no sending
+// (the message stays in the queue); a code or probe AddResponse refuses; no date in the message and no `at`; --probe or --at
 // with a dismissal. The store is unchanged on error.
 Result<ReviewOutcome> DecideReview(Store& store, const OutcomeScheme& scheme, const ReviewRequest& request);
 

@@ -78,13 +78,12 @@ Result<RecordedResponse> ResponseWriter::Add(const ResponseEntry& e, const std::
     out.received_at = received->text();
   }
 
+  // A response answers an application: with no sending on record, the
+  // window and the plausible-time rule have nothing to measure from, and the
+  // schedule would list the probe both to send and to decline (issue 17).
   out.sent_at = records_->LastSentAt(probe_id);
-  if (out.sent_at.empty()) {
-    if (rules_.require_sending) return NoSendingError(where, e.probe_ref);
-    out.unsent = true;
-  }
-  std::optional<EventTime> sent;
-  if (!out.sent_at.empty()) sent = ParseEventTime(out.sent_at);
+  if (out.sent_at.empty()) return NoSendingError(where, e.probe_ref);
+  std::optional<EventTime> sent = ParseEventTime(out.sent_at);
   if (received) {
     TimeRules clock;
     clock.now = rules_.now ? *rules_.now : ParseIsoTime(at_).value_or(0);

@@ -32,11 +32,6 @@ struct ResponseEntry {
 
 // What a writer demands beyond the entry itself.
 struct ResponseRules {
-  // Refuse a response to a probe with no sending (NoSendingError). Off by
-  // default for now: the rule is written and tested, but turning it on for
-  // `record`, `import outcomes` and the desk needs the remaining tests that
-  // record without sending to send first (see docs/record.md).
-  bool require_sending = false;
   // The study clock for "not in the future"; none: the writer's entry time
   // `at` (NowIso). The demo's simulated season sets its own end.
   std::optional<int64_t> now;
@@ -52,7 +47,6 @@ struct RecordedResponse {
   int64_t response_id = 0;
   int64_t superseded = 0;  // id of the response it replaces, 0 if none
   bool late = false;       // received outside the observation window (flag 'late')
-  bool unsent = false;     // the probe has no sending, so the window could not be checked
   bool positive = false;
   std::string probe_ref;
   std::string code;
@@ -74,7 +68,7 @@ class ResponseWriter {
   // Validates `entry` and adds it. `where` prefixes messages (e.g.
   // "file.csv:12"; "" for the command line). Errors (bad input): unknown
   // probe, code outside the scheme, unknown channel, unreadable time, a probe
-  // with no sending (unless the rules allow it), a time that breaks the
+  // with no sending (NoSendingError: every writer, no exception), a time that breaks the
   // plausible-time rules (collector/time_rules.h: year, future, before the
   // probe's newest sending). A time after the observation window is accepted
   // and flagged 'late'.

@@ -26,13 +26,18 @@ TEST_CASE("cli record: a late response is stored with a warning that says by how
   CHECK(doc["supersedes"] == 1);
 }
 
-TEST_CASE("cli record: a response to a probe never marked sent is kept quietly, bad times and channels are not") {
+TEST_CASE("issue 17: cli record refuses a probe never marked sent, bad times and channels too") {
   testing::PlannedStudy s;
+  const std::string before = testing::HeadLine(s.path);
   auto r = RunCli({"--study", s.path, "--json", "record", "P00002", "rejection", "--at", "2027-03-05", "--channel",
                    "letter"});
-  CHECK(r.exit_code == 0);
-  CHECK(r.err.empty());  // the window cannot be checked; the JSON says so with sent_at null
-  CHECK(nlohmann::json::parse(r.out)["sent_at"].is_null());
+  CHECK(r.exit_code == 1);
+  CHECK(r.out.empty());
+  CHECK(r.err == "twinprobe: P00002 has no sending recorded, so no response to it can have come \u2014 record the "
+                 "sending first with 'twinprobe sent P00002 --at TIME' (or 'twinprobe import sendings FILE.csv' for "
+                 "many)\n");
+  CHECK(testing::HeadLine(s.path) == before);
+  testing::SendProbes(s.path, {"P00002"}, "2027-03-01");
   auto bad = RunCli({"--study", s.path, "record", "P00002", "rejection", "--at", "yesterday"});
   CHECK(bad.exit_code == 1);
   CHECK(bad.err == "twinprobe: 'yesterday' is not a date or time \u2014 write it as YYYY-MM-DD or YYYY-MM-DDTHH:MM (UTC)\n");

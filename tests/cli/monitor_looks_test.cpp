@@ -55,6 +55,14 @@ struct LookedStudy {
       csv += sets[from + i].first + "," + (k == 'b' ? "invitation" : "rejection") + "," + at + "\n";
       csv += sets[from + i].second + "," + (k == 'c' ? "invitation" : "rejection") + "," + at + "\n";
     }
+    // A response needs a sending: the batch's probes left on the season's first day.
+    std::string sendings = "probe,sent_at\n";
+    for (size_t i = 0; i < pattern.size(); ++i)
+      sendings += sets[from + i].first + ",2027-03-01\n" + sets[from + i].second + ",2027-03-01\n";
+    testing::WriteFile(study + "/sendings.csv", sendings);
+    auto sent = RunCli({"--study", study, "import", "sendings", study + "/sendings.csv"}, {Now(day)});
+    INFO(sent.err);
+    REQUIRE(sent.exit_code == 0);
     testing::WriteFile(study + "/outcomes.csv", csv);
     auto r = RunCli({"--study", study, "import", "outcomes", study + "/outcomes.csv"}, {Now(day)});
     INFO(r.err);

@@ -36,6 +36,20 @@ struct PlannedMailStudy {
     REQUIRE(s.ok());
     return std::move(s.value());
   }
+  // Every probe sent on the schedule's first day, in one `import sendings`
+  // (a reviewed message is recorded only for a probe with a sending).
+  void SendAll() const {
+    std::string csv = "probe,sent_at\n";
+    {
+      auto store = Open();
+      Stmt q = store->Prepare("SELECT ref FROM current_probe ORDER BY ref");
+      while (q.Step()) csv += q.Text(0) + ",2027-03-01\n";
+    }
+    testing::WriteFile(study + "/sendings.csv", csv);
+    auto sent = testing::RunCli({"--study", study, "import", "sendings", study + "/sendings.csv"});
+    INFO(sent.err);
+    REQUIRE(sent.exit_code == 0);
+  }
 };
 
 // The probe that `mailbox` was sent with to vacancy `vacancy_ref`.

@@ -23,7 +23,8 @@ const std::string kAldo = "aldo.brenvik@postbox.example", kKemi = "kemi.saralon@
 struct ReadStudy : PlannedMailStudy {
   std::unique_ptr<Store> store;
   Design design;
-  ReadStudy() {
+  explicit ReadStudy(bool send_all = true) {
+    if (send_all) SendAll();
     store = Open();
     auto d = LoadDesign(study);
     REQUIRE(d.ok());
@@ -197,6 +198,27 @@ TEST_CASE("mail review: refusals name the fix and leave the store unchanged") {
   CHECK(fixed.value().received_at == "2027-03-05T09:15:00Z");
 }
 
+TEST_CASE("issue 17: a message matched to a probe with no sending is not recorded and stays in the queue") {
+  ReadStudy s(false);
+  const std::string probe = mailtest::ProbeFor(*s.store, "V0101", kAldo);
+  const std::string head = AuditHead(*s.store);
+  auto r = s.Decide(1, ReviewAction::kConfirm);
+  REQUIRE_FALSE(r.ok());
+  CHECK(r.error().Message() ==
+        "message 1 is matched to " + probe +
+            ", which has no sending recorded, so it was not recorded as a response and stays in the queue \u2014 "
+            "record the sending first with 'twinprobe sent " +
+            probe + " --at TIME' (or 'twinprobe import sendings FILE.csv'), then review message 1 again");
+  CHECK(AuditHead(*s.store) == head);
+  CHECK(s.store->QueryInt("SELECT count(*) FROM response") == 0);
+  CHECK(LoadReviewQueue(*s.store, false).size() == 12);
+  // Once the sending is on record, the same decision goes through.
+  REQUIRE(MarkSent(*s.store, probe, "2027-03-01").ok());
+  auto again = s.Decide(1, ReviewAction::kConfirm);
+  REQUIRE(again.ok());
+  CHECK(again.value().received_at == "2027-03-04T09:15:00Z");
+}
+
 TEST_CASE("mail review: a probe of another profile is allowed with a warning") {
   ReadStudy s;
   const std::string other = mailtest::ProbeFor(*s.store, "V0101", kKemi);
@@ -225,6 +247,9 @@ TEST_CASE("mail review: a message without a date needs --at, without a suggestio
   REQUIRE_FALSE(no_date.ok());
   CHECK(no_date.error().Message() ==
         "message 1 carries no date \u2014 give the time it arrived: --at YYYY-MM-DDTHH:MM");
+  store.reset();
+  s.SendAll();
+  store = s.Open();
   auto ok = DecideReview(*store, scheme, {1, ReviewAction::kCode, "info_request", "", "2027-03-06"});
   REQUIRE(ok.ok());
   CHECK(ok.value().decision == ReviewDecision::kChanged);

@@ -13,6 +13,7 @@ using testing::DeskClient;
 TEST_CASE("desk mail: a suggestion confirmed on the desk lands under the member's name, refusals change nothing") {
   mailtest::PlannedMailStudy s;
   REQUIRE(testing::RunCli({"--study", s.study, "mail"}).exit_code == 0);
+  s.SendAll();
   testing::ServedDesk desk(testing::WithTeam(s.study), "2027-03-06T12:00:00Z");
   DeskClient ada(desk.url());
   ada.SignIn("Ada Moss", "meadow lantern river");

@@ -125,9 +125,19 @@ TEST_CASE("crash consistency: import outcomes killed at random points is all or 
     csv += line;
   }
   testing::WriteFile(dir / "responses.csv", csv);
+  // A response needs a sending: every probe left on the season's first day.
+  std::string sendings = "probe,sent_at\n";
+  for (int i = 1; i <= 800; ++i) {
+    char line[32];
+    std::snprintf(line, sizeof line, "P%05d,2027-03-01\n", i);
+    sendings += line;
+  }
+  testing::WriteFile(dir / "sendings.csv", sendings);
   auto make_study = [&](const std::string& study) {
     REQUIRE(testing::RunCli({"--study", study, "init"}).exit_code == 0);
     REQUIRE(testing::RunCli({"--study", study, "plan"}, kPinnedTime).exit_code == 0);
+    REQUIRE(testing::RunCli({"--study", study, "import", "sendings", dir / "sendings.csv"}, kPinnedTime).exit_code ==
+            0);
   };
   std::string base = dir / "baseline";
   make_study(base);

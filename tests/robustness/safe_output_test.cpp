@@ -16,7 +16,10 @@ namespace {
 
 const std::vector<std::string> kEnv = {"TWINPROBE_ACTOR=ana", "TWINPROBE_NOW=2027-03-06T08:00"};
 
+// Sends `probe` on 2027-03-01 (a response needs a sending), then records an
+// invitation with `note`.
 void Record(const testing::PlannedStudy& s, const std::string& probe, const std::string& note) {
+  testing::SendProbes(s.path, {probe}, "2027-03-01", kEnv);
   auto r = RunCli({"--study", s.path, "record", probe, "invitation", "--at", "2027-03-05", "--note", note}, kEnv);
   INFO(r.err);
   REQUIRE(r.exit_code == 0);
@@ -143,6 +146,7 @@ TEST_CASE("issue 23: a link planted at the reject file's path is replaced, formu
   testing::TempDir outside;
   testing::WriteFile(outside / "profile", "keep me\n");
   const std::string csv = s.path + "/outcomes.csv";
+  testing::SendProbes(s.path, {"P00001"}, "2027-03-01", kEnv);
   testing::WriteFile(csv, "probe,code,received_at,note\nP00001,invitation,2027-03-05,ok\n@P9,offer,2027-03-06,-1+1\n");
   fs::create_symlink(outside / "profile", csv + ".rejects.csv");
   auto r = RunCli({"--study", s.path, "import", "outcomes", csv, "--skip-bad"}, kEnv);

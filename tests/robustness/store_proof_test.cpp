@@ -6,6 +6,7 @@
 #include <sys/stat.h>
 
 #include <atomic>
+#include <cstdio>
 #include <cstdlib>
 #include <filesystem>
 #include <thread>
@@ -22,8 +23,17 @@ namespace {
 
 const std::vector<std::string> kEnv = {"TWINPROBE_ACTOR=ana", "TWINPROBE_NOW=2027-03-06T08:00"};
 
+// A planned study whose probes P00001 to P0000n are sent on 2027-03-01, one
+// `sent` each (a response needs a sending): audit entries 2 to n + 1, so the
+// first `record` is entry n + 2.
 struct Study {
   testing::PlannedStudy s;
+  explicit Study(int sent = 3) {
+    std::vector<std::string> probes;
+    char ref[16];
+    for (int i = 1; i <= sent; ++i) std::snprintf(ref, sizeof ref, "P%05d", i), probes.emplace_back(ref);
+    testing::SendProbes(s.path, probes, "2027-03-01", kEnv);
+  }
   testing::CliRun Record(const std::string& probe, const std::string& code) {
     auto r = RunCli({"--study", s.path, "record", probe, code, "--at", "2027-03-05"}, kEnv);
     INFO(r.err);
@@ -58,13 +68,13 @@ TEST_CASE("issue 23: a trigger that turns a recorded invitation into a rejection
   st.Record("P00001", "rejection");
   st.Sql("CREATE TRIGGER flip AFTER INSERT ON response BEGIN "
          "UPDATE response SET code = 'rejection' WHERE id = new.id; END");
-  st.Record("P00002", "invitation");  // entry 3; the trigger rewrites it before it is sealed
+  st.Record("P00002", "invitation");  // entry 6; the trigger rewrites it before it is sealed
   auto text = st.Verify();
   CHECK(text.exit_code == 1);
   CHECK(text.out ==
         "The audit chain is BROKEN. First broken link: the store: the store holds a trigger 'flip' on response that "
         "twinprobe does not create.\n"
-        "  also entry 3: its summary says 'record P00002 invitation' but the rows it sealed say 'record P00002 "
+        "  also entry 6: its summary says 'record P00002 invitation' but the rows it sealed say 'record P00002 "
         "rejection'\n");
   auto j = st.VerifyJson();
   CHECK(j["ok"] == false);
@@ -164,10 +174,10 @@ TEST_CASE("issue 23: verify prints the head in full and never writes the store")
 TEST_CASE("issue 23: deleting the newest entries with their rows is caught with a witnessed head") {
   Study st;
   for (const char* p : {"P00001", "P00002", "P00003"}) st.Record(p, "invitation");
-  const std::string head = st.VerifyJson()["head_hash"];  // entry 4, kept by the witness
+  const std::string head = st.VerifyJson()["head_hash"];  // entry 7, kept by the witness
   testing::WriteFile(st.s.dir / "witness.txt", "2027-03-06 ethics board copy\n2027-03-06 " + head + "\n");
   // Someone removes the last two records and their audit entries.
-  st.Sql("DELETE FROM response WHERE audit_seq >= 3; DELETE FROM audit WHERE seq >= 3");
+  st.Sql("DELETE FROM response WHERE audit_seq >= 6; DELETE FROM audit WHERE seq >= 6");
   CHECK(st.Verify().exit_code == 0);  // the chain alone cannot see it
   auto with_head = st.Verify({"--head", head});
   CHECK(with_head.exit_code == 1);
@@ -187,7 +197,7 @@ TEST_CASE("issue 23: an intact chain names the entry a witnessed head is") {
   st.Record("P00002", "rejection");
   auto r = st.Verify({"--head", head});
   CHECK(r.exit_code == 0);
-  CHECK(r.out.find("\n  witnessed head " + head + " (--head) is entry 2: nothing up to it was removed or rewritten\n") !=
+  CHECK(r.out.find("\n  witnessed head " + head + " (--head) is entry 5: nothing up to it was removed or rewritten\n") !=
         std::string::npos);
   auto bad = st.Verify({"--head", "cbe37d38"});
   CHECK(bad.exit_code == 2);
@@ -202,7 +212,7 @@ TEST_CASE("issue 23: an intact chain names the entry a witnessed head is") {
 }
 
 TEST_CASE("issue 23: verify beside a recording writer never says BROKEN") {
-  Study st;
+  Study st(40);
   std::atomic<bool> done{false};
   int loop_status = -1;
   // A fieldworker records 40 responses while verify runs again and again.
