@@ -16,6 +16,7 @@
 #include <string>
 #include <vector>
 
+#include "analysis/declines.h"
 #include "analysis/balance.h"
 #include "analysis/deviations.h"
 #include "analysis/early_stop.h"
@@ -106,6 +107,7 @@ struct AnalysisResult {
   BalanceReport balance;                   // arm x template / send order / stratum / weekday (analysis/balance.h)
   PreregistrationStatus preregistration;  // freeze and deviations from it (analysis/deviations.h)
   EarlyStop early_stop;                   // after a stored monitor stop (analysis/early_stop.h)
+  DeclineCounts declines;                 // positive responses declined on time or not (analysis/declines.h)
 };
 
 // Requires a plan in the reading, or listings (a listing-only store gives

@@ -6,6 +6,7 @@
 #include "collector/responses.h"
 #include "collector/time_rules.h"
 #include "core/audit.h"
+#include "core/ethics_gate.h"
 #include "core/audit_summaries.h"
 #include "core/clock.h"
 #include "core/decline_records.h"
@@ -22,8 +23,8 @@ std::string PositiveResponseWords(const std::string& code) {
 
 std::string DeclineDeadlineWords(const std::string& code, const std::string& probe_ref, int64_t deadline,
                                  int decline_within_hours) {
-  return "decline the " + PositiveResponseWords(code) + " to " + probe_ref + " by " + FormatIsoTime(deadline) +
-         " (within " + std::to_string(decline_within_hours) + " hours of receipt)";
+  return "decline the " + PositiveResponseWords(code) + " to " + probe_ref + " by " + FormatIsoTime(deadline) + " (" +
+         DeclineWithinWords(decline_within_hours) + ")";
 }
 
 std::string DeclineReminder(const std::string& code, const std::string& probe_ref, int64_t deadline,

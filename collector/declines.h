@@ -45,7 +45,8 @@ inline constexpr const char* kDeclineLetterPath = "ethics/letters/decline-invita
 
 // One positive response's decline deadline in the words `record`, `review`,
 // `schedule`, `decline` and the desk all use: "decline the request for
-// information to P00031 by 2027-03-06T10:00:00Z (within 48 hours of receipt)".
+// information to P00031 by 2027-03-06T10:00:00Z (within 48 hours of receipt)"
+// (the rule's words from DeclineWithinWords, core/ethics_gate.h).
 std::string DeclineDeadlineWords(const std::string& code, const std::string& probe_ref, int64_t deadline,
                                  int decline_within_hours);
 

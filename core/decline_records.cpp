@@ -1,5 +1,8 @@
 #include "core/decline_records.h"
 
+#include <cstdlib>
+
+#include "core/meta.h"
 #include "core/store.h"
 
 namespace twinprobe {
@@ -28,6 +31,19 @@ std::vector<UndeclinedResponse> ReadUndeclinedResponses(Store& store) {
       "JOIN current_response r ON r.probe_id = p.id "
       "WHERE NOT EXISTS (SELECT 1 FROM decline d WHERE d.probe_id = p.id)");
   while (q.Step()) out.push_back({q.Text(0), q.Text(1), q.Text(2), q.Text(3), q.Text(4), q.Text(5)});
+  return out;
+}
+
+DeclineReading ReadDeclineFacts(Store& store) {
+  DeclineReading out;
+  // `plan` stores the design's deadline beside the plan (core/plan_header.cpp).
+  if (auto hours = MetaValue(store, "ethics.decline_within_hours")) out.decline_within_hours = std::atoi(hours->c_str());
+  Stmt q = store.Prepare(
+      "SELECT p.ref, v.ref, r.id, r.code, coalesce(r.received_at, ''), "
+      "coalesce((SELECT d.declined_at FROM decline d WHERE d.probe_id = p.id ORDER BY d.id LIMIT 1), '') "
+      "FROM current_probe p JOIN vacancy v ON v.id = p.vacancy_id "
+      "JOIN current_response r ON r.probe_id = p.id ORDER BY p.ref");
+  while (q.Step()) out.responses.push_back({q.Text(0), q.Text(1), q.Int(2), q.Text(3), q.Text(4), q.Text(5)});
   return out;
 }
 

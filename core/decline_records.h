@@ -36,4 +36,23 @@ struct UndeclinedResponse {
 
 std::vector<UndeclinedResponse> ReadUndeclinedResponses(Store& store);
 
+// The declines section of the report and the export's declines table read
+// every current probe's current response with its first decline (if any).
+// Whether a code is positive and whether a deadline passed are the callers'
+// rules (analysis/declines.h).
+struct DeclineFact {
+  std::string probe_ref, vacancy_ref;
+  int64_t response_id = 0;
+  std::string code;
+  std::string received_at;  // "" when stored without a time
+  std::string declined_at;  // the first decline; "" when never declined
+};
+
+struct DeclineReading {
+  int decline_within_hours = 0;  // the plan's [ethics] decline_within_hours; 0 when none was stored
+  std::vector<DeclineFact> responses;  // by probe reference
+};
+
+DeclineReading ReadDeclineFacts(Store& store);
+
 }  // namespace twinprobe

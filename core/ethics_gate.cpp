@@ -63,4 +63,8 @@ int64_t DeclineDeadline(const EthicsBlock& ethics, int64_t received_at) {
   return received_at + static_cast<int64_t>(ethics.decline_within_hours) * 3600;
 }
 
+std::string DeclineWithinWords(int decline_within_hours) {
+  return "within " + std::to_string(decline_within_hours) + " hours of receipt";
+}
+
 }  // namespace twinprobe

@@ -35,4 +35,9 @@ std::optional<std::string> DemoApprovalWarning(const Design& design, const std::
 // `received_at`: received_at + decline_within_hours.
 int64_t DeclineDeadline(const EthicsBlock& ethics, int64_t received_at);
 
+// The decline rule in words: "within 48 hours of receipt". The deadline
+// sentences of `record`, `review`, `schedule`, `decline` and the desk
+// (collector/declines.h) and the report's declines section all say it so.
+std::string DeclineWithinWords(int decline_within_hours);
+
 }  // namespace twinprobe

@@ -1,6 +1,7 @@
 #include "report/html_sections.h"
 
 #include "report/fieldwork_state.h"
+#include "report/declines_report.h"
 #include "report/stages_report.h"
 
 namespace twinprobe {
@@ -42,6 +43,7 @@ const std::vector<HtmlSection>& HtmlSections() {
       {"levels", "Every level compared", &HasKLevels, {&LevelTests, &LevelPairs, &TwoFactorTable}},
       {"adjusted", "Adjusted for template and send position", &HasAdjusted, {&AdjustedTable}},
       {"responses", "What came back, and how fast", &HasFindings, {&ResponseCodes, &ResponseTimesChart}},
+      {"declines", "Declines of positive responses", &HasDeclines, {&DeclinesSection}},
       {"employers", "Employers (by pseudonym)", &HasEmployers, {&EmployerTable}},
       {"employers-sets", "Employers (by pseudonym)", &HasEmployerSets, {&EmployerSetsTable}},
       {"listing-audit", "Ranked listings (listing audit)", &HasListings,

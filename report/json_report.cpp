@@ -8,6 +8,7 @@
 #include "report/design_report.h"
 #include "report/early_stop_report.h"
 #include "report/effects_report.h"
+#include "report/declines_report.h"
 #include "report/stages_report.h"
 #include "report/adjusted_model_report.h"
 #include "report/k_level_report.h"
@@ -240,6 +241,7 @@ std::string RenderJsonReport(const AnalysisResult& r) {
   }
   j["effects"] = EffectsJson(r);
   if (r.stages.present) j["stages"] = StagesJson(r.stages);
+  if (r.declines.present) j["declines"] = DeclinesJson(r.declines);
   if (r.k_levels.present) j["k_levels"] = KLevelJson(r.k_levels);
   if (r.adjusted.present) j["adjusted_model"] = AdjustedJson(r.adjusted);
   if (r.employer_sets.available) {

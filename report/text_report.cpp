@@ -11,6 +11,7 @@
 #include "report/design_report.h"
 #include "report/early_stop_report.h"
 #include "report/effects_report.h"
+#include "report/declines_report.h"
 #include "report/stages_report.h"
 #include "report/employer_flip_text.h"
 #include "report/adjusted_model_report.h"
@@ -341,6 +342,7 @@ std::string RenderTextReport(const AnalysisResult& r) {
     ResponseTimesBlock(o, r);
     EmployersBlock(o, r);
   }
+  o << RenderDeclinesText(r);
   if (r.listings.present) o << "\n" << RenderListingText(r.listings, r.alpha, true);
   // Design integrity: balance of the plan and the pre-registration.
   if (std::string balance = RenderBalanceText(r.balance); !balance.empty()) o << "\n" << balance;
