@@ -55,7 +55,7 @@ int RunExport(Context& ctx, const ExportCmdOptions& o) {
               << "\n";
   } else {
     std::cout << "Exported " << s.vacancies << " vacancies, " << s.probes << " probes and " << s.responses
-              << " responses to " << s.path << (o.format == "csv" ? " (vacancies.csv, probes.csv, responses.csv, manifest.json)" : "")
+              << " responses to " << s.path << (o.format == "csv" ? " (vacancies.csv, probes.csv, responses.csv, sendings.csv, declines.csv, manifest.json)" : "")
               << ", " << (o.identities ? "with identities" : "pseudonymised") << "; audit head "
               << s.audit_head.substr(0, 16) << "\u2026\n";
   }

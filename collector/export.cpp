@@ -1,6 +1,7 @@
 #include "collector/export.h"
 
 #include <algorithm>
+#include <cstdlib>
 #include <filesystem>
 #include <fstream>
 #include <memory>
@@ -13,10 +14,13 @@
 #include "core/audit.h"
 #include "core/clock.h"
 #include "core/csv.h"
+#include "core/ethics_gate.h"
 #include "core/export_records.h"
 #include "core/fieldwork.h"
 #include "core/meta.h"
+#include "core/read_design.h"
 #include "core/read_listings.h"
+#include "core/read_set_design.h"
 #include "core/safe_write.h"
 #include "core/spreadsheet_cell.h"
 
@@ -87,7 +91,8 @@ class CsvSink : public TableSink {
 
 // The files an export folder holds: an existing folder with anything else
 // in it is not replaced (`--out ~/Documents` must not swap a folder away).
-constexpr const char* kExportFiles[] = {"vacancies.csv", "probes.csv", "responses.csv", "listings.csv", "manifest.json"};
+constexpr const char* kExportFiles[] = {"vacancies.csv", "probes.csv",   "responses.csv", "sendings.csv",
+                                        "declines.csv",  "listings.csv", "manifest.json"};
 
 Status CheckReplaceableFolder(const std::string& path) {
   std::error_code ec;
@@ -174,6 +179,32 @@ void AddStrata(std::vector<Cell>& cells, const std::unordered_map<int64_t, std::
   }
 }
 
+// Each probe's level of every factor of the design (issue 20), in the
+// design's factor order; held in memory like the strata.
+struct FactorLevels {
+  std::vector<std::string> names;
+  std::unordered_map<std::string, std::vector<std::string>> by_probe;  // probe ref -> levels in `names` order
+};
+
+FactorLevels ReadFactorLevels(Store& store) {
+  FactorLevels out;
+  for (const StoredFactor& f : ReadStoredDesign(store).factors) out.names.push_back(f.name);
+  for (const PlannedSetDesign& set : ReadSetDesigns(store))
+    for (const SetProbeDesign& p : set.probes) {
+      std::vector<std::string>& levels = out.by_probe[p.probe_ref];
+      for (const std::string& name : out.names) {
+        auto it = p.levels.find(name);
+        levels.push_back(it == p.levels.end() ? "" : it->second);
+      }
+    }
+  return out;
+}
+
+// A factor column named like a fixed column gets a "factor_" prefix.
+std::string FactorColumn(const std::string& name, const std::vector<std::string>& fixed) {
+  return std::find(fixed.begin(), fixed.end(), name) == fixed.end() ? name : "factor_" + name;
+}
+
 Status WriteVacancies(Store& store, int64_t plan_id, const std::vector<std::string>& strata_names,
                       const std::unordered_map<int64_t, std::vector<std::string>>& strata, bool identities,
                       TableSink& sink, int64_t& count) {
@@ -203,14 +234,17 @@ Status WriteVacancies(Store& store, int64_t plan_id, const std::vector<std::stri
 
 Status WriteProbes(Store& store, int64_t plan_id, const OutcomeScheme& scheme, int64_t now,
                    const std::vector<std::string>& strata_names,
-                   const std::unordered_map<int64_t, std::vector<std::string>>& strata, bool identities,
-                   TableSink& sink, int64_t& count) {
+                   const std::unordered_map<int64_t, std::vector<std::string>>& strata, const FactorLevels& factors,
+                   bool identities, TableSink& sink, int64_t& count) {
   std::vector<std::string> fixed = {"probe", "vacancy", "arm", "reference", "profile"};
   if (identities) fixed.insert(fixed.end(), {"profile_mailbox", "profile_phone"});
   fixed.insert(fixed.end(), {"template", "send_order", "planned_at", "sent_at", "outcome", "positive", "received_at",
                              "channel", "late", "responses", "state"});
   std::vector<std::string> columns = fixed;
-  for (const auto& n : strata_names) columns.push_back(StratumColumn(n, fixed));
+  for (const auto& n : factors.names) columns.push_back(FactorColumn(n, fixed));
+  // A stratum named like a factor is prefixed too: the factor columns are fixed for it.
+  std::vector<std::string> taken = columns;
+  for (const auto& n : strata_names) columns.push_back(StratumColumn(n, taken));
   Status s = sink.Begin("probes", columns);
   if (!s.ok()) return s;
   std::vector<Cell> cells;
@@ -242,6 +276,11 @@ Status WriteProbes(Store& store, int64_t plan_id, const OutcomeScheme& scheme, i
     cells.push_back(answered ? Cell::Bool(IsLate(clock, scheme.window_days)) : Cell{});
     cells.push_back(Cell::Int(p.responses));
     cells.push_back(Cell::Text(ProbeStateName(StateOf(clock, now, scheme.window_days, answered, p.withdrawn))));
+    auto levels = factors.by_probe.find(p.ref);
+    for (size_t f = 0; f < factors.names.size(); ++f) {
+      if (levels == factors.by_probe.end() || levels->second[f].empty()) cells.push_back(Cell{});
+      else cells.push_back(Cell::Text(levels->second[f]));
+    }
     AddStrata(cells, strata, p.vacancy_id, strata_names.size());
     sink.Row(cells);
     ++count;
@@ -272,6 +311,53 @@ Status WriteResponses(Store& store, int64_t plan_id, const OutcomeScheme& scheme
     cells.push_back(r.superseded_by ? Cell::Int(*r.superseded_by) : Cell{});
     cells.push_back(Cell::Bool(r.current));
     if (identities) cells.push_back(Cell::OptText(r.note));
+    sink.Row(cells);
+    ++count;
+  });
+  return sink.End();
+}
+
+Status WriteSendings(Store& store, int64_t plan_id, TableSink& sink, int64_t& count) {
+  Status s = sink.Begin("sendings", {"sending", "probe", "sent_at", "channel", "sent_by", "entered_by", "entered_at",
+                                     "current"});
+  if (!s.ok()) return s;
+  std::vector<Cell> cells;
+  ForEachExportSending(store, plan_id, [&](const ExportSendingRow& r) {
+    cells = {Cell::Int(r.id),          Cell::Text(r.probe_ref),  Cell::Text(r.sent_at),    Cell::OptText(r.channel),
+             Cell::OptText(r.sent_by), Cell::Text(r.entered_by), Cell::Text(r.entered_at), Cell::Bool(r.current)};
+    sink.Row(cells);
+    ++count;
+  });
+  return sink.End();
+}
+
+// One row per decline with the deadline of the response it declines: the
+// response's time plus [ethics] decline_within_hours as stored with the
+// plan (core/ethics_gate.h DeclineDeadline, the rule `decline` checks).
+Status WriteDeclines(Store& store, int64_t plan_id, TableSink& sink, int64_t& count) {
+  Status s = sink.Begin("declines", {"decline", "probe", "vacancy", "response", "code", "received_at", "deadline",
+                                     "declined_at", "on_time", "channel", "entered_by", "entered_at"});
+  if (!s.ok()) return s;
+  EthicsBlock ethics;
+  if (auto hours = MetaValue(store, "ethics.decline_within_hours")) ethics.decline_within_hours = std::atoi(hours->c_str());
+  std::vector<Cell> cells;
+  ForEachExportDecline(store, plan_id, [&](const ExportDeclineRow& r) {
+    std::optional<int64_t> received = r.received_at ? ParseIsoTime(*r.received_at) : std::nullopt;
+    std::optional<int64_t> deadline;
+    if (received && ethics.decline_within_hours > 0) deadline = DeclineDeadline(ethics, *received);
+    std::optional<int64_t> declined = ParseIsoTime(r.declined_at);
+    cells = {Cell::Int(r.id),
+             Cell::Text(r.probe_ref),
+             Cell::Text(r.vacancy_ref),
+             r.response_id ? Cell::Int(*r.response_id) : Cell{},
+             Cell::OptText(r.code),
+             Cell::OptText(r.received_at),
+             deadline ? Cell::Text(FormatIsoTime(*deadline)) : Cell{},
+             Cell::Text(r.declined_at),
+             deadline && declined ? Cell::Bool(*declined <= *deadline) : Cell{},
+             Cell::OptText(r.channel),
+             Cell::Text(r.entered_by),
+             Cell::Text(r.entered_at)};
     sink.Row(cells);
     ++count;
   });
@@ -369,6 +455,7 @@ Result<ExportSummary> ExportStudy(Store& store, const OutcomeScheme& scheme, con
   summary.listing_only = !plan;
   const std::vector<std::string> strata_names = plan ? StratumNames(store, plan_id) : std::vector<std::string>{};
   const auto strata = StrataByVacancy(store, plan_id, strata_names);
+  const FactorLevels factors = plan ? ReadFactorLevels(store) : FactorLevels{};
   nlohmann::ordered_json manifest =
       plan ? Manifest(store, *plan, scheme, strata_names, o) : ListingManifest(store, listings, o);
   summary.audit_head = manifest["audit_head"];
@@ -377,9 +464,11 @@ Result<ExportSummary> ExportStudy(Store& store, const OutcomeScheme& scheme, con
     if (!plan) return WriteListings(listings, sink, summary.listing_places);
     Status s = WriteVacancies(store, plan_id, strata_names, strata, o.identities, sink, summary.vacancies);
     if (s.ok())
-      s = WriteProbes(store, plan_id, scheme, o.now.value_or(NowEpoch()), strata_names, strata, o.identities, sink,
-                      summary.probes);
+      s = WriteProbes(store, plan_id, scheme, o.now.value_or(NowEpoch()), strata_names, strata, factors, o.identities,
+                      sink, summary.probes);
     if (s.ok()) s = WriteResponses(store, plan_id, scheme, o.identities, sink, summary.responses);
+    if (s.ok()) s = WriteSendings(store, plan_id, sink, summary.sendings);
+    if (s.ok()) s = WriteDeclines(store, plan_id, sink, summary.declines);
     return s;
   };
   std::error_code ec;
@@ -397,8 +486,10 @@ Result<ExportSummary> ExportStudy(Store& store, const OutcomeScheme& scheme, con
       manifest["files"] = {{"listings", "listings.csv"}};
       manifest["rows"] = {{"listings", summary.listing_places}};
     } else {
-      manifest["files"] = {{"vacancies", "vacancies.csv"}, {"probes", "probes.csv"}, {"responses", "responses.csv"}};
-      manifest["rows"] = {{"vacancies", summary.vacancies}, {"probes", summary.probes}, {"responses", summary.responses}};
+      manifest["files"] = {{"vacancies", "vacancies.csv"}, {"probes", "probes.csv"},   {"responses", "responses.csv"},
+                           {"sendings", "sendings.csv"},   {"declines", "declines.csv"}};
+      manifest["rows"] = {{"vacancies", summary.vacancies}, {"probes", summary.probes},     {"responses", summary.responses},
+                          {"sendings", summary.sendings},   {"declines", summary.declines}};
     }
     std::string manifest_path = (fs::path(folder.value()->path()) / "manifest.json").string();
     if (Status m = WriteFileSafely(manifest_path, manifest.dump(2) + "\n"); !m.ok())

@@ -5,6 +5,10 @@
 //   probes     one row per probe, with its newest sending, its current
 //              response and its vacancy's strata (the analysis-ready table)
 //   responses  every response row, superseded ones included
+//   sendings   every sending row, superseded and repeated ones included
+//   declines   one row per decline, with the response it declines, its
+//              deadline and whether it was kept
+// and one column per design factor in probes (each probe's level),
 // plus a manifest (study, arms, outcome scheme, audit head) so an export
 // can be tied to a verified state of the store.
 //
@@ -43,13 +47,15 @@ struct ExportSummary {
   int64_t vacancies = 0;
   int64_t probes = 0;
   int64_t responses = 0;
+  int64_t sendings = 0;  // every sending row, repeated ones included
+  int64_t declines = 0;
   bool listing_only = false;   // a listing audit: the ranked lists, no plan
   int64_t listing_places = 0;  // rows of listings.csv (one per place in a list)
   std::string audit_head;
 };
 
 // Writes the export to `path`: for csv a folder holding vacancies.csv,
-// probes.csv, responses.csv and manifest.json, built beside `path` and
+// probes.csv, responses.csv, sendings.csv, declines.csv and manifest.json, built beside `path` and
 // swapped into place whole (an older export there is replaced; a folder
 // holding any other file is refused); for json a single file, written
 // beside and renamed. Nothing is written through a symbolic link. A listing

@@ -133,4 +133,53 @@ void ForEachExportResponse(Store& store, int64_t plan_id, const std::function<vo
   }
 }
 
+void ForEachExportSending(Store& store, int64_t plan_id, const std::function<void(const ExportSendingRow&)>& fn) {
+  Stmt q = store.Prepare(
+      "SELECT s.id, p.ref, s.sent_at, d.channel, d.sent_by, s.entered_by, s.entered_at, "
+      "  s.id = (SELECT max(n.id) FROM sending n WHERE n.probe_id = s.probe_id) "
+      "FROM sending s JOIN probe p ON p.id = s.probe_id LEFT JOIN sending_detail d ON d.sending_id = s.id "
+      "WHERE p.plan_id = ?1 ORDER BY s.id");
+  q.Bind(1, plan_id);
+  ExportSendingRow r;
+  while (q.Step()) {
+    r.id = q.Int(0);
+    r.probe_ref = q.Text(1);
+    r.sent_at = q.Text(2);
+    r.channel = q.OptText(3);
+    r.sent_by = q.OptText(4);
+    r.entered_by = q.Text(5);
+    r.entered_at = q.Text(6);
+    r.current = q.Int(7) != 0;
+    fn(r);
+  }
+}
+
+void ForEachExportDecline(Store& store, int64_t plan_id, const std::function<void(const ExportDeclineRow&)>& fn) {
+  // The response a decline answers is the one current when it was entered:
+  // the probe's newest response of an earlier audit entry.
+  Stmt q = store.Prepare(
+      "WITH declined AS ("
+      "  SELECT d.*, (SELECT r.id FROM response r WHERE r.probe_id = d.probe_id AND r.audit_seq < d.audit_seq "
+      "               ORDER BY r.id DESC LIMIT 1) AS response_id FROM decline d) "
+      "SELECT d.id, p.ref, v.ref, d.response_id, r.code, r.received_at, d.declined_at, d.channel, d.entered_by, "
+      "  d.entered_at "
+      "FROM declined d JOIN probe p ON p.id = d.probe_id JOIN vacancy v ON v.id = p.vacancy_id "
+      "LEFT JOIN response r ON r.id = d.response_id WHERE p.plan_id = ?1 ORDER BY d.id");
+  q.Bind(1, plan_id);
+  ExportDeclineRow r;
+  while (q.Step()) {
+    r.id = q.Int(0);
+    r.probe_ref = q.Text(1);
+    r.vacancy_ref = q.Text(2);
+    r.response_id = OptInt(q, 3);
+    r.code = q.OptText(4);
+    r.received_at = q.OptText(5);
+    r.declined_at = q.Text(6);
+    r.channel = q.OptText(7);
+    r.entered_by = q.Text(8);
+    r.entered_at = q.Text(9);
+    fn(r);
+  }
+}
+
 }  // namespace twinprobe

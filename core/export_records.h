@@ -55,6 +55,28 @@ struct ExportResponseRow {
   bool current = false;  // the probe's current response
 };
 
+// One sending row: every sending of a probe is kept, a later one replaces the
+// time (the newest counts, `current`); channel and sender from sending_detail.
+struct ExportSendingRow {
+  int64_t id = 0;
+  std::string probe_ref, sent_at;
+  std::optional<std::string> channel, sent_by;
+  std::string entered_by, entered_at;
+  bool current = false;  // the probe's newest sending
+};
+
+// One decline row, with the response it declines: the probe's newest
+// response entered before the decline (none if the store holds none).
+struct ExportDeclineRow {
+  int64_t id = 0;
+  std::string probe_ref, vacancy_ref;
+  std::optional<int64_t> response_id;
+  std::optional<std::string> code, received_at;
+  std::string declined_at;
+  std::optional<std::string> channel;
+  std::string entered_by, entered_at;
+};
+
 // The current plan; none when the store holds no plan.
 std::optional<ExportPlanRow> ReadExportPlan(Store& store);
 // The plan's arms, reference first, then by id.
@@ -68,5 +90,9 @@ void ForEachVacancyStratum(Store& store, int64_t plan_id,
 void ForEachExportVacancy(Store& store, int64_t plan_id, const std::function<void(const ExportVacancyRow&)>& fn);
 void ForEachExportProbe(Store& store, int64_t plan_id, const std::function<void(const ExportProbeRow&)>& fn);
 void ForEachExportResponse(Store& store, int64_t plan_id, const std::function<void(const ExportResponseRow&)>& fn);
+// Every sending of the plan's probes, superseded and repeated ones included, by id.
+void ForEachExportSending(Store& store, int64_t plan_id, const std::function<void(const ExportSendingRow&)>& fn);
+// Every decline of the plan's probes, by id.
+void ForEachExportDecline(Store& store, int64_t plan_id, const std::function<void(const ExportDeclineRow&)>& fn);
 
 }  // namespace twinprobe

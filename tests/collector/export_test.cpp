@@ -79,11 +79,12 @@ TEST_CASE("export: CSV files in the documented layout, pseudonymised by default"
   CHECK(probes.value().header ==
         std::vector<std::string>{"probe", "vacancy", "arm", "reference", "profile", "template", "send_order",
                                  "planned_at", "sent_at", "outcome", "positive", "received_at", "channel", "late",
-                                 "responses", "state", "occupation", "region"});
+                                 "responses", "state", "factor_arm", "occupation", "region"});
   CHECK(probes.value().rows[0].fields ==
         std::vector<std::string>{"P00001", "V 1, north", "inland", "1", "", "", "1", "", "2027-03-01T00:00:00Z",
-                                 "invitation", "1", "2027-03-03T00:00:00Z", "", "0", "1", "closed",
+                                 "invitation", "1", "2027-03-03T00:00:00Z", "", "0", "1", "closed", "inland",
                                  "caf\xC3\xA9 \"Ost\"", "Orlinde"});
+  // An imported file's one factor is named "arm" like the fixed column: written as factor_arm.
   CHECK(probes.value().rows[3].fields[13] == "1");  // 39 days after sending: late
   auto vacancies = ReadCsvFile(out + "/vacancies.csv");
   REQUIRE(vacancies.ok());
@@ -120,7 +121,7 @@ TEST_CASE("export: R's read.csv reads the files as they are") {
                      "cat(sum(is.na(r$supersedes)), class(r$current), sum(p$late), '\\n')\n"
                      "cat(tapply(p$positive, p$arm, sum)[c('inland', 'coastal')], '\\n')\n");
   CHECK(Run("Rscript '" + script + "' '" + out + "'") ==
-        "4 18 2 4 \n"
+        "4 19 2 4 \n"
         "integer 2 integer \n"
         "V 1, north | caf\xC3\xA9 \"Ost\" | line one\nline two \n"
         "4 integer 1 \n"
@@ -150,7 +151,7 @@ TEST_CASE("export: pandas reads the CSV files and the JSON document") {
                      "print(jp['positive'].tolist(), jp['received_at'].isna().sum())\n"
                      "print(pd.DataFrame(doc['vacancies'])['employer_key'].isna().tolist())\n");
   CHECK(Run("/usr/bin/python3 '" + script + "' '" + out + "' '" + json + "'") ==
-        "4 18 2 4\n"
+        "4 19 2 4\n"
         "int64 2 V 1, north | caf\xC3\xA9 \"Ost\"\n"
         "4 1 'line one\\nline two'\n"
         "twinprobe-export 1 4 True\n"
@@ -288,4 +289,53 @@ TEST_CASE("issue 16: export states each probe by the one closed rule: open, late
   // it is late whatever the clock, and closes nothing before the window ends.
   CHECK(by_probe["P00003"] == std::pair<std::string, std::string>{"1", "open"});
   CHECK(by_probe["P00007"] == std::pair<std::string, std::string>{"0", "closed"});
+}
+
+// Issue 17: the full sending history and every decline, and (issue 20) each
+// probe's level of every factor, on the example design (factor `origin`,
+// [ethics] decline_within_hours = 24).
+TEST_CASE("issue 17: export writes every sending, every decline with its deadline, and a column per factor") {
+  testing::PlannedStudy s;
+  const std::vector<std::string> env = {"TWINPROBE_NOW=2027-03-06T08:00:00Z", "TWINPROBE_ACTOR=mira"};
+  auto run = [&](std::vector<std::string> args) {
+    args.insert(args.begin(), {"--study", s.path});
+    auto r = testing::RunCli(args, env);
+    INFO(r.err);
+    REQUIRE(r.exit_code == 0);
+  };
+  run({"sent", "P00001", "--at", "2027-03-01"});
+  run({"sent", "P00001", "--at", "2027-03-02T08:30"});  // a correction: both rows stay
+  testing::WriteFile(s.path + "/sendings.csv", "probe,sent_at,channel,by\nP00002,2027-03-01T09:00,mail,jonas\n");
+  run({"import", "sendings", s.path + "/sendings.csv"});
+  run({"record", "P00001", "invitation", "--at", "2027-03-03T10:00"});
+  run({"decline", "P00001", "--at", "2027-03-03T12:00"});  // 2 hours after: kept
+  run({"record", "P00002", "offer", "--at", "2027-03-03T10:00"});
+  run({"decline", "P00002", "--at", "2027-03-05"});  // 38 hours after: late
+  run({"export"});
+
+  const std::string dir = s.path + "/export/";
+  CHECK(testing::ReadFile(dir + "sendings.csv") ==
+        "sending,probe,sent_at,channel,sent_by,entered_by,entered_at,current\r\n"
+        "1,P00001,2027-03-01T00:00:00Z,,,mira,2027-03-06T08:00:00Z,0\r\n"
+        "2,P00001,2027-03-02T08:30:00Z,,,mira,2027-03-06T08:00:00Z,1\r\n"
+        "3,P00002,2027-03-01T09:00:00Z,mail,jonas,mira,2027-03-06T08:00:00Z,1\r\n");
+  CHECK(testing::ReadFile(dir + "declines.csv") ==
+        "decline,probe,vacancy,response,code,received_at,deadline,declined_at,on_time,channel,entered_by,entered_at\r\n"
+        "1,P00001,V0001,1,invitation,2027-03-03T10:00:00Z,2027-03-04T10:00:00Z,2027-03-03T12:00:00Z,1,,mira,"
+        "2027-03-06T08:00:00Z\r\n"
+        "2,P00002,V0001,2,offer,2027-03-03T10:00:00Z,2027-03-04T10:00:00Z,2027-03-05T00:00:00Z,0,,mira,"
+        "2027-03-06T08:00:00Z\r\n");
+  auto probes = ReadCsvFile(dir + "probes.csv");
+  REQUIRE(probes.ok());
+  const int origin = probes.value().Column("origin");
+  REQUIRE(origin == 16);  // after the fixed columns, before the strata
+  CHECK(probes.value().header[17] == "occupation");
+  // Each probe's level is the level of its arm.
+  const int arm = probes.value().Column("arm");
+  for (const auto& row : probes.value().rows)
+    CHECK(row.fields[static_cast<size_t>(arm)] == "origin=" + row.fields[static_cast<size_t>(origin)]);
+  auto manifest = nlohmann::json::parse(testing::ReadFile(dir + "manifest.json"));
+  CHECK(manifest["rows"]["sendings"] == 3);
+  CHECK(manifest["rows"]["declines"] == 2);
+  CHECK(manifest["files"]["declines"] == "declines.csv");
 }
