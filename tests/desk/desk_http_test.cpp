@@ -82,6 +82,17 @@ TEST_CASE("desk http: a refused response shows record's message beside its field
         "'invitaton' is not a response code of this study (did you mean 'invitation'?) \u2014 use one of: none, "
         "rejection, info_request, invitation, offer");
   CHECK(code.body.find("id=\"code-refused\"") != std::string::npos);
+  // Issue 17: a response needs a sending, on the desk as in `record`.
+  auto unsent = ada.Post("/record", {{"csrf", ada.csrf()},
+                                     {"probe", "P00002"},
+                                     {"code", "invitation"},
+                                     {"received_at", "2027-03-05"},
+                                     {"channel", ""},
+                                     {"note", ""}});
+  CHECK(unsent.status == 400);
+  CHECK(ClassText(unsent.body, "notice error") ==
+        "Nothing was recorded: P00002 has no sending recorded, so no response to it can have come \u2014 record the "
+        "sending first with 'twinprobe sent P00002 --at TIME' (or 'twinprobe import sendings FILE.csv' for many)");
   auto sent = ada.Post("/today", {{"csrf", ada.csrf()}, {"probe", "P00001"}, {"sent_at", "soon"}});
   CHECK(sent.status == 400);
   CHECK(ClassText(sent.body, "refused") ==
