@@ -5,6 +5,8 @@
 // planned sending); the clock is pinned ten days in.
 #include <catch2/catch.hpp>
 
+#include <nlohmann/json.hpp>
+
 #include "collector/collector_fixtures.h"
 
 using namespace twinprobe;
@@ -79,4 +81,25 @@ TEST_CASE("issue 17: a decline before the offer it declines is refused") {
   CHECK(s.Refused({"decline", "P00007", "--at", "2027-03-11"}) ==
         "twinprobe: the decline time 2027-03-11T00:00:00Z of P00007 is in the future (now is 2027-03-10T12:00:00Z) "
         "\u2014 check the date; record an event once it has happened\n");
+}
+
+TEST_CASE("issue 17: record and import outcomes for a probe never sent are refused, schedule lists it to send only") {
+  Refusals s;
+  CHECK(s.Refused({"record", "P00002", "invitation", "--at", "2027-03-05"}) ==
+        "twinprobe: P00002 has no sending recorded, so no response to it can have come \u2014 record the sending "
+        "first with 'twinprobe sent P00002 --at TIME' (or 'twinprobe import sendings FILE.csv' for many)\n");
+  testing::WriteFile(s.study.path + "/outcomes.csv", "probe,code,received_at\nP00002,invitation,2027-03-05\n");
+  CHECK(s.Refused({"import", "outcomes", s.study.path + "/outcomes.csv"}) ==
+        "twinprobe: " + s.study.path +
+            "/outcomes.csv:2: P00002 has no sending recorded, so no response to it can have come \u2014 record the "
+            "sending first with 'twinprobe sent P00002 --at TIME' (or 'twinprobe import sendings FILE.csv' for "
+            "many)\n");
+  // Nothing to decline, so the schedule cannot list P00002 both to decline and to send.
+  auto schedule = s.Run({"--json", "schedule"});
+  REQUIRE(schedule.exit_code == 0);
+  auto doc = nlohmann::json::parse(schedule.out);
+  CHECK(doc["declines"].empty());
+  int listed = 0;
+  for (const auto& p : doc["probes"]) listed += p["probe"] == "P00002";
+  CHECK(listed == 1);
 }
