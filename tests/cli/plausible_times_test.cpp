@@ -103,3 +103,15 @@ TEST_CASE("issue 17: record and import outcomes for a probe never sent are refus
   for (const auto& p : doc["probes"]) listed += p["probe"] == "P00002";
   CHECK(listed == 1);
 }
+
+TEST_CASE("issue 17: sent and record take an ISO 8601 offset and store the time as UTC") {
+  Refusals s;
+  auto sent = s.Run({"sent", "P00001", "--at", "2027-03-01T09:14+01:00"});
+  INFO(sent.err);
+  REQUIRE(sent.exit_code == 0);
+  CHECK(sent.out == "Marked P00001 as sent at 2027-03-01T08:14:00Z.\n" + testing::HeadLine(s.study.path));
+  auto record = s.Run({"record", "P00001", "rejection", "--at", "2027-03-04T00:30+02:00"});
+  INFO(record.err);
+  REQUIRE(record.exit_code == 0);
+  CHECK(record.out == "Recorded rejection for P00001 at 2027-03-03T22:30:00Z.\n" + testing::HeadLine(s.study.path));
+}
