@@ -67,8 +67,7 @@ nlohmann::json DeclinesJson(const DeclineCounts& d) {
           {"on_time", d.on_time},
           {"late", d.late},
           {"missing", d.missing},
-          {"within_deadline", d.within},
-          {"judged_at", FormatIsoTime(d.study_clock)}};
+          {"within_deadline", d.within}};
 }
 
 std::string DeclinesSection(const AnalysisResult& r, const ReportContext&) {

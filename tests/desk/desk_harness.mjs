@@ -3,7 +3,7 @@
 // it on a free 127.0.0.1 port, and Debian's chromium driven headless through
 // the DevTools protocol by puppeteer-core.
 import { spawn, spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, appendFileSync, rmSync, cpSync } from 'node:fs';
+import { mkdtempSync, readFileSync, appendFileSync, rmSync, cpSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, dirname } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -30,8 +30,8 @@ export function makeStudy(bin) {
 }
 
 // The mail fixture study (tests/fixtures/mail/study: 10 probes, an mbox and
-// a Maildir of invented employers' replies), planned, its mail read into the
-// review queue, with the same team.
+// a Maildir of invented employers' replies), planned, every probe sent, its
+// mail read into the review queue, with the same team.
 export function makeMailStudy(bin) {
   const dir = mkdtempSync(join(tmpdir(), 'twinprobe-desk-mail-'));
   const study = join(dir, 'mail-study');
@@ -39,6 +39,12 @@ export function makeMailStudy(bin) {
   cpSync(join(here, '..', 'fixtures', 'mail', 'study'), study, { recursive: true });
   twinprobe(bin, study, ['plan']);
   twinprobe(bin, study, ['mail']);
+  // A reviewed message is recorded only for a probe with a sending: all ten
+  // left on the schedule's first day.
+  const sendings = ['probe,sent_at'];
+  for (let i = 1; i <= 10; ++i) sendings.push(`P${String(i).padStart(5, '0')},2027-03-01`);
+  writeFileSync(join(study, 'sendings.csv'), sendings.join('\n') + '\n');
+  twinprobe(bin, study, ['import', 'sendings', join(study, 'sendings.csv')]);
   appendFileSync(join(study, 'study.toml'), '\n[team]\nmembers = ["Ada Moss", "Bo Lind"]\n');
   return { dir, study, cleanup: () => rmSync(dir, { recursive: true, force: true }) };
 }
