@@ -65,7 +65,8 @@ int RunRecord(Context& ctx, const RecordOptions& o) {
     std::cout << ".\n";
     if (!decline_by.empty())
       std::cout << DeclineReminder(v.code, v.probe_ref, *ParseIsoTime(decline_by), ethics.decline_within_hours,
-                                   "run 'twinprobe decline " + v.probe_ref + "'")
+                                   "run '" + CommandFor(ctx, "decline " + v.probe_ref) + "'",
+                                   StudyPath(ctx, kDeclineLetterPath))
                 << "\n";
   }
   return 0;

@@ -218,7 +218,8 @@ int RunReview(Context& ctx, const ReviewOptions& o) {
   std::cout << ".\n";
   if (!decline_by.empty())
     std::cout << DeclineReminder(r.code, r.probe_ref, *ParseIsoTime(decline_by), ethics.decline_within_hours,
-                                 "run 'twinprobe decline " + r.probe_ref + "'")
+                                 "run '" + CommandFor(ctx, "decline " + r.probe_ref) + "'",
+                                   StudyPath(ctx, kDeclineLetterPath))
               << "\n";
   return 0;
 }

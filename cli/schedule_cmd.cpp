@@ -10,6 +10,8 @@
 #include "cli/command.h"
 #include "collector/declines.h"
 #include "core/clock.h"
+#include "core/ethics_gate.h"
+#include "report/plural.h"
 #include "planner/materials_check.h"
 #include "planner/schedule.h"
 
@@ -36,17 +38,19 @@ nlohmann::json DeclinesJson(const std::vector<PendingDecline>& declines) {
 }
 
 // Overdue declines first, then those still within their deadline.
-void PrintDeclines(const std::vector<PendingDecline>& declines, int hours) {
+void PrintDeclines(const Context& ctx, const std::vector<PendingDecline>& declines, int hours) {
   if (declines.empty()) return;
   size_t overdue = 0;
   for (const auto& d : declines) overdue += d.overdue;
+  const std::string letter = StudyPath(ctx, kDeclineLetterPath);
+  const std::string next = CommandFor(ctx, "decline PROBE");
   if (overdue > 0)
-    std::cout << "OVERDUE: " << overdue << (overdue == 1 ? " invitation or offer" : " invitations or offers")
-              << " not declined within " << hours << " hours. Decline now with ethics/letters/decline-invitation.md, "
-              << "then run 'twinprobe decline PROBE':\n";
+    std::cout << "OVERDUE: " << Count(static_cast<int64_t>(overdue), "positive response", "positive responses")
+              << " not declined " << DeclineWithinWords(hours) << ". Decline now with " << letter << ", then run '"
+              << next << "':\n";
   else
-    std::cout << declines.size() << (declines.size() == 1 ? " invitation or offer" : " invitations or offers")
-              << " to decline (ethics/letters/decline-invitation.md, then 'twinprobe decline PROBE'):\n";
+    std::cout << Count(static_cast<int64_t>(declines.size()), "positive response", "positive responses") << " to decline ("
+              << letter << ", then '" << next << "'):\n";
   for (const auto& d : declines) {
     if (overdue > 0 && !d.overdue && &d == &declines[overdue])
       std::cout << "Still within the deadline:\n";
@@ -104,7 +108,7 @@ int RunSchedule(Context& ctx, const ScheduleOptions& o) {
               << "\n";
     return 0;
   }
-  PrintDeclines(declines, hours);
+  PrintDeclines(ctx, declines, hours);
   std::cout << probes.size() << (probes.size() == 1 ? " probe" : " probes")
             << (o.all ? " in the plan" : " to send") << (o.due.empty() ? "" : " by " + o.due)
             << " (times UTC; mark each with 'twinprobe sent PROBE --at TIME'):\n";

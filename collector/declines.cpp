@@ -28,10 +28,10 @@ std::string DeclineDeadlineWords(const std::string& code, const std::string& pro
 }
 
 std::string DeclineReminder(const std::string& code, const std::string& probe_ref, int64_t deadline,
-                            int decline_within_hours, const std::string& next_step) {
+                            int decline_within_hours, const std::string& next_step, const std::string& letter) {
   std::string words = DeclineDeadlineWords(code, probe_ref, deadline, decline_within_hours);
   words[0] = 'D';
-  return words + " with the letter in " + kDeclineLetterPath + ", then " + next_step + ".";
+  return words + " with the letter in " + letter + ", then " + next_step + ".";
 }
 
 std::string DeclineKeptSentence(const DeclineRecord& d, int decline_within_hours) {

@@ -53,10 +53,13 @@ std::string DeclineDeadlineWords(const std::string& code, const std::string& pro
 // The reminder after a positive response is recorded: "Decline the
 // invitation to P00031 by … (within 48 hours of receipt) with the letter in
 // ethics/letters/decline-invitation.md, then <next_step>." `next_step` is
-// "run 'twinprobe decline P00031'" in the commands, the Declines page on the
-// desk.
+// "run 'twinprobe --study my-study decline P00031'" in the commands, the
+// Declines page on the desk. `letter` is where the reader finds the letter:
+// the commands name it inside the study folder the user gave, the desk (whose
+// reader has no shell) keeps kDeclineLetterPath.
 std::string DeclineReminder(const std::string& code, const std::string& probe_ref, int64_t deadline,
-                            int decline_within_hours, const std::string& next_step);
+                            int decline_within_hours, const std::string& next_step,
+                            const std::string& letter = kDeclineLetterPath);
 
 // After `decline`: whether it kept the deadline, e.g. "The deadline was to
 // decline the invitation to P00031 by … (within 48 hours of receipt): kept."

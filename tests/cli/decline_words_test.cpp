@@ -26,8 +26,8 @@ TEST_CASE("decline words: record, schedule and decline say the deadline of a req
   REQUIRE(record.exit_code == 0);
   CHECK(record.out == "Recorded info_request for P00001 at 2027-03-04T10:00:00Z (positive callback).\n"
                       "Decline the request for information to P00001 by 2027-03-05T10:00:00Z (within 24 hours of "
-                      "receipt) with the letter in ethics/letters/decline-invitation.md, then run 'twinprobe decline "
-                      "P00001'.\n" +
+                      "receipt) with the letter in " + s.path + "/ethics/letters/decline-invitation.md, then run "
+                      "'twinprobe --study " + s.path + " decline P00001'.\n" +
                           testing::HeadLine(s.path));
 
   auto schedule = RunCli({"--study", s.path, "schedule", "--due", "2027-03-01"}, kNow);

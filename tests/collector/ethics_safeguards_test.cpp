@@ -56,8 +56,8 @@ TEST_CASE("ethics: recording an invitation prints the decline deadline and the l
   auto r = RunCli({"--study", s.path, "record", "P00001", "invitation", "--at", "2027-03-04T10:00"});
   REQUIRE(r.exit_code == 0);
   CHECK(r.out.find("Decline the invitation to P00001 by 2027-03-05T10:00:00Z (within 24 hours of receipt) with the "
-                   "letter in "
-                   "ethics/letters/decline-invitation.md, then run 'twinprobe decline P00001'.") != std::string::npos);
+                   "letter in " + s.path + "/ethics/letters/decline-invitation.md, then run 'twinprobe --study " +
+                   s.path + " decline P00001'.") != std::string::npos);
   auto j = nlohmann::json::parse(
       RunCli({"--study", s.path, "--json", "record", "P00002", "offer", "--at", "2027-03-06T08:00"}).out);
   CHECK(j["decline_by"] == "2027-03-07T08:00:00Z");
@@ -88,7 +88,7 @@ TEST_CASE("ethics: schedule lists overdue declines first, then those still due, 
 
   auto text = RunCli({"--study", s.path, "schedule"}, now);
   REQUIRE(text.exit_code == 0);
-  auto overdue = text.out.find("OVERDUE: 1 invitation or offer not declined within 24 hours.");
+  auto overdue = text.out.find("OVERDUE: 1 positive response not declined within 24 hours of receipt.");
   auto p1 = text.out.find("  overdue: decline the invitation to P00001 by 2027-03-05T10:00:00Z");
   auto still = text.out.find("Still within the deadline:");
   auto p2 = text.out.find("  due: decline the offer to P00002 by 2027-03-07T08:00:00Z");
@@ -113,7 +113,7 @@ TEST_CASE("ethics: schedule lists overdue declines first, then those still due, 
   REQUIRE(RunCli({"--study", s.path, "decline", "P00001", "--at", "2027-03-06T11:30"}, now).exit_code == 0);
   auto after = RunCli({"--study", s.path, "schedule"}, now);
   CHECK(after.out.find("OVERDUE") == std::string::npos);
-  CHECK(after.out.rfind("1 invitation or offer to decline", 0) == 0);
+  CHECK(after.out.rfind("1 positive response to decline", 0) == 0);
   CHECK(after.out.substr(0, after.out.find("probes to send")).find("P00001") == std::string::npos);
 }
 

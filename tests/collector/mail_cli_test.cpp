@@ -159,8 +159,8 @@ TEST_CASE("review cli: lists the queue with evidence, and records decisions as r
   CHECK(confirm.out == "Recorded invitation for " + p1 +
                            " at 2027-03-04T09:15:00Z from message 1 (confirmed as suggested), a positive callback.\n"
                            "Decline the invitation to " +
-                           p1 + " by 2027-03-05T09:15:00Z (within 24 hours of receipt) with the letter in "
-                           "ethics/letters/decline-invitation.md, then run 'twinprobe decline " +
+                           p1 + " by 2027-03-05T09:15:00Z (within 24 hours of receipt) with the letter in " + s.study +
+                           "/ethics/letters/decline-invitation.md, then run 'twinprobe --study " + s.study + " decline " +
                            p1 + "'.\n" + testing::HeadLine(s.study));
   CHECK(confirm.err.empty());
   auto assign = RunCli({"--study", s.study, "--json", "review", "10", "--probe", p11, "--code", "info_request"});
