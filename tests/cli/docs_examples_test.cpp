@@ -1,178 +1,122 @@
-// The worked examples of the docs cannot go stale: every example that shows
-// output is re-run on the real binary and compared line for line. Examples
-// on the demo study (`--study demo-study`) run on one demo built once per
-// test run. A shown line "…" stands for any number of lines, and a line
-// ending in " …" for any line that starts with the text before it, so an
-// example may show the part of a long output that the page talks about.
-// scripts/update-doc-examples PAGE rewrites a page's outputs from the binary.
+// The worked examples of the docs cannot go stale: each page's examples are
+// re-run on the real binary, in order, as one shell session, and compared
+// with what the page shows. The rules (what an example is, elisions, set-up
+// comments, refusals) live in one place, scripts/update-doc-examples, which
+// also rewrites the pages; this test runs its --check mode on each page (one
+// test case per page, so ctest runs them in parallel and names the page that
+// differs) and holds how many examples each page must have, so a page that
+// loses its examples, or a reader that stops finding them, fails here.
 #include <catch2/catch.hpp>
 
-#include <cstdlib>
-#include <map>
-#include <sstream>
+#include <array>
+#include <cstdio>
 #include <string>
-#include <vector>
+#include <sys/wait.h>
 
 #include "testing/testing.h"
 
 namespace {
 
-using twinprobe::testing::RunCli;
-
-struct Example {
-  std::string command;              // after "$ twinprobe "
-  std::vector<std::string> output;  // the lines shown after the command
+struct ScriptRun {
+  int exit_code = -1;
+  std::string out;  // standard output and standard error together
 };
 
-// Splits a command line on spaces, keeping "double-quoted" words whole.
-std::vector<std::string> Words(const std::string& line) {
-  std::vector<std::string> out;
-  std::string cur;
-  bool quoted = false, any = false;
-  for (char ch : line) {
-    if (ch == '"') quoted = !quoted, any = true;
-    else if (ch == ' ' && !quoted) {
-      if (any) out.push_back(cur);
-      cur.clear(), any = false;
-    } else cur += ch, any = true;
-  }
-  if (any) out.push_back(cur);
-  return out;
+std::string Quote(const std::string& s) {
+  std::string q = "'";
+  for (char ch : s) q += ch == '\'' ? std::string("'\\''") : std::string(1, ch);
+  return q + "'";
 }
 
-std::vector<Example> Examples(const std::string& markdown) {
-  std::vector<Example> out;
-  std::istringstream in(markdown);
-  std::string line;
-  bool in_block = false;
-  Example* current = nullptr;
-  while (std::getline(in, line)) {
-    if (line.rfind("```", 0) == 0) {
-      in_block = !in_block;
-      current = nullptr;
-      continue;
-    }
-    if (!in_block) continue;
-    if (line.rfind("$ twinprobe ", 0) == 0) {
-      out.push_back({line.substr(12), {}});
-      current = &out.back();
-    } else if (line.rfind("$ ", 0) == 0) {
-      current = nullptr;  // another shell command: not the program's output
-    } else if (current) {
-      current->output.push_back(line);
-    }
-  }
-  // A blank line before the next command separates examples; it is not output.
-  for (auto& e : out)
-    while (!e.output.empty() && e.output.back().empty()) e.output.pop_back();
-  return out;
+// Runs scripts/update-doc-examples --check on `page` (a path, relative to the
+// source tree unless absolute) with the binary under test.
+ScriptRun CheckPage(const std::string& page) {
+  const std::string source = twinprobe::testing::SourceDir();
+  const std::string cmd = "cd " + Quote(source) + " && /usr/bin/python3 scripts/update-doc-examples --check --binary " +
+                          Quote(twinprobe::testing::BinaryPath()) + " " + Quote(page) + " 2>&1";
+  ScriptRun run;
+  FILE* pipe = popen(cmd.c_str(), "r");
+  REQUIRE(pipe != nullptr);
+  std::array<char, 4096> buf{};
+  size_t n = 0;
+  while ((n = fread(buf.data(), 1, buf.size(), pipe)) > 0) run.out.append(buf.data(), n);
+  const int status = pclose(pipe);
+  run.exit_code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
+  return run;
 }
 
-std::vector<std::string> Lines(const std::string& text) {
-  std::vector<std::string> out;
-  std::istringstream in(text);
-  std::string line;
-  while (std::getline(in, line)) out.push_back(line);
-  return out;
-}
-
-const std::string kEllipsis = "\u2026";
-
-bool EndsWith(const std::string& s, const std::string& tail) {
-  return s.size() >= tail.size() && s.compare(s.size() - tail.size(), tail.size(), tail) == 0;
-}
-
-bool LineMatches(const std::string& shown, const std::string& actual) {
-  if (EndsWith(shown, " " + kEllipsis)) {
-    const std::string prefix = shown.substr(0, shown.size() - kEllipsis.size() - 1);
-    return actual.rfind(prefix, 0) == 0;
-  }
-  return shown == actual;
-}
-
-// Glob matching over lines: "…" (or "...") alone matches any run of lines.
-bool OutputMatches(const std::vector<std::string>& shown, const std::vector<std::string>& actual) {
-  // can[i][j]: shown[i..] matches actual[j..].
-  std::vector<std::vector<char>> can(shown.size() + 1, std::vector<char>(actual.size() + 1, 0));
-  can[shown.size()][actual.size()] = 1;
-  for (size_t i = shown.size(); i-- > 0;) {
-    const bool skip = shown[i] == kEllipsis || shown[i] == "...";
-    for (size_t j = actual.size() + 1; j-- > 0;) {
-      if (skip) can[i][j] = can[i + 1][j] || (j < actual.size() && can[i][j + 1]);
-      else can[i][j] = j < actual.size() && LineMatches(shown[i], actual[j]) && can[i + 1][j + 1];
-    }
-  }
-  return can[0][0];
-}
-
-std::string ReplaceAll(std::string s, const std::string& from, const std::string& to) {
-  for (size_t at = s.find(from); at != std::string::npos; at = s.find(from, at + to.size())) s.replace(at, from.size(), to);
-  return s;
-}
-
-// The demo study the pages call demo-study, built once per test run.
-const std::string& DemoStudy() {
-  static twinprobe::testing::TempDir dir;
-  static const std::string path = [] {
-    const std::string out = dir / "demo-study";
-    auto run = RunCli({"demo", "--out", out});
-    REQUIRE(run.exit_code == 0);
-    return out;
-  }();
-  return path;
-}
-
-// Runs every example of `page` that shows output; returns how many ran.
-int CheckPage(const std::string& page) {
-  const auto examples = Examples(twinprobe::testing::ReadFile(twinprobe::testing::SourceDir() + "/" + page));
-  int compared = 0;
-  for (const auto& e : examples) {
-    if (e.output.empty()) continue;  // a command shown without output
-    INFO(page << ": $ twinprobe " << e.command);
-    std::vector<std::string> args = Words(e.command);
-    // `demo --out demo-study` writes a fresh demo; `--study demo-study` reads the shared one.
-    twinprobe::testing::TempDir fresh;
-    std::string study = DemoStudy();
-    for (size_t i = 0; i < args.size(); ++i) {
-      if (args[i] == "demo" && i + 2 < args.size() && args[i + 1] == "--out") study = fresh / "demo-study";
-      args[i] = ReplaceAll(args[i], "demo-study", study);
-    }
-    auto r = RunCli(args);
-    INFO(r.err);
-    // An example showing "twinprobe: …" is a refusal: it must fail and say that on standard error.
-    const bool refusal = e.output.front().rfind("twinprobe: ", 0) == 0;
-    if (refusal) CHECK(r.exit_code != 0);
-    else CHECK(r.exit_code == 0);
-    const std::string out = ReplaceAll(refusal ? r.err : r.out, study, "demo-study");
-    INFO("printed:\n" << out);
-    CHECK(OutputMatches(e.output, Lines(out)));
-    ++compared;
-  }
-  return compared;
+void RequirePage(const std::string& page, int examples) {
+  const ScriptRun run = CheckPage(page);
+  INFO(run.out);
+  CHECK(run.exit_code == 0);
+  CHECK(run.out.find(page + ": " + std::to_string(examples) + " examples compared\n") != std::string::npos);
 }
 
 }  // namespace
 
-TEST_CASE("docs examples: the line matcher takes elisions and rejects a changed line") {
-  CHECK(OutputMatches({"a", kEllipsis, "d"}, {"a", "b", "c", "d"}));
-  CHECK(OutputMatches({"a", "...", "d"}, {"a", "d"}));
-  CHECK(OutputMatches({"x = 1 " + kEllipsis}, {"x = 1 and more"}));
-  CHECK_FALSE(OutputMatches({"a", kEllipsis, "d"}, {"a", "b", "c", "e"}));
-  CHECK_FALSE(OutputMatches({"a", "b"}, {"a", "b", "c"}));
-  CHECK_FALSE(OutputMatches({"p = 7.70e-04."}, {"p = 0.00105."}));
+TEST_CASE("docs examples: a session page runs in order and takes elisions") {
+  twinprobe::testing::TempDir dir;
+  const std::string page = dir / "page.md";
+  twinprobe::testing::WriteFile(page,
+                                "<!-- example-file: names.txt -->\n```\na\nb\nc\nd\n```\n"
+                                "```\n$ twinprobe --version > version.txt\n$ cat names.txt\na\n\u2026\nd\n"
+                                "$ head -1 names.txt && echo x = 1 and more\na\nx = 1 \u2026\n```\n");
+  const ScriptRun run = CheckPage(page);
+  INFO(run.out);
+  CHECK(run.exit_code == 0);
+  CHECK(run.out == page + ": 2 examples compared\n");
 }
 
-TEST_CASE("docs examples: every worked example with output in the pages prints exactly that") {
-  // The pages show the demo as of the end of its simulated season (2027),
-  // the time `demo` itself prints; scripts/update-doc-examples pins the same.
-  setenv("TWINPROBE_NOW", "2027-04-26T14:59:00Z", 1);
-  // The number of examples with output per page, so a page that loses its
-  // examples (or a parser that stops finding them) fails here.
-  const std::map<std::string, int> pages = {
-      {"docs/calc.md", 5}, {"docs/analyze.md", 1}, {"docs/report.md", 3}, {"docs/monitor.md", 1}, {"docs/demo.md", 1},
-      {"docs/power.md", 8}};
-  for (const auto& [page, expected] : pages) {
-    INFO(page);
-    CHECK(CheckPage(page) == expected);
-  }
+TEST_CASE("docs examples: a changed line fails and names the page line") {
+  twinprobe::testing::TempDir dir;
+  const std::string page = dir / "page.md";
+  twinprobe::testing::WriteFile(page, "```\n$ twinprobe --version >/dev/null && echo 'p = 0.00105.'\np = 7.70e-04.\n```\n");
+  const ScriptRun run = CheckPage(page);
+  CHECK(run.exit_code == 1);
+  CHECK(run.out == page + ":2: $ twinprobe --version >/dev/null && echo 'p = 0.00105.'\n" +
+                       "  the page and the program differ:\n--- shown\n+++ printed\n@@ -1 +1 @@\n-p = 7.70e-04.\n+p = 0.00105.\n" +
+                       page + ": 1 examples compared, 1 problems\n");
 }
+
+TEST_CASE("docs examples: a refusal shown as one must fail, a success must succeed") {
+  twinprobe::testing::TempDir dir;
+  const std::string page = dir / "page.md";
+  twinprobe::testing::WriteFile(page, "```\n$ twinprobe --study nowhere verify\ntwinprobe: \u2026\n$ twinprobe nosuchcommand\nok\n```\n");
+  const ScriptRun run = CheckPage(page);
+  CHECK(run.exit_code == 1);
+  CHECK(run.out.find(page + ":4: $ twinprobe nosuchcommand\n  shown as succeeding, but it exited with 2\n") != std::string::npos);
+  CHECK(run.out.find(page + ": 2 examples compared, 2 problems\n") != std::string::npos);
+}
+
+// One case per page; the number is the page's examples shown with output.
+#define DOCS_PAGE(page, examples) \
+  TEST_CASE("docs examples: " page " prints what it shows") { RequirePage(page, examples); }
+
+DOCS_PAGE("docs/analyze.md", 2)
+DOCS_PAGE("docs/calc.md", 5)
+DOCS_PAGE("docs/check.md", 4)
+DOCS_PAGE("docs/decline.md", 6)
+DOCS_PAGE("docs/demo.md", 1)
+DOCS_PAGE("docs/designs.md", 2)
+DOCS_PAGE("docs/desk.md", 1)
+DOCS_PAGE("docs/export.md", 4)
+DOCS_PAGE("docs/fetch.md", 2)
+DOCS_PAGE("docs/freeze.md", 7)
+DOCS_PAGE("docs/history.md", 2)
+DOCS_PAGE("docs/import.md", 24)
+DOCS_PAGE("docs/init.md", 3)
+DOCS_PAGE("docs/mail.md", 2)
+DOCS_PAGE("docs/monitor.md", 1)
+DOCS_PAGE("docs/offices.md", 13)
+DOCS_PAGE("docs/plan.md", 1)
+DOCS_PAGE("docs/power.md", 8)
+DOCS_PAGE("docs/purge.md", 4)
+DOCS_PAGE("docs/ranks.md", 5)
+DOCS_PAGE("docs/record.md", 10)
+DOCS_PAGE("docs/render.md", 10)
+DOCS_PAGE("docs/report.md", 3)
+DOCS_PAGE("docs/review.md", 8)
+DOCS_PAGE("docs/safety.md", 2)
+DOCS_PAGE("docs/schedule.md", 4)
+DOCS_PAGE("docs/verify.md", 7)
+DOCS_PAGE("docs/withdraw.md", 6)
