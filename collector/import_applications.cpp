@@ -63,6 +63,7 @@ Result<PairsImportSummary> ImportApplications(const std::string& store_path, con
   base.factor = factor;
   base.positive = SplitCommaList(o.positive);
   base.stages = SplitCommaList(o.stages);
+  base.covariates = SplitCommaList(o.covariates);
   if (!o.stages.empty()) {
     std::vector<std::string> sorted = base.stages;
     std::sort(sorted.begin(), sorted.end());

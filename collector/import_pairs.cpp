@@ -15,6 +15,7 @@
 #include "collector/import_support.h"
 #include "core/audit.h"
 #include "core/clock.h"
+#include "core/covariate_records.h"
 #include "core/echoed_value.h"
 #include "core/csv.h"
 #include "core/import_lock.h"
@@ -26,6 +27,7 @@
 #include "core/pseudonym.h"
 #include "core/store.h"
 #include "core/suggest.h"
+#include "core/text.h"
 
 namespace twinprobe {
 namespace {
@@ -91,6 +93,7 @@ struct Target {
   bool records = false;     // applicant records (import applications)
   bool open_codes = false;  // --positive given: any outcome value is a code, collected in pass 1
   bool staged = false;      // --stages given: the outcome is the furthest stage reached
+  std::vector<std::string> covariates;  // covariate columns (--covariates)
   // Records of an unpaired study may leave out the vacancy column; with it,
   // a vacancy holds any number of applications and is also a stratum.
   bool many_per_vacancy() const { return records && kind == "unpaired"; }
@@ -126,6 +129,22 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
   for (const auto& s : o.strata)
     if (FindColumn(kFixedColumns, s) >= 0)
       return BadInput("", "'" + s + "' is a column of its own and cannot be a stratum", "name other columns with --strata");
+  if (o.covariates.size() > kMaxCovariates)
+    return BadInput("--covariates", "names " + std::to_string(o.covariates.size()) + " columns; at most " +
+                                        std::to_string(kMaxCovariates) + " covariates are kept",
+                    "keep the job-relevant covariates the adjustment needs");
+  for (size_t i = 0; i < o.covariates.size(); ++i) {
+    const std::string& name = o.covariates[i];
+    if (FindColumn(kFixedColumns, name) >= 0 || FindColumn(o.strata, name) >= 0)
+      return BadInput("--covariates", "'" + name + "' is " +
+                                          (FindColumn(kFixedColumns, name) >= 0 ? "a column of its own" : "a stratum") +
+                                          " and cannot also be a covariate",
+                      "name other columns with --covariates");
+    for (size_t j = 0; j < i; ++j)
+      if (o.covariates[j] == name)
+        return BadInput("--covariates", "'" + name + "' is named twice", "name each covariate column once");
+  }
+  t.covariates = o.covariates;
   if (store) {
     if (auto p = ReadImportPlan(*store)) {
       if (p->origin != "import")
@@ -165,6 +184,12 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
     if (!o.stages.empty() && o.stages != MetaList(*store, "stages"))
       return BadInput("", "--stages " + Join(o.stages) + " differs from the study's stages",
                       "a later import keeps the stages of the first; leave --stages out");
+    if (o.covariates != MetaList(*store, "covariates"))
+      return BadInput("", "--covariates " + (o.covariates.empty() ? std::string("(none)") : Join(o.covariates)) +
+                              " differs from the study's covariates (" +
+                              (MetaList(*store, "covariates").empty() ? std::string("none")
+                                                                      : Join(MetaList(*store, "covariates"))) + ")",
+                      "a later import keeps the covariates of the first; give the same --covariates");
     if (!o.positive.empty() && o.positive != t.scheme.positive)
       return BadInput("", "--positive " + Join(o.positive) + " differs from the study's positive outcomes (" +
                               Join(t.scheme.positive) + ")",
@@ -230,6 +255,7 @@ struct Columns {
   size_t count = 0;
   int vacancy = -1, arm = -1, outcome = -1, sent_at = -1, responded_at = -1, probe = -1, employer = -1;
   std::vector<int> strata;
+  std::vector<int> covariates;
 };
 
 // `header` holds the role names (after --columns); `file_header` the
@@ -240,7 +266,8 @@ Result<Columns> FindColumns(const std::vector<std::string>& header, const std::v
   c.count = header.size();
   std::vector<std::string> other;
   for (size_t i = 0; i < header.size(); ++i)
-    if (FindColumn(kFixedColumns, header[i]) < 0 && FindColumn(t.strata, header[i]) < 0 && !IsRejectColumn(header[i]))
+    if (FindColumn(kFixedColumns, header[i]) < 0 && FindColumn(t.strata, header[i]) < 0 &&
+        FindColumn(t.covariates, header[i]) < 0 && !IsRejectColumn(header[i]))
       other.push_back(file_header[i]);
   for (const char* required : {"vacancy", "arm", "outcome"}) {
     if (FindColumn(header, required) >= 0) continue;
@@ -264,6 +291,14 @@ Result<Columns> FindColumns(const std::vector<std::string>& header, const std::v
                       "the stratum column '" + s + "' named in " + t.strata_source + " is missing" + DidYouMean(s, other),
                       "add the column, or name the file's stratum columns with --strata");
     c.strata.push_back(i);
+  }
+  for (const auto& name : t.covariates) {
+    int i = FindColumn(header, name);
+    if (i < 0)
+      return BadInput(path + ":1", "the covariate column '" + name + "' named by --covariates is missing" +
+                                       DidYouMean(name, other),
+                      "name one of the file's columns: " + Quoted(file_header));
+    c.covariates.push_back(i);
   }
   c.vacancy = FindColumn(header, "vacancy");
   c.arm = FindColumn(header, "arm");
@@ -338,6 +373,14 @@ std::optional<Error> CheckRow(const CsvRecord& r, const Columns& c, const Target
   for (size_t i = 0; i < c.strata.size(); ++i)
     if (r.fields[c.strata[i]].empty())
       return bad("the stratum '" + t.strata[i] + "' is empty", "fill it in (use 'unknown' if it is not known)");
+  // A missing covariate is refused rather than guessed: dropping the row
+  // would change who is compared, and any filled-in value is a claim.
+  for (size_t i = 0; i < c.covariates.size(); ++i)
+    if (Trim(r.fields[c.covariates[i]]).empty())
+      return BadInput(path + ":" + std::to_string(r.line) + ":" + std::to_string(c.covariates[i] + 1),
+                      "the covariate '" + t.covariates[i] + "' is empty",
+                      "fill it in; for a category not known write a category of its own such as 'unknown', or "
+                      "leave the row out");
   if (c.probe >= 0 && r.fields[c.probe].empty())
     return bad("the probe is empty",
                "give every row a probe reference, or leave out the probe column to number the probes P00001, P00002, …");
@@ -360,6 +403,12 @@ struct Book {
   std::vector<std::vector<int64_t>> stratum_rows;
   std::vector<int64_t> employer_rows;
   std::unordered_map<std::string, int64_t> probe_line;
+  // Per covariate: whether every good row's cell is a number, and its
+  // distinct values (kept up to one past kMaxCovariateCategories; the line
+  // of the first value past it).
+  std::vector<bool> covariate_numeric;
+  std::vector<std::unordered_set<std::string>> covariate_values;
+  std::vector<int64_t> covariate_overflow_line;
 
   uint32_t Add(const std::string& ref) {
     auto [it, inserted] = index.try_emplace(ref, static_cast<uint32_t>(bad_line.size()));
@@ -396,6 +445,9 @@ class Checker {
     book_.stratum.resize(c.strata.size());
     book_.arm_line.assign(t.arms.size(), {});
     values_.resize(c.strata.size());
+    book_.covariate_numeric.assign(c.covariates.size(), true);
+    book_.covariate_values.resize(c.covariates.size());
+    book_.covariate_overflow_line.assign(c.covariates.size(), 0);
   }
 
   // Returns an error to stop at (all-or-nothing), else records the row.
@@ -496,6 +548,14 @@ std::optional<Error> Checker::Examine(const CsvRecord& r, uint32_t& v) {
     t_.scheme.codes.push_back(r.fields[c_.outcome]);
   }
   // The row is good: remember it.
+  for (size_t i = 0; i < c_.covariates.size(); ++i) {
+    const std::string value(Trim(r.fields[c_.covariates[i]]));
+    if (!CovariateNumber(value)) book_.covariate_numeric[i] = false;
+    std::unordered_set<std::string>& seen = book_.covariate_values[i];
+    if (seen.size() <= kMaxCovariateCategories) seen.insert(value);
+    if (seen.size() > kMaxCovariateCategories && book_.covariate_overflow_line[i] == 0)
+      book_.covariate_overflow_line[i] = r.line;
+  }
   for (size_t i = 0; i < c_.strata.size(); ++i) {
     std::vector<int64_t>& rows = book_.stratum_rows[i];
     if (rows.size() <= values[i]) rows.resize(values[i] + 1, 0);
@@ -521,6 +581,27 @@ std::optional<Error> Checker::Examine(const CsvRecord& r, uint32_t& v) {
     book_.employer[v] = employer;
   }
   return std::nullopt;
+}
+
+// A categorical covariate with more categories than the model can carry is
+// refused (a numeric one may hold any number of values).
+Result<std::vector<CovariateSummary>> SummariseCovariates(const Book& book, const Target& t, const Columns& c,
+                                                          const std::string& path) {
+  std::vector<CovariateSummary> out;
+  for (size_t i = 0; i < t.covariates.size(); ++i) {
+    CovariateSummary s;
+    s.name = t.covariates[i];
+    s.numeric = book.covariate_numeric[i];
+    if (!s.numeric && book.covariate_overflow_line[i] != 0)
+      return BadInput(path + ":" + std::to_string(book.covariate_overflow_line[i]) + ":" +
+                          std::to_string(c.covariates[i] + 1),
+                      "the covariate '" + s.name + "' has more than " + std::to_string(kMaxCovariateCategories) +
+                          " categories (not every cell is a number, so it is read as categories)",
+                      "group its values into fewer categories, or write every cell as a number");
+    if (!s.numeric) s.categories = static_cast<int64_t>(book.covariate_values[i].size());
+    out.push_back(s);
+  }
+  return out;
 }
 
 void Checker::DropArm(size_t a, const std::string& reason) {
@@ -638,7 +719,7 @@ class Lander {
       : store_(store), t_(t), c_(c), arm_ids_(std::move(arm_ids)), serial_(t.next_serial),
         vacancy_id_(vacancies, 0), probes_in_(vacancies, 0),
         writer_(store, plan_id, seq, actor, at, kBatch, static_cast<int>(c.strata.size())),
-        next_vacancy_id_(writer_.next_vacancy_id()), next_probe_id_(writer_.next_probe_id()) {}
+        next_vacancy_id_(writer_.next_vacancy_id()), next_probe_id_(writer_.next_probe_id()), seq_(seq) {}
 
   void Land(const CsvRecord& r, uint32_t v, const Row& row, PairsImportSummary& summary) {
     std::string probe_ref;
@@ -663,6 +744,8 @@ class Lander {
       writer_.AddSending(probe_id, CanonicalEventText(r.fields[c_.sent_at]));
       ++summary.sendings;
     }
+    for (size_t i = 0; i < c_.covariates.size(); ++i)
+      covariates_.push_back({probe_id, i, std::string(Trim(r.fields[c_.covariates[i]]))});
     writer_.AddResponse(probe_id, r.fields[c_.outcome],
                         row.responded ? CanonicalEventText(r.fields[c_.responded_at]) : std::string(), row.late);
     writer_.EndProbe();
@@ -670,8 +753,14 @@ class Lander {
     ++summary.rows_landed;
   }
 
-  // Writes what is buffered, parents before children.
-  void Finish() { writer_.Finish(); }
+  // Writes what is buffered, parents before children: the covariates after
+  // the probes they refer to.
+  void Finish() {
+    writer_.Finish();
+    if (covariates_.empty()) return;
+    CovariateWriter covariates(store_, seq_);
+    for (const PendingCovariate& p : covariates_) covariates.Add(p.probe_id, t_.covariates[p.index], p.value);
+  }
 
  private:
   std::string EmployerOf(const CsvRecord& r) {
@@ -695,6 +784,13 @@ class Lander {
   PairsWriter writer_;
   int64_t next_vacancy_id_, next_probe_id_;
   std::unordered_map<std::string, std::string> employer_keys_;
+  struct PendingCovariate {
+    int64_t probe_id;
+    size_t index;
+    std::string value;
+  };
+  std::vector<PendingCovariate> covariates_;
+  int64_t seq_;
 };
 
 // The design a new imported plan is stored with.
@@ -825,6 +921,9 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
   }
   if (auto err = checker.Finish(o)) return *err;
   Book& book = checker.book();
+  auto covariates = SummariseCovariates(book, t, c, path);
+  if (!covariates.ok()) return covariates.error();
+  summary.covariates = covariates.value();
   summary.near_duplicates = NearDuplicatesOf(book, t);
   bool any_good = false;
   for (size_t v = 0; v < book.bad_line.size() && !any_good; ++v)
@@ -857,6 +956,7 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
       // What the rows are: the report words a study of records differently.
       if (o.records) StoreMetaValue(*store, write->seq(), "data", "applications");
       if (!o.stages.empty()) StoreMetaValue(*store, write->seq(), "stages", Join(o.stages, ","));
+      if (!t.covariates.empty()) StoreMetaValue(*store, write->seq(), "covariates", Join(t.covariates, ","));
       summary.new_plan = true;
     }
     summary.plan_id = plan_id;
