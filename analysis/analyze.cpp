@@ -156,6 +156,7 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   r.stages = ComputeHiringStages(stored.stages, effects_in.arm_labels, reading.code_counts, r.correction, r.confidence);
   r.k_levels = AnalyzeKLevels(KLevelInputFor(effects_in, stored, current_design));
   if (r.kind != "unpaired") r.adjusted = FitAdjustedModel(LaidOutSets(f, reading.layout), effects_in.arm_labels, r.confidence);
+  r.covariate_model = FitCovariateModel(reading.covariates, effects_in.arm_labels, scheme, r.confidence);
   r.design = SummariseDesign(f, stored);
   r.response_times = ComputeResponseTimes(f, scheme);
   r.employers = paired ? SummariseEmployers(f.employers) : EmployerOutcomes{};

@@ -13,6 +13,7 @@ StudyReading ReadStudy(Store& store, const OutcomeScheme& scheme, const Fieldwor
   r.listings = ReadListings(store);
   if (!r.design.stages.empty()) r.code_counts = ReadCodeCounts(store);
   r.layout = ReadProbeLayout(store);
+  r.covariates = ReadCovariates(store);
   return r;
 }
 

@@ -6,6 +6,7 @@
 // store.
 #include <optional>
 
+#include "core/covariate_records.h"
 #include "core/design.h"
 #include "core/fieldwork.h"
 #include "core/probe_layout.h"
@@ -29,6 +30,7 @@ struct StudyReading {
   // Template and send position of every probe (the adjusted model); the
   // fieldwork's `completed` sets carry the outcomes it is joined with.
   ProbeLayouts layout;
+  CovariateTable covariates;  // imported with --covariates (core/covariate_records.h); empty names otherwise
 };
 
 // `scheme` decides which response codes are positive (the design's scheme

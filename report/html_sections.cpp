@@ -1,6 +1,7 @@
 #include "report/html_sections.h"
 
 #include "report/fieldwork_state.h"
+#include "report/covariate_model_report.h"
 #include "report/stages_report.h"
 
 namespace twinprobe {
@@ -24,6 +25,7 @@ bool HasPairedFindings(const AnalysisResult& r) { return r.has_paired && HasFind
 bool HasStages(const AnalysisResult& r) { return r.stages.present && HasFindings(r); }
 bool HasKLevels(const AnalysisResult& r) { return r.k_levels.present && HasFindings(r); }
 bool HasAdjusted(const AnalysisResult& r) { return r.adjusted.present && HasFindings(r); }
+bool HasCovariateModel(const AnalysisResult& r) { return r.covariate_model.present && HasFindings(r); }
 bool HasEmployerSets(const AnalysisResult& r) { return r.employer_sets.available && HasFindings(r); }
 
 }  // namespace
@@ -41,6 +43,7 @@ const std::vector<HtmlSection>& HtmlSections() {
       {"stages", "Hiring stages", &HasStages, {&StagesFunnel}},
       {"levels", "Every level compared", &HasKLevels, {&LevelTests, &LevelPairs, &TwoFactorTable}},
       {"adjusted", "Adjusted for template and send position", &HasAdjusted, {&AdjustedTable}},
+      {"covariates", "Adjusted for the applications' covariates", &HasCovariateModel, {&CovariateModelPart}},
       {"responses", "What came back, and how fast", &HasFindings, {&ResponseCodes, &ResponseTimesChart}},
       {"employers", "Employers (by pseudonym)", &HasEmployers, {&EmployerTable}},
       {"employers-sets", "Employers (by pseudonym)", &HasEmployerSets, {&EmployerSetsTable}},

@@ -14,6 +14,7 @@
 #include "report/stages_report.h"
 #include "report/employer_flip_text.h"
 #include "report/adjusted_model_report.h"
+#include "report/covariate_model_report.h"
 #include "report/k_level_report.h"
 #include "report/plain_summary.h"
 
@@ -389,6 +390,7 @@ void FindingsBlock(std::ostringstream& o, const AnalysisResult& r) {
   o << RenderEffectsText(r);
   o << RenderStagesText(r);
   o << RenderAdjustedText(r);
+  o << RenderCovariateModelText(r);
   o << RenderKLevelText(r);
 }
 
