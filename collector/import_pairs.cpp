@@ -94,6 +94,7 @@ struct Target {
   bool open_codes = false;  // --positive given: any outcome value is a code, collected in pass 1
   bool staged = false;      // --stages given: the outcome is the furthest stage reached
   std::vector<std::string> covariates;  // covariate columns (--covariates)
+  std::vector<std::string> stage_names;  // the hiring stages in order (--stages, or the study's)
   // Records of an unpaired study may leave out the vacancy column; with it,
   // a vacancy holds any number of applications and is also a stratum.
   bool many_per_vacancy() const { return records && kind == "unpaired"; }
@@ -181,6 +182,7 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
     }
     t.strata = stored;
     t.strata_source = "the study (set by its first import)";
+    t.stage_names = MetaList(*store, "stages");
     if (!o.stages.empty() && o.stages != MetaList(*store, "stages"))
       return BadInput("", "--stages " + Join(o.stages) + " differs from the study's stages",
                       "a later import keeps the stages of the first; leave --stages out");
@@ -224,6 +226,7 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
     t.scheme = SchemeWithoutDesign();
     if (!o.stages.empty()) {
       t.staged = true;
+      t.stage_names = o.stages;
       t.scheme.codes = o.stages;
       t.scheme.positive = o.positive.empty() ? std::vector<std::string>(o.stages.begin() + 1, o.stages.end()) : o.positive;
       for (const std::string& value : t.scheme.positive)
@@ -256,6 +259,9 @@ struct Columns {
   int vacancy = -1, arm = -1, outcome = -1, sent_at = -1, responded_at = -1, probe = -1, employer = -1;
   std::vector<int> strata;
   std::vector<int> covariates;
+  // Stages as one yes/no column each (every stage names a column): the
+  // outcome is derived, appended to each record as field `outcome`.
+  std::vector<int> stage_columns;
 };
 
 // `header` holds the role names (after --columns); `file_header` the
@@ -264,13 +270,26 @@ Result<Columns> FindColumns(const std::vector<std::string>& header, const std::v
                             Target& t, const std::string& path, std::vector<std::string>& ignored) {
   Columns c;
   c.count = header.size();
+  // --stages naming a column each: per-stage yes/no flags, not one ordered
+  // outcome column.
+  bool flags = !t.stage_names.empty();
+  for (const auto& stage : t.stage_names) flags = flags && FindColumn(header, stage) >= 0;
+  if (flags) {
+    if (FindColumn(header, "outcome") >= 0)
+      return BadInput(path + ":1", "the file has an outcome column and a column for every stage",
+                      "keep one of the two: the stage columns (yes/no each) or the outcome column (the furthest "
+                      "stage reached), and leave the other out of the file or of --columns");
+    for (const auto& stage : t.stage_names) c.stage_columns.push_back(FindColumn(header, stage));
+  }
   std::vector<std::string> other;
   for (size_t i = 0; i < header.size(); ++i)
     if (FindColumn(kFixedColumns, header[i]) < 0 && FindColumn(t.strata, header[i]) < 0 &&
-        FindColumn(t.covariates, header[i]) < 0 && !IsRejectColumn(header[i]))
+        FindColumn(t.covariates, header[i]) < 0 && !IsRejectColumn(header[i]) &&
+        std::find(c.stage_columns.begin(), c.stage_columns.end(), static_cast<int>(i)) == c.stage_columns.end())
       other.push_back(file_header[i]);
   for (const char* required : {"vacancy", "arm", "outcome"}) {
     if (FindColumn(header, required) >= 0) continue;
+    if (std::string(required) == "outcome" && flags) continue;  // derived from the stage columns
     if (std::string(required) == "vacancy" && t.many_per_vacancy()) continue;  // each row is its own
     if (t.records)
       return BadInput(path + ":1", std::string("the column '") + required + "' is missing" + DidYouMean(required, other),
@@ -302,7 +321,7 @@ Result<Columns> FindColumns(const std::vector<std::string>& header, const std::v
   }
   c.vacancy = FindColumn(header, "vacancy");
   c.arm = FindColumn(header, "arm");
-  c.outcome = FindColumn(header, "outcome");
+  c.outcome = flags ? static_cast<int>(header.size()) : FindColumn(header, "outcome");
   c.sent_at = FindColumn(header, "sent_at");
   c.responded_at = FindColumn(header, "responded_at");
   c.probe = FindColumn(header, "probe");
@@ -324,6 +343,50 @@ std::string OutcomeFix(const Target& t) {
 std::string VacancyKey(const CsvRecord& r, const Columns& c) {
   if (c.vacancy >= 0) return r.fields[c.vacancy];
   return "\x01" + std::to_string(r.line);
+}
+
+// A stage column's cell: one rule for every file. Yes: 1, yes, y, true;
+// no: 0, no, n, false (any case, spaces around allowed).
+std::optional<bool> StageFlag(std::string_view cell) {
+  const std::string v = Lower(Trim(cell));
+  if (v == "1" || v == "yes" || v == "y" || v == "true") return true;
+  if (v == "0" || v == "no" || v == "n" || v == "false") return false;
+  return std::nullopt;
+}
+
+// With stage columns: appends the furthest stage the row reached as its
+// outcome field. Refuses a cell that is not yes or no, a row that reached no
+// stage, and a row that passed a stage without the one before it.
+std::optional<Error> AppendStageOutcome(CsvRecord& r, const Columns& c, const Target& t, const std::string& path) {
+  Status count = CheckFieldCount(r, c.count, path);
+  if (!count.ok()) return count.error();
+  auto at = [&](size_t k) {
+    return path + ":" + std::to_string(r.line) + ":" + std::to_string(c.stage_columns[k] + 1);
+  };
+  int furthest = -1, first_no = -1;
+  for (size_t k = 0; k < c.stage_columns.size(); ++k) {
+    const std::string& cell = r.fields[static_cast<size_t>(c.stage_columns[k])];
+    auto flag = StageFlag(cell);
+    if (!flag)
+      return BadInput(at(k), "the stage '" + t.stage_names[k] + "' holds '" + Echoed(cell) + "', not yes or no",
+                      "write 1, yes, y or true when the application reached the stage, and 0, no, n or false when not");
+    if (!*flag) {
+      if (first_no < 0) first_no = static_cast<int>(k);
+      continue;
+    }
+    if (first_no >= 0)
+      return BadInput(at(static_cast<size_t>(first_no)),
+                      "the application reached '" + t.stage_names[k] + "' but not '" +
+                          t.stage_names[static_cast<size_t>(first_no)] + "' before it",
+                      "a stage is reached through every stage before it: correct the '" +
+                          t.stage_names[static_cast<size_t>(first_no)] + "' cell or the '" + t.stage_names[k] + "' cell");
+    furthest = static_cast<int>(k);
+  }
+  if (furthest < 0)
+    return BadInput(at(0), "the application reached no stage, not even '" + t.stage_names[0] + "'",
+                    "every application reached the first stage; write yes there, or leave the row out");
+  r.fields.push_back(t.stage_names[static_cast<size_t>(furthest)]);
+  return std::nullopt;
 }
 
 // One row's values, checked on their own (cross-row checks come after).
@@ -454,7 +517,14 @@ class Checker {
   std::optional<Error> Take(const CsvRecord& r) {
     ++rows_;
     uint32_t v = kNone;
-    auto err = Examine(r, v);
+    std::optional<Error> err;
+    if (c_.stage_columns.empty()) {
+      err = Examine(r, v);
+    } else {
+      staged_ = r;
+      err = AppendStageOutcome(staged_, c_, t_, path_);
+      if (!err) err = Examine(staged_, v);
+    }
     if (!err) return std::nullopt;
     if (!skip_bad_) return err;
     bad_.push_back({r.line, err->what});
@@ -483,11 +553,12 @@ class Checker {
   Book book_;
   std::vector<BadRow> bad_;
   std::vector<uint32_t> values_;  // the current row's strata value ids
+  CsvRecord staged_;              // the current row with its derived outcome (stage columns)
   int64_t rows_ = 0;
 };
 
 std::optional<Error> Checker::Examine(const CsvRecord& r, uint32_t& v) {
-  Status count = CheckFieldCount(r, c_.count, path_);
+  Status count = CheckFieldCount(r, c_.count + (c_.stage_columns.empty() ? 0 : 1), path_);
   if (!count.ok()) return count.error();
   const std::string ref = VacancyKey(r, c_);
   if (ref.empty()) return At(r.line, "the vacancy is empty", "give every row the reference of its vacancy");
@@ -974,7 +1045,7 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
     if (o.progress) bar = std::make_unique<Progress>("importing " + path, file_bytes, Progress::Unit::kBytes);
     const std::vector<BadRow>& bad = checker.bad_rows();
     size_t next_bad = 0;
-    CsvRecord r;
+    CsvRecord r, staged;
     Row row;
     while (pass2.Next(r)) {
       if (bar) bar->Update(pass2.bytes_consumed());
@@ -984,7 +1055,14 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
       } else {
         const std::string ref = VacancyKey(r, c);
         auto it = book.index.find(ref);
-        if (it == book.index.end() || CheckRow(r, c, t, path, row) || row.arm < 0)
+        const CsvRecord* use = &r;
+        if (!c.stage_columns.empty()) {
+          staged = r;
+          if (AppendStageOutcome(staged, c, t, path))
+            return Internal("import pairs: " + path + ":" + std::to_string(r.line) + " changed between the two passes");
+          use = &staged;
+        }
+        if (it == book.index.end() || CheckRow(*use, c, t, path, row) || row.arm < 0)
           return Internal("import pairs: " + path + ":" + std::to_string(r.line) + " changed between the two passes");
         uint32_t v = it->second;
         if (book.bad_line[v] != 0)
@@ -994,7 +1072,7 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
                                            t.arms[static_cast<size_t>(book.missing_arm[v])] + "'",
                                r.fields);
         else
-          lander->Land(r, v, row, summary);
+          lander->Land(*use, v, row, summary);
       }
       if (!status.ok()) return status.error();
     }
