@@ -5,6 +5,7 @@
 // rows, the intervals and the test of the group term.
 #include <catch2/catch.hpp>
 
+#include <algorithm>
 #include <cmath>
 #include <map>
 #include <sstream>
@@ -22,6 +23,7 @@ namespace {
 struct Drawn {
   CovariateTable table;
   std::string tsv;  // one row per application, for R
+  std::vector<std::string> groups;
 };
 
 // Three groups (reference "north"), years of experience (whole numbers, so
@@ -33,6 +35,7 @@ Drawn DrawApplications(uint64_t seed, int n) {
   const std::vector<std::string> degrees = {"vocational", "bachelor", "master", "none"};
   const std::vector<double> degree_effect = {0.3, 0.6, 0.8, 0};
   std::map<std::vector<std::string>, int64_t> counts;
+  std::vector<std::string> appearance;
   std::ostringstream tsv;
   tsv << "group\ty\texperience\tdegree\n";
   for (int i = 0; i < n; ++i) {
@@ -41,12 +44,16 @@ Drawn DrawApplications(uint64_t seed, int n) {
     const int k = static_cast<int>(rng.Between(0, 3));
     const double eta = -1.4 - 0.6 * (g == 1) - 0.2 * (g == 2) + 0.07 * years + degree_effect[static_cast<size_t>(k)];
     const bool positive = rng.Bernoulli(1 / (1 + std::exp(-eta)));
+    appearance.push_back(groups[static_cast<size_t>(g)]);
     ++counts[{groups[static_cast<size_t>(g)], positive ? "invited" : "declined", std::to_string(years),
               degrees[static_cast<size_t>(k)]}];
     tsv << groups[static_cast<size_t>(g)] << "\t" << (positive ? 1 : 0) << "\t" << years << "\t"
         << degrees[static_cast<size_t>(k)] << "\n";
   }
   Drawn d;
+  d.groups = {"north"};  // the reference, then the others as they first appear (the importer's order)
+  for (const std::string& line : appearance)
+    if (std::find(d.groups.begin(), d.groups.end(), line) == d.groups.end()) d.groups.push_back(line);
   d.table.names = {"experience", "degree"};
   for (const auto& [key, count] : counts) d.table.patterns.push_back({key[0], key[1], {key[2], key[3]}, count});
   d.tsv = tsv.str();
@@ -66,7 +73,7 @@ void Near(double ours, double theirs, double rel) { CHECK_THAT(ours, WithinRel(t
 
 TEST_CASE("covariate model: 600 applications, three groups, a number and a category, agree with R glm") {
   const Drawn d = DrawApplications(20261202, 600);
-  const CovariateModel m = FitCovariateModel(d.table, {"north", "east", "west"}, Invited(), 0.95);
+  const CovariateModel m = FitCovariateModel(d.table, d.groups, Invited(), 0.95);
   REQUIRE(m.present);
   REQUIRE(m.failure.empty());
   CHECK(m.applications == 600);
@@ -77,9 +84,11 @@ TEST_CASE("covariate model: 600 applications, three groups, a number and a categ
   CHECK(m.covariates[1].categories == std::vector<std::string>{"bachelor", "master", "none", "vocational"});
   std::vector<std::string> names;
   for (const CovariateTerm& t : m.terms) names.push_back(t.name);
-  // R: names(coef(fit)) are (Intercept), groupeast, groupwest, experience,
-  // degreemaster, degreenone, degreevocational: the same columns in the same order.
-  CHECK(names == std::vector<std::string>{"(Intercept)", "group: east", "group: west", "experience", "degree: master",
+  // R: names(coef(fit)) are (Intercept), groupwest, groupeast, experience,
+  // degreemaster, degreenone, degreevocational: the same columns in the same
+  // order ("west" appears before "east" in this draw).
+  CHECK(d.groups == std::vector<std::string>{"north", "west", "east"});
+  CHECK(names == std::vector<std::string>{"(Intercept)", "group: west", "group: east", "experience", "degree: master",
                                           "degree: none", "degree: vocational"});
   auto r = testing::RunRScript("covariate_glm.R", d.tsv, "0.95 north");
   REQUIRE(r["coef"].size() == m.terms.size());

@@ -5,7 +5,8 @@
 # column per covariate under its own name. A covariate whose every value is a
 # number is numeric; any other is a factor with its levels in byte order
 # (sort(method = "radix"), the C locale's order, whatever R's locale), the
-# first being the baseline; group is a factor with REFERENCE first.
+# first being the baseline; group is a factor with REFERENCE first, then the
+# other groups in order of first appearance (the importer's order).
 # The model: glm(y ~ group + covariates, family = binomial) fitted until the
 # deviance repeats exactly (epsilon = 1e-30; glm's default 1e-8 leaves about
 # 1e-6 in the coefficients). Profile limits of the group terms: uniroot(tol =
@@ -18,8 +19,8 @@ args <- commandArgs(trailingOnly = TRUE)
 d <- read.delim(args[1], colClasses = "character")
 conf <- as.numeric(args[3])
 ref <- args[4]
-groups <- unique(d$group)
-d$group <- factor(d$group, levels = c(ref, sort(setdiff(groups, ref), method = "radix")))
+# The importer's order: the reference, then the others as they first appear.
+d$group <- factor(d$group, levels = c(ref, setdiff(unique(d$group), ref)))
 d$y <- as.integer(d$y)
 covs <- setdiff(names(d), c("group", "y"))
 for (v in covs) {
