@@ -141,8 +141,8 @@ void RegisterImportApplications(CLI::App& import, Context& ctx) {
   cmd->add_option("--positive", o->import.positive,
                   "Outcome values that count as positive, e.g. yes,invited (default: 1, or the default response codes)");
   cmd->add_option("--stages", o->import.stages,
-                  "Hiring stages in order, e.g. applied,screened,interview,offer,hire; the outcome column holds the "
-                  "furthest stage each application reached");
+                  "Hiring stages in order, e.g. applied,screened,interview,offer,hire: either one yes/no column per "
+                  "stage (1/0, yes/no, y/n, true/false) or an outcome column holding the furthest stage reached");
   cmd->add_option("--covariates", o->import.covariates,
                   "Columns kept with each application for the adjusted odds ratio, e.g. years,degree (a column "
                   "whose every cell is a number is numeric, else categorical; empty cells are refused)");

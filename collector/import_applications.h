@@ -27,7 +27,7 @@ struct ApplicationsImportOptions {
   std::string columns;    // --columns arm=group,outcome=invited,vacancy=req_id
   std::string factor;     // --factor NAME (default "group")
   std::string positive;   // --positive yes,invited (comma-separated)
-  std::string stages;     // --stages applied,screened,interview,offer,hire (the outcome: furthest stage reached)
+  std::string stages;     // --stages applied,screened,interview,offer,hire: a yes/no column per stage, or the outcome is the furthest stage reached
   std::string covariates;  // --covariates years,degree (the file's column names)
   PairsImportOptions base;  // strata, reference, skip_bad, rejects, id, progress
 };

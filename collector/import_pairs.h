@@ -59,7 +59,10 @@ struct PairsImportOptions {
   std::vector<std::string> positive;
   // Hiring stages in order: the outcome is the furthest stage reached, so
   // the codes are exactly these (positive: --positive, else every stage
-  // after the first). Stored for the stage analysis.
+  // after the first). Stored for the stage analysis. When every stage names
+  // a column of the file, those columns are yes/no flags (1/0, yes/no, y/n,
+  // true/false, any case) and the outcome is the last stage flagged yes; a
+  // row flagged yes at a stage after a no is refused.
   std::vector<std::string> stages;
   // Covariate columns kept with each application (the file's names, after
   // --columns), for the adjusted logistic model. Every cell must be filled;

@@ -1,0 +1,203 @@
+// `import applications` as an HR department would use it: its own column
+// names, five hiring stages as yes/no columns, two covariates kept with each
+// application, then `analyze`: every number of the adjusted model and of the
+// stages checked against R run live on the same applications.
+#include <catch2/catch.hpp>
+
+#include <cmath>
+#include <filesystem>
+#include <sstream>
+
+#include <nlohmann/json.hpp>
+
+#include "stats/r_eval.h"
+#include "stats/r_run.h"
+#include "stats/random.h"
+#include "testing/testing.h"
+
+using namespace twinprobe;
+using Catch::Matchers::WithinAbs;
+using Catch::Matchers::WithinRel;
+using testing::RunCli;
+
+namespace {
+
+const char* const kStages[] = {"Applied", "Screened", "Interviewed", "Offered", "Hired"};
+
+struct HrFile {
+  std::string csv;  // as the HR system exports it
+  std::string tsv;  // for R: group, y (reached beyond Applied), the covariates; then the furthest stage
+};
+
+// 2,000 applications in 120 requisitions, three groups, years of experience
+// and a degree, each stage passed with a probability from a logistic model.
+// Yes and no are spelled as exports do (yes, Yes, 1 / no, No, 0).
+HrFile DrawHrFile(uint64_t seed) {
+  stats::Rng rng(seed);
+  const char* const groups[] = {"Group A", "Group B", "Group C"};
+  const double group_effect[] = {0, -0.4, -0.2};
+  const char* const degrees[] = {"none", "vocational", "bachelor", "master"};
+  const double degree_effect[] = {0, 0.2, 0.5, 0.6};
+  const double stage_shift[] = {0, -1.0, -1.5, 0.5};
+  const char* const yes[] = {"yes", "Yes", "1"};
+  const char* const no[] = {"no", "No", "0"};
+  std::ostringstream csv, tsv;
+  csv << "Requisition,Candidate group,Years experience,Highest degree,Applied,Screened,Interviewed,Offered,Hired\n";
+  tsv << "group\ty\tYears experience\tHighest degree\tstage\n";
+  for (int i = 0; i < 2000; ++i) {
+    const int64_t req = rng.Between(1, 120);
+    const size_t g = static_cast<size_t>(rng.Between(0, 2));
+    const int64_t years = rng.Between(0, 25);
+    const size_t k = static_cast<size_t>(rng.Between(0, 3));
+    const double base = -0.3 + 0.05 * static_cast<double>(years) + degree_effect[k] + group_effect[g];
+    int reached = 0;  // index of the furthest stage
+    while (reached < 4 && rng.Uniform() < 1 / (1 + std::exp(-(base + stage_shift[reached])))) ++reached;
+    char ref[16];
+    std::snprintf(ref, sizeof ref, "REQ-%04lld", static_cast<long long>(req));
+    csv << ref << "," << groups[g] << "," << years << "," << degrees[k];
+    for (int s = 0; s < 5; ++s) csv << "," << (s <= reached ? yes[rng.Between(0, 2)] : no[rng.Between(0, 2)]);
+    csv << "\n";
+    tsv << groups[g] << "\t" << (reached > 0 ? 1 : 0) << "\t" << years << "\t" << degrees[k] << "\t" << reached + 1
+        << "\n";
+  }
+  return {csv.str(), tsv.str()};
+}
+
+std::vector<std::string> ImportArgs(const std::string& study, const std::string& file) {
+  return {"--study", study, "import", "applications", file, "--kind", "unpaired",
+          "--columns", "vacancy=Requisition,arm=Candidate group", "--reference", "Group A",
+          "--stages", "Applied,Screened,Interviewed,Offered,Hired",
+          "--covariates", "Years experience,Highest degree"};
+}
+
+void Near(double ours, double theirs, double rel) { CHECK_THAT(ours, WithinRel(theirs, rel) || WithinAbs(theirs, 1e-10)); }
+
+}  // namespace
+
+TEST_CASE("import applications: an HR file of 2000 applications with stage columns and covariates agrees with R") {
+  testing::TempDir dir;
+  const HrFile hr = DrawHrFile(20261202);
+  const std::string file = dir / "hr_export.csv";
+  testing::WriteFile(file, hr.csv);
+  const std::string study = dir / "hr";
+  auto r = RunCli(ImportArgs(study, file));
+  REQUIRE(r.exit_code == 0);
+  CHECK(r.err.empty());
+  CHECK(r.out == "Created an unpaired study of applications from " + file +
+                     ": 2000 applications in 120 vacancies; group Group A (reference) compared with Group B and Group "
+                     "C; a positive outcome is Screened, Interviewed, Offered and Hired; strata vacancy; covariates "
+                     "Years experience (numeric) and Highest degree (categorical, 4 categories).\nNext: twinprobe "
+                     "--study " + study + " analyze\n" + testing::HeadLine(study));
+  auto a = RunCli({"--study", study, "--json", "analyze"});
+  REQUIRE(a.exit_code == 0);
+  const nlohmann::json j = nlohmann::json::parse(a.out);
+
+  // The adjusted model against glm(y ~ group + Years.experience +
+  // Highest.degree, family = binomial) on the same applications.
+  const auto& m = j["covariate_model"];
+  CHECK(m["applications"] == 2000);
+  CHECK(m["covariates"][1]["baseline"] == "bachelor");
+  auto ref = testing::RunRScript("covariate_glm.R", hr.tsv.substr(0, 0) + [&] {
+    // covariate_glm.R reads group, y and the covariates only.
+    std::istringstream in(hr.tsv);
+    std::ostringstream out;
+    for (std::string line; std::getline(in, line);) out << line.substr(0, line.rfind('\t')) << "\n";
+    return out.str();
+  }(), "0.95 'Group A'");
+  const auto& terms = m["terms"];
+  REQUIRE(terms.size() == ref["coef"].size());
+  Near(m["deviance"].get<double>(), ref["deviance"][0], 1e-10);            // deviance(glm(...))
+  Near(m["null_deviance"].get<double>(), ref["null_deviance"][0], 1e-10);  // glm(...)$null.deviance
+  CHECK(m["df_residual"] == ref["df"][0]);                                 // glm(...)$df.residual
+  for (size_t t = 0; t < terms.size(); ++t) {
+    INFO("term " << terms[t]["term"]);
+    Near(terms[t]["coefficient"].get<double>(), ref["coef"][t], 1e-8);     // coef(glm(...))
+    Near(terms[t]["standard_error"].get<double>(), ref["se"][t], 1e-8);    // summary(glm(...))$coefficients[, 2]
+    Near(terms[t]["p_wald"].get<double>(), ref["p"][t], 1e-8);             // ... [, 4]
+    Near(terms[t]["wald_conf_int"][0].get<double>(), std::exp(ref["wald_low"][t]), 1e-8);  // exp(confint.default(glm(...)))
+    Near(terms[t]["wald_conf_int"][1].get<double>(), std::exp(ref["wald_high"][t]), 1e-8);
+  }
+  CHECK(terms[1]["term"] == "group: Group B");  // the importer's order: the reference, then as they first appear
+  for (size_t g = 0; g < 2; ++g) {
+    const auto& t = terms[1 + g];
+    // uniroot(tol = 1e-12) on glm's profile deviance
+    Near(t["profile_conf_int"][0].get<double>(), std::exp(ref["profile_low"][g]), 1e-8);
+    Near(t["profile_conf_int"][1].get<double>(), std::exp(ref["profile_high"][g]), 1e-8);
+  }
+  // anova(glm(y ~ Years.experience + Highest.degree), glm(y ~ group + ...), test = "LRT")
+  Near(m["group_test"]["lr_statistic"].get<double>(), ref["lr"][0], 1e-8);
+  CHECK(m["group_test"]["df"] == 2);
+  Near(m["group_test"]["p"].get<double>(), ref["lr"][2], 1e-8);
+
+  // The stages, derived from the yes/no columns, against fisher.test on the
+  // furthest stage each application reached.
+  const std::string tsv_path = dir / "hr.tsv";
+  testing::WriteFile(tsv_path, hr.tsv);
+  auto fisher = testing::RunR(
+      "d <- read.delim('" + tsv_path + "', check.names = FALSE)\n"
+      "out <- c()\n"
+      "for (k in 2:5) for (g in setdiff(unique(d$group), 'Group A')) {\n"
+      "  a <- d[d$group == 'Group A', ]; o <- d[d$group == g, ]\n"
+      "  ra <- sum(a$stage >= k); ro <- sum(o$stage >= k); pa <- sum(a$stage >= k - 1); po <- sum(o$stage >= k - 1)\n"
+      "  all <- fisher.test(matrix(c(ro, ra, nrow(o) - ro, nrow(a) - ra), 2))$p.value\n"
+      "  prev <- fisher.test(matrix(c(ro, ra, po - ro, pa - ra), 2))$p.value\n"
+      "  out <- c(out, ra, ro, pa, po, all, prev)\n"
+      "}\n"
+      "cat(format(out, digits = 17), sep = '\\n')\n");
+  REQUIRE(fisher.ok);
+  REQUIRE(fisher.values.size() == 48);
+  const auto& stages = j["stages"]["stages"];
+  REQUIRE(stages.size() == 5);
+  for (size_t k = 1; k < 5; ++k) {
+    INFO("stage " << stages[k]["stage"]);
+    CHECK(stages[k]["stage"] == kStages[k]);
+    for (size_t g = 0; g < 2; ++g) {
+      const double* e = &fisher.values[((k - 1) * 2 + g) * 6];
+      CHECK(stages[k]["groups"][0]["reached"] == e[0]);            // sum(a$stage >= k)
+      CHECK(stages[k]["groups"][1 + g]["reached"] == e[1]);        // sum(o$stage >= k)
+      CHECK(stages[k]["groups"][0]["at_previous_stage"] == e[2]);  // sum(a$stage >= k - 1)
+      CHECK(stages[k]["groups"][1 + g]["at_previous_stage"] == e[3]);
+      CHECK_THAT(stages[k]["tests"][g]["p_among_all"].get<double>(), WithinRel(e[4], 1e-9));       // fisher.test(...)$p.value
+      CHECK_THAT(stages[k]["tests"][g]["p_among_previous"].get<double>(), WithinRel(e[5], 1e-9));  // fisher.test(...)$p.value
+    }
+  }
+}
+
+TEST_CASE("import applications: bad covariate and stage cells name FILE:LINE:COL and leave no store") {
+  testing::TempDir dir;
+  const std::string study = dir / "hr";
+  auto run = [&](const std::string& body) {
+    const std::string file = dir / "bad.csv";
+    testing::WriteFile(file, "Requisition,Candidate group,Years experience,Highest degree,Applied,Screened,Interviewed,"
+                             "Offered,Hired\nREQ-1,Group A,4,master,yes,yes,no,no,no\nREQ-1,Group B,7,none,yes,no,no,no,no\n" +
+                                 body);
+    auto r = RunCli(ImportArgs(study, file));
+    CHECK(r.exit_code == 1);
+    CHECK(r.out.empty());
+    CHECK_FALSE(std::filesystem::exists(dir / "hr/study.db"));
+    return r.err.substr(0, r.err.find(file)) + "FILE" + r.err.substr(r.err.find(file) + file.size());
+  };
+  CHECK(run("REQ-2,Group A,,bachelor,yes,no,no,no,no\n") ==
+        "twinprobe: FILE:4:3: the covariate 'Years experience' is empty \u2014 fill it in; for a category not known write "
+        "a category of its own such as 'unknown', or leave the row out\n");
+  CHECK(run("REQ-2,Group A,3,bachelor,yes,no,yes,no,no\n") ==
+        "twinprobe: FILE:4:6: the application reached 'Interviewed' but not 'Screened' before it \u2014 a stage is "
+        "reached through every stage before it: correct the 'Screened' cell or the 'Interviewed' cell\n");
+  CHECK(run("REQ-2,Group A,3,bachelor,yes,maybe,no,no,no\n") ==
+        "twinprobe: FILE:4:6: the stage 'Screened' holds 'maybe', not yes or no \u2014 write 1, yes, y or true when the "
+        "application reached the stage, and 0, no, n or false when not\n");
+  CHECK(run("REQ-2,Group A,3,bachelor,no,no,no,no,no\n") ==
+        "twinprobe: FILE:4:5: the application reached no stage, not even 'Applied' \u2014 every application reached the "
+        "first stage; write yes there, or leave the row out\n");
+}
+
+TEST_CASE("import applications: a covariate column that is not in the file is named with the fix") {
+  testing::TempDir dir;
+  const std::string file = dir / "a.csv";
+  testing::WriteFile(file, "vacancy,arm,outcome,years\nV1,a,1,3\nV1,b,0,4\n");
+  auto r = RunCli({"--study", dir / "s", "import", "applications", file, "--kind", "unpaired", "--reference", "a",
+                   "--covariates", "yeras"});
+  CHECK(r.exit_code == 1);
+  CHECK(r.err == "twinprobe: " + file + ":1: the covariate column 'yeras' named by --covariates is missing (did you "
+                 "mean 'years'?) \u2014 name one of the file's columns: 'vacancy', 'arm', 'outcome', 'years'\n");
+}
