@@ -18,7 +18,10 @@ KLevelInput KLevelInputFor(const EffectsInput& e, const StoredDesign& stored, co
   in.correction = e.correction;
   in.confidence = e.confidence;
   for (const StoredFactor& sf : stored.factors) {
-    KLevelFactor f{sf.name, sf.levels, sf.reference.empty() && !sf.levels.empty() ? sf.levels[0] : sf.reference, {}};
+    // Scores as stored with the levels (plan, or import applications
+    // --scores); the study.toml in use, when it has them, as before.
+    KLevelFactor f{sf.name, sf.levels, sf.reference.empty() && !sf.levels.empty() ? sf.levels[0] : sf.reference,
+                   sf.scores};
     if (current_design)
       for (const Factor& df : current_design->factors)
         if (df.name == sf.name && df.levels == sf.levels) f.scores = df.scores;

@@ -143,6 +143,8 @@ void RegisterImportApplications(CLI::App& import, Context& ctx) {
   cmd->add_option("--stages", o->import.stages,
                   "Hiring stages in order, e.g. applied,screened,interview,offer,hire: either one yes/no column per "
                   "stage (1/0, yes/no, y/n, true/false) or an outcome column holding the furthest stage reached");
+  cmd->add_option("--scores", o->import.scores,
+                  "Scores of ordered groups for the trend test, e.g. a28=28,a45=45,a58=58 (every group needs one)");
   cmd->add_option("--covariates", o->import.covariates,
                   "Columns kept with each application for the adjusted odds ratio, e.g. years,degree (a column "
                   "whose every cell is a number is numeric, else categorical; empty cells are refused)");

@@ -675,6 +675,27 @@ Result<std::vector<CovariateSummary>> SummariseCovariates(const Book& book, cons
   return out;
 }
 
+// --scores gives every group of a new study one score, and names no other.
+std::optional<Error> CheckScores(const Target& t, const PairsImportOptions& o, const std::string& path) {
+  if (o.scores.empty()) return std::nullopt;
+  if (!t.discover)
+    return BadInput("--scores", std::string("the groups' scores are set ") +
+                                    (t.append ? "by the study's first import" : "in study.toml ([[factor]] scores)"),
+                    "leave --scores out");
+  for (const auto& [level, score] : o.scores)
+    if (t.arm_of.find(level) == t.arm_of.end())
+      return BadInput("--scores", "'" + level + "' is not a group of " + path + DidYouMean(level, t.arms),
+                      "give scores to the groups of the file: " + Join(t.arms));
+  for (const std::string& arm : t.arms) {
+    bool scored = false;
+    for (const auto& [level, score] : o.scores) scored = scored || level == arm;
+    if (!scored)
+      return BadInput("--scores", "the group '" + arm + "' has no score",
+                      "give every group a score, e.g. --scores " + arm + "=NUMBER, or leave --scores out");
+  }
+  return std::nullopt;
+}
+
 void Checker::DropArm(size_t a, const std::string& reason) {
   for (size_t v = 0; v < book_.bad_line.size(); ++v) {
     int64_t line = book_.arm_line[a][v];
@@ -881,6 +902,9 @@ Design HeaderDesign(const Design* design, const Target& t, const std::string& st
   f.name = o.factor.empty() ? "arm" : o.factor;
   f.levels = t.arms;
   f.reference = t.arms[static_cast<size_t>(t.reference)];
+  for (const std::string& level : f.levels)  // in the levels' order (CheckScores: one each)
+    for (const auto& [name, score] : o.scores)
+      if (name == level) f.scores.push_back(score);
   d.factors = {f};
   d.arms.clear();
   for (size_t i = 0; i < t.arms.size(); ++i)
@@ -992,6 +1016,7 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
   }
   if (auto err = checker.Finish(o)) return *err;
   Book& book = checker.book();
+  if (auto err = CheckScores(t, o, path)) return *err;
   auto covariates = SummariseCovariates(book, t, c, path);
   if (!covariates.ok()) return covariates.error();
   summary.covariates = covariates.value();

@@ -69,6 +69,9 @@ struct PairsImportOptions {
   // a covariate is numeric when every cell is a number
   // (core/covariate_records.h), else categorical.
   std::vector<std::string> covariates;
+  // Scores of ordered groups (--scores a28=28,a45=45,a58=58), stored with
+  // the levels (level_design) for the trend test; every group needs one.
+  std::vector<std::pair<std::string, double>> scores;
 };
 
 // How a covariate column was read.
