@@ -3,6 +3,7 @@
 #include "report/fieldwork_state.h"
 #include "report/covariate_model_report.h"
 #include "report/stages_report.h"
+#include "report/strata_appendix.h"
 
 namespace twinprobe {
 namespace {
@@ -26,6 +27,7 @@ bool HasStages(const AnalysisResult& r) { return r.stages.present && HasFindings
 bool HasKLevels(const AnalysisResult& r) { return r.k_levels.present && HasFindings(r); }
 bool HasAdjusted(const AnalysisResult& r) { return r.adjusted.present && HasFindings(r); }
 bool HasCovariateModel(const AnalysisResult& r) { return r.covariate_model.present && HasFindings(r); }
+bool HasStrataAppendixFindings(const AnalysisResult& r) { return HasStrataAppendix(r) && HasFindings(r); }
 bool HasEmployerSets(const AnalysisResult& r) { return r.employer_sets.available && HasFindings(r); }
 
 }  // namespace
@@ -52,6 +54,7 @@ const std::vector<HtmlSection>& HtmlSections() {
       {"methods", "Methods and sources", nullptr, {&MethodsText}},
       {"cautions", "Cautions", nullptr, {&CautionsText}},
       {"stamp", "Reproducibility", nullptr, {&StampTable}},
+      {"appendix-strata", "Appendix: each stratum's table", &HasStrataAppendixFindings, {&StrataAppendix}},
   };
   return sections;
 }
