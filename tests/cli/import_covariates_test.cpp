@@ -201,3 +201,48 @@ TEST_CASE("import applications: a covariate column that is not in the file is na
   CHECK(r.err == "twinprobe: " + file + ":1: the covariate column 'yeras' named by --covariates is missing (did you "
                  "mean 'years'?) \u2014 name one of the file's columns: 'vacancy', 'arm', 'outcome', 'years'\n");
 }
+
+TEST_CASE("import applications: the worked example's adjusted odds ratio is R's glm on the HR file") {
+  testing::TempDir dir;
+  const std::string study = dir / "adj";
+  REQUIRE(RunCli({"--study", study, "import", "applications", testing::SourceDir() + "/tests/cli/data/hr_applications.csv",
+                  "--kind", "unpaired", "--columns", "arm=gender,outcome=invited,vacancy=req_id", "--reference", "woman",
+                  "--factor", "gender", "--positive", "yes", "--covariates", "years_experience,role"})
+              .exit_code == 0);
+  const auto j = nlohmann::json::parse(RunCli({"--study", study, "--json", "analyze"}).out)["covariate_model"];
+  const auto& man = j["terms"][1];
+  CHECK(man["term"] == "group: man");
+  // f <- glm(invited == "yes" ~ gender + years_experience + role, family = binomial,
+  //          control = glm.control(epsilon = 1e-30, maxit = 100)); coef(summary(f))["genderman", ]
+  CHECK_THAT(man["coefficient"].get<double>(), WithinRel(0.4711377769, 1e-9));
+  CHECK_THAT(man["standard_error"].get<double>(), WithinRel(0.39786468992, 1e-9));
+  CHECK_THAT(man["p_wald"].get<double>(), WithinRel(0.236347419331, 1e-9));
+  // exp(confint.default(f)["genderman", ])
+  CHECK_THAT(man["wald_conf_int"][0].get<double>(), WithinRel(0.7344284612, 1e-9));
+  CHECK_THAT(man["wald_conf_int"][1].get<double>(), WithinRel(3.4936192731, 1e-9));
+  // exp(confint(f)["genderman", ]) (MASS's spline through the profile: 1e-4)
+  CHECK_THAT(man["profile_conf_int"][0].get<double>(), WithinRel(0.7412774175, 1e-4));
+  CHECK_THAT(man["profile_conf_int"][1].get<double>(), WithinRel(3.5520739437, 1e-4));
+  // anova(update(f, . ~ . - gender), f, test = "LRT"): Deviance, Pr(>Chi); deviance(f)
+  CHECK_THAT(j["group_test"]["lr_statistic"].get<double>(), WithinRel(1.425850803, 1e-9));
+  CHECK_THAT(j["group_test"]["p"].get<double>(), WithinRel(0.23244, 1e-4));
+  CHECK_THAT(j["deviance"].get<double>(), WithinRel(159.6842034, 1e-9));
+  CHECK(j["covariates"][1]["categories"] == std::vector<std::string>{"analyst", "clerk", "technician"});
+}
+
+TEST_CASE("import applications: stage columns give the same stages as the furthest-stage column") {
+  testing::TempDir dir;
+  const std::string data = testing::SourceDir() + "/tests/cli/data/";
+  auto stages_of = [&](const std::string& name, const std::vector<std::string>& extra) {
+    std::vector<std::string> args = {"--study", dir / name, "import", "applications"};
+    args.insert(args.end(), extra.begin(), extra.end());
+    for (const char* a : {"--kind", "unpaired", "--reference", "woman", "--stages", "applied,screened,interview,offer,hire"})
+      args.push_back(a);
+    REQUIRE(RunCli(args).exit_code == 0);
+    return nlohmann::json::parse(RunCli({"--study", dir / name, "--json", "analyze"}).out)["stages"];
+  };
+  const auto flags = stages_of("flags", {data + "hr_stage_columns.csv", "--columns", "arm=gender,vacancy=req_id"});
+  const auto column = stages_of("column", {data + "hr_applications.csv", "--columns", "arm=gender,outcome=furthest_stage,vacancy=req_id"});
+  CHECK(flags == column);
+  CHECK(flags["stages"][4]["groups"][1]["reached"] == 14);  // men hired, as in the furthest_stage file
+}
