@@ -246,3 +246,19 @@ TEST_CASE("import applications: stage columns give the same stages as the furthe
   CHECK(flags == column);
   CHECK(flags["stages"][4]["groups"][1]["reached"] == 14);  // men hired, as in the furthest_stage file
 }
+
+TEST_CASE("import applications: a categorical covariate of more than 50 categories is refused where the 51st appears") {
+  testing::TempDir dir;
+  const std::string file = dir / "many.csv";
+  std::string csv = "vacancy,arm,outcome,office\n";
+  for (int i = 0; i < 60; ++i) csv += "V1," + std::string(i % 2 ? "a" : "b") + ",1,office " + std::to_string(i) + "\n";
+  testing::WriteFile(file, csv);
+  auto r = RunCli({"--study", dir / "s", "import", "applications", file, "--kind", "unpaired", "--reference", "a",
+                   "--covariates", "office"});
+  CHECK(r.exit_code == 1);
+  // The 51st distinct value is on line 52 (the header is line 1), column 4.
+  CHECK(r.err == "twinprobe: " + file + ":52:4: the covariate 'office' has more than 50 categories (not every cell is a "
+                 "number, so it is read as categories) \u2014 group its values into fewer categories, or write every cell "
+                 "as a number\n");
+  CHECK_FALSE(std::filesystem::exists(dir / "s/study.db"));
+}
