@@ -129,6 +129,24 @@ TEST_CASE("import applications: an HR file of 2000 applications with stage colum
   CHECK(m["group_test"]["df"] == 2);
   Near(m["group_test"]["p"].get<double>(), ref["lr"][2], 1e-8);
 
+  // The HTML section says what the adjustment removes and what it does not,
+  // in the words of records.
+  REQUIRE(RunCli({"--study", study, "report", "--out", dir / "r.html"}).exit_code == 0);
+  const std::string html = testing::ReadFile(dir / "r.html");
+  const size_t at = html.find("<section id=\"covariates\">");
+  REQUIRE(at != std::string::npos);
+  const std::string section = html.substr(at, html.find("</section>", at) - at);
+  CHECK(section.find("<p>The adjustment removes the part of the groups&#39; difference that Years experience and "
+                     "Highest degree explain, as the model states it: each covariate shifts the log-odds of a positive "
+                     "outcome by the same amount in every group (additive on the log-odds scale, no interactions).</p>") !=
+        std::string::npos);
+  CHECK(section.find("A covariate that is itself an outcome of the selection (a score given by the screener, a rating "
+                     "after an interview) can hide discrimination rather than explain it") != std::string::npos);
+  for (const char* word : {"ictitious", " sent", "orrespondence"}) {
+    INFO(word);
+    CHECK(section.find(word) == std::string::npos);
+  }
+
   // The stages, derived from the yes/no columns, against fisher.test on the
   // furthest stage each application reached.
   const std::string tsv_path = dir / "hr.tsv";
