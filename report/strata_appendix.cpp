@@ -35,7 +35,7 @@ std::string StrataAppendix(const AnalysisResult& r, const ReportContext&) {
     const auto& list = by_value[key];
     HtmlTable t;
     t.caption = key.first + ": " + key.second;
-    t.headers = {"group", "positive", "not positive", "Fisher p against " + ref};
+    t.headers = {"group", "positive", "not positive", "Fisher p"};
     t.css_class = "stratum-table";
     // Rows of each comparison's table: reference (a, b), then the other (c, d).
     const stats::Table2x2& first = list.front()->table;
