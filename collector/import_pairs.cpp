@@ -810,8 +810,9 @@ class Lander {
          const std::string& at, int64_t plan_id, std::vector<int64_t> arm_ids)
       : store_(store), t_(t), c_(c), arm_ids_(std::move(arm_ids)), serial_(t.next_serial),
         vacancy_id_(vacancies, 0), probes_in_(vacancies, 0),
-        writer_(store, plan_id, seq, actor, at, kBatch, static_cast<int>(c.strata.size())),
-        next_vacancy_id_(writer_.next_vacancy_id()), next_probe_id_(writer_.next_probe_id()), seq_(seq) {}
+        writer_(store, plan_id, seq, actor, at, kBatch, static_cast<int>(c.strata.size()),
+                static_cast<int>(c.covariates.size())),
+        next_vacancy_id_(writer_.next_vacancy_id()), next_probe_id_(writer_.next_probe_id()) {}
 
   void Land(const CsvRecord& r, uint32_t v, const Row& row, PairsImportSummary& summary) {
     std::string probe_ref;
@@ -837,7 +838,7 @@ class Lander {
       ++summary.sendings;
     }
     for (size_t i = 0; i < c_.covariates.size(); ++i)
-      covariates_.push_back({probe_id, i, std::string(Trim(r.fields[c_.covariates[i]]))});
+      writer_.AddCovariate(probe_id, t_.covariates[i], Trim(r.fields[c_.covariates[i]]));
     writer_.AddResponse(probe_id, r.fields[c_.outcome],
                         row.responded ? CanonicalEventText(r.fields[c_.responded_at]) : std::string(), row.late);
     writer_.EndProbe();
@@ -845,14 +846,8 @@ class Lander {
     ++summary.rows_landed;
   }
 
-  // Writes what is buffered, parents before children: the covariates after
-  // the probes they refer to.
-  void Finish() {
-    writer_.Finish();
-    if (covariates_.empty()) return;
-    CovariateWriter covariates(store_, seq_);
-    for (const PendingCovariate& p : covariates_) covariates.Add(p.probe_id, t_.covariates[p.index], p.value);
-  }
+  // Writes what is buffered, parents before children.
+  void Finish() { writer_.Finish(); }
 
  private:
   std::string EmployerOf(const CsvRecord& r) {
@@ -876,13 +871,6 @@ class Lander {
   PairsWriter writer_;
   int64_t next_vacancy_id_, next_probe_id_;
   std::unordered_map<std::string, std::string> employer_keys_;
-  struct PendingCovariate {
-    int64_t probe_id;
-    size_t index;
-    std::string value;
-  };
-  std::vector<PendingCovariate> covariates_;
-  int64_t seq_;
 };
 
 // The design a new imported plan is stored with.

@@ -20,15 +20,6 @@ std::optional<double> CovariateNumber(std::string_view cell) {
   return value;
 }
 
-CovariateWriter::CovariateWriter(Store& store, int64_t seq)
-    : insert_(store.Prepare("INSERT INTO application_covariate(probe_id, name, value, audit_seq) VALUES (?, ?, ?, ?)")),
-      seq_(seq) {}
-
-void CovariateWriter::Add(int64_t probe_id, std::string_view name, std::string_view value) {
-  insert_.Bind(1, probe_id).Bind(2, name).Bind(3, value).Bind(4, seq_);
-  insert_.Run();
-}
-
 CovariateTable ReadCovariates(Store& store) {
   CovariateTable out;
   out.names = MetaList(store, "covariates");

@@ -27,17 +27,8 @@ constexpr size_t kMaxCovariateCategories = 50;
 // categorical otherwise (then "12" is a category like any other).
 std::optional<double> CovariateNumber(std::string_view cell);
 
-// Writes covariate values of the probes just written, in the AuditedWrite
-// whose seq they carry. Throws StoreError on failure.
-class CovariateWriter {
- public:
-  CovariateWriter(Store& store, int64_t seq);
-  void Add(int64_t probe_id, std::string_view name, std::string_view value);
-
- private:
-  Stmt insert_;
-  int64_t seq_;
-};
+// The importer writes them with the probes (PairsWriter::AddCovariate,
+// core/import_pairs_writer.h), batched after the probes they refer to.
 
 // Applications of the current plan sharing group, outcome and every
 // covariate value.

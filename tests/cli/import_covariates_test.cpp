@@ -280,3 +280,29 @@ TEST_CASE("import applications: a categorical covariate of more than 50 categori
                  "as a number\n");
   CHECK_FALSE(std::filesystem::exists(dir / "s/study.db"));
 }
+
+TEST_CASE("import applications: a later import keeps the covariates of the first") {
+  testing::TempDir dir;
+  const std::string study = dir / "s";
+  const std::string first = dir / "first.csv", second = dir / "second.csv";
+  testing::WriteFile(first, "vacancy,arm,outcome,years\nV1,a,1,3\nV1,b,0,4\n");
+  testing::WriteFile(second, "vacancy,arm,outcome,years\nV2,a,0,5\nV2,b,1,2.5\n");
+  auto import = [&](const std::string& file, const std::string& covariates) {
+    std::vector<std::string> args = {"--study", study, "import", "applications", file, "--kind", "unpaired", "--reference", "a"};
+    if (!covariates.empty()) args.insert(args.end(), {"--covariates", covariates});
+    return RunCli(args);
+  };
+  REQUIRE(import(first, "years").exit_code == 0);
+  auto without = import(second, "");
+  CHECK(without.exit_code == 1);
+  CHECK(without.err == "twinprobe: --covariates (none) differs from the study's covariates (years) \u2014 a later import "
+                       "keeps the covariates of the first; give the same --covariates\n");
+  auto again = import(second, "years");
+  CHECK(again.exit_code == 0);
+  CHECK(again.out.rfind("Added to the study from " + second + ": 2 applications in 1 vacancy.\n", 0) == 0);
+  auto j = nlohmann::json::parse(RunCli({"--study", study, "--json", "analyze"}).out)["covariate_model"];
+  CHECK(j["applications"] == 4);
+  CHECK(j["covariates"][0]["kind"] == "numeric");
+  auto v = RunCli({"--study", study, "verify"});
+  CHECK(v.exit_code == 0);
+}
