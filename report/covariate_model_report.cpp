@@ -24,10 +24,10 @@ std::string ListWords(const std::vector<std::string>& v) {
   return s;
 }
 
-// "exp_years (numeric, linear on the log-odds scale) and degree (4
-// categories against 'bachelor')"
+// "the group, exp_years (a number, linear on the log-odds scale) and degree
+// (4 categories, each against 'bachelor', the first in sorted order)"
 std::string CovariateList(const CovariateModel& m) {
-  std::vector<std::string> words;
+  std::vector<std::string> words = {"the group"};
   for (const CovariateColumn& c : m.covariates)
     words.push_back(c.numeric ? c.name + " (a number, linear on the log-odds scale)"
                               : c.name + " (" + Count(static_cast<int64_t>(c.categories.size()), "category", "categories") +
@@ -60,7 +60,7 @@ std::string RenderCovariateModelText(const AnalysisResult& r) {
   std::ostringstream o;
   o << "\nAdjusted for covariates (logistic regression, " << Count(m.applications, "application", "applications")
     << "):\n";
-  o << Wrap("A positive outcome on the group and " + CovariateList(m) + ".", "  ");
+  o << Wrap("The log-odds of a positive outcome on " + CovariateList(m) + ".", "  ");
   if (m.applications_without > 0)
     o << Wrap(Count(m.applications_without, "application lacks", "applications lack") +
                   " a covariate value and is left out of this model.",
@@ -123,7 +123,7 @@ nlohmann::json CovariateModelJson(const CovariateModel& m) {
 
 std::string CovariateModelPart(const AnalysisResult& r, const ReportContext&) {
   const CovariateModel& m = r.covariate_model;
-  std::string o = html::Para("A logistic regression of a positive outcome on the group and " + CovariateList(m) +
+  std::string o = html::Para("A logistic regression of a positive outcome on " + CovariateList(m) +
                              ", over " + Count(m.applications, "application", "applications") +
                              ". Each group's odds ratio against the reference below is the one with these covariates "
                              "held fixed; compare it with the unadjusted comparison above.");
