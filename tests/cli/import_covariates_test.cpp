@@ -246,6 +246,16 @@ TEST_CASE("import applications: the worked example's adjusted odds ratio is R's 
   CHECK_THAT(j["group_test"]["p"].get<double>(), WithinRel(0.23244, 1e-4));
   CHECK_THAT(j["deviance"].get<double>(), WithinRel(159.6842034, 1e-9));
   CHECK(j["covariates"][1]["categories"] == std::vector<std::string>{"analyst", "clerk", "technician"});
+  // The text docs/import.md shows.
+  const std::string text = RunCli({"--study", study, "analyze"}).out;
+  CHECK(text.find("Adjusted for covariates (logistic regression, 129 applications):\n"
+                  "  The log-odds of a positive outcome on the group, years_experience (a number,\n"
+                  "  linear on the log-odds scale) and role (3 categories, each against\n"
+                  "  'analyst', the first in sorted order).\n"
+                  "  man against woman: adjusted odds ratio 1.6, 95% profile CI [0.741, 3.55], Wald CI [0.734, 3.49], "
+                  "Wald p = 0.236\n"
+                  "  The group term, likelihood-ratio test against the model with the covariates\n"
+                  "  only: X^2 = 1.43 on 1 df, p = 0.232.\n") != std::string::npos);
 }
 
 TEST_CASE("import applications: stage columns give the same stages as the furthest-stage column") {
