@@ -13,6 +13,7 @@
 
 #include "collector/event_time.h"
 #include "collector/import_support.h"
+#include "collector/stage_columns.h"
 #include "core/audit.h"
 #include "core/clock.h"
 #include "core/covariate_records.h"
@@ -345,47 +346,14 @@ std::string VacancyKey(const CsvRecord& r, const Columns& c) {
   return "\x01" + std::to_string(r.line);
 }
 
-// A stage column's cell: one rule for every file. Yes: 1, yes, y, true;
-// no: 0, no, n, false (any case, spaces around allowed).
-std::optional<bool> StageFlag(std::string_view cell) {
-  const std::string v = Lower(Trim(cell));
-  if (v == "1" || v == "yes" || v == "y" || v == "true") return true;
-  if (v == "0" || v == "no" || v == "n" || v == "false") return false;
-  return std::nullopt;
-}
-
 // With stage columns: appends the furthest stage the row reached as its
-// outcome field. Refuses a cell that is not yes or no, a row that reached no
-// stage, and a row that passed a stage without the one before it.
+// outcome field (collector/stage_columns.h).
 std::optional<Error> AppendStageOutcome(CsvRecord& r, const Columns& c, const Target& t, const std::string& path) {
   Status count = CheckFieldCount(r, c.count, path);
   if (!count.ok()) return count.error();
-  auto at = [&](size_t k) {
-    return path + ":" + std::to_string(r.line) + ":" + std::to_string(c.stage_columns[k] + 1);
-  };
-  int furthest = -1, first_no = -1;
-  for (size_t k = 0; k < c.stage_columns.size(); ++k) {
-    const std::string& cell = r.fields[static_cast<size_t>(c.stage_columns[k])];
-    auto flag = StageFlag(cell);
-    if (!flag)
-      return BadInput(at(k), "the stage '" + t.stage_names[k] + "' holds '" + Echoed(cell) + "', not yes or no",
-                      "write 1, yes, y or true when the application reached the stage, and 0, no, n or false when not");
-    if (!*flag) {
-      if (first_no < 0) first_no = static_cast<int>(k);
-      continue;
-    }
-    if (first_no >= 0)
-      return BadInput(at(static_cast<size_t>(first_no)),
-                      "the application reached '" + t.stage_names[k] + "' but not '" +
-                          t.stage_names[static_cast<size_t>(first_no)] + "' before it",
-                      "a stage is reached through every stage before it: correct the '" +
-                          t.stage_names[static_cast<size_t>(first_no)] + "' cell or the '" + t.stage_names[k] + "' cell");
-    furthest = static_cast<int>(k);
-  }
-  if (furthest < 0)
-    return BadInput(at(0), "the application reached no stage, not even '" + t.stage_names[0] + "'",
-                    "every application reached the first stage; write yes there, or leave the row out");
-  r.fields.push_back(t.stage_names[static_cast<size_t>(furthest)]);
+  auto stage = FurthestStage(r, c.stage_columns, t.stage_names, path);
+  if (!stage.ok()) return stage.error();
+  r.fields.push_back(t.stage_names[stage.value()]);
   return std::nullopt;
 }
 
