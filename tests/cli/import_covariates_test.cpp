@@ -320,8 +320,9 @@ TEST_CASE("import applications: a later import keeps the covariates of the first
 TEST_CASE("import applications: --json says how each covariate was read") {
   testing::TempDir dir;
   const std::string file = dir / "a.csv";
-  testing::WriteFile(file, "vacancy,arm,outcome,years,degree\nV1,a,1,3,master\nV1,b,0,4.5,none\nV2,a,0,+2,12\n");
-  auto r = RunCli({"--study", dir / "s", "--json", "import", "applications", file, "--kind", "unpaired", "--reference", "a",
+  testing::WriteFile(file, "vacancy,arm,outcome,years,degree\nV1,north,1,3,master\nV1,south,0,4.5,none\nV2,north,0,+2,12\n"
+                           "V2,south,1,7,none\n");
+  auto r = RunCli({"--study", dir / "s", "--json", "import", "applications", file, "--kind", "unpaired", "--reference", "north",
                    "--covariates", "years,degree"});
   REQUIRE(r.exit_code == 0);
   // "+2" is a number; "12" among words makes degree categorical, "12" a category.
