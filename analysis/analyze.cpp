@@ -18,7 +18,10 @@ KLevelInput KLevelInputFor(const EffectsInput& e, const StoredDesign& stored, co
   in.correction = e.correction;
   in.confidence = e.confidence;
   for (const StoredFactor& sf : stored.factors) {
-    KLevelFactor f{sf.name, sf.levels, sf.reference.empty() && !sf.levels.empty() ? sf.levels[0] : sf.reference, {}};
+    // Scores as stored with the levels (plan, or import applications
+    // --scores); the study.toml in use, when it has them, as before.
+    KLevelFactor f{sf.name, sf.levels, sf.reference.empty() && !sf.levels.empty() ? sf.levels[0] : sf.reference,
+                   sf.scores};
     if (current_design)
       for (const Factor& df : current_design->factors)
         if (df.name == sf.name && df.levels == sf.levels) f.scores = df.scores;
@@ -156,6 +159,7 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   r.stages = ComputeHiringStages(stored.stages, effects_in.arm_labels, reading.code_counts, r.correction, r.confidence);
   r.k_levels = AnalyzeKLevels(KLevelInputFor(effects_in, stored, current_design));
   if (r.kind != "unpaired") r.adjusted = FitAdjustedModel(LaidOutSets(f, reading.layout), effects_in.arm_labels, r.confidence);
+  r.covariate_model = FitCovariateModel(reading.covariates, effects_in.arm_labels, scheme, r.confidence);
   r.design = SummariseDesign(f, stored);
   r.response_times = ComputeResponseTimes(f, scheme);
   r.declines = CountDeclines(reading.declines, scheme, f.study_clock);

@@ -22,6 +22,7 @@
 #include "analysis/early_stop.h"
 #include "analysis/listing_analysis.h"
 #include "analysis/adjusted_model.h"
+#include "analysis/covariate_model.h"
 #include "analysis/effects.h"
 #include "analysis/k_level.h"
 #include "core/design.h"
@@ -100,6 +101,9 @@ struct AnalysisResult {
   // Paired and sets designs: the arm effect adjusted for template and send
   // position by conditional logistic regression (analysis/adjusted_model.h).
   AdjustedModel adjusted;
+  // Records imported with --covariates: each group's odds ratio adjusted for
+  // them by logistic regression (analysis/covariate_model.h).
+  CovariateModel covariate_model;
   DesignSummary design;              // analysis/design_summary.h
   ResponseTimes response_times;      // analysis/response_times.h
   EmployerOutcomes employers;        // analysis/employer_outcomes.h (pseudonyms only)

@@ -16,7 +16,9 @@
 namespace twinprobe {
 
 std::string LevelOfArm(const std::string& label, const std::string& factor) {
-  if (label.find('=') == std::string::npos) return factor == "arm" ? label : "";
+  // A label without '=' is an arm of a study of one factor, named by its
+  // level (imported records: "a28", whatever --factor calls the factor).
+  if (label.find('=') == std::string::npos) return label;
   size_t start = 0;
   while (start <= label.size()) {
     const size_t comma = label.find(',', start);

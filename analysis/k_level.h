@@ -143,7 +143,8 @@ struct KLevelAnalysis {
 KLevelAnalysis AnalyzeKLevels(const KLevelInput& input);
 
 // "age=28,gender=f" -> the level of `factor` ("28"), "" when absent. A label
-// without '=' is the level of the single factor "arm".
+// without '=' is the level of a study's single factor, whatever its name
+// (imported records name their arms by level).
 std::string LevelOfArm(const std::string& label, const std::string& factor);
 
 }  // namespace twinprobe

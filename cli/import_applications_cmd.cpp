@@ -42,6 +42,23 @@ std::string Quote(const std::vector<std::string>& v) {
 // run from where the import was.
 std::string StudyOption(const Context& ctx) { return " --study " + ctx.study_dir; }
 
+nlohmann::json CovariatesJson(const std::vector<CovariateSummary>& covariates) {
+  nlohmann::json out = nlohmann::json::array();
+  for (const CovariateSummary& c : covariates)
+    out.push_back({{"name", c.name},
+                   {"kind", c.numeric ? "numeric" : "categorical"},
+                   {"categories", c.numeric ? nlohmann::json(nullptr) : nlohmann::json(c.categories)}});
+  return out;
+}
+
+// "years (numeric) and degree (categorical, 4 categories)"
+std::string CovariateWords(const std::vector<CovariateSummary>& covariates) {
+  std::vector<std::string> words;
+  for (const CovariateSummary& c : covariates)
+    words.push_back(c.name + (c.numeric ? " (numeric)" : " (categorical, " + Count(c.categories, "category", "categories") + ")"));
+  return ListWords(words);
+}
+
 int RunImportApplications(Context& ctx, ApplicationsCmdOptions& o) {
   std::optional<Design> design;
   if (std::filesystem::exists(DesignPath(ctx.study_dir))) {
@@ -75,7 +92,8 @@ int RunImportApplications(Context& ctx, ApplicationsCmdOptions& o) {
                                 {"rows_rejected", s.rows_rejected},
                                 {"vacancies_landed", s.vacancies_landed},
                                 {"reject_file", s.reject_path.empty() ? nlohmann::json(nullptr) : nlohmann::json(s.reject_path)},
-                                {"ignored_columns", s.ignored_columns}}
+                                {"ignored_columns", s.ignored_columns},
+                                {"covariates", CovariatesJson(s.covariates)}}
                      .dump(2)
               << "\n";
     return s.rows_rejected ? 1 : 0;
@@ -94,6 +112,7 @@ int RunImportApplications(Context& ctx, ApplicationsCmdOptions& o) {
     std::cout << "; " << (s.factor.empty() ? "group" : s.factor) << " " << s.arms[0] << " (reference) compared with "
               << ListWords(others) << "; a positive outcome is " << ListWords(s.positive) << "; strata "
               << (s.strata.empty() ? "none" : ListWords(s.strata));
+    if (!s.covariates.empty()) std::cout << "; covariates " << CovariateWords(s.covariates);
   }
   if (s.rows_rejected)
     std::cout << "; " << Count(s.rows_rejected, "row was", "rows were") << " left out and written with the reasons to "
@@ -122,8 +141,13 @@ void RegisterImportApplications(CLI::App& import, Context& ctx) {
   cmd->add_option("--positive", o->import.positive,
                   "Outcome values that count as positive, e.g. yes,invited (default: 1, or the default response codes)");
   cmd->add_option("--stages", o->import.stages,
-                  "Hiring stages in order, e.g. applied,screened,interview,offer,hire; the outcome column holds the "
-                  "furthest stage each application reached");
+                  "Hiring stages in order, e.g. applied,screened,interview,offer,hire: either one yes/no column per "
+                  "stage (1/0, yes/no, y/n, true/false) or an outcome column holding the furthest stage reached");
+  cmd->add_option("--scores", o->import.scores,
+                  "Scores of ordered groups for the trend test, e.g. a28=28,a45=45,a58=58 (every group needs one)");
+  cmd->add_option("--covariates", o->import.covariates,
+                  "Columns kept with each application for the adjusted odds ratio, e.g. years,degree (a column "
+                  "whose every cell is a number is numeric, else categorical; empty cells are refused)");
   cmd->add_option("--strata", o->strata, "Comma-separated stratum columns, e.g. site,role")
       ->each([o](const std::string&) { o->strata_given = true; });
   cmd->add_option("--id", o->import.base.study_id, "Study id for a new study (default: the folder's name)");

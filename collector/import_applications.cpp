@@ -2,9 +2,12 @@
 
 #include <algorithm>
 #include <cctype>
+#include <cmath>
+#include <cstdlib>
 
 #include "core/comma_list.h"
 #include "core/suggest.h"
+#include "core/text.h"
 
 namespace twinprobe {
 namespace {
@@ -44,6 +47,27 @@ Result<std::vector<std::pair<std::string, std::string>>> ParseColumnMap(const st
   return out;
 }
 
+Result<std::vector<std::pair<std::string, double>>> ParseScores(const std::string& text) {
+  std::vector<std::pair<std::string, double>> out;
+  for (const std::string& entry : SplitCommaList(text)) {
+    size_t eq = entry.rfind('=');
+    if (eq == std::string::npos || eq == 0 || eq + 1 == entry.size())
+      return BadInput("--scores", "'" + entry + "' is not GROUP=SCORE",
+                      "give each group its score, e.g. --scores a28=28,a45=45,a58=58");
+    const std::string level(Trim(entry.substr(0, eq)));
+    const std::string number(Trim(entry.substr(eq + 1)));
+    char* end = nullptr;
+    const double score = std::strtod(number.c_str(), &end);
+    if (number.empty() || end != number.c_str() + number.size() || !std::isfinite(score))
+      return BadInput("--scores", "the score of '" + level + "' ('" + number + "') is not a number",
+                      "write a number after '=', e.g. " + level + "=28");
+    for (const auto& [seen, _] : out)
+      if (seen == level) return BadInput("--scores", "'" + level + "' has two scores", "give each group one score");
+    out.emplace_back(level, score);
+  }
+  return out;
+}
+
 Result<PairsImportSummary> ImportApplications(const std::string& store_path, const Design* design,
                                               const std::string& path, const ApplicationsImportOptions& o) {
   if (std::find(kKinds.begin(), kKinds.end(), o.kind) == kKinds.end())
@@ -63,6 +87,10 @@ Result<PairsImportSummary> ImportApplications(const std::string& store_path, con
   base.factor = factor;
   base.positive = SplitCommaList(o.positive);
   base.stages = SplitCommaList(o.stages);
+  base.covariates = SplitCommaList(o.covariates);
+  auto scores = ParseScores(o.scores);
+  if (!scores.ok()) return scores.error();
+  base.scores = scores.value();
   if (!o.stages.empty()) {
     std::vector<std::string> sorted = base.stages;
     std::sort(sorted.begin(), sorted.end());

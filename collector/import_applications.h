@@ -27,7 +27,9 @@ struct ApplicationsImportOptions {
   std::string columns;    // --columns arm=group,outcome=invited,vacancy=req_id
   std::string factor;     // --factor NAME (default "group")
   std::string positive;   // --positive yes,invited (comma-separated)
-  std::string stages;     // --stages applied,screened,interview,offer,hire (the outcome: furthest stage reached)
+  std::string stages;     // --stages applied,screened,interview,offer,hire: a yes/no column per stage, or the outcome is the furthest stage reached
+  std::string covariates;  // --covariates years,degree (the file's column names)
+  std::string scores;      // --scores a28=28,a45=45,a58=58 (ordered groups)
   PairsImportOptions base;  // strata, reference, skip_bad, rejects, id, progress
 };
 
@@ -35,6 +37,11 @@ struct ApplicationsImportOptions {
 // (where "--columns") names an unknown role, a repeated one or an entry
 // without '='.
 Result<std::vector<std::pair<std::string, std::string>>> ParseColumnMap(const std::string& text);
+
+// "a28=28,a45=45" as (level, score) pairs. A bad-input error (where
+// "--scores") names an entry without '=', a score that is not a finite
+// number or a level given twice.
+Result<std::vector<std::pair<std::string, double>>> ParseScores(const std::string& text);
 
 // Checks the options, then imports as ImportPairs does (same store rules:
 // all or nothing, --skip-bad, a file imported before adds nothing).

@@ -13,8 +13,10 @@
 
 #include "collector/event_time.h"
 #include "collector/import_support.h"
+#include "collector/stage_columns.h"
 #include "core/audit.h"
 #include "core/clock.h"
+#include "core/covariate_records.h"
 #include "core/echoed_value.h"
 #include "core/csv.h"
 #include "core/import_lock.h"
@@ -26,6 +28,7 @@
 #include "core/pseudonym.h"
 #include "core/store.h"
 #include "core/suggest.h"
+#include "core/text.h"
 
 namespace twinprobe {
 namespace {
@@ -91,6 +94,8 @@ struct Target {
   bool records = false;     // applicant records (import applications)
   bool open_codes = false;  // --positive given: any outcome value is a code, collected in pass 1
   bool staged = false;      // --stages given: the outcome is the furthest stage reached
+  std::vector<std::string> covariates;  // covariate columns (--covariates)
+  std::vector<std::string> stage_names;  // the hiring stages in order (--stages, or the study's)
   // Records of an unpaired study may leave out the vacancy column; with it,
   // a vacancy holds any number of applications and is also a stratum.
   bool many_per_vacancy() const { return records && kind == "unpaired"; }
@@ -126,6 +131,22 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
   for (const auto& s : o.strata)
     if (FindColumn(kFixedColumns, s) >= 0)
       return BadInput("", "'" + s + "' is a column of its own and cannot be a stratum", "name other columns with --strata");
+  if (o.covariates.size() > kMaxCovariates)
+    return BadInput("--covariates", "names " + std::to_string(o.covariates.size()) + " columns; at most " +
+                                        std::to_string(kMaxCovariates) + " covariates are kept",
+                    "keep the job-relevant covariates the adjustment needs");
+  for (size_t i = 0; i < o.covariates.size(); ++i) {
+    const std::string& name = o.covariates[i];
+    if (FindColumn(kFixedColumns, name) >= 0 || FindColumn(o.strata, name) >= 0)
+      return BadInput("--covariates", "'" + name + "' is " +
+                                          (FindColumn(kFixedColumns, name) >= 0 ? "a column of its own" : "a stratum") +
+                                          " and cannot also be a covariate",
+                      "name other columns with --covariates");
+    for (size_t j = 0; j < i; ++j)
+      if (o.covariates[j] == name)
+        return BadInput("--covariates", "'" + name + "' is named twice", "name each covariate column once");
+  }
+  t.covariates = o.covariates;
   if (store) {
     if (auto p = ReadImportPlan(*store)) {
       if (p->origin != "import")
@@ -162,9 +183,16 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
     }
     t.strata = stored;
     t.strata_source = "the study (set by its first import)";
+    t.stage_names = MetaList(*store, "stages");
     if (!o.stages.empty() && o.stages != MetaList(*store, "stages"))
       return BadInput("", "--stages " + Join(o.stages) + " differs from the study's stages",
                       "a later import keeps the stages of the first; leave --stages out");
+    if (o.covariates != MetaList(*store, "covariates"))
+      return BadInput("", "--covariates " + (o.covariates.empty() ? std::string("(none)") : Join(o.covariates)) +
+                              " differs from the study's covariates (" +
+                              (MetaList(*store, "covariates").empty() ? std::string("none")
+                                                                      : Join(MetaList(*store, "covariates"))) + ")",
+                      "a later import keeps the covariates of the first; give the same --covariates");
     if (!o.positive.empty() && o.positive != t.scheme.positive)
       return BadInput("", "--positive " + Join(o.positive) + " differs from the study's positive outcomes (" +
                               Join(t.scheme.positive) + ")",
@@ -199,6 +227,7 @@ Result<Target> BuildTarget(Store* store, const Design* design, const PairsImport
     t.scheme = SchemeWithoutDesign();
     if (!o.stages.empty()) {
       t.staged = true;
+      t.stage_names = o.stages;
       t.scheme.codes = o.stages;
       t.scheme.positive = o.positive.empty() ? std::vector<std::string>(o.stages.begin() + 1, o.stages.end()) : o.positive;
       for (const std::string& value : t.scheme.positive)
@@ -230,6 +259,10 @@ struct Columns {
   size_t count = 0;
   int vacancy = -1, arm = -1, outcome = -1, sent_at = -1, responded_at = -1, probe = -1, employer = -1;
   std::vector<int> strata;
+  std::vector<int> covariates;
+  // Stages as one yes/no column each (every stage names a column): the
+  // outcome is derived, appended to each record as field `outcome`.
+  std::vector<int> stage_columns;
 };
 
 // `header` holds the role names (after --columns); `file_header` the
@@ -238,12 +271,26 @@ Result<Columns> FindColumns(const std::vector<std::string>& header, const std::v
                             Target& t, const std::string& path, std::vector<std::string>& ignored) {
   Columns c;
   c.count = header.size();
+  // --stages naming a column each: per-stage yes/no flags, not one ordered
+  // outcome column.
+  bool flags = !t.stage_names.empty();
+  for (const auto& stage : t.stage_names) flags = flags && FindColumn(header, stage) >= 0;
+  if (flags) {
+    if (FindColumn(header, "outcome") >= 0)
+      return BadInput(path + ":1", "the file has an outcome column and a column for every stage",
+                      "keep one of the two: the stage columns (yes/no each) or the outcome column (the furthest "
+                      "stage reached), and leave the other out of the file or of --columns");
+    for (const auto& stage : t.stage_names) c.stage_columns.push_back(FindColumn(header, stage));
+  }
   std::vector<std::string> other;
   for (size_t i = 0; i < header.size(); ++i)
-    if (FindColumn(kFixedColumns, header[i]) < 0 && FindColumn(t.strata, header[i]) < 0 && !IsRejectColumn(header[i]))
+    if (FindColumn(kFixedColumns, header[i]) < 0 && FindColumn(t.strata, header[i]) < 0 &&
+        FindColumn(t.covariates, header[i]) < 0 && !IsRejectColumn(header[i]) &&
+        std::find(c.stage_columns.begin(), c.stage_columns.end(), static_cast<int>(i)) == c.stage_columns.end())
       other.push_back(file_header[i]);
   for (const char* required : {"vacancy", "arm", "outcome"}) {
     if (FindColumn(header, required) >= 0) continue;
+    if (std::string(required) == "outcome" && flags) continue;  // derived from the stage columns
     if (std::string(required) == "vacancy" && t.many_per_vacancy()) continue;  // each row is its own
     if (t.records)
       return BadInput(path + ":1", std::string("the column '") + required + "' is missing" + DidYouMean(required, other),
@@ -265,9 +312,17 @@ Result<Columns> FindColumns(const std::vector<std::string>& header, const std::v
                       "add the column, or name the file's stratum columns with --strata");
     c.strata.push_back(i);
   }
+  for (const auto& name : t.covariates) {
+    int i = FindColumn(header, name);
+    if (i < 0)
+      return BadInput(path + ":1", "the covariate column '" + name + "' named by --covariates is missing" +
+                                       DidYouMean(name, other),
+                      "name one of the file's columns: " + Quoted(file_header));
+    c.covariates.push_back(i);
+  }
   c.vacancy = FindColumn(header, "vacancy");
   c.arm = FindColumn(header, "arm");
-  c.outcome = FindColumn(header, "outcome");
+  c.outcome = flags ? static_cast<int>(header.size()) : FindColumn(header, "outcome");
   c.sent_at = FindColumn(header, "sent_at");
   c.responded_at = FindColumn(header, "responded_at");
   c.probe = FindColumn(header, "probe");
@@ -289,6 +344,17 @@ std::string OutcomeFix(const Target& t) {
 std::string VacancyKey(const CsvRecord& r, const Columns& c) {
   if (c.vacancy >= 0) return r.fields[c.vacancy];
   return "\x01" + std::to_string(r.line);
+}
+
+// With stage columns: appends the furthest stage the row reached as its
+// outcome field (collector/stage_columns.h).
+std::optional<Error> AppendStageOutcome(CsvRecord& r, const Columns& c, const Target& t, const std::string& path) {
+  Status count = CheckFieldCount(r, c.count, path);
+  if (!count.ok()) return count.error();
+  auto stage = FurthestStage(r, c.stage_columns, t.stage_names, path);
+  if (!stage.ok()) return stage.error();
+  r.fields.push_back(t.stage_names[stage.value()]);
+  return std::nullopt;
 }
 
 // One row's values, checked on their own (cross-row checks come after).
@@ -338,6 +404,14 @@ std::optional<Error> CheckRow(const CsvRecord& r, const Columns& c, const Target
   for (size_t i = 0; i < c.strata.size(); ++i)
     if (r.fields[c.strata[i]].empty())
       return bad("the stratum '" + t.strata[i] + "' is empty", "fill it in (use 'unknown' if it is not known)");
+  // A missing covariate is refused rather than guessed: dropping the row
+  // would change who is compared, and any filled-in value is a claim.
+  for (size_t i = 0; i < c.covariates.size(); ++i)
+    if (Trim(r.fields[c.covariates[i]]).empty())
+      return BadInput(path + ":" + std::to_string(r.line) + ":" + std::to_string(c.covariates[i] + 1),
+                      "the covariate '" + t.covariates[i] + "' is empty",
+                      "fill it in; for a category not known write a category of its own such as 'unknown', or "
+                      "leave the row out");
   if (c.probe >= 0 && r.fields[c.probe].empty())
     return bad("the probe is empty",
                "give every row a probe reference, or leave out the probe column to number the probes P00001, P00002, …");
@@ -360,6 +434,12 @@ struct Book {
   std::vector<std::vector<int64_t>> stratum_rows;
   std::vector<int64_t> employer_rows;
   std::unordered_map<std::string, int64_t> probe_line;
+  // Per covariate: whether every good row's cell is a number, and its
+  // distinct values (kept up to one past kMaxCovariateCategories; the line
+  // of the first value past it).
+  std::vector<bool> covariate_numeric;
+  std::vector<std::unordered_set<std::string>> covariate_values;
+  std::vector<int64_t> covariate_overflow_line;
 
   uint32_t Add(const std::string& ref) {
     auto [it, inserted] = index.try_emplace(ref, static_cast<uint32_t>(bad_line.size()));
@@ -396,13 +476,23 @@ class Checker {
     book_.stratum.resize(c.strata.size());
     book_.arm_line.assign(t.arms.size(), {});
     values_.resize(c.strata.size());
+    book_.covariate_numeric.assign(c.covariates.size(), true);
+    book_.covariate_values.resize(c.covariates.size());
+    book_.covariate_overflow_line.assign(c.covariates.size(), 0);
   }
 
   // Returns an error to stop at (all-or-nothing), else records the row.
   std::optional<Error> Take(const CsvRecord& r) {
     ++rows_;
     uint32_t v = kNone;
-    auto err = Examine(r, v);
+    std::optional<Error> err;
+    if (c_.stage_columns.empty()) {
+      err = Examine(r, v);
+    } else {
+      staged_ = r;
+      err = AppendStageOutcome(staged_, c_, t_, path_);
+      if (!err) err = Examine(staged_, v);
+    }
     if (!err) return std::nullopt;
     if (!skip_bad_) return err;
     bad_.push_back({r.line, err->what});
@@ -431,11 +521,12 @@ class Checker {
   Book book_;
   std::vector<BadRow> bad_;
   std::vector<uint32_t> values_;  // the current row's strata value ids
+  CsvRecord staged_;              // the current row with its derived outcome (stage columns)
   int64_t rows_ = 0;
 };
 
 std::optional<Error> Checker::Examine(const CsvRecord& r, uint32_t& v) {
-  Status count = CheckFieldCount(r, c_.count, path_);
+  Status count = CheckFieldCount(r, c_.count + (c_.stage_columns.empty() ? 0 : 1), path_);
   if (!count.ok()) return count.error();
   const std::string ref = VacancyKey(r, c_);
   if (ref.empty()) return At(r.line, "the vacancy is empty", "give every row the reference of its vacancy");
@@ -496,6 +587,14 @@ std::optional<Error> Checker::Examine(const CsvRecord& r, uint32_t& v) {
     t_.scheme.codes.push_back(r.fields[c_.outcome]);
   }
   // The row is good: remember it.
+  for (size_t i = 0; i < c_.covariates.size(); ++i) {
+    const std::string value(Trim(r.fields[c_.covariates[i]]));
+    if (!CovariateNumber(value)) book_.covariate_numeric[i] = false;
+    std::unordered_set<std::string>& seen = book_.covariate_values[i];
+    if (seen.size() <= kMaxCovariateCategories) seen.insert(value);
+    if (seen.size() > kMaxCovariateCategories && book_.covariate_overflow_line[i] == 0)
+      book_.covariate_overflow_line[i] = r.line;
+  }
   for (size_t i = 0; i < c_.strata.size(); ++i) {
     std::vector<int64_t>& rows = book_.stratum_rows[i];
     if (rows.size() <= values[i]) rows.resize(values[i] + 1, 0);
@@ -519,6 +618,48 @@ std::optional<Error> Checker::Examine(const CsvRecord& r, uint32_t& v) {
     book_.first_good_line[v] = r.line;
     for (size_t i = 0; i < values.size(); ++i) book_.stratum[i][v] = values[i];
     book_.employer[v] = employer;
+  }
+  return std::nullopt;
+}
+
+// A categorical covariate with more categories than the model can carry is
+// refused (a numeric one may hold any number of values).
+Result<std::vector<CovariateSummary>> SummariseCovariates(const Book& book, const Target& t, const Columns& c,
+                                                          const std::string& path) {
+  std::vector<CovariateSummary> out;
+  for (size_t i = 0; i < t.covariates.size(); ++i) {
+    CovariateSummary s;
+    s.name = t.covariates[i];
+    s.numeric = book.covariate_numeric[i];
+    if (!s.numeric && book.covariate_overflow_line[i] != 0)
+      return BadInput(path + ":" + std::to_string(book.covariate_overflow_line[i]) + ":" +
+                          std::to_string(c.covariates[i] + 1),
+                      "the covariate '" + s.name + "' has more than " + std::to_string(kMaxCovariateCategories) +
+                          " categories (not every cell is a number, so it is read as categories)",
+                      "group its values into fewer categories, or write every cell as a number");
+    if (!s.numeric) s.categories = static_cast<int64_t>(book.covariate_values[i].size());
+    out.push_back(s);
+  }
+  return out;
+}
+
+// --scores gives every group of a new study one score, and names no other.
+std::optional<Error> CheckScores(const Target& t, const PairsImportOptions& o, const std::string& path) {
+  if (o.scores.empty()) return std::nullopt;
+  if (!t.discover)
+    return BadInput("--scores", std::string("the groups' scores are set ") +
+                                    (t.append ? "by the study's first import" : "in study.toml ([[factor]] scores)"),
+                    "leave --scores out");
+  for (const auto& [level, score] : o.scores)
+    if (t.arm_of.find(level) == t.arm_of.end())
+      return BadInput("--scores", "'" + level + "' is not a group of " + path + DidYouMean(level, t.arms),
+                      "give scores to the groups of the file: " + Join(t.arms));
+  for (const std::string& arm : t.arms) {
+    bool scored = false;
+    for (const auto& [level, score] : o.scores) scored = scored || level == arm;
+    if (!scored)
+      return BadInput("--scores", "the group '" + arm + "' has no score",
+                      "give every group a score, e.g. --scores " + arm + "=NUMBER, or leave --scores out");
   }
   return std::nullopt;
 }
@@ -637,7 +778,8 @@ class Lander {
          const std::string& at, int64_t plan_id, std::vector<int64_t> arm_ids)
       : store_(store), t_(t), c_(c), arm_ids_(std::move(arm_ids)), serial_(t.next_serial),
         vacancy_id_(vacancies, 0), probes_in_(vacancies, 0),
-        writer_(store, plan_id, seq, actor, at, kBatch, static_cast<int>(c.strata.size())),
+        writer_(store, plan_id, seq, actor, at, kBatch, static_cast<int>(c.strata.size()),
+                static_cast<int>(c.covariates.size())),
         next_vacancy_id_(writer_.next_vacancy_id()), next_probe_id_(writer_.next_probe_id()) {}
 
   void Land(const CsvRecord& r, uint32_t v, const Row& row, PairsImportSummary& summary) {
@@ -663,6 +805,8 @@ class Lander {
       writer_.AddSending(probe_id, CanonicalEventText(r.fields[c_.sent_at]));
       ++summary.sendings;
     }
+    for (size_t i = 0; i < c_.covariates.size(); ++i)
+      writer_.AddCovariate(probe_id, t_.covariates[i], Trim(r.fields[c_.covariates[i]]));
     writer_.AddResponse(probe_id, r.fields[c_.outcome],
                         row.responded ? CanonicalEventText(r.fields[c_.responded_at]) : std::string(), row.late);
     writer_.EndProbe();
@@ -714,6 +858,9 @@ Design HeaderDesign(const Design* design, const Target& t, const std::string& st
   f.name = o.factor.empty() ? "arm" : o.factor;
   f.levels = t.arms;
   f.reference = t.arms[static_cast<size_t>(t.reference)];
+  for (const std::string& level : f.levels)  // in the levels' order (CheckScores: one each)
+    for (const auto& [name, score] : o.scores)
+      if (name == level) f.scores.push_back(score);
   d.factors = {f};
   d.arms.clear();
   for (size_t i = 0; i < t.arms.size(); ++i)
@@ -825,6 +972,10 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
   }
   if (auto err = checker.Finish(o)) return *err;
   Book& book = checker.book();
+  if (auto err = CheckScores(t, o, path)) return *err;
+  auto covariates = SummariseCovariates(book, t, c, path);
+  if (!covariates.ok()) return covariates.error();
+  summary.covariates = covariates.value();
   summary.near_duplicates = NearDuplicatesOf(book, t);
   bool any_good = false;
   for (size_t v = 0; v < book.bad_line.size() && !any_good; ++v)
@@ -857,6 +1008,7 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
       // What the rows are: the report words a study of records differently.
       if (o.records) StoreMetaValue(*store, write->seq(), "data", "applications");
       if (!o.stages.empty()) StoreMetaValue(*store, write->seq(), "stages", Join(o.stages, ","));
+      if (!t.covariates.empty()) StoreMetaValue(*store, write->seq(), "covariates", Join(t.covariates, ","));
       summary.new_plan = true;
     }
     summary.plan_id = plan_id;
@@ -874,7 +1026,7 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
     if (o.progress) bar = std::make_unique<Progress>("importing " + path, file_bytes, Progress::Unit::kBytes);
     const std::vector<BadRow>& bad = checker.bad_rows();
     size_t next_bad = 0;
-    CsvRecord r;
+    CsvRecord r, staged;
     Row row;
     while (pass2.Next(r)) {
       if (bar) bar->Update(pass2.bytes_consumed());
@@ -884,7 +1036,14 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
       } else {
         const std::string ref = VacancyKey(r, c);
         auto it = book.index.find(ref);
-        if (it == book.index.end() || CheckRow(r, c, t, path, row) || row.arm < 0)
+        const CsvRecord* use = &r;
+        if (!c.stage_columns.empty()) {
+          staged = r;
+          if (AppendStageOutcome(staged, c, t, path))
+            return Internal("import pairs: " + path + ":" + std::to_string(r.line) + " changed between the two passes");
+          use = &staged;
+        }
+        if (it == book.index.end() || CheckRow(*use, c, t, path, row) || row.arm < 0)
           return Internal("import pairs: " + path + ":" + std::to_string(r.line) + " changed between the two passes");
         uint32_t v = it->second;
         if (book.bad_line[v] != 0)
@@ -894,7 +1053,7 @@ Result<PairsImportSummary> ImportPairs(const std::string& store_path, const Desi
                                            t.arms[static_cast<size_t>(book.missing_arm[v])] + "'",
                                r.fields);
         else
-          lander->Land(r, v, row, summary);
+          lander->Land(*use, v, row, summary);
       }
       if (!status.ok()) return status.error();
     }

@@ -59,8 +59,26 @@ struct PairsImportOptions {
   std::vector<std::string> positive;
   // Hiring stages in order: the outcome is the furthest stage reached, so
   // the codes are exactly these (positive: --positive, else every stage
-  // after the first). Stored for the stage analysis.
+  // after the first). Stored for the stage analysis. When every stage names
+  // a column of the file, those columns are yes/no flags (1/0, yes/no, y/n,
+  // true/false, any case) and the outcome is the last stage flagged yes; a
+  // row flagged yes at a stage after a no is refused.
   std::vector<std::string> stages;
+  // Covariate columns kept with each application (the file's names, after
+  // --columns), for the adjusted logistic model. Every cell must be filled;
+  // a covariate is numeric when every cell is a number
+  // (core/covariate_records.h), else categorical.
+  std::vector<std::string> covariates;
+  // Scores of ordered groups (--scores a28=28,a45=45,a58=58), stored with
+  // the levels (level_design) for the trend test; every group needs one.
+  std::vector<std::pair<std::string, double>> scores;
+};
+
+// How a covariate column was read.
+struct CovariateSummary {
+  std::string name;
+  bool numeric = false;
+  int64_t categories = 0;  // distinct values of a categorical covariate (0 when numeric)
 };
 
 struct PairsImportSummary {
@@ -79,6 +97,7 @@ struct PairsImportSummary {
   int64_t late = 0;                // responses flagged 'late'
   std::string reject_path;         // "" when no row was rejected
   std::vector<std::string> ignored_columns;
+  std::vector<CovariateSummary> covariates;  // in the order given
   // Values of a stratum, employer or arm column that differ only in case or
   // spaces (each spelling lands as a value of its own); the command warns.
   std::vector<NearDuplicate> near_duplicates;

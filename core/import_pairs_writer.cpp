@@ -46,7 +46,7 @@ int64_t MaxProbeSerial(Store& store) {
 }
 
 PairsWriter::PairsWriter(Store& store, int64_t plan_id, int64_t seq, const std::string& actor, const std::string& at,
-                         int batch_probes, int strata_per_vacancy)
+                         int batch_probes, int strata_per_vacancy, int covariates_per_probe)
     : store_(store),
       next_vacancy_id_(store.QueryInt("SELECT coalesce(max(id), 0) + 1 FROM vacancy")),
       next_probe_id_(store.QueryInt("SELECT coalesce(max(id), 0) + 1 FROM probe")),
@@ -68,6 +68,10 @@ PairsWriter::PairsWriter(Store& store, int64_t plan_id, int64_t seq, const std::
       store,
       "INSERT INTO response(probe_id, code, received_at, origin, flags, entered_by, entered_at, audit_seq) VALUES ",
       "(@, @, @, 'import', @, ?1, ?2, ?3)", std::vector<BatchInsert::Constant>{actor, at, seq}, batch_probes);
+  if (covariates_per_probe > 0)
+    covariates_ = std::make_unique<BatchInsert>(
+        store, "INSERT INTO application_covariate(probe_id, name, value, audit_seq) VALUES ", "(@, @, @, ?1)",
+        std::vector<BatchInsert::Constant>{seq}, batch_probes * covariates_per_probe);
 }
 
 PairsWriter::~PairsWriter() = default;
@@ -117,12 +121,20 @@ void PairsWriter::AddResponse(int64_t probe_id, std::string_view code, std::stri
   responses_->EndRow();
 }
 
+void PairsWriter::AddCovariate(int64_t probe_id, std::string_view name, std::string_view value) {
+  covariates_->Int(probe_id);
+  covariates_->Text(name);
+  covariates_->Text(value);
+  covariates_->EndRow();
+}
+
 void PairsWriter::EndProbe() {
   if (probes_->full()) FlushAll();
 }
 
 void PairsWriter::FlushAll() {
-  for (BatchInsert* b : {vacancies_.get(), strata_.get(), probes_.get(), sendings_.get(), responses_.get()}) b->Flush();
+  for (BatchInsert* b : {vacancies_.get(), strata_.get(), probes_.get(), sendings_.get(), responses_.get(), covariates_.get()})
+    if (b) b->Flush();
 }
 
 // Why the indexes stay: dropping the nine secondary indexes of the filled

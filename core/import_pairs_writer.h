@@ -50,10 +50,10 @@ int64_t MaxProbeSerial(Store& store);
 class PairsWriter {
  public:
   // `batch_probes`: how many probes a batch holds; `strata_per_vacancy`
-  // sizes the strata batch. Use inside an AuditedWrite, which holds the
-  // write lock.
+  // and `covariates_per_probe` size the strata and covariate batches. Use
+  // inside an AuditedWrite, which holds the write lock.
   PairsWriter(Store& store, int64_t plan_id, int64_t seq, const std::string& actor, const std::string& at,
-              int batch_probes, int strata_per_vacancy);
+              int batch_probes, int strata_per_vacancy, int covariates_per_probe = 0);
   ~PairsWriter();
   PairsWriter(const PairsWriter&) = delete;
   PairsWriter& operator=(const PairsWriter&) = delete;
@@ -72,6 +72,9 @@ class PairsWriter {
   // A response of origin 'import'; `received_at` "" stores none; `late`
   // sets the flag 'late'.
   void AddResponse(int64_t probe_id, std::string_view code, std::string_view received_at, bool late);
+  // A covariate of an application (application_covariate, migration 14);
+  // at most `covariates_per_probe` per probe.
+  void AddCovariate(int64_t probe_id, std::string_view name, std::string_view value);
   // Call after each probe: writes the batches once the probes' one is full.
   void EndProbe();
   // Writes what is buffered; the rows are then readable.
@@ -83,7 +86,7 @@ class PairsWriter {
   Store& store_;
   int64_t next_vacancy_id_, next_probe_id_;
   Stmt employer_;
-  std::unique_ptr<BatchInsert> vacancies_, strata_, probes_, sendings_, responses_;
+  std::unique_ptr<BatchInsert> vacancies_, strata_, probes_, sendings_, responses_, covariates_;
   bool finished_ = false;
 };
 

@@ -14,6 +14,7 @@ StudyReading ReadStudy(Store& store, const OutcomeScheme& scheme, const Fieldwor
   if (!r.design.stages.empty()) r.code_counts = ReadCodeCounts(store);
   r.layout = ReadProbeLayout(store);
   r.declines = ReadDeclineFacts(store);
+  r.covariates = ReadCovariates(store);
   return r;
 }
 

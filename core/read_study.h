@@ -7,6 +7,7 @@
 #include <optional>
 
 #include "core/decline_records.h"
+#include "core/covariate_records.h"
 #include "core/design.h"
 #include "core/fieldwork.h"
 #include "core/probe_layout.h"
@@ -31,6 +32,7 @@ struct StudyReading {
   // fieldwork's `completed` sets carry the outcomes it is joined with.
   ProbeLayouts layout;
   DeclineReading declines;  // current responses with their declines (core/decline_records.h)
+  CovariateTable covariates;  // imported with --covariates (core/covariate_records.h); empty names otherwise
 };
 
 // `scheme` decides which response codes are positive (the design's scheme

@@ -479,6 +479,23 @@ CREATE INDEX merged_row_seq ON merged_row(audit_seq);
 CREATE INDEX merge_choice_seq ON merge_choice(audit_seq);
 )SQL";
 
+// Version 14: the covariates `import applications --covariates` keeps with
+// each application (years of experience, a degree), for the logistic model
+// that adjusts the groups' odds ratios (analysis/covariate_model.h). Sealed
+// like the probe it belongs to: it is evidence, and a covariate edited after
+// the import would change the adjusted result. Values are stored as the file
+// wrote them; whether a covariate is a number or a category is decided from
+// its values by one rule (core/covariate_records.h).
+constexpr const char* kMigration14Covariate = R"SQL(
+CREATE TABLE application_covariate(
+  probe_id INTEGER NOT NULL REFERENCES probe(id),
+  name TEXT NOT NULL,                     -- the file's column name
+  value TEXT NOT NULL,                    -- the cell as written (never empty)
+  audit_seq INTEGER NOT NULL,
+  PRIMARY KEY(probe_id, name));
+CREATE INDEX application_covariate_seq ON application_covariate(audit_seq);
+)SQL";
+
 struct Migration {
   int version;
   const char* sql;
@@ -487,7 +504,8 @@ struct Migration {
 const Migration kMigrations[] = {{1, kMigration1}, {2, kMigration2}, {3, kMigration3}, {4, kMigration4},
                                {5, kMigration5DeskPassphrase}, {6, kMigration6},
                                {7, kMigration7Withdrawal}, {8, kMigration8MonitorLook}, {9, kMigration9SendingDetail},
-                               {11, kMigration11}, {12, kMigration12Offices}, {13, kMigration13ExcerptSeal}};
+                               {11, kMigration11}, {12, kMigration12Offices}, {13, kMigration13ExcerptSeal},
+                               {14, kMigration14Covariate}};
 
 // sqlite_master without SQLite's own objects (sqlite_autoindex_* follow from
 // the tables' SQL, which is compared; sqlite_stat* only guide the planner).
@@ -559,6 +577,7 @@ const std::vector<SealedTable>& SealedTables() {
       {"level_design", {}},
       {"handout", {}},       {"handout_vacancy", {}}, {"office_origin", {}}, {"office_merge", {}},
       {"merged_row", {}},    {"merge_choice", {}},
+      {"application_covariate", {}},
   };
   return tables;
 }

@@ -9,7 +9,7 @@ namespace twinprobe {
 
 class Store;
 
-constexpr int kSchemaVersion = 13;  // bump together with a new migration
+constexpr int kSchemaVersion = 14;  // bump together with a new migration
 
 // Applies every migration above the store's user_version in one write
 // transaction (BEGIN IMMEDIATE) that re-reads the version once it holds the

@@ -2,7 +2,9 @@
 
 #include "report/fieldwork_state.h"
 #include "report/declines_report.h"
+#include "report/covariate_model_report.h"
 #include "report/stages_report.h"
+#include "report/strata_appendix.h"
 
 namespace twinprobe {
 namespace {
@@ -25,6 +27,8 @@ bool HasPairedFindings(const AnalysisResult& r) { return r.has_paired && HasFind
 bool HasStages(const AnalysisResult& r) { return r.stages.present && HasFindings(r); }
 bool HasKLevels(const AnalysisResult& r) { return r.k_levels.present && HasFindings(r); }
 bool HasAdjusted(const AnalysisResult& r) { return r.adjusted.present && HasFindings(r); }
+bool HasCovariateModel(const AnalysisResult& r) { return r.covariate_model.present && HasFindings(r); }
+bool HasStrataAppendixFindings(const AnalysisResult& r) { return HasStrataAppendix(r) && HasFindings(r); }
 bool HasEmployerSets(const AnalysisResult& r) { return r.employer_sets.available && HasFindings(r); }
 
 }  // namespace
@@ -42,6 +46,7 @@ const std::vector<HtmlSection>& HtmlSections() {
       {"stages", "Hiring stages", &HasStages, {&StagesFunnel}},
       {"levels", "Every level compared", &HasKLevels, {&LevelTests, &LevelPairs, &TwoFactorTable}},
       {"adjusted", "Adjusted for template and send position", &HasAdjusted, {&AdjustedTable}},
+      {"covariates", "Adjusted for the applications' covariates", &HasCovariateModel, {&CovariateModelPart}},
       {"responses", "What came back, and how fast", &HasFindings, {&ResponseCodes, &ResponseTimesChart}},
       {"declines", "Declines of positive responses", &HasDeclines, {&DeclinesSection}},
       {"employers", "Employers (by pseudonym)", &HasEmployers, {&EmployerTable}},
@@ -51,6 +56,7 @@ const std::vector<HtmlSection>& HtmlSections() {
       {"methods", "Methods and sources", nullptr, {&MethodsText}},
       {"cautions", "Cautions", nullptr, {&CautionsText}},
       {"stamp", "Reproducibility", nullptr, {&StampTable}},
+      {"appendix-strata", "Appendix: each stratum's table", &HasStrataAppendixFindings, {&StrataAppendix}},
   };
   return sections;
 }

@@ -39,6 +39,7 @@ table.data caption { text-align: left; font-weight: bold; padding-bottom: 4px; }
 table.data th, table.data td { border-bottom: 1px solid var(--rule); padding: 4px 10px; text-align: left; vertical-align: top; }
 table.data thead th { border-bottom: 2px solid #888; }
 table.data .num { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
+table.data.stratum-table { display: inline-table; font-size: 12px; margin: 4px 14px 10px 0; vertical-align: top; } table.data.stratum-table th, table.data.stratum-table td { padding: 2px 6px; }
 table.cross td { font-size: 15px; }
 table.cross td.hl { background: var(--soft); font-weight: bold; }
 table.cross small { font-weight: normal; color: var(--muted); }

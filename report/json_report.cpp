@@ -11,6 +11,7 @@
 #include "report/declines_report.h"
 #include "report/stages_report.h"
 #include "report/adjusted_model_report.h"
+#include "report/covariate_model_report.h"
 #include "report/k_level_report.h"
 #include "report/json_number.h"
 
@@ -244,6 +245,7 @@ std::string RenderJsonReport(const AnalysisResult& r) {
   if (r.declines.present) j["declines"] = DeclinesJson(r.declines);
   if (r.k_levels.present) j["k_levels"] = KLevelJson(r.k_levels);
   if (r.adjusted.present) j["adjusted_model"] = AdjustedJson(r.adjusted);
+  if (r.covariate_model.present) j["covariate_model"] = CovariateModelJson(r.covariate_model);
   if (r.employer_sets.available) {
     nlohmann::json rows = nlohmann::json::array();
     for (const EmployerSetRow& e : r.employer_sets.unequal_rows)

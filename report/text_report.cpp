@@ -15,6 +15,7 @@
 #include "report/stages_report.h"
 #include "report/employer_flip_text.h"
 #include "report/adjusted_model_report.h"
+#include "report/covariate_model_report.h"
 #include "report/k_level_report.h"
 #include "report/plain_summary.h"
 
@@ -391,6 +392,7 @@ void FindingsBlock(std::ostringstream& o, const AnalysisResult& r) {
   o << RenderEffectsText(r);
   o << RenderStagesText(r);
   o << RenderAdjustedText(r);
+  o << RenderCovariateModelText(r);
   o << RenderKLevelText(r);
 }
 

@@ -21,7 +21,11 @@ double Score(double theta, double x1, double n1, double x2, double n2) {
   const double q2 = (-b - std::sqrt(std::max(0.0, b * b - 4 * a * c))) / (2 * a);
   const double q1 = theta * q2;
   const double variance = q1 * (1 - q1) / n1 + theta * theta * q2 * (1 - q2) / n2;
-  return (x1 / n1 - theta * x2 / n2) / std::sqrt(variance);
+  const double difference = x1 / n1 - theta * x2 / n2;
+  // At the estimate the statistic is 0; when both rates are 1 the variance is
+  // 0 there too, and 0 / 0 would stop the root search that starts from it.
+  if (difference == 0) return 0;
+  return difference / std::sqrt(variance);
 }
 
 // The theta in (0, inf) where Score = target, searched on log theta from

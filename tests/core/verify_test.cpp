@@ -18,6 +18,7 @@ TEST_CASE("verify: a freshly migrated store has exactly the reference schema") {
   std::sort(differences.begin(), differences.end());
   CHECK(differences ==
         std::vector<std::string>{
+            "the store holds a table 'application_covariate' that twinprobe does not create",
             "the store holds a table 'desk_passphrase' that twinprobe does not create",
             "the store holds a table 'factor_design' that twinprobe does not create",
             "the store holds a table 'handout' that twinprobe does not create",
@@ -32,6 +33,7 @@ TEST_CASE("verify: a freshly migrated store has exactly the reference schema") {
             "the store holds a table 'office_origin' that twinprobe does not create",
             "the store holds a table 'sending_detail' that twinprobe does not create",
             "the store holds a table 'withdrawal' that twinprobe does not create",
+            "the store holds an index 'application_covariate_seq' on application_covariate that twinprobe does not create",
             "the store holds an index 'desk_passphrase_member' on desk_passphrase that twinprobe does not create",
             "the store holds an index 'desk_passphrase_seq' on desk_passphrase that twinprobe does not create",
             "the store holds an index 'factor_design_seq' on factor_design that twinprobe does not create",

@@ -290,8 +290,8 @@ TEST_CASE("issue 23: a store of an older schema version verifies against that ve
   Study st;
   st.Record("P00001", "invitation");
   // Exactly what migrations 1 to 3 made: version 4 only added this index;
-  // versions 5 to 13 added tables, each with its indexes.
-  st.Sql("DROP TABLE merge_choice; DROP TABLE merged_row; DROP TABLE office_merge; DROP TABLE office_origin; "
+  // versions 5 to 14 added tables, each with its indexes.
+  st.Sql("DROP TABLE application_covariate; DROP TABLE merge_choice; DROP TABLE merged_row; DROP TABLE office_merge; DROP TABLE office_origin; "
          "DROP TABLE handout_vacancy; DROP TABLE handout; DROP TABLE level_design; DROP TABLE factor_design; "
          "DROP TABLE mail_excerpt_seal; DROP TABLE sending_detail; DROP TABLE monitor_look; DROP TABLE withdrawal; "
          "DROP TABLE material_file; DROP TABLE desk_passphrase; DROP INDEX response_supersedes; "

@@ -101,3 +101,21 @@ TEST_CASE("impact ratio: against the group with the highest selection rate") {
   CHECK_THAT(against_first[1].ratio, WithinRel(1.0, 1e-14));
   CHECK_FALSE(against_first[1].below_four_fifths);
 }
+
+TEST_CASE("impact ratio: both groups all positive gives the score interval, not an internal error") {
+  // Found on an HR file: a requisition where 4 of 4 and 2 of 2 applicants
+  // passed. Both rates are 1, so the score statistic's variance is 0 at the
+  // estimate. From Koopman's (1984) statistic by hand: below 1 the
+  // restricted rates are (theta, 1) and the statistic is
+  // sqrt(n1 (1 - theta) / theta), equal to z at theta = n1 / (n1 + z^2);
+  // above 1 they are (1, 1 / theta) and it is -sqrt(n2 (theta - 1)), equal
+  // to -z at theta = 1 + z^2 / n2 (statsmodels confint_proportions_2indep(4,
+  // 4, 2, 2, method="score", compare="ratio", correction=False) gives the
+  // same upper limit, 2.920729410347064; its lower limit, 1.0000000032, is
+  // where its root search stops at the estimate).
+  const double z2 = 1.959963984540054 * 1.959963984540054;
+  const stats::ImpactRatio r = stats::ImpactRatioOf(4, 4, 2, 2, 0.95);
+  CHECK(r.ratio == 1);
+  CHECK_THAT(r.koopman_score.low, Catch::Matchers::WithinRel(4 / (4 + z2), 1e-9));
+  CHECK_THAT(r.koopman_score.high, Catch::Matchers::WithinRel(1 + z2 / 2, 1e-9));
+}
