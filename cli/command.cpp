@@ -36,6 +36,8 @@ std::string CommandFor(const Context& ctx, const std::string& rest) {
 }
 
 std::string StudyPath(const Context& ctx, const std::string& relative) {
+  // Printed paths are read by people: the current folder needs no "./".
+  if (ctx.study_dir == ".") return relative;
   return (std::filesystem::path(ctx.study_dir) / relative).string();
 }
 
