@@ -18,7 +18,9 @@ KLevelInput KLevelInputFor(const EffectsInput& e, const StoredDesign& stored, co
   in.correction = e.correction;
   in.confidence = e.confidence;
   for (const StoredFactor& sf : stored.factors) {
-    KLevelFactor f{sf.name, sf.levels, sf.reference.empty() && !sf.levels.empty() ? sf.levels[0] : sf.reference, {}};
+    KLevelFactor f{sf.name, sf.levels, sf.reference.empty() && !sf.levels.empty() ? sf.levels[0] : sf.reference, {},
+                   sf.DisplayName(), {}};
+    for (const std::string& level : sf.levels) f.level_labels.push_back(sf.LevelLabel(level));
     if (current_design)
       for (const Factor& df : current_design->factors)
         if (df.name == sf.name && df.levels == sf.levels) f.scores = df.scores;

@@ -42,6 +42,10 @@ struct KLevelFactor {
   std::vector<std::string> levels;
   std::string reference;
   std::vector<double> scores;
+  // Display texts (StoredFactor::DisplayName / LevelLabel): the factor's,
+  // and one per level in `levels` order. Empty: the name and the levels.
+  std::string label;
+  std::vector<std::string> level_labels;
 };
 
 struct KLevelInput {
@@ -56,6 +60,7 @@ struct KLevelInput {
 
 struct LevelRate {
   std::string level;
+  std::string label;  // display text of the level (the level when it has none)
   int64_t probes = 0;
   int64_t positive = 0;
   double rate = 0;
@@ -76,6 +81,7 @@ struct OverallTest {
 
 struct LevelPair {
   std::string first, second;  // levels in declared order
+  std::string first_label, second_label;  // their display texts
   double rate_first = 0, rate_second = 0, difference = 0;
   bool paired = true;
   stats::PairedCounts pairs;        // paired: the sets' table (a both, b first only, c second only, d neither)
@@ -101,6 +107,7 @@ struct TrendResult {
 
 struct FactorAnalysis {
   std::string name;
+  std::string label;   // display text of the factor (its name when it has none)
   bool within = true;  // some set holds two of its levels
   std::vector<LevelRate> levels;
   std::optional<OverallTest> overall;
@@ -110,12 +117,14 @@ struct FactorAnalysis {
 
 struct ModelTerm {
   std::string name;  // "age=45", "age=45 x gender=m"
+  std::string label;  // with display texts: "aged 45", "aged 45 x man"
   double coefficient = 0, standard_error = 0, odds_ratio = 1, p_wald = 1;
   stats::Interval ci;  // profile interval of the odds ratio
 };
 
 struct EffectTest {
   std::string name;  // "age", "gender", "age x gender"
+  std::string label;  // with display texts: "age (years) x gender"
   bool estimable = true;
   std::string note;  // why not estimable
   double statistic = 0;

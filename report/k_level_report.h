@@ -16,6 +16,11 @@ namespace twinprobe {
 std::string RenderKLevelText(const AnalysisResult& result);
 nlohmann::json KLevelJson(const KLevelAnalysis& k_levels);
 
+// A level in a table: its display label with the code in parentheses
+// ("aged 28 (28)"; the code is what the CSVs and the JSON hold), or the
+// code alone when it has no label.
+std::string LevelShown(const LevelRate& level);
+
 // The overall test of one factor in words, naming the test and its
 // sidedness, e.g. "Cochran's Q test of equal positive rates across the 3
 // levels of age (exact permutation p) rejects equality: Q = 9.33 on 2 df,

@@ -27,7 +27,7 @@ const std::vector<Pattern> kFemale = {{{1, 1, 1}, 10}, {{1, 0, 0}, 9}, {{1, 1, 0
 const std::vector<Pattern> kMale = {{{1, 1, 1}, 8}, {{1, 0, 0}, 5}, {{1, 1, 0}, 4}, {{0, 1, 0}, 5},
                                     {{0, 0, 1}, 3}, {{1, 0, 1}, 2}, {{0, 1, 1}, 4}, {{0, 0, 0}, 25}};
 
-KLevelFactor Age() { return {"age", {"28", "45", "58"}, "28", {28, 45, 58}}; }
+KLevelFactor Age() { return {"age", {"28", "45", "58"}, "28", {28, 45, 58}, "", {}}; }
 
 void Add(KLevelInput& in, const std::vector<Pattern>& patterns, int arm_offset) {
   for (const Pattern& p : patterns) {
@@ -152,7 +152,7 @@ TEST_CASE("k levels: age within and gender between against R's clogit likelihood
   in.kind = "sets";
   in.arm_labels = {"age=28,gender=f", "age=45,gender=f", "age=58,gender=f",
                    "age=28,gender=m", "age=45,gender=m", "age=58,gender=m"};
-  in.factors = {{"age", {"28", "45", "58"}, "28", {}}, {"gender", {"f", "m"}, "f", {}}};
+  in.factors = {{"age", {"28", "45", "58"}, "28", {}, "", {}}, {"gender", {"f", "m"}, "f", {}, "", {}}};
   Add(in, kFemale, 0);
   Add(in, kMale, 3);
   const KLevelAnalysis k = AnalyzeKLevels(in);
@@ -244,7 +244,7 @@ TEST_CASE("k levels: an unpaired three-level study against R (chisq.test, fisher
 TEST_CASE("k levels: one two-level factor is left to the paired effects") {
   KLevelInput in;
   in.arm_labels = {"origin=coastal", "origin=inland"};
-  in.factors = {{"origin", {"coastal", "inland"}, "coastal", {}}};
+  in.factors = {{"origin", {"coastal", "inland"}, "coastal", {}, "", {}}};
   in.sets.push_back({{{0, true}, {1, false}}, {}, 3});
   CHECK_FALSE(AnalyzeKLevels(in).present);
   CHECK(LevelOfArm("age=45,gender=m", "gender") == "m");

@@ -83,7 +83,7 @@ TEST_CASE("verdict: a sets study with three ages names Cochran's Q and each pair
   KLevelInput in;
   in.kind = "sets";
   in.arm_labels = {"age=28", "age=45", "age=58"};
-  in.factors = {{"age", {"28", "45", "58"}, "28", {28, 45, 58}}};
+  in.factors = {{"age", {"28", "45", "58"}, "28", {28, 45, 58}, "", {}}};
   in.sets = ThreeAges(0, false);
   AnalysisResult r = FromSets("sets", in.arm_labels, in.sets);
   r.k_levels = AnalyzeKLevels(in);
@@ -123,7 +123,7 @@ TEST_CASE("verdict: a two-factor study states the main effect and the interactio
   in.kind = "sets";
   in.arm_labels = {"age=28,gender=f", "age=45,gender=f", "age=58,gender=f",
                    "age=28,gender=m", "age=45,gender=m", "age=58,gender=m"};
-  in.factors = {{"age", {"28", "45", "58"}, "28", {}}, {"gender", {"f", "m"}, "f", {}}};
+  in.factors = {{"age", {"28", "45", "58"}, "28", {}, "", {}}, {"gender", {"f", "m"}, "f", {}, "", {}}};
   in.sets = ThreeAges(0, false);
   for (const SetOutcome& s : ThreeAges(3, true)) in.sets.push_back(s);
   AnalysisResult r = FromSets("sets", in.arm_labels, in.sets);
