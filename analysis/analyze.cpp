@@ -156,7 +156,9 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
                        [&](const SingleStratum& one) { return one.column == t.name; });
   });
   r.stages = ComputeHiringStages(stored.stages, effects_in.arm_labels, reading.code_counts, r.correction, r.confidence);
-  r.k_levels = AnalyzeKLevels(KLevelInputFor(effects_in, stored, current_design));
+  KLevelInput k_in = KLevelInputFor(effects_in, stored, current_design);
+  k_in.seed = static_cast<uint64_t>(f.seed.value_or(0));
+  r.k_levels = AnalyzeKLevels(k_in);
   if (r.kind != "unpaired") r.adjusted = FitAdjustedModel(LaidOutSets(f, reading.layout), effects_in.arm_labels, r.confidence);
   r.design = SummariseDesign(f, stored);
   r.response_times = ComputeResponseTimes(f, scheme);

@@ -173,6 +173,12 @@ FactorAnalysis AnalyzeFactor(const KLevelInput& in, const KLevelFactor& f, stats
     if (scored) fa.trend = ClogitSlope(in, f, arm_level);
     return fa;
   }
+  if (in.kind != "unpaired") {
+    std::vector<std::vector<int>> others;
+    for (const KLevelFactor& other : in.factors)
+      if (other.name != f.name) others.push_back(ArmLevels(in, other));
+    fa.vacancy_test = TestByVacancy(in.sets, arm_level, k, others, in.seed);
+  }
   if (std::any_of(probes.begin(), probes.end(), [](int64_t n) { return n == 0; })) return fa;
   const stats::KByTwoTest kt = stats::KByTwo(positive, probes);
   OverallTest o;
@@ -323,7 +329,7 @@ TwoFactorModel FitTwoFactors(const KLevelInput& in, const FactorAnalysis& fa, co
       t.name = f.name;
       t.label = FactorLabel(f);
       t.estimable = false;
-      t.note = "varied between vacancies, so constant within every set: compared by the k x 2 test of its levels";
+      t.note = "varied between vacancies, so constant within every set: tested by re-assigning its levels to vacancies";
       return t;
     }
     const auto ll_reduced = LogLikelihood(d, other, full_fit.log_likelihood_null, failure);

@@ -16,7 +16,11 @@
 //   varied between vacancies, or an unpaired design: the k x 2 table of
 //     probes: Pearson's chi-square and the Freeman–Halton exact test
 //     (stats/k_by_two.h), pairs of levels by Fisher's exact test, and with
-//     `scores` the Cochran–Armitage trend test (stats/trend.h).
+//     `scores` the Cochran–Armitage trend test (stats/trend.h). These count
+//     probes as independent, which the probes of one vacancy are not: in a
+//     paired or sets design the factor is tested by re-assigning its levels
+//     to the vacancies within the plan's blocks (analysis/vacancy_test.h),
+//     and the k x 2 tests stay as a description.
 // Two factors (matched sets only): a conditional logistic regression with
 // indicators of each factor's non-reference levels and their products
 // (interaction). Main effects and the interaction are tested by likelihood
@@ -30,6 +34,7 @@
 #include <vector>
 
 #include "analysis/effects.h"
+#include "analysis/vacancy_test.h"
 #include "stats/clogit.h"
 #include "stats/paired.h"
 
@@ -56,6 +61,7 @@ struct KLevelInput {
   std::vector<KLevelFactor> factors;
   std::string correction = "holm";
   double confidence = 0.95;
+  uint64_t seed = 0;  // the design's seed: the vacancy permutation test's resamples
 };
 
 struct LevelRate {
@@ -110,9 +116,12 @@ struct FactorAnalysis {
   std::string label;   // display text of the factor (its name when it has none)
   bool within = true;  // some set holds two of its levels
   std::vector<LevelRate> levels;
-  std::optional<OverallTest> overall;
+  std::optional<OverallTest> overall;  // between: the k x 2 table, descriptive (probes of a vacancy are not independent)
   std::vector<LevelPair> pairwise;  // (0,1), (0,2), ..., (1,2), ...
   TrendResult trend;
+  // Varied between vacancies in a paired or sets design: the test of the
+  // factor, at the level of its randomisation (analysis/vacancy_test.h).
+  VacancyPermutationTest vacancy_test;
 };
 
 struct ModelTerm {

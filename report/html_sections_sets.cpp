@@ -33,6 +33,7 @@ std::string LevelTests(const AnalysisResult& r, const ReportContext&) {
                         NumCell(FormatPercent(l.rate))});
     o += RenderTable(t);
     if (const std::string s = OverallSentence(f, r.alpha); !s.empty()) o += html::Para(s);
+    if (const std::string s = VacancyTestSentence(f, r.alpha); !s.empty()) o += html::Para(s);
     if (const std::string s = TrendSentence(f, r.alpha, r.confidence); !s.empty()) o += html::Para(s);
   }
   return o;

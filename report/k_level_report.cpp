@@ -63,6 +63,19 @@ std::string OverallSentence(const FactorAnalysis& f, double alpha) {
   return o.str();
 }
 
+std::string VacancyTestSentence(const FactorAnalysis& f, double alpha) {
+  const VacancyPermutationTest& t = f.vacancy_test;
+  if (!t.present) return "";
+  std::ostringstream o;
+  o << "The test of " << f.label << " at the level it was randomised at (its levels re-assigned to the "
+    << Count(t.vacancies, "vacancy", "vacancies") << " within the " << Count(t.blocks, "block", "blocks")
+    << " of the plan, " << t.resamples << " resamples; statistic: the sum over levels of the squared positive count "
+    << "over the number of vacancies) " << Verb(t.p, alpha) << " equality at alpha " << Fmt(alpha)
+    << ": Monte Carlo " << PEquals(t.p) << " (standard error " << Fmt(t.monte_carlo_se)
+    << "). The k x 2 test counts the probes of one vacancy as independent and is descriptive.";
+  return o.str();
+}
+
 std::string TrendSentence(const FactorAnalysis& f, double alpha, double confidence) {
   const TrendResult& t = f.trend;
   if (!t.present) return "";
@@ -108,6 +121,7 @@ std::string RenderKLevelText(const AnalysisResult& r) {
       o << line;
     }
     if (const std::string s = OverallSentence(f, r.alpha); !s.empty()) o << Wrap(s, "  ");
+    if (const std::string s = VacancyTestSentence(f, r.alpha); !s.empty()) o << Wrap(s, "  ");
     if (!f.pairwise.empty()) {
       o << "  Every pair of levels (" << (f.within ? "exact McNemar on the sets holding both" : "Fisher's exact test")
         << "; p adjusted by " << r.effects.correction << " over the " << Count(static_cast<int64_t>(f.pairwise.size()), "pair", "pairs")
@@ -173,6 +187,18 @@ nlohmann::json KLevelJson(const KLevelAnalysis& k) {
                                         {"conf_int", Ci(p.conditional_or.ci)}};
       }
       fj["pairwise"].push_back(pj);
+    }
+    if (f.vacancy_test.present) {
+      const VacancyPermutationTest& t = f.vacancy_test;
+      fj["vacancy_test"] = {{"test", "permutation of levels among vacancies within the plan's blocks"},
+                            {"statistic", JsonNumber(t.statistic)},
+                            {"vacancies", t.vacancies},
+                            {"blocks", t.blocks},
+                            {"vacancies_by_level", t.vacancies_by_level},
+                            {"positive_by_level", t.positive_by_level},
+                            {"resamples", t.resamples},
+                            {"p", JsonNumber(t.p)},
+                            {"monte_carlo_se", JsonNumber(t.monte_carlo_se)}};
     }
     if (f.trend.present) {
       const TrendResult& t = f.trend;

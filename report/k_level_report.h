@@ -26,6 +26,10 @@ std::string LevelShown(const LevelRate& level);
 // levels of age (exact permutation p) rejects equality: Q = 9.33 on 2 df,
 // p = 0.0102." "" when the factor has none.
 std::string OverallSentence(const FactorAnalysis& factor, double alpha);
+// The test of a factor varied between vacancies by re-assigning its levels
+// to vacancies (analysis/vacancy_test.h) in words, ending by calling the k x
+// 2 test descriptive; "" when the factor has none.
+std::string VacancyTestSentence(const FactorAnalysis& factor, double alpha);
 // The trend test in words, "" when the factor has no scores.
 std::string TrendSentence(const FactorAnalysis& factor, double alpha, double confidence);
 // One likelihood-ratio test of the two-factor model in words.

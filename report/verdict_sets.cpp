@@ -68,10 +68,14 @@ std::string SetsHeadline(const AnalysisResult& r) {
   if (const FactorAnalysis* f = r.k_levels.present ? HeadlineFactor(r.k_levels) : nullptr) {
     // With two factors the model's test of the factor (holding the other
     // fixed) decides, and the interaction is named after it.
+    // A factor varied between vacancies is judged by its test at the
+    // vacancies (its k x 2 table counts a vacancy's probes as independent).
     const EffectTest* model = ModelTest(r.k_levels, f->name);
-    const double p = model ? model->p : f->overall->p();
-    const std::string test = model ? "likelihood-ratio test of " + f->label + " in the conditional logistic model, " + PlainP(p)
-                                   : TestName(*f->overall) + " " + PlainP(p);
+    const bool by_vacancy = !model && f->vacancy_test.present;
+    const double p = model ? model->p : by_vacancy ? f->vacancy_test.p : f->overall->p();
+    const std::string test = model        ? "likelihood-ratio test of " + f->label + " in the conditional logistic model, " + PlainP(p)
+                             : by_vacancy ? "permutation test of its levels among the vacancies, " + PlainP(p)
+                                          : TestName(*f->overall) + " " + PlainP(p);
     const std::string groups = std::to_string(f->levels.size()) + " " + f->label + " groups (" + LevelRates(*f) + ")";
     std::string s = p < r.alpha ? "Positive answers differed across the " + groups +
                                       "; chance alone is an unlikely explanation (" + test + ")"
@@ -107,6 +111,7 @@ std::string SetsHowSure(const AnalysisResult& r) {
   if (r.k_levels.present) {
     for (const FactorAnalysis& f : r.k_levels.factors) {
       if (const std::string s = OverallSentence(f, r.alpha); !s.empty()) o << s << " ";
+      if (const std::string s = VacancyTestSentence(f, r.alpha); !s.empty()) o << s << " ";
       int rejected = 0;
       for (const LevelPair& p : f.pairwise) rejected += p.p_adjusted < r.alpha;
       if (f.pairwise.size() > 1)  // one pair is the overall test again

@@ -169,7 +169,7 @@ TEST_CASE("k levels: age within and gender between against R's clogit likelihood
   CHECK(k.model.tests[0].df == 2);
   CHECK_FALSE(k.model.tests[1].estimable);
   CHECK(k.model.tests[1].note ==
-        "varied between vacancies, so constant within every set: compared by the k x 2 test of its levels");
+        "varied between vacancies, so constant within every set: tested by re-assigning its levels to vacancies");
   CHECK(k.model.tests[2].name == "age x gender");
   CHECK(k.model.tests[2].df == 2);
   REQUIRE(k.model.terms.size() == 4);
