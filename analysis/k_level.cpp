@@ -48,20 +48,34 @@ std::vector<int> ArmLevels(const KLevelInput& in, const KLevelFactor& f) {
   return out;
 }
 
-// Expands the shapes into one row of level outcomes per set, for the sets
-// holding exactly one probe of every level (the rows Cochran's Q needs).
-std::vector<std::vector<int>> WithinRows(const KLevelInput& in, const std::vector<int>& arm_level, size_t k) {
+// Expands the shapes into rows of level outcomes, the blocks Cochran's Q
+// and McNemar's test need: one row per set and combination of the other
+// factors' levels (`others`, arm -> level per other factor), holding exactly
+// one probe of every level. With one factor, or the others varied between
+// vacancies, that is one row per set; with a second factor varied within
+// sets, a set of age x gender gives one row of ages per gender. Under the
+// null hypothesis the levels are exchangeable within each such block, which
+// is what the permutation distribution of Q (Cochran 1950) conditions on,
+// whatever the blocks of one set share (docs/methods.md, "Two factors both
+// within").
+std::vector<std::vector<int>> WithinRows(const KLevelInput& in, const std::vector<int>& arm_level, size_t k,
+                                         const std::vector<std::vector<int>>& others) {
   std::vector<std::vector<int>> rows;
   for (const SetOutcome& s : in.sets) {
-    std::vector<int> row(k, -1);
-    bool ok = s.probes.size() == k;
+    std::map<std::vector<int>, std::vector<int>> blocks;  // other levels -> row
+    std::set<std::vector<int>> broken;
     for (const auto& [arm, positive] : s.probes) {
+      std::vector<int> key;
+      for (const auto& other : others) key.push_back(other[static_cast<size_t>(arm)]);
+      std::vector<int>& row = blocks.try_emplace(key, std::vector<int>(k, -1)).first->second;
       const int level = arm_level[static_cast<size_t>(arm)];
-      if (level < 0 || row[static_cast<size_t>(level)] >= 0) ok = false;
+      if (level < 0 || row[static_cast<size_t>(level)] >= 0) broken.insert(key);
       else row[static_cast<size_t>(level)] = positive ? 1 : 0;
     }
-    if (!ok) continue;
-    for (int64_t i = 0; i < s.count; ++i) rows.push_back(row);
+    for (const auto& [key, row] : blocks) {
+      if (broken.count(key) || std::find(row.begin(), row.end(), -1) != row.end()) continue;
+      for (int64_t i = 0; i < s.count; ++i) rows.push_back(row);
+    }
   }
   return rows;
 }
@@ -147,9 +161,23 @@ FactorAnalysis AnalyzeFactor(const KLevelInput& in, const KLevelFactor& f, stats
     fa.levels.push_back({f.levels[i], LevelLabelAt(f, i), probes[i], positive[i],
                          probes[i] ? static_cast<double>(positive[i]) / static_cast<double>(probes[i]) : 0.0});
   const bool scored = f.scores.size() == k;
+  std::vector<std::vector<int>> others;
+  std::vector<std::string> other_within;  // display texts of the other factors varied within sets
+  for (const KLevelFactor& other : in.factors) {
+    if (other.name == f.name) continue;
+    others.push_back(ArmLevels(in, other));
+    std::set<int> held;
+    bool within = false;
+    for (const SetOutcome& s : in.sets) {
+      held.clear();
+      for (const auto& probe : s.probes) held.insert(others.back()[static_cast<size_t>(probe.first)]);
+      within = within || held.size() > 1;
+    }
+    if (within) other_within.push_back(FactorLabel(other));
+  }
   if (fa.within) {
-    const auto rows = WithinRows(in, arm_level, k);
-    if (rows.empty()) return fa;  // two within factors: the model tests them
+    const auto rows = WithinRows(in, arm_level, k, others);
+    if (rows.empty()) return fa;
     const stats::CochranQ q = stats::CochranQTest(rows);
     OverallTest o;
     o.method = "cochran_q";
@@ -159,6 +187,8 @@ FactorAnalysis AnalyzeFactor(const KLevelInput& in, const KLevelFactor& f, stats
     o.df = q.df;
     o.p_asymptotic = q.p_asymptotic;
     o.p_exact = q.p_exact;
+    for (const std::string& other : other_within)
+      o.blocks_by += (o.blocks_by.empty() ? "" : " and ") + other;
     fa.overall = o;
     for (const auto& c : stats::PairwiseWithin(rows, method)) {
       LevelPair p = FromPairwise(c, f, true);
@@ -173,12 +203,7 @@ FactorAnalysis AnalyzeFactor(const KLevelInput& in, const KLevelFactor& f, stats
     if (scored) fa.trend = ClogitSlope(in, f, arm_level);
     return fa;
   }
-  if (in.kind != "unpaired") {
-    std::vector<std::vector<int>> others;
-    for (const KLevelFactor& other : in.factors)
-      if (other.name != f.name) others.push_back(ArmLevels(in, other));
-    fa.vacancy_test = TestByVacancy(in.sets, arm_level, k, others, in.seed);
-  }
+  if (in.kind != "unpaired") fa.vacancy_test = TestByVacancy(in.sets, arm_level, k, others, in.seed);
   if (std::any_of(probes.begin(), probes.end(), [](int64_t n) { return n == 0; })) return fa;
   const stats::KByTwoTest kt = stats::KByTwo(positive, probes);
   OverallTest o;

@@ -6,6 +6,8 @@
 // Per factor (docs/methods.md, "Several levels and two factors"):
 //   varied within sets (each analysed set holds one probe of every level):
 //     overall test of equal positive rates: Cochran's Q (Cochran 1950,
+//     on blocks of one probe per level: the sets, or with a second factor
+//     varied within sets each set's probes at one level of it;
 //     Biometrika 37:256-266; stats/cochran_q.h) with its exact permutation
 //     p when feasible; every pair of levels by the exact McNemar test on the
 //     sets' paired table, adjusted with the design's correction over all
@@ -74,8 +76,12 @@ struct LevelRate {
 
 struct OverallTest {
   std::string method;  // "cochran_q" (within) | "chi_square" (k x 2 table)
-  int64_t sets = 0;              // cochran_q: sets used
-  int64_t informative_sets = 0;  // cochran_q: sets with a positive and a negative
+  int64_t sets = 0;              // cochran_q: blocks used (sets, or sets x levels of `blocks_by`)
+  int64_t informative_sets = 0;  // cochran_q: blocks with a positive and a negative
+  // cochran_q with another factor varied within sets: its display text; the
+  // blocks are then (set, level of that factor), each holding one probe of
+  // every level of this factor. "" when the blocks are the sets.
+  std::string blocks_by;
   double statistic = 0;          // Q or X^2
   int df = 0;
   double p_asymptotic = 1;

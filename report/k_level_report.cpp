@@ -49,8 +49,13 @@ std::string OverallSentence(const FactorAnalysis& f, double alpha) {
   std::ostringstream o;
   const std::string levels = std::to_string(f.levels.size()) + " levels of " + f.label;
   if (t.method == "cochran_q") {
-    o << "Cochran's Q test of equal positive rates across the " << levels << " (within sets, "
-      << Count(t.informative_sets, "informative set", "informative sets") << ") " << Verb(t.p(), alpha)
+    if (t.blocks_by.empty())
+      o << "Cochran's Q test of equal positive rates across the " << levels << " (within sets, "
+        << Count(t.informative_sets, "informative set", "informative sets") << ") ";
+    else
+      o << "Cochran's Q test of equal positive rates across the " << levels << " (within blocks of one set and one level of "
+        << t.blocks_by << ", " << Count(t.informative_sets, "informative block", "informative blocks") << ") ";
+    o << Verb(t.p(), alpha)
       << " equality at alpha " << Fmt(alpha) << ": Q = " << Fmt(t.statistic) << " on " << t.df << " df, "
       << (t.p_exact ? "exact permutation " : "chi-square ") << PEquals(t.p());
     if (t.p_exact) o << " (chi-square " << PEquals(t.p_asymptotic) << ")";
@@ -123,7 +128,11 @@ std::string RenderKLevelText(const AnalysisResult& r) {
     if (const std::string s = OverallSentence(f, r.alpha); !s.empty()) o << Wrap(s, "  ");
     if (const std::string s = VacancyTestSentence(f, r.alpha); !s.empty()) o << Wrap(s, "  ");
     if (!f.pairwise.empty()) {
-      o << "  Every pair of levels (" << (f.within ? "exact McNemar on the sets holding both" : "Fisher's exact test")
+      const bool blocks = f.overall && !f.overall->blocks_by.empty();
+      o << "  Every pair of levels ("
+        << (!f.within ? "Fisher's exact test"
+            : blocks  ? "exact McNemar on the blocks of one set and one level of " + f.overall->blocks_by
+                      : "exact McNemar on the sets holding both")
         << "; p adjusted by " << r.effects.correction << " over the " << Count(static_cast<int64_t>(f.pairwise.size()), "pair", "pairs")
         << "):\n";
       for (const LevelPair& p : f.pairwise) PairText(o, p, f.label, r.confidence);
@@ -167,6 +176,7 @@ nlohmann::json KLevelJson(const KLevelAnalysis& k) {
       if (t.method == "cochran_q") {
         fj["overall"]["sets"] = t.sets;
         fj["overall"]["informative_sets"] = t.informative_sets;
+        if (!t.blocks_by.empty()) fj["overall"]["blocks_by"] = t.blocks_by;
       } else {
         fj["overall"]["min_expected"] = JsonNumber(t.min_expected);
       }
