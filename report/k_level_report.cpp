@@ -74,7 +74,7 @@ std::string VacancyTestSentence(const FactorAnalysis& f, double alpha) {
   std::ostringstream o;
   o << "The test of " << f.label << " at the level it was randomised at (its levels re-assigned to the "
     << Count(t.vacancies, "vacancy", "vacancies") << " within the " << Count(t.blocks, "block", "blocks")
-    << " of the plan, " << t.resamples << " resamples; statistic: the sum over levels of the squared positive count "
+    << " of the plan, " << Count(t.resamples, "resample", "resamples") << "; statistic: the sum over levels of the squared positive count "
     << "over the number of vacancies) " << Verb(t.p, alpha) << " equality at alpha " << Fmt(alpha)
     << ": Monte Carlo " << PEquals(t.p) << " (standard error " << Fmt(t.monte_carlo_se)
     << "). The k x 2 test counts the probes of one vacancy as independent and is descriptive.";
