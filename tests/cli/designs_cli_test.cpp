@@ -32,8 +32,8 @@ TEST_CASE("cli designs: check explains how each factor varies") {
   REQUIRE(r.exit_code == 0);
   CHECK(r.out ==
         "Design ostervale-age-study is valid: sets design, 6 arms, 48 vacancies, 3 templates.\n"
-        "Factors: age varies within each vacancy (3 levels); gender is assigned between vacancies (2 levels, balanced "
-        "within region).\n"
+        "Factors: age (years) (age) varies within each vacancy (3 levels: aged 28, aged 45, aged 58); gender is "
+        "assigned between vacancies (2 levels: woman, man, balanced within region).\n"
         "One-attribute proof: 48 sets rendered (432 renderings compared); the probes differ only in fields a factor "
         "controls (used by the templates: birth_year, full_name, graduation_year, mailbox).\n");
   auto j = nlohmann::json::parse(s.Run({"--json", "check"}).out);
