@@ -203,7 +203,14 @@ FactorAnalysis AnalyzeFactor(const KLevelInput& in, const KLevelFactor& f, stats
     if (scored) fa.trend = ClogitSlope(in, f, arm_level);
     return fa;
   }
-  if (in.kind != "unpaired") fa.vacancy_test = TestByVacancy(in.sets, arm_level, k, others, in.seed);
+  if (in.kind != "unpaired") {
+    // 99,999 re-assignments, fewer for a large study so the work stays
+    // near 5e7 vacancy visits (at least 9,999: Monte Carlo SE <= 0.005).
+    int64_t vacancies = 0;
+    for (const SetOutcome& s : in.sets) vacancies += s.count;
+    const int64_t resamples = std::clamp<int64_t>(50'000'000 / std::max<int64_t>(1, vacancies), 9'999, 99'999);
+    fa.vacancy_test = TestByVacancy(in.sets, arm_level, k, others, in.seed, resamples);
+  }
   if (std::any_of(probes.begin(), probes.end(), [](int64_t n) { return n == 0; })) return fa;
   const stats::KByTwoTest kt = stats::KByTwo(positive, probes);
   OverallTest o;
