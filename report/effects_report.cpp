@@ -166,10 +166,16 @@ nlohmann::json EffectsJson(const AnalysisResult& r) {
   nlohmann::json j;
   j["correction"] = e.correction;
   j["comparisons"] = nlohmann::json::array();
-  for (const auto& c : e.comparisons) j["comparisons"].push_back(ComparisonJson(c));
+  // The arm's display text beside its code (ArmName: levels by their labels).
+  for (const auto& c : e.comparisons) {
+    nlohmann::json x = ComparisonJson(c);
+    x["other_arm_label"] = ArmName(r, c.other_label);
+    j["comparisons"].push_back(x);
+  }
   j["strata"] = nlohmann::json::array();
   for (const auto& s : e.strata) {
     nlohmann::json x = ComparisonJson(s.result);
+    x["other_arm_label"] = ArmName(r, s.result.other_label);
     x["column"] = s.column;
     x["value"] = s.value;
     j["strata"].push_back(x);

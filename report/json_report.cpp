@@ -240,6 +240,8 @@ std::string RenderJsonReport(const AnalysisResult& r) {
     nlohmann::json p;
     p["reference_arm"] = r.reference_label;
     p["other_arm"] = r.other_label;
+    p["reference_arm_label"] = ArmName(r, r.reference_label);
+    p["other_arm_label"] = ArmName(r, r.other_label);
     p["table"] = Table(r.paired);
     p["mcnemar_exact_p"] = JsonNumber(r.mcnemar_exact_p);
     p["strata"] = nlohmann::json::array();

@@ -104,6 +104,8 @@ TEST_CASE("cli labels: the JSON carries a label beside every code, codes unchang
   CHECK(j["design"]["factors"][1]["label"] == "gender");
   CHECK(j["design"]["factors"][1]["level_labels"]["m"] == "man");
   CHECK(j["design"]["arms"][0]["display_label"] == "aged 28, woman");
+  CHECK(j["effects"]["comparisons"][0]["other_arm"] == "age=28,gender=m");
+  CHECK(j["effects"]["comparisons"][0]["other_arm_label"] == "aged 28, man");
 }
 
 TEST_CASE("cli labels: the HTML report's results, level and pair tables show the labels") {
