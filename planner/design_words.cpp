@@ -24,4 +24,19 @@ std::string DescribeVariation(const Design& d) {
   return out;
 }
 
+std::string DescribeArmLabels(const Design& d) {
+  bool labelled = false;
+  for (const Factor& f : d.factors) labelled = labelled || !f.labels.empty();
+  if (!labelled) return "";
+  std::string out = "Arms by their display labels:";
+  for (size_t a = 0; a < d.arms.size(); ++a) {
+    std::string shown;
+    for (const auto& [factor, level] : d.arms[a].levels)
+      for (const Factor& f : d.factors)
+        if (f.name == factor) shown += (shown.empty() ? "" : ", ") + f.LevelLabel(level);
+    out += (a ? "; " : " ") + d.arms[a].label + " = " + shown;
+  }
+  return out + ".";
+}
+
 }  // namespace twinprobe

@@ -50,6 +50,10 @@ TEST_CASE("cli designs: plan shows the carry-over table with its test") {
   auto r = s.Run({"plan"});
   INFO(r.err);
   REQUIRE(r.exit_code == 0);
+  // The balance tables name arms by code; the line above them gives their labels.
+  CHECK(r.out.find("\n\nArms by their display labels: age=28,gender=f = aged 28, woman; age=28,gender=m = aged 28, "
+                   "man; age=45,gender=f = aged 45, woman; age=45,gender=m = aged 45, man; age=58,gender=f = aged 58, "
+                   "woman; age=58,gender=m = aged 58, man.\n\nBalance of the plan") != std::string::npos);
   const auto at = r.out.find("Carry-over (probes per arm by the arm sent just before it in the same set;");
   REQUIRE(at != std::string::npos);
   CHECK(r.out.find("  arm x previous arm: X2 = ", at) != std::string::npos);
