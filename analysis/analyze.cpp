@@ -21,7 +21,8 @@ KLevelInput KLevelInputFor(const EffectsInput& e, const StoredDesign& stored, co
     // Scores as stored with the levels (plan, or import applications
     // --scores); the study.toml in use, when it has them, as before.
     KLevelFactor f{sf.name, sf.levels, sf.reference.empty() && !sf.levels.empty() ? sf.levels[0] : sf.reference,
-                   sf.scores};
+                   sf.scores, sf.DisplayName(), {}};
+    for (const std::string& level : sf.levels) f.level_labels.push_back(sf.LevelLabel(level));
     if (current_design)
       for (const Factor& df : current_design->factors)
         if (df.name == sf.name && df.levels == sf.levels) f.scores = df.scores;
@@ -157,7 +158,9 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
                        [&](const SingleStratum& one) { return one.column == t.name; });
   });
   r.stages = ComputeHiringStages(stored.stages, effects_in.arm_labels, reading.code_counts, r.correction, r.confidence);
-  r.k_levels = AnalyzeKLevels(KLevelInputFor(effects_in, stored, current_design));
+  KLevelInput k_in = KLevelInputFor(effects_in, stored, current_design);
+  k_in.seed = static_cast<uint64_t>(f.seed.value_or(0));
+  r.k_levels = AnalyzeKLevels(k_in);
   if (r.kind != "unpaired") r.adjusted = FitAdjustedModel(LaidOutSets(f, reading.layout), effects_in.arm_labels, r.confidence);
   r.covariate_model = FitCovariateModel(reading.covariates, effects_in.arm_labels, scheme, r.confidence);
   r.design = SummariseDesign(f, stored);

@@ -6,6 +6,26 @@
 
 namespace twinprobe {
 
+std::string ArmDisplayText(const std::string& arm_label, const std::vector<StoredFactor>& factors) {
+  std::string out;
+  bool any = false;
+  size_t start = 0;
+  while (start <= arm_label.size()) {
+    const size_t comma = arm_label.find(',', start);
+    const std::string part = arm_label.substr(start, comma == std::string::npos ? std::string::npos : comma - start);
+    const size_t eq = part.find('=');
+    std::string shown = eq == std::string::npos ? part : part.substr(eq + 1);
+    if (eq != std::string::npos)
+      for (const StoredFactor& sf : factors)
+        if (sf.name == part.substr(0, eq)) shown = sf.LevelLabel(shown);
+    out += (any ? ", " : "") + shown;
+    any = true;
+    if (comma == std::string::npos) break;
+    start = comma + 1;
+  }
+  return out.empty() ? arm_label : out;
+}
+
 DesignSummary SummariseDesign(const Fieldwork& f, const StoredDesign& stored) {
   DesignSummary d;
   if (!f.has_plan) return d;
@@ -29,6 +49,7 @@ DesignSummary SummariseDesign(const Fieldwork& f, const StoredDesign& stored) {
   d.employers = stored.employers;
   d.first_sent_at = f.first_sent_at;
   d.last_sent_at = f.last_sent_at;
+  for (const auto& a : f.arms) d.arm_display[a.label] = ArmDisplayText(a.label, stored.factors);
   return d;
 }
 

@@ -5,6 +5,7 @@
 // fieldwork period. Counts only; nothing here identifies an employer.
 // Pure: built from core's read models (core/fieldwork.h, core/read_design.h).
 #include <cstdint>
+#include <map>
 #include <string>
 #include <vector>
 
@@ -50,7 +51,16 @@ struct DesignSummary {
   int64_t employers = 0;                  // distinct employer pseudonyms among the plan's vacancies
   std::string first_sent_at;              // fieldwork period ("" when nothing was sent)
   std::string last_sent_at;
+  // Arm label -> its display text ("age=45,gender=f" -> "aged 45, f"), each
+  // level through StoredFactor::LevelLabel (ArmDisplayText), every arm of the plan.
+  std::map<std::string, std::string> arm_display;
 };
+
+// The display text of an arm ("age=45,gender=f" -> "aged 45, f"): each
+// level through its factor's StoredFactor::LevelLabel, joined by ", " in
+// the label's order; a level without one is shown as itself ("f"), a label
+// without '=' as it is. With no factors: the levels without factor names.
+std::string ArmDisplayText(const std::string& arm_label, const std::vector<StoredFactor>& factors);
 
 // Empty when the fieldwork has no plan.
 DesignSummary SummariseDesign(const Fieldwork& fieldwork, const StoredDesign& stored);

@@ -33,6 +33,12 @@ std::string LevelOfArm(const std::string& label, const std::string& factor) {
 
 namespace {
 
+// The display texts the caller put in the factor (empty: the codes).
+std::string FactorLabel(const KLevelFactor& f) { return f.label.empty() ? f.name : f.label; }
+std::string LevelLabelAt(const KLevelFactor& f, size_t i) {
+  return i < f.level_labels.size() && !f.level_labels[i].empty() ? f.level_labels[i] : f.levels[i];
+}
+
 // Level index of every arm for one factor (-1 when the label lacks it).
 std::vector<int> ArmLevels(const KLevelInput& in, const KLevelFactor& f) {
   std::vector<int> out;
@@ -44,20 +50,34 @@ std::vector<int> ArmLevels(const KLevelInput& in, const KLevelFactor& f) {
   return out;
 }
 
-// Expands the shapes into one row of level outcomes per set, for the sets
-// holding exactly one probe of every level (the rows Cochran's Q needs).
-std::vector<std::vector<int>> WithinRows(const KLevelInput& in, const std::vector<int>& arm_level, size_t k) {
+// Expands the shapes into rows of level outcomes, the blocks Cochran's Q
+// and McNemar's test need: one row per set and combination of the other
+// factors' levels (`others`, arm -> level per other factor), holding exactly
+// one probe of every level. With one factor, or the others varied between
+// vacancies, that is one row per set; with a second factor varied within
+// sets, a set of age x gender gives one row of ages per gender. Under the
+// null hypothesis the levels are exchangeable within each such block, which
+// is what the permutation distribution of Q (Cochran 1950) conditions on,
+// whatever the blocks of one set share (docs/methods.md, "Two factors both
+// within").
+std::vector<std::vector<int>> WithinRows(const KLevelInput& in, const std::vector<int>& arm_level, size_t k,
+                                         const std::vector<std::vector<int>>& others) {
   std::vector<std::vector<int>> rows;
   for (const SetOutcome& s : in.sets) {
-    std::vector<int> row(k, -1);
-    bool ok = s.probes.size() == k;
+    std::map<std::vector<int>, std::vector<int>> blocks;  // other levels -> row
+    std::set<std::vector<int>> broken;
     for (const auto& [arm, positive] : s.probes) {
+      std::vector<int> key;
+      for (const auto& other : others) key.push_back(other[static_cast<size_t>(arm)]);
+      std::vector<int>& row = blocks.try_emplace(key, std::vector<int>(k, -1)).first->second;
       const int level = arm_level[static_cast<size_t>(arm)];
-      if (level < 0 || row[static_cast<size_t>(level)] >= 0) ok = false;
+      if (level < 0 || row[static_cast<size_t>(level)] >= 0) broken.insert(key);
       else row[static_cast<size_t>(level)] = positive ? 1 : 0;
     }
-    if (!ok) continue;
-    for (int64_t i = 0; i < s.count; ++i) rows.push_back(row);
+    for (const auto& [key, row] : blocks) {
+      if (broken.count(key) || std::find(row.begin(), row.end(), -1) != row.end()) continue;
+      for (int64_t i = 0; i < s.count; ++i) rows.push_back(row);
+    }
   }
   return rows;
 }
@@ -109,6 +129,8 @@ LevelPair FromPairwise(const stats::PairwiseComparison& c, const KLevelFactor& f
   p.paired = paired;
   p.first = f.levels[static_cast<size_t>(c.first)];
   p.second = f.levels[static_cast<size_t>(c.second)];
+  p.first_label = LevelLabelAt(f, static_cast<size_t>(c.first));
+  p.second_label = LevelLabelAt(f, static_cast<size_t>(c.second));
   p.rate_first = c.rate_first;
   p.rate_second = c.rate_second;
   p.difference = c.difference;
@@ -120,6 +142,7 @@ LevelPair FromPairwise(const stats::PairwiseComparison& c, const KLevelFactor& f
 FactorAnalysis AnalyzeFactor(const KLevelInput& in, const KLevelFactor& f, stats::Adjustment method) {
   FactorAnalysis fa;
   fa.name = f.name;
+  fa.label = FactorLabel(f);
   const size_t k = f.levels.size();
   const std::vector<int> arm_level = ArmLevels(in, f);
   std::vector<int64_t> probes(k, 0), positive(k, 0);
@@ -137,12 +160,26 @@ FactorAnalysis AnalyzeFactor(const KLevelInput& in, const KLevelFactor& f, stats
   }
   if (in.kind == "unpaired") fa.within = false;
   for (size_t i = 0; i < k; ++i)
-    fa.levels.push_back({f.levels[i], probes[i], positive[i],
+    fa.levels.push_back({f.levels[i], LevelLabelAt(f, i), probes[i], positive[i],
                          probes[i] ? static_cast<double>(positive[i]) / static_cast<double>(probes[i]) : 0.0});
   const bool scored = f.scores.size() == k;
+  std::vector<std::vector<int>> others;
+  std::vector<std::string> other_within;  // display texts of the other factors varied within sets
+  for (const KLevelFactor& other : in.factors) {
+    if (other.name == f.name) continue;
+    others.push_back(ArmLevels(in, other));
+    std::set<int> held;
+    bool within = false;
+    for (const SetOutcome& s : in.sets) {
+      held.clear();
+      for (const auto& probe : s.probes) held.insert(others.back()[static_cast<size_t>(probe.first)]);
+      within = within || held.size() > 1;
+    }
+    if (within) other_within.push_back(FactorLabel(other));
+  }
   if (fa.within) {
-    const auto rows = WithinRows(in, arm_level, k);
-    if (rows.empty()) return fa;  // two within factors: the model tests them
+    const auto rows = WithinRows(in, arm_level, k, others);
+    if (rows.empty()) return fa;
     const stats::CochranQ q = stats::CochranQTest(rows);
     OverallTest o;
     o.method = "cochran_q";
@@ -152,6 +189,8 @@ FactorAnalysis AnalyzeFactor(const KLevelInput& in, const KLevelFactor& f, stats
     o.df = q.df;
     o.p_asymptotic = q.p_asymptotic;
     o.p_exact = q.p_exact;
+    for (const std::string& other : other_within)
+      o.blocks_by += (o.blocks_by.empty() ? "" : " and ") + other;
     fa.overall = o;
     for (const auto& c : stats::PairwiseWithin(rows, method)) {
       LevelPair p = FromPairwise(c, f, true);
@@ -165,6 +204,14 @@ FactorAnalysis AnalyzeFactor(const KLevelInput& in, const KLevelFactor& f, stats
     }
     if (scored) fa.trend = ClogitSlope(in, f, arm_level);
     return fa;
+  }
+  if (in.kind != "unpaired") {
+    // 99,999 re-assignments, fewer for a large study so the work stays
+    // near 5e7 vacancy visits (at least 9,999: Monte Carlo SE <= 0.005).
+    int64_t vacancies = 0;
+    for (const SetOutcome& s : in.sets) vacancies += s.count;
+    const int64_t resamples = std::clamp<int64_t>(50'000'000 / std::max<int64_t>(1, vacancies), 9'999, 99'999);
+    fa.vacancy_test = TestByVacancy(in.sets, arm_level, k, others, in.seed, resamples);
   }
   if (std::any_of(probes.begin(), probes.end(), [](int64_t n) { return n == 0; })) return fa;
   const stats::KByTwoTest kt = stats::KByTwo(positive, probes);
@@ -196,6 +243,7 @@ FactorAnalysis AnalyzeFactor(const KLevelInput& in, const KLevelFactor& f, stats
 // products of the two factors' indicators.
 struct ModelColumns {
   std::vector<std::string> names;
+  std::vector<std::string> labels;  // the names with display texts
   std::vector<std::vector<double>> by_arm;  // arm -> columns
   std::vector<int> main_a, main_b, interaction;  // column indices
 };
@@ -211,22 +259,23 @@ ModelColumns BuildColumns(const KLevelInput& in, const KLevelFactor& a, const KL
     return it == f.levels.end() ? 0 : static_cast<int>(it - f.levels.begin());
   };
   const int ra = ref_index(a), rb = ref_index(b);
-  auto add = [&](const std::string& name, std::vector<int>& group, auto value) {
+  auto add = [&](const std::string& name, const std::string& label, std::vector<int>& group, auto value) {
     group.push_back(static_cast<int>(m.names.size()));
     m.names.push_back(name);
+    m.labels.push_back(label);
     for (size_t arm = 0; arm < arms; ++arm) m.by_arm[arm].push_back(value(arm));
   };
   for (int i = 0; i < static_cast<int>(a.levels.size()); ++i)
     if (i != ra && a_within)
-      add(a.name + "=" + a.levels[static_cast<size_t>(i)], m.main_a, [&](size_t arm) { return la[arm] == i ? 1.0 : 0.0; });
+      add(a.name + "=" + a.levels[static_cast<size_t>(i)], LevelLabelAt(a, static_cast<size_t>(i)), m.main_a, [&](size_t arm) { return la[arm] == i ? 1.0 : 0.0; });
   for (int j = 0; j < static_cast<int>(b.levels.size()); ++j)
     if (j != rb && b_within)
-      add(b.name + "=" + b.levels[static_cast<size_t>(j)], m.main_b, [&](size_t arm) { return lb[arm] == j ? 1.0 : 0.0; });
+      add(b.name + "=" + b.levels[static_cast<size_t>(j)], LevelLabelAt(b, static_cast<size_t>(j)), m.main_b, [&](size_t arm) { return lb[arm] == j ? 1.0 : 0.0; });
   for (int i = 0; i < static_cast<int>(a.levels.size()); ++i)
     for (int j = 0; j < static_cast<int>(b.levels.size()); ++j)
       if (i != ra && j != rb)
         add(a.name + "=" + a.levels[static_cast<size_t>(i)] + " x " + b.name + "=" + b.levels[static_cast<size_t>(j)],
-            m.interaction, [&](size_t arm) { return la[arm] == i && lb[arm] == j ? 1.0 : 0.0; });
+            LevelLabelAt(a, static_cast<size_t>(i)) + " x " + LevelLabelAt(b, static_cast<size_t>(j)), m.interaction, [&](size_t arm) { return la[arm] == i && lb[arm] == j ? 1.0 : 0.0; });
   return m;
 }
 
@@ -258,17 +307,18 @@ std::optional<double> LogLikelihood(const stats::MatchedSetsData& d, const std::
   return fit.log_likelihood;
 }
 
-EffectTest LrTest(const std::string& name, double ll_full, double ll_reduced, int df) {
+EffectTest LrTest(const std::string& name, const std::string& label, double ll_full, double ll_reduced, int df) {
   EffectTest t;
   t.name = name;
+  t.label = label;
   t.df = df;
   t.statistic = std::max(0.0, 2 * (ll_full - ll_reduced));
   t.p = df > 0 ? stats::ChiSquareUpper(t.statistic, df).p : 1.0;
   return t;
 }
 
-void AddTerms(TwoFactorModel& model, const stats::MatchedSetsData& d, const std::vector<int>& keep,
-              const std::vector<int>& report, double conf) {
+void AddTerms(TwoFactorModel& model, const stats::MatchedSetsData& d, const std::vector<std::string>& labels,
+              const std::vector<int>& keep, const std::vector<int>& report, double conf) {
   const stats::MatchedSetsData s = Select(d, keep);
   const stats::ClogitFit fit = stats::FitClogit(s);
   if (!fit.ok()) return;
@@ -276,6 +326,7 @@ void AddTerms(TwoFactorModel& model, const stats::MatchedSetsData& d, const std:
     if (std::find(report.begin(), report.end(), keep[j]) == report.end()) continue;
     ModelTerm t;
     t.name = s.names[j];
+    t.label = labels[static_cast<size_t>(keep[j])];
     t.coefficient = fit.coefficients[j];
     t.standard_error = fit.standard_errors[j];
     t.odds_ratio = std::exp(t.coefficient);
@@ -310,34 +361,37 @@ TwoFactorModel FitTwoFactors(const KLevelInput& in, const FactorAnalysis& fa, co
     if (!analysis.within) {
       EffectTest t;
       t.name = f.name;
+      t.label = FactorLabel(f);
       t.estimable = false;
-      t.note = "varied between vacancies, so constant within every set: compared by the k x 2 test of its levels";
+      t.note = "varied between vacancies, so constant within every set: tested by re-assigning its levels to vacancies";
       return t;
     }
     const auto ll_reduced = LogLikelihood(d, other, full_fit.log_likelihood_null, failure);
     if (!ll_main || !ll_reduced) {
       EffectTest t;
       t.name = f.name;
+      t.label = FactorLabel(f);
       t.estimable = false;
       t.note = failure;
       return t;
     }
-    return LrTest(f.name, *ll_main, *ll_reduced, static_cast<int>(own.size()));
+    return LrTest(f.name, FactorLabel(f), *ll_main, *ll_reduced, static_cast<int>(own.size()));
   };
   model.tests.push_back(main_effect(a, fa, m.main_a, m.main_b));
   model.tests.push_back(main_effect(b, fb, m.main_b, m.main_a));
   if (ll_main) {
-    model.tests.push_back(LrTest(a.name + " x " + b.name, full_fit.log_likelihood, *ll_main,
+    model.tests.push_back(LrTest(a.name + " x " + b.name, FactorLabel(a) + " x " + FactorLabel(b), full_fit.log_likelihood, *ll_main,
                                  static_cast<int>(m.interaction.size())));
   } else {
     EffectTest t;
     t.name = a.name + " x " + b.name;
+    t.label = FactorLabel(a) + " x " + FactorLabel(b);
     t.estimable = false;
     t.note = failure;
     model.tests.push_back(t);
   }
-  if (!main_cols.empty()) AddTerms(model, d, main_cols, main_cols, in.confidence);
-  AddTerms(model, d, full, m.interaction, in.confidence);
+  if (!main_cols.empty()) AddTerms(model, d, m.labels, main_cols, main_cols, in.confidence);
+  AddTerms(model, d, m.labels, full, m.interaction, in.confidence);
   return model;
 }
 
@@ -347,7 +401,7 @@ KLevelAnalysis AnalyzeKLevels(const KLevelInput& in) {
   KLevelAnalysis out;
   KLevelInput input = in;
   if (input.factors.empty()) {
-    KLevelFactor arm{"arm", input.arm_labels, input.arm_labels.empty() ? "" : input.arm_labels[0], {}};
+    KLevelFactor arm{"arm", input.arm_labels, input.arm_labels.empty() ? "" : input.arm_labels[0], {}, "", {}};
     input.factors.push_back(arm);
   }
   const bool many_levels = std::any_of(input.factors.begin(), input.factors.end(),

@@ -6,6 +6,8 @@
 // Per factor (docs/methods.md, "Several levels and two factors"):
 //   varied within sets (each analysed set holds one probe of every level):
 //     overall test of equal positive rates: Cochran's Q (Cochran 1950,
+//     on blocks of one probe per level: the sets, or with a second factor
+//     varied within sets each set's probes at one level of it;
 //     Biometrika 37:256-266; stats/cochran_q.h) with its exact permutation
 //     p when feasible; every pair of levels by the exact McNemar test on the
 //     sets' paired table, adjusted with the design's correction over all
@@ -16,7 +18,11 @@
 //   varied between vacancies, or an unpaired design: the k x 2 table of
 //     probes: Pearson's chi-square and the Freeman–Halton exact test
 //     (stats/k_by_two.h), pairs of levels by Fisher's exact test, and with
-//     `scores` the Cochran–Armitage trend test (stats/trend.h).
+//     `scores` the Cochran–Armitage trend test (stats/trend.h). These count
+//     probes as independent, which the probes of one vacancy are not: in a
+//     paired or sets design the factor is tested by re-assigning its levels
+//     to the vacancies within the plan's blocks (analysis/vacancy_test.h),
+//     and the k x 2 tests stay as a description.
 // Two factors (matched sets only): a conditional logistic regression with
 // indicators of each factor's non-reference levels and their products
 // (interaction). Main effects and the interaction are tested by likelihood
@@ -30,6 +36,7 @@
 #include <vector>
 
 #include "analysis/effects.h"
+#include "analysis/vacancy_test.h"
 #include "stats/clogit.h"
 #include "stats/paired.h"
 
@@ -42,6 +49,10 @@ struct KLevelFactor {
   std::vector<std::string> levels;
   std::string reference;
   std::vector<double> scores;
+  // Display texts (StoredFactor::DisplayName / LevelLabel): the factor's,
+  // and one per level in `levels` order. Empty: the name and the levels.
+  std::string label;
+  std::vector<std::string> level_labels;
 };
 
 struct KLevelInput {
@@ -52,10 +63,12 @@ struct KLevelInput {
   std::vector<KLevelFactor> factors;
   std::string correction = "holm";
   double confidence = 0.95;
+  uint64_t seed = 0;  // the design's seed: the vacancy permutation test's resamples
 };
 
 struct LevelRate {
   std::string level;
+  std::string label;  // display text of the level (the level when it has none)
   int64_t probes = 0;
   int64_t positive = 0;
   double rate = 0;
@@ -63,8 +76,12 @@ struct LevelRate {
 
 struct OverallTest {
   std::string method;  // "cochran_q" (within) | "chi_square" (k x 2 table)
-  int64_t sets = 0;              // cochran_q: sets used
-  int64_t informative_sets = 0;  // cochran_q: sets with a positive and a negative
+  int64_t sets = 0;              // cochran_q: blocks used (sets, or sets x levels of `blocks_by`)
+  int64_t informative_sets = 0;  // cochran_q: blocks with a positive and a negative
+  // cochran_q with another factor varied within sets: its display text; the
+  // blocks are then (set, level of that factor), each holding one probe of
+  // every level of this factor. "" when the blocks are the sets.
+  std::string blocks_by;
   double statistic = 0;          // Q or X^2
   int df = 0;
   double p_asymptotic = 1;
@@ -76,6 +93,7 @@ struct OverallTest {
 
 struct LevelPair {
   std::string first, second;  // levels in declared order
+  std::string first_label, second_label;  // their display texts
   double rate_first = 0, rate_second = 0, difference = 0;
   bool paired = true;
   stats::PairedCounts pairs;        // paired: the sets' table (a both, b first only, c second only, d neither)
@@ -101,21 +119,27 @@ struct TrendResult {
 
 struct FactorAnalysis {
   std::string name;
+  std::string label;   // display text of the factor (its name when it has none)
   bool within = true;  // some set holds two of its levels
   std::vector<LevelRate> levels;
-  std::optional<OverallTest> overall;
+  std::optional<OverallTest> overall;  // between: the k x 2 table, descriptive (probes of a vacancy are not independent)
   std::vector<LevelPair> pairwise;  // (0,1), (0,2), ..., (1,2), ...
   TrendResult trend;
+  // Varied between vacancies in a paired or sets design: the test of the
+  // factor, at the level of its randomisation (analysis/vacancy_test.h).
+  VacancyPermutationTest vacancy_test;
 };
 
 struct ModelTerm {
   std::string name;  // "age=45", "age=45 x gender=m"
+  std::string label;  // with display texts: "aged 45", "aged 45 x man"
   double coefficient = 0, standard_error = 0, odds_ratio = 1, p_wald = 1;
   stats::Interval ci;  // profile interval of the odds ratio
 };
 
 struct EffectTest {
   std::string name;  // "age", "gender", "age x gender"
+  std::string label;  // with display texts: "age (years) x gender"
   bool estimable = true;
   std::string note;  // why not estimable
   double statistic = 0;

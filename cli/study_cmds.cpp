@@ -279,8 +279,9 @@ int RunPlan(Context& ctx) {
               << "\n";
   } else {
     std::cout << "Planned " << sum.probes << " probes to " << sum.vacancies << " vacancies with " << sum.profiles
-              << " profiles (plan " << sum.plan_id << ", store " << StorePath(ctx) << ").\n\n"
-              << RenderBalanceText(balance) << RenderCarryOverText(carry_over);
+              << " profiles (plan " << sum.plan_id << ", store " << StorePath(ctx) << ").\n\n";
+    if (const std::string arms = DescribeArmLabels(s.design); !arms.empty()) std::cout << arms << "\n\n";
+    std::cout << RenderBalanceText(balance) << RenderCarryOverText(carry_over);
     if (moved)
       std::cout << "Moved the materials of plan " << moved->old_plan << " (" << Count(moved->files, "file", "files") << ") to "
                 << moved->to << ": they do not belong to plan " << sum.plan_id

@@ -9,14 +9,34 @@ std::string DescribeVariation(const Design& d) {
   const std::string balanced = strata.empty() ? "balanced over the plan" : "balanced within " + strata;
   std::string out;
   for (const Factor& f : d.factors) {
-    const std::string levels = std::to_string(f.levels.size()) + " levels";
+    // Display labels, when the design gives them, name the factor and its
+    // levels: the code stays beside the factor's label.
+    std::string levels = std::to_string(f.levels.size()) + " levels";
+    if (!f.labels.empty())
+      for (size_t i = 0; i < f.levels.size(); ++i) levels += (i ? ", " : ": ") + f.LevelLabel(f.levels[i]);
+    const std::string name = f.label.empty() ? f.name : f.label + " (" + f.name + ")";
     out += out.empty() ? "" : "; ";
     if (f.is_between() || d.kind == "unpaired")
-      out += f.name + " is assigned between vacancies (" + levels + ", " + balanced + ")";
+      out += name + " is assigned between vacancies (" + levels + ", " + balanced + ")";
     else
-      out += f.name + " varies within each vacancy (" + levels + ")";
+      out += name + " varies within each vacancy (" + levels + ")";
   }
   return out;
+}
+
+std::string DescribeArmLabels(const Design& d) {
+  bool labelled = false;
+  for (const Factor& f : d.factors) labelled = labelled || !f.labels.empty();
+  if (!labelled) return "";
+  std::string out = "Arms by their display labels:";
+  for (size_t a = 0; a < d.arms.size(); ++a) {
+    std::string shown;
+    for (const auto& [factor, level] : d.arms[a].levels)
+      for (const Factor& f : d.factors)
+        if (f.name == factor) shown += (shown.empty() ? "" : ", ") + f.LevelLabel(level);
+    out += (a ? "; " : " ") + d.arms[a].label + " = " + shown;
+  }
+  return out + ".";
 }
 
 }  // namespace twinprobe

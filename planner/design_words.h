@@ -14,4 +14,9 @@ namespace twinprobe {
 // balance is "over the plan".
 std::string DescribeVariation(const Design& design);
 
+// The arms' codes with their display labels, as `plan` prints them above
+// the balance tables that name arms by code: "Arms by their display labels:
+// age=28,gender=f = aged 28, woman; …". "" when no factor has labels.
+std::string DescribeArmLabels(const Design& design);
+
 }  // namespace twinprobe

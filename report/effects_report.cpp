@@ -7,6 +7,7 @@
 
 #include "report/fieldwork_state.h"
 #include "report/json_number.h"
+#include "report/plain_summary.h"
 #include "report/plural.h"
 #include "report/text_report.h"
 
@@ -93,7 +94,7 @@ void ComparisonText(std::ostringstream& o, const ArmComparison& c, const Analysi
   const std::string cl = Percent(r.confidence);
   if (c.paired) {
     const auto& t = c.pairs;
-    o << "  " << c.other_label << " vs " << ref << ": " << t.n() << " sets with both (a " << t.a << ", b " << t.b << ", c "
+    o << "  " << ArmShown(r, c.other_label) << " vs " << ref << ": " << t.n() << " sets with both (a " << t.a << ", b " << t.b << ", c "
       << t.c << ", d " << t.d << ").\n"
       << "    the exact McNemar test, two-sided, " << (c.mcnemar.exact.p < r.alpha ? "rejects" : "does not reject")
       << " equal treatment at alpha " << Fmt(r.alpha) << ": " << PEquals(c.mcnemar.exact) << " (mid-p, two-sided, "
@@ -111,7 +112,7 @@ void ComparisonText(std::ostringstream& o, const ArmComparison& c, const Analysi
     if (c.equivalence) o << "    " << EquivalenceSentence(*c.equivalence) << "\n";
   } else {
     const auto& t = c.table;
-    o << "  " << c.other_label << " vs " << ref << ": " << t.c << "/" << t.c + t.d << " positive " << FmtCi(c.other_wilson)
+    o << "  " << ArmShown(r, c.other_label) << " vs " << ref << ": " << t.c << "/" << t.c + t.d << " positive " << FmtCi(c.other_wilson)
       << " vs " << t.a << "/" << t.a + t.b << " " << FmtCi(c.reference_wilson) << " (Wilson " << cl << ").\n"
       << "    Fisher's exact test, two-sided, " << (c.fisher.p.p < r.alpha ? "rejects" : "does not reject")
       << (r.records ? " equal selection rates at alpha " : " equal callback rates at alpha ") << Fmt(r.alpha) << ": " << PEquals(c.fisher.p) << "; conditional MLE odds ratio (reference vs other) "
@@ -127,7 +128,7 @@ void ComparisonText(std::ostringstream& o, const ArmComparison& c, const Analysi
 // The pair-keeping analysis across one stratum column (analysis/effects.h).
 void AcrossPairedText(std::ostringstream& o, const AcrossStrata& a, const AnalysisResult& r, const std::string& ref) {
   const auto& h = a.homogeneity;
-  o << "\nAcross " << a.column << " (" << a.values << " values, " << a.other_label << " vs " << ref
+  o << "\nAcross " << a.column << " (" << a.values << " values, " << ArmShown(r, a.other_label) << " vs " << ref
     << "; discordant sets per value, pairs kept):\n"
     << "  pooled conditional odds ratio sum(b)/sum(c) = " << h.total_b << "/" << h.total_c << " = "
     << Fmt(h.pooled_odds_ratio.estimate) << ", " << Percent(r.confidence) << " two-sided CI exact (Clopper-Pearson) "
@@ -165,10 +166,16 @@ nlohmann::json EffectsJson(const AnalysisResult& r) {
   nlohmann::json j;
   j["correction"] = e.correction;
   j["comparisons"] = nlohmann::json::array();
-  for (const auto& c : e.comparisons) j["comparisons"].push_back(ComparisonJson(c));
+  // The arm's display text beside its code (ArmName: levels by their labels).
+  for (const auto& c : e.comparisons) {
+    nlohmann::json x = ComparisonJson(c);
+    x["other_arm_label"] = ArmName(r, c.other_label);
+    j["comparisons"].push_back(x);
+  }
   j["strata"] = nlohmann::json::array();
   for (const auto& s : e.strata) {
     nlohmann::json x = ComparisonJson(s.result);
+    x["other_arm_label"] = ArmName(r, s.result.other_label);
     x["column"] = s.column;
     x["value"] = s.value;
     j["strata"].push_back(x);
@@ -233,7 +240,7 @@ std::string RenderEffectsText(const AnalysisResult& r) {
   const Effects& e = r.effects;
   if (e.comparisons.empty()) return "";
   std::ostringstream o;
-  const std::string ref = r.arms.empty() ? "reference" : r.arms.front().label;
+  const std::string ref = r.arms.empty() ? "reference" : ArmShown(r, r.arms.front().label);
   const bool paired = e.comparisons.front().paired;
   o << (r.records ? "\nComparisons with the reference group (" : "\nComparisons with the reference arm (") << ref << ")\n";
   if (paired)
@@ -283,7 +290,7 @@ std::string RenderEffectsText(const AnalysisResult& r) {
       AcrossPairedText(o, a, r, ref);
       continue;
     }
-    o << "\nAcross " << a.column << " (" << a.values << " values, " << a.other_label << " vs " << ref
+    o << "\nAcross " << a.column << " (" << a.values << " values, " << ArmShown(r, a.other_label) << " vs " << ref
       << "; arm x outcome tables):\n"
       << "  Mantel-Haenszel odds ratio " << Fmt(a.mh.estimate) << ", " << Percent(r.confidence)
       << " two-sided CI (Robins-Breslow-Greenland) " << FmtCi(a.mh.ci) << "; the CMH test, two-sided: X^2 = "

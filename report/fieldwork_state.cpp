@@ -24,7 +24,7 @@ std::string EarlyStateSentence(const AnalysisResult& r) {
   int arms_with_probes = 0;
   std::string only;
   for (const auto& a : r.arms)
-    if (a.probes > 0) ++arms_with_probes, only = ArmName(a.label);
+    if (a.probes > 0) ++arms_with_probes, only = ArmName(r, a.label);
   if (r.arms.size() > 1 && arms_with_probes == 1)
     return "Only " + only + " applications are in closed sets, so no groups can be compared yet: send and close "
            "applications of the other groups, then analyse again.";

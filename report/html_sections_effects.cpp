@@ -46,7 +46,7 @@ std::string OrHeader(const ArmComparison& c) {
 std::string PairedEffects(const AnalysisResult& r, const ReportContext&) {
   const ArmComparison* c = FirstComparison(r);
   if (!c || !c->paired) return "";
-  const std::string ref = ArmName(r.reference_label), other = ArmName(c->other_label), conf = Conf(r.confidence);
+  const std::string ref = ArmName(r, r.reference_label), other = ArmName(r, c->other_label), conf = Conf(r.confidence);
   HtmlTable t;
   t.caption = "Effect measures (" + ref + " against " + other + ")";
   t.headers = {"measure", "estimate (" + conf + " interval, two-sided)", "what it means"};
@@ -92,7 +92,7 @@ std::string PairedEffects(const AnalysisResult& r, const ReportContext&) {
 std::string ComparisonsForest(const AnalysisResult& r, const ReportContext&) {
   const Effects& e = r.effects;
   if (e.comparisons.empty()) return "";
-  const std::string ref = r.arms.empty() ? "reference" : ArmName(r.arms.front().label);
+  const std::string ref = r.arms.empty() ? "reference" : ArmName(r, r.arms.front().label);
   svg::ForestChart chart;
   chart.id = "chart-comparisons";
   chart.title = "Each group against " + ref + ": odds ratios with " + Conf(r.confidence) + " intervals";
@@ -105,7 +105,7 @@ std::string ComparisonsForest(const AnalysisResult& r, const ReportContext&) {
                "p adjusted (" + e.correction + ")"};
   std::string desc = "Forest chart on a log scale.";
   for (const auto& c : e.comparisons) {
-    svg::ForestRow row = Row(ArmName(c.other_label), c, c.p_adjusted);
+    svg::ForestRow row = Row(ArmName(r, c.other_label), c, c.p_adjusted);
     const std::string text = svg::FormatRatioInterval(row.estimate, row.low, row.high);
     desc += " " + row.label + ": " + text + ", adjusted p " + FormatP(c.p_adjusted) + ".";
     chart.rows.push_back(row);
@@ -122,10 +122,10 @@ std::string ComparisonsForest(const AnalysisResult& r, const ReportContext&) {
 std::string StrataForest(const AnalysisResult& r, const ReportContext&) {
   const Effects& e = r.effects;
   if (e.strata.empty()) return "";
-  const std::string ref = r.arms.empty() ? "reference" : ArmName(r.arms.front().label);
+  const std::string ref = r.arms.empty() ? "reference" : ArmName(r, r.arms.front().label);
   std::string o;
   for (const auto& overall : e.comparisons) {
-    const std::string other = ArmName(overall.other_label);
+    const std::string other = ArmName(r, overall.other_label);
     svg::ForestChart chart;
     chart.id = "chart-forest-" + std::to_string(&overall - &e.comparisons.front());
     chart.title = "Odds ratio within each stratum, " + ref + " against " + other;
@@ -208,7 +208,7 @@ std::string AcrossPairedTable(const AnalysisResult& r, const std::string& ref) {
       chi = buf;
       if (h.exact_p) exact = PEquals(*h.exact_p);
     }
-    t.rows.push_back({HeadCell(a.column), Cell(ArmName(a.other_label)), NumCell(std::to_string(a.values)),
+    t.rows.push_back({HeadCell(a.column), Cell(ArmName(r, a.other_label)), NumCell(std::to_string(a.values)),
                       NumCell(std::to_string(h.total_b) + "/" + std::to_string(h.total_c) + " = " +
                               svg::FormatRatioInterval(h.pooled_odds_ratio.estimate, h.pooled_odds_ratio.ci.low,
                                                        h.pooled_odds_ratio.ci.high)),
@@ -229,7 +229,7 @@ std::string AcrossPairedTable(const AnalysisResult& r, const std::string& ref) {
 std::string AcrossStrataTable(const AnalysisResult& r, const ReportContext&) {
   const Effects& e = r.effects;
   if (e.across.empty()) return "";
-  const std::string ref = r.arms.empty() ? "reference" : ArmName(r.arms.front().label);
+  const std::string ref = r.arms.empty() ? "reference" : ArmName(r, r.arms.front().label);
   if (e.across.front().paired) return AcrossPairedTable(r, ref);
   HtmlTable t;
   t.caption = "Across strata (group \u00D7 outcome tables)";
@@ -240,7 +240,7 @@ std::string AcrossStrataTable(const AnalysisResult& r, const ReportContext&) {
     std::snprintf(cmh, sizeof cmh, "X\u00B2 = %.3g, %s", a.mh.chi2_corrected, PEquals(a.mh.chi2_corrected_p).c_str());
     std::snprintf(bd, sizeof bd, "X\u00B2 = %.3g on %.0f df, %s (%s)", a.breslow_day.statistic, a.breslow_day.df,
                   PEquals(a.breslow_day.p).c_str(), FormatP(a.breslow_day.tarone_p).c_str());
-    t.rows.push_back({HeadCell(a.column), Cell(ArmName(a.other_label)), NumCell(std::to_string(a.values)),
+    t.rows.push_back({HeadCell(a.column), Cell(ArmName(r, a.other_label)), NumCell(std::to_string(a.values)),
                       NumCell(svg::FormatRatioInterval(a.mh.estimate, a.mh.ci.low, a.mh.ci.high)), NumCell(cmh),
                       NumCell(bd)});
   }

@@ -42,11 +42,11 @@ std::string TimeFigure(const AnalysisResult& r, bool positive) {
   HtmlTable t;
   t.caption = positive ? "First positive answer by day" : "First answer by day";
   t.headers = {"by day"};
-  for (const auto& a : rt.arms) t.headers.push_back(ArmName(a.label));
+  for (const auto& a : rt.arms) t.headers.push_back(ArmName(r, a.label));
   for (size_t i = 0; i < rt.arms.size(); ++i) {
     const auto& a = rt.arms[i];
     svg::StepSeries s;
-    s.label = ArmName(a.label);
+    s.label = ArmName(r, a.label);
     for (const auto& p : positive ? a.positive : a.any) s.points.push_back({p.day, p.share});
     const auto& last = a.milestones.empty() ? ResponseMilestone{} : a.milestones.back();
     s.end_text = FormatPercent(positive ? last.positive_share : last.any_share);
@@ -84,8 +84,8 @@ std::string ResponseCodes(const AnalysisResult& r, const ReportContext&) {
   t.caption = "Outcome codes by group (sent applications)";
   t.headers = {"outcome"};
   for (const auto& a : rt.arms) {
-    chart.series_labels.push_back(ArmName(a.label));
-    t.headers.push_back(ArmName(a.label));
+    chart.series_labels.push_back(ArmName(r, a.label));
+    t.headers.push_back(ArmName(r, a.label));
   }
   std::string desc = "Grouped bar chart.";
   const auto& codes = rt.arms.front().codes;
@@ -99,7 +99,7 @@ std::string ResponseCodes(const AnalysisResult& r, const ReportContext&) {
       g.values.push_back(static_cast<double>(n));
       g.value_texts.push_back(std::to_string(n));
       row.push_back(NumCell(std::to_string(n)));
-      desc += " " + ArmName(a.label) + " " + std::to_string(n);
+      desc += " " + ArmName(r, a.label) + " " + std::to_string(n);
     }
     desc += ".";
     chart.groups.push_back(g);
@@ -125,7 +125,7 @@ std::string ResponseTimesChart(const AnalysisResult& r, const ReportContext&) {
   std::string medians;
   for (const auto& a : rt.arms) {
     medians += medians.empty() ? "Within the window, " : "; ";
-    medians += ArmName(a.label) + ": " + std::to_string(a.responded) + " of " + std::to_string(a.probes_sent) +
+    medians += ArmName(r, a.label) + ": " + std::to_string(a.responded) + " of " + std::to_string(a.probes_sent) +
                " answered" +
                (a.median_days >= 0 ? ", half of them within " + Days(a.median_days) + " days" : "") +
                (a.late ? ", " + std::to_string(a.late) + " answered only after the window (counted as none)" : "");
@@ -157,7 +157,7 @@ std::string EmployerTable(const AnalysisResult& r, const ReportContext& ctx) {
   // and then, so the table lists only employers with more than one.
   HtmlTable t;
   t.caption = "Employers with more than one unequal pair";
-  t.headers = {"employer", "pairs", "only " + ArmName(r.reference_label), "only " + ArmName(r.other_label), "both",
+  t.headers = {"employer", "pairs", "only " + ArmName(r, r.reference_label), "only " + ArmName(r, r.other_label), "both",
                "neither"};
   for (const auto& x : e.discordant) {
     if (x.discordant < 2) break;  // sorted, most unequal first

@@ -46,17 +46,17 @@ std::string SummaryKeyFigures(const AnalysisResult& r, const ReportContext&) {
   }
   if (!EarlyStateSentence(r).empty()) return o + "</div>";  // the headline says what is missing: no 0.0% figures
   for (const auto& a : r.arms)
-    o += KeyFigure(FormatPercent(a.rate), "positive answers to " + UserText(ArmName(a.label)) + " applicants",
+    o += KeyFigure(FormatPercent(a.rate), "positive answers to " + UserText(ArmName(r, a.label)) + " applicants",
                    std::to_string(a.positive) + " of " + std::to_string(a.probes) + " applications");
   if (r.has_paired && r.paired.discordant() > 0) {
     o += KeyFigure(std::to_string(r.paired.b) + " : " + std::to_string(r.paired.c),
-                   "unequal pairs favouring " + UserText(ArmName(r.reference_label)) + " : " +
-                       UserText(ArmName(r.other_label)),
+                   "unequal pairs favouring " + UserText(ArmName(r, r.reference_label)) + " : " +
+                       UserText(ArmName(r, r.other_label)),
                    std::to_string(r.paired.discordant()) + " of " + Count(r.paired.n(), "pair", "pairs"));
     if (!r.effects.comparisons.empty() && r.effects.comparisons.front().paired &&
         !std::isnan(r.effects.comparisons.front().net.among_positive.estimate)) {
       const auto& net = r.effects.comparisons.front().net.among_positive;
-      o += KeyFigure(FormatPercent(net.estimate), "net discrimination: " + UserText(ArmName(r.reference_label)) + " over " + UserText(ArmName(r.other_label)),
+      o += KeyFigure(FormatPercent(net.estimate), "net discrimination: " + UserText(ArmName(r, r.reference_label)) + " over " + UserText(ArmName(r, r.other_label)),
                      ConfPercent(r.confidence) + " interval " + FormatPercent(net.ci.low) + " to " +
                          FormatPercent(net.ci.high));
     }
@@ -86,10 +86,10 @@ std::string RatesChart(const AnalysisResult& r, const ReportContext&) {
   t.headers = {"Group", "Positive / applications", "Rate", ConfPercent(r.confidence) + " interval"};
   for (const auto& a : r.arms) {
     const std::string text = IntervalText(a.rate, a.ci);
-    chart.rows.push_back({ArmName(a.label), a.rate, a.ci.low, a.ci.high, text});
-    desc += " " + ArmName(a.label) + ": " + std::to_string(a.positive) + " of " + std::to_string(a.probes) + ", " + text +
+    chart.rows.push_back({ArmName(r, a.label), a.rate, a.ci.low, a.ci.high, text});
+    desc += " " + ArmName(r, a.label) + ": " + std::to_string(a.positive) + " of " + std::to_string(a.probes) + ", " + text +
             ".";
-    t.rows.push_back({HeadCell(ArmName(a.label) + (a.is_reference ? " (reference)" : "")),
+    t.rows.push_back({HeadCell(ArmName(r, a.label) + (a.is_reference ? " (reference)" : "")),
                       NumCell(std::to_string(a.positive) + " / " + std::to_string(a.probes)),
                       NumCell(FormatPercent(a.rate)),
                       NumCell(FormatPercent(a.ci.low) + " to " + FormatPercent(a.ci.high))});
@@ -107,7 +107,7 @@ std::string RatesChart(const AnalysisResult& r, const ReportContext&) {
 
 std::string PairedTable(const AnalysisResult& r, const ReportContext&) {
   const auto& p = r.paired;
-  const std::string ref = UserText(ArmName(r.reference_label)), other = UserText(ArmName(r.other_label));
+  const std::string ref = UserText(ArmName(r, r.reference_label)), other = UserText(ArmName(r, r.other_label));
   std::string cross =
       "<table class=\"data cross\"><caption>The " + std::to_string(p.n()) +
       " analysed pairs by outcome</caption><thead><tr><td></td><th scope=\"col\">" + other +
@@ -122,11 +122,11 @@ std::string PairedTable(const AnalysisResult& r, const ReportContext&) {
   chart.title = "Pairs in which the employer treated the two applicants differently";
   chart.axis_label = "pairs";
   chart.colour_by_group = true;
-  chart.groups = {{"only " + ArmName(r.reference_label) + " answered", {static_cast<double>(p.b)}, {std::to_string(p.b)}},
-                  {"only " + ArmName(r.other_label) + " answered", {static_cast<double>(p.c)}, {std::to_string(p.c)}}};
+  chart.groups = {{"only " + ArmName(r, r.reference_label) + " answered", {static_cast<double>(p.b)}, {std::to_string(p.b)}},
+                  {"only " + ArmName(r, r.other_label) + " answered", {static_cast<double>(p.c)}, {std::to_string(p.c)}}};
   chart.description = "Bar chart of the " + std::to_string(p.discordant()) + " unequal pairs: only " +
-                      ArmName(r.reference_label) + " answered positively in " + std::to_string(p.b) + ", only " +
-                      ArmName(r.other_label) + " in " + std::to_string(p.c) + ".";
+                      ArmName(r, r.reference_label) + " answered positively in " + std::to_string(p.b) + ", only " +
+                      ArmName(r, r.other_label) + " in " + std::to_string(p.c) + ".";
   return html::Para(
              "Each vacancy received one application from each group, so every vacancy is a pair. Pairs in which both "
              "or neither applicant was answered positively say nothing about a preference; the evidence lies in the "
@@ -157,7 +157,7 @@ std::string PairedTest(const AnalysisResult& r, const ReportContext&) {
 
 std::string StrataTables(const AnalysisResult& r, const ReportContext&) {
   if (!r.has_paired || r.strata.empty()) return "";
-  const std::string ref = ArmName(r.reference_label), other = ArmName(r.other_label);
+  const std::string ref = ArmName(r, r.reference_label), other = ArmName(r, r.other_label);
   std::string o = html::Heading("Unequal pairs by stratum") + html::Para(
       "The same pairs, split by the vacancy's strata. The chart shows, within each stratum, how many unequal pairs "
       "favoured each applicant; the tables count every pair. Small strata give wide uncertainty; differences between "

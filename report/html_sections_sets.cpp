@@ -26,13 +26,14 @@ std::string LevelTests(const AnalysisResult& r, const ReportContext&) {
   std::string o;
   for (const FactorAnalysis& f : r.k_levels.factors) {
     HtmlTable t;
-    t.caption = "Positive callbacks by level of " + f.name + (f.within ? " (varied within sets)" : " (varied between vacancies)");
+    t.caption = "Positive callbacks by level of " + f.label + (f.within ? " (varied within sets)" : " (varied between vacancies)");
     t.headers = {"level", "positive", "probes", "rate"};
     for (const LevelRate& l : f.levels)
-      t.rows.push_back({HeadCell(l.level), NumCell(std::to_string(l.positive)), NumCell(std::to_string(l.probes)),
+      t.rows.push_back({HeadCell(LevelShown(l)), NumCell(std::to_string(l.positive)), NumCell(std::to_string(l.probes)),
                         NumCell(FormatPercent(l.rate))});
     o += RenderTable(t);
     if (const std::string s = OverallSentence(f, r.alpha); !s.empty()) o += html::Para(s);
+    if (const std::string s = VacancyTestSentence(f, r.alpha); !s.empty()) o += html::Para(s);
     if (const std::string s = TrendSentence(f, r.alpha, r.confidence); !s.empty()) o += html::Para(s);
   }
   return o;
@@ -45,23 +46,23 @@ std::string LevelPairs(const AnalysisResult& r, const ReportContext&) {
     if (f.pairwise.empty()) continue;
     HtmlTable t;
     if (f.within) {
-      t.caption = "Every pair of " + f.name + " levels: the sets' paired table, net discrimination and the exact McNemar "
+      t.caption = "Every pair of " + f.label + " levels: the sets' paired table, net discrimination and the exact McNemar "
                   "test (two-sided; adjusted by " + r.effects.correction + ")";
       t.headers = {"comparison", "rates", "both", "only first", "only second", "neither",
                    "net discrimination (" + conf + " CI)", "conditional odds ratio", "p", "p adjusted"};
       for (const LevelPair& p : f.pairwise)
-        t.rows.push_back({HeadCell(p.first + " vs " + p.second), Cell(FormatPercent(p.rate_first) + " vs " + FormatPercent(p.rate_second)),
+        t.rows.push_back({HeadCell(p.first_label + " vs " + p.second_label), Cell(FormatPercent(p.rate_first) + " vs " + FormatPercent(p.rate_second)),
                           NumCell(std::to_string(p.pairs.a)), NumCell(std::to_string(p.pairs.b)),
                           NumCell(std::to_string(p.pairs.c)), NumCell(std::to_string(p.pairs.d)),
                           NumCell(Fmt(p.net.among_positive.estimate) + " " + Ci(p.net.among_positive.ci)),
                           NumCell(Fmt(p.conditional_or.estimate) + " " + Ci(p.conditional_or.ci)),
                           NumCell(FormatP(p.p)), NumCell(FormatP(p.p_adjusted))});
     } else {
-      t.caption = "Every pair of " + f.name + " levels: Fisher's exact test (two-sided; adjusted by " +
+      t.caption = "Every pair of " + f.label + " levels: Fisher's exact test (two-sided; adjusted by " +
                   r.effects.correction + ")";
       t.headers = {"comparison", "rates", "difference", "p", "p adjusted"};
       for (const LevelPair& p : f.pairwise)
-        t.rows.push_back({HeadCell(p.first + " vs " + p.second), Cell(FormatPercent(p.rate_first) + " vs " + FormatPercent(p.rate_second)),
+        t.rows.push_back({HeadCell(p.first_label + " vs " + p.second_label), Cell(FormatPercent(p.rate_first) + " vs " + FormatPercent(p.rate_second)),
                           NumCell(FormatPercent(p.difference)), NumCell(FormatP(p.p)), NumCell(FormatP(p.p_adjusted))});
     }
     o += RenderTable(t);
@@ -80,7 +81,7 @@ std::string TwoFactorTable(const AnalysisResult& r, const ReportContext&) {
               "% intervals): main effects from the model without interaction, interactions from the full model";
   t.headers = {"term", "odds ratio", "interval", "Wald p"};
   for (const ModelTerm& x : m.terms)
-    t.rows.push_back({HeadCell(x.name), NumCell(Fmt(x.odds_ratio)), NumCell(Ci(x.ci)), NumCell(FormatP(x.p_wald))});
+    t.rows.push_back({HeadCell(x.label), NumCell(Fmt(x.odds_ratio)), NumCell(Ci(x.ci)), NumCell(FormatP(x.p_wald))});
   return o + RenderTable(t);
 }
 
@@ -117,7 +118,7 @@ std::string EmployerSetsTable(const AnalysisResult& r, const ReportContext& ctx)
   HtmlTable t;
   t.caption = "Employers with more than one unequal set (positive answers per group)";
   t.headers = {"employer", "sets", "unequal sets"};
-  for (const auto& a : r.arms) t.headers.push_back(ArmName(a.label));
+  for (const auto& a : r.arms) t.headers.push_back(ArmName(r, a.label));
   for (const EmployerSetRow& x : e.unequal_rows) {
     if (x.unequal < 2) break;  // sorted, most unequal first
     std::string who = x.pseudonym;

@@ -13,6 +13,7 @@
 #include "report/adjusted_model_report.h"
 #include "report/covariate_model_report.h"
 #include "report/k_level_report.h"
+#include "report/plain_summary.h"
 #include "report/json_number.h"
 
 namespace twinprobe {
@@ -119,10 +120,18 @@ nlohmann::json DesignJson(const DesignSummary& d) {
   // keeps the time.
   j["window_days"] = d.window_days;
   j["factors"] = nlohmann::json::array();
-  for (const auto& f : d.factors) j["factors"].push_back({{"name", f.name}, {"levels", f.levels}, {"reference", f.reference}});
+  for (const auto& f : d.factors) {
+    // Display texts beside the codes (as `check --json` writes them).
+    nlohmann::json level_labels = nlohmann::json::object();
+    for (size_t i = 0; i < f.levels.size(); ++i)
+      level_labels[f.levels[i]] = i < f.level_labels.size() && !f.level_labels[i].empty() ? f.level_labels[i] : f.levels[i];
+    j["factors"].push_back({{"name", f.name}, {"label", f.label.empty() ? f.name : f.label}, {"levels", f.levels},
+                            {"level_labels", level_labels}, {"reference", f.reference}});
+  }
   j["arms"] = nlohmann::json::array();
   for (const auto& a : d.arms)
-    j["arms"].push_back({{"label", a.label}, {"is_reference", a.is_reference}, {"profiles", a.profiles},
+    j["arms"].push_back({{"label", a.label}, {"display_label", d.arm_display.count(a.label) ? d.arm_display.at(a.label) : a.label},
+                         {"is_reference", a.is_reference}, {"profiles", a.profiles},
                          {"probes_planned", a.probes_planned}});
   j["strata_columns"] = d.strata_columns;
   j["strata"] = nlohmann::json::array();
@@ -222,6 +231,7 @@ std::string RenderJsonReport(const AnalysisResult& r) {
   j["arms"] = nlohmann::json::array();
   for (const auto& a : r.arms)
     j["arms"].push_back({{"label", a.label},
+                         {"display_label", ArmName(r, a.label)},
                          {"is_reference", a.is_reference},
                          {"probes", a.probes},
                          {"positive", a.positive},
@@ -232,6 +242,8 @@ std::string RenderJsonReport(const AnalysisResult& r) {
     nlohmann::json p;
     p["reference_arm"] = r.reference_label;
     p["other_arm"] = r.other_label;
+    p["reference_arm_label"] = ArmName(r, r.reference_label);
+    p["other_arm_label"] = ArmName(r, r.other_label);
     p["table"] = Table(r.paired);
     p["mcnemar_exact_p"] = JsonNumber(r.mcnemar_exact_p);
     p["strata"] = nlohmann::json::array();

@@ -36,7 +36,7 @@ std::string Alpha(double alpha) {
 // The factor's name for sentences ("gender"), "group" when it has none.
 std::string FactorWords(const AnalysisResult& r) {
   std::vector<std::string> factors;
-  for (const auto& f : r.design.factors) factors.push_back(f.name);
+  for (const auto& f : r.design.factors) factors.push_back(f.label.empty() ? f.name : f.label);
   return factors.empty() || (factors.size() == 1 && factors[0] == "arm") ? std::string("group") : Join(factors, " and ");
 }
 
@@ -46,7 +46,7 @@ std::string FactorWords(const AnalysisResult& r) {
 std::string RecordsWhatWasTested(const AnalysisResult& r) {
   std::ostringstream o;
   std::vector<std::string> arms;
-  for (const auto& a : r.arms) arms.push_back(ArmName(a.label));
+  for (const auto& a : r.arms) arms.push_back(ArmName(r, a.label));
   o << "This study asked whether the outcome of job applications differs by the applicant's " << FactorWords(r)
     << " (" << Join(arms, " or ") << "). The data are the records of "
     << Count(r.probes_planned, "application", "applications")
@@ -82,8 +82,8 @@ std::string WhatWasTested(const AnalysisResult& r) {
   if (r.records) return RecordsWhatWasTested(r);
   std::ostringstream o;
   std::vector<std::string> factors, arms;
-  for (const auto& f : r.design.factors) factors.push_back(f.name);
-  for (const auto& a : r.arms) arms.push_back(ArmName(a.label));
+  for (const auto& f : r.design.factors) factors.push_back(f.label.empty() ? f.name : f.label);
+  for (const auto& a : r.arms) arms.push_back(ArmName(r, a.label));
   o << "This study asked whether employers answer job applications differently depending on the applicant's "
     << (factors.empty() ? std::string("group") : Join(factors, " and ")) << ". ";
   // "went to" only once every planned application was sent (or carries an
@@ -131,7 +131,7 @@ std::string WhatWasFound(const AnalysisResult& r) {
   std::vector<std::string> parts;
   for (const auto& a : r.arms)
     parts.push_back(std::to_string(a.positive) + " of " + std::to_string(a.probes) + " applications from " +
-                    ArmName(a.label) + " applicants (" + FormatPercent(a.rate) + ")");
+                    ArmName(r, a.label) + " applicants (" + FormatPercent(a.rate) + ")");
   if (r.records) {
     o << "A positive outcome is " << Join(codes, " or ") << ". ";
     o << "The outcome was positive for " << Join(parts, " and ") << ".";
@@ -140,7 +140,7 @@ std::string WhatWasFound(const AnalysisResult& r) {
       if (q.ratio >= 1 || std::isnan(q.ratio)) continue;
       char ratio[32];
       std::snprintf(ratio, sizeof ratio, "%.2f", q.ratio);
-      o << " The selection rate of " << ArmName(r.arms[i].label) << " applicants was " << ratio
+      o << " The selection rate of " << ArmName(r, r.arms[i].label) << " applicants was " << ratio
         << " times the highest group's" << (q.below_four_fifths ? ", below four-fifths." : ", not below four-fifths.");
     }
     return o.str();
@@ -152,14 +152,14 @@ std::string WhatWasFound(const AnalysisResult& r) {
     o << " Of the " << Count(t.n(), "pair", "pairs") << ", both applicants were answered positively in " << t.a
       << " and neither in " << t.d << ". In the " << Count(t.discordant(), "pair", "pairs")
       << " where the employer treated the two differently, only the "
-      << ArmName(r.reference_label) << " applicant was answered positively " << Count(t.b, "time", "times")
-      << " and only the " << ArmName(r.other_label) << " applicant " << Count(t.c, "time", "times") << ".";
+      << ArmName(r, r.reference_label) << " applicant was answered positively " << Count(t.b, "time", "times")
+      << " and only the " << ArmName(r, r.other_label) << " applicant " << Count(t.c, "time", "times") << ".";
     if (!r.effects.comparisons.empty() && r.effects.comparisons.front().paired) {
       const auto& c = r.effects.comparisons.front();
       const auto& net = c.net.among_positive;
       if (!std::isnan(net.estimate))
         o << " Net discrimination, the share of vacancies with at least one positive answer that favoured "
-          << ArmName(r.reference_label) << " minus the share that favoured " << ArmName(r.other_label) << ", was "
+          << ArmName(r, r.reference_label) << " minus the share that favoured " << ArmName(r, r.other_label) << ", was "
           << FormatPercent(net.estimate) << " (" << std::lround(r.confidence * 100) << "% interval "
           << FormatPercent(net.ci.low) << " to " << FormatPercent(net.ci.high) << ").";
     }
@@ -176,7 +176,7 @@ std::string HowSure(const AnalysisResult& r) {
     for (const ArmComparison& c : r.effects.comparisons) {
       if (c.paired) continue;
       o << "Fisher's exact test, two-sided, " << (c.fisher.p.p < r.alpha ? "rejects" : "does not reject")
-        << " equal selection rates of " << ArmName(r.arms.front().label) << " and " << ArmName(c.other_label)
+        << " equal selection rates of " << ArmName(r, r.arms.front().label) << " and " << ArmName(r, c.other_label)
         << " applicants at the study's threshold of " << Alpha(r.alpha) << " (" << PlainP(c.fisher.p.p) << "). ";
     }
     o << "The " << conf << "% confidence intervals of the selection rates show how high or low each group's rate "
@@ -202,7 +202,7 @@ std::string HowSure(const AnalysisResult& r) {
   if (r.mcnemar_exact_p < r.alpha)
     o << "That is below the study's threshold of " << Alpha(r.alpha)
       << ", so the test rejects equal treatment: chance alone is an unlikely explanation of the "
-      << ArmName(t.b > t.c ? r.reference_label : r.other_label)
+      << ArmName(r, t.b > t.c ? r.reference_label : r.other_label)
       << " applicants' advantage at these vacancies. ";
   else
     o << "That is not below the study's threshold of " << Alpha(r.alpha)
@@ -245,7 +245,7 @@ std::string Headline(const AnalysisResult& r) {
   if (const std::string sets = SetsHeadline(r); !sets.empty()) return sets;
   if (!r.has_paired) {
     std::vector<std::string> parts;
-    for (const auto& a : r.arms) parts.push_back(ArmName(a.label) + " " + FormatPercent(a.rate));
+    for (const auto& a : r.arms) parts.push_back(ArmName(r, a.label) + " " + FormatPercent(a.rate));
     return std::string(r.records ? "Share of applications with a positive outcome: "
                                  : "Share of applications answered positively: ") +
            Join(parts, " and ") + ".";
@@ -265,7 +265,7 @@ std::string Headline(const AnalysisResult& r) {
   if (t.b == t.c)
     return "Unequal treatment went both ways equally often (" + std::to_string(t.b) + " pairs each); the data show no "
            "difference.";
-  std::string s = cap(ArmName(hi.label)) + " applicants received positive answers more often than " + ArmName(lo.label) +
+  std::string s = cap(ArmName(r, hi.label)) + " applicants received positive answers more often than " + ArmName(r, lo.label) +
                   " applicants (" + FormatPercent(hi.rate) + " against " + FormatPercent(lo.rate) + "); ";
   if (r.mcnemar_exact_p < r.alpha)
     s += "chance alone is an unlikely explanation (" + PlainP(r.mcnemar_exact_p) + ").";
@@ -274,20 +274,16 @@ std::string Headline(const AnalysisResult& r) {
   return s;
 }
 
-std::string ArmName(const std::string& label) {
-  std::string out;
-  size_t start = 0;
-  bool any = false;
-  while (start <= label.size()) {
-    size_t comma = label.find(',', start);
-    std::string part = label.substr(start, comma == std::string::npos ? std::string::npos : comma - start);
-    size_t eq = part.find('=');
-    out += (any ? ", " : "") + (eq == std::string::npos ? part : part.substr(eq + 1));
-    any = true;
-    if (comma == std::string::npos) break;
-    start = comma + 1;
-  }
-  return out.empty() ? label : out;
+std::string ArmName(const std::string& label) { return ArmDisplayText(label, {}); }
+
+std::string ArmName(const AnalysisResult& result, const std::string& label) {
+  auto it = result.design.arm_display.find(label);
+  return it == result.design.arm_display.end() ? ArmName(label) : it->second;
+}
+
+std::string ArmShown(const AnalysisResult& result, const std::string& label) {
+  const std::string shown = ArmName(result, label);
+  return shown == ArmName(label) ? label : label + " (" + shown + ")";
 }
 
 namespace {

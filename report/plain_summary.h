@@ -35,5 +35,12 @@ std::string CodeName(const std::string& code);
 // An arm's label for people: its levels without the factor names
 // ("origin=inland" -> "inland"; "gender=f,origin=coastal" -> "f, coastal").
 std::string ArmName(const std::string& label);
+// The same with the design's display labels of levels ("age=45" -> "aged
+// 45" when the design labels it; analysis/design_summary.h).
+std::string ArmName(const AnalysisResult& result, const std::string& label);
+// An arm's stored label for the technical text, followed by its display
+// text when the design labels a level of it ("age=45 (aged 45)"); the
+// label alone otherwise.
+std::string ArmShown(const AnalysisResult& result, const std::string& label);
 
 }  // namespace twinprobe

@@ -38,18 +38,18 @@ std::string RenderStagesText(const AnalysisResult& r) {
   std::ostringstream o;
   o << "\nHiring stages (reached this stage: among all applicants, and among those at the previous stage; "
        "Fisher's exact test, two-sided, against "
-    << ArmName(r.arms.front().label) << "; p adjusted with " << h.correction << " across the stages):\n";
+    << ArmName(r, r.arms.front().label) << "; p adjusted with " << h.correction << " across the stages):\n";
   for (size_t k = 0; k < h.stages.size(); ++k) {
     const HiringStage& s = h.stages[k];
     o << "  " << s.name << ":";
     for (const StageGroup& g : s.groups) {
-      o << " " << ArmName(g.label) << " " << Rate(g.reached, g.applications);
+      o << " " << ArmName(r, g.label) << " " << Rate(g.reached, g.applications);
       if (k > 0) o << ", of previous " << Rate(g.reached, g.previous);
       o << ";";
     }
     o << "\n";
     for (const StageTest& t : s.tests)
-      o << "    " << ArmName(t.other_label) << ": among all " << PEquals(t.among_all.p) << " (adjusted "
+      o << "    " << ArmName(r, t.other_label) << ": among all " << PEquals(t.among_all.p) << " (adjusted "
         << Adjusted(t.among_all_adjusted) << "); among the previous stage " << PEquals(t.among_previous.p)
         << " (adjusted " << Adjusted(t.among_previous_adjusted) << ")\n";
   }
@@ -91,7 +91,7 @@ std::string StagesFunnel(const AnalysisResult& r, const ReportContext&) {
   chart.axis_label = "share of applicants";
   chart.percent = true;
   chart.axis_max = 1;
-  for (const StageGroup& g : h.stages.front().groups) chart.series_labels.push_back(ArmName(g.label));
+  for (const StageGroup& g : h.stages.front().groups) chart.series_labels.push_back(ArmName(r, g.label));
   std::string desc = "Funnel of hiring stages by group:";
   HtmlTable t;
   t.caption = "Selection rates by stage";
@@ -105,7 +105,7 @@ std::string StagesFunnel(const AnalysisResult& r, const ReportContext&) {
       const double share = Share(g.reached, g.applications);
       bars.values.push_back(share);
       bars.value_texts.push_back(std::isnan(share) ? "" : FormatPercent(share));
-      desc += " " + s.name + ", " + ArmName(g.label) + " " + Rate(g.reached, g.applications) + ";";
+      desc += " " + s.name + ", " + ArmName(r, g.label) + " " + Rate(g.reached, g.applications) + ";";
       std::string p_all = "reference", p_prev = "reference";
       if (a > 0 && !s.tests.empty()) {
         p_all = FormatP(s.tests[a - 1].among_all.p) + " (adj. " + Adjusted(s.tests[a - 1].among_all_adjusted) + ")";
@@ -114,7 +114,7 @@ std::string StagesFunnel(const AnalysisResult& r, const ReportContext&) {
       } else if (s.tests.empty()) {
         p_all = p_prev = "";
       }
-      t.rows.push_back({HeadCell(s.name), HeadCell(ArmName(g.label)), NumCell(Rate(g.reached, g.applications)),
+      t.rows.push_back({HeadCell(s.name), HeadCell(ArmName(r, g.label)), NumCell(Rate(g.reached, g.applications)),
                         NumCell(&s == &h.stages.front() ? std::string() : Rate(g.reached, g.previous)), NumCell(p_all),
                         NumCell(p_prev)});
     }

@@ -94,8 +94,12 @@ void DesignBlock(std::ostringstream& o, const AnalysisResult& r) {
   const auto& d = r.design;
   o << "\nDesign: ";
   for (size_t i = 0; i < d.factors.size(); ++i) {
-    o << (i ? "; " : "") << "factor " << d.factors[i].name << " (";
-    for (size_t k = 0; k < d.factors[i].levels.size(); ++k) o << (k ? ", " : "") << d.factors[i].levels[k];
+    // Codes as stored, each with its display label when the design gives one.
+    const auto& f = d.factors[i];
+    o << (i ? "; " : "") << "factor " << f.name << (f.label.empty() ? "" : " = " + f.label) << " (";
+    for (size_t k = 0; k < f.levels.size(); ++k)
+      o << (k ? ", " : "") << f.levels[k]
+        << (k < f.level_labels.size() && !f.level_labels[k].empty() ? " = " + f.level_labels[k] : "");
     o << "; reference " << d.factors[i].reference << ")";
   }
   if (r.records) o << "; " << d.employers << " employers (by pseudonym).\n";
@@ -122,7 +126,7 @@ void ResponseTimesBlock(std::ostringstream& o, const AnalysisResult& r) {
   std::snprintf(line, sizeof line, "  %-8s", "day");
   std::string head = line;
   for (const auto& a : rt.arms) {
-    std::snprintf(line, sizeof line, " %-34s", (ArmName(a.label) + " any / positive").c_str());
+    std::snprintf(line, sizeof line, " %-34s", (ArmName(r, a.label) + " any / positive").c_str());
     head += line;
   }
   row(head);
@@ -139,7 +143,7 @@ void ResponseTimesBlock(std::ostringstream& o, const AnalysisResult& r) {
     row(text);
   }
   for (const auto& a : rt.arms) {
-    o << "  " << ArmName(a.label) << ": " << a.responded << " of " << a.probes_sent << " answered within the window";
+    o << "  " << ArmName(r, a.label) << ": " << a.responded << " of " << a.probes_sent << " answered within the window";
     if (a.median_days >= 0) {
       std::snprintf(line, sizeof line, ", median %.1f days", a.median_days);
       o << line;
@@ -161,8 +165,8 @@ void EmployersBlock(std::ostringstream& o, const AnalysisResult& r) {
     if (x.discordant < 2) break;  // sorted, most unequal first
     if (!any) o << " With more than one, by pseudonym:\n";
     any = true;
-    o << "  " << x.pseudonym << ": " << Count(x.vacancies, "pair", "pairs") << ", only " << ArmName(r.reference_label) << " "
-      << x.table.b << ", only " << ArmName(r.other_label) << " " << x.table.c << "\n";
+    o << "  " << x.pseudonym << ": " << Count(x.vacancies, "pair", "pairs") << ", only " << ArmName(r, r.reference_label) << " "
+      << x.table.b << ", only " << ArmName(r, r.other_label) << " " << x.table.c << "\n";
   }
   if (!any) o << " None had more than one.\n";
   if (std::string flip = EmployerFlipSentence(r); !flip.empty()) o << Wrap(flip, "  ");

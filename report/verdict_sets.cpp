@@ -52,7 +52,7 @@ const EffectTest* ModelTest(const KLevelAnalysis& k, const std::string& factor) 
 std::string LevelRates(const FactorAnalysis& f) {
   std::string s;
   for (size_t i = 0; i < f.levels.size(); ++i)
-    s += (i ? (i + 1 == f.levels.size() ? " and " : ", ") : "") + f.levels[i].level + " " + FormatPercent(f.levels[i].rate);
+    s += (i ? (i + 1 == f.levels.size() ? " and " : ", ") : "") + f.levels[i].label + " " + FormatPercent(f.levels[i].rate);
   return s;
 }
 
@@ -68,19 +68,23 @@ std::string SetsHeadline(const AnalysisResult& r) {
   if (const FactorAnalysis* f = r.k_levels.present ? HeadlineFactor(r.k_levels) : nullptr) {
     // With two factors the model's test of the factor (holding the other
     // fixed) decides, and the interaction is named after it.
+    // A factor varied between vacancies is judged by its test at the
+    // vacancies (its k x 2 table counts a vacancy's probes as independent).
     const EffectTest* model = ModelTest(r.k_levels, f->name);
-    const double p = model ? model->p : f->overall->p();
-    const std::string test = model ? "likelihood-ratio test of " + f->name + " in the conditional logistic model, " + PlainP(p)
-                                   : TestName(*f->overall) + " " + PlainP(p);
-    const std::string groups = std::to_string(f->levels.size()) + " " + f->name + " groups (" + LevelRates(*f) + ")";
+    const bool by_vacancy = !model && f->vacancy_test.present;
+    const double p = model ? model->p : by_vacancy ? f->vacancy_test.p : f->overall->p();
+    const std::string test = model        ? "likelihood-ratio test of " + f->label + " in the conditional logistic model, " + PlainP(p)
+                             : by_vacancy ? "permutation test of its levels among the vacancies, " + PlainP(p)
+                                          : TestName(*f->overall) + " " + PlainP(p);
+    const std::string groups = std::to_string(f->levels.size()) + " " + f->label + " groups (" + LevelRates(*f) + ")";
     std::string s = p < r.alpha ? "Positive answers differed across the " + groups +
                                       "; chance alone is an unlikely explanation (" + test + ")"
                                 : "Positive answers did not differ clearly across the " + groups +
                                       "; the differences could well be chance (" + test + ")";
     const auto& tests = r.k_levels.model.tests;
     if (model && tests.size() == 3 && tests[2].estimable) {
-      const std::string& other = r.k_levels.factors[0].name == f->name ? r.k_levels.factors[1].name : r.k_levels.factors[0].name;
-      s += tests[2].p < r.alpha ? "; the " + f->name + " difference depended on " + other + " (interaction " + PlainP(tests[2].p) + ")"
+      const std::string& other = r.k_levels.factors[0].name == f->name ? r.k_levels.factors[1].label : r.k_levels.factors[0].label;
+      s += tests[2].p < r.alpha ? "; the " + f->label + " difference depended on " + other + " (interaction " + PlainP(tests[2].p) + ")"
                                 : "; it did not clearly depend on " + other + " (interaction " + PlainP(tests[2].p) + ")";
     }
     return s + ".";
@@ -92,7 +96,7 @@ std::string SetsHeadline(const AnalysisResult& r) {
       return "Both groups received positive answers equally often (" + FormatPercent(ref.rate) + "); the data show no difference.";
     const ArmResult& hi = ref.rate > other.rate ? ref : other;
     const ArmResult& lo = ref.rate > other.rate ? other : ref;
-    std::string s = Cap(ArmName(hi.label)) + " applicants received positive answers more often than " + ArmName(lo.label) +
+    std::string s = Cap(ArmName(r, hi.label)) + " applicants received positive answers more often than " + ArmName(r, lo.label) +
                     " applicants (" + FormatPercent(hi.rate) + " against " + FormatPercent(lo.rate) + "); ";
     if (c->p.p < r.alpha) return s + "chance alone is an unlikely explanation (Fisher's exact test, " + PlainP(c->p.p) + ").";
     return s + "the difference could well be chance (Fisher's exact test, " + PlainP(c->p.p) + "), so the test does not show one.";
@@ -107,10 +111,11 @@ std::string SetsHowSure(const AnalysisResult& r) {
   if (r.k_levels.present) {
     for (const FactorAnalysis& f : r.k_levels.factors) {
       if (const std::string s = OverallSentence(f, r.alpha); !s.empty()) o << s << " ";
+      if (const std::string s = VacancyTestSentence(f, r.alpha); !s.empty()) o << s << " ";
       int rejected = 0;
       for (const LevelPair& p : f.pairwise) rejected += p.p_adjusted < r.alpha;
       if (f.pairwise.size() > 1)  // one pair is the overall test again
-        o << "Of the " << f.pairwise.size() << " comparisons of two " << f.name << " groups ("
+        o << "Of the " << f.pairwise.size() << " comparisons of two " << f.label << " groups ("
           << (f.within ? "exact McNemar" : "Fisher's exact") << " tests, two-sided, adjusted by " << r.effects.correction
           << "), " << rejected << (rejected == 1 ? " rejects" : " reject") << " equal treatment. ";
       if (const std::string s = TrendSentence(f, r.alpha, r.confidence); !s.empty()) o << s << " ";

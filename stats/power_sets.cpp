@@ -2,9 +2,13 @@
 
 #include <algorithm>
 #include <cmath>
+#include <tuple>
+#include <utility>
 
 #include <boost/math/distributions/chi_squared.hpp>
 
+#include "stats/adjust.h"
+#include "stats/mcnemar.h"
 #include "stats/random.h"
 
 namespace twinprobe::stats {
@@ -17,6 +21,9 @@ struct Patterns {
   std::vector<std::vector<int>> bits;
   std::vector<int> row_total;
   double critical = 0;              // qchisq(1 - alpha, k - 1)
+  double alpha = 0;
+  std::vector<std::pair<int, int>> pairs;  // every pair of arms, (0,1), (0,2), ..., (1,2), ...
+  int smallest = -1;                       // index in `pairs` of the smallest nonzero gap
 };
 
 Patterns MakePatterns(const std::vector<double>& rates, double alpha) {
@@ -36,7 +43,30 @@ Patterns MakePatterns(const std::vector<double>& rates, double alpha) {
     p.bits.push_back(std::move(b));
   }
   p.critical = boost::math::quantile(boost::math::complement(boost::math::chi_squared(p.k - 1), alpha));
+  p.alpha = alpha;
+  const SmallestGap gap = SmallestPairwiseGap(rates);
+  for (int i = 0; i < p.k; ++i)
+    for (int j = i + 1; j < p.k; ++j) {
+      if (i == gap.first && j == gap.second) p.smallest = static_cast<int>(p.pairs.size());
+      p.pairs.emplace_back(i, j);
+    }
   return p;
+}
+
+// Does Holm's step-down adjustment over every pair's exact McNemar p reject
+// the smallest-gap pair, as the analysis tests it (stats/pairwise.h)?
+bool HolmRejectsSmallest(const Patterns& p, const std::vector<int64_t>& counts) {
+  if (p.smallest < 0) return false;
+  std::vector<double> pvalues;
+  for (const auto& [i, j] : p.pairs) {
+    PairedCounts t;
+    for (size_t pat = 0; pat < counts.size(); ++pat) {
+      const int x = p.bits[pat][static_cast<size_t>(i)], y = p.bits[pat][static_cast<size_t>(j)];
+      (x ? (y ? t.a : t.b) : (y ? t.c : t.d)) += counts[pat];
+    }
+    pvalues.push_back(McNemarExactP(t));
+  }
+  return AdjustP(pvalues, Adjustment::kHolm)[static_cast<size_t>(p.smallest)] < p.alpha;
 }
 
 // Does a study with `counts[pattern]` vacancies of each pattern reject?
@@ -65,12 +95,16 @@ struct Enumerate {
   std::vector<double> log_prob;
   double log_n_factorial = 0;
   double power = 0;
+  double holm_power = 0;  // the smallest-gap pair rejected after Holm
 
   void Walk(size_t pat, int64_t left, double log_weight) {
     if (pat + 1 == counts.size()) {
       counts[pat] = left;
       const double lw = log_weight + MultTerm(pat, left);
-      if (std::isfinite(lw) && Rejects(p, counts)) power += std::exp(log_n_factorial + lw);
+      if (!std::isfinite(lw)) return;
+      const double weight = std::exp(log_n_factorial + lw);
+      if (Rejects(p, counts)) power += weight;
+      if (HolmRejectsSmallest(p, counts)) holm_power += weight;
       return;
     }
     for (int64_t m = 0; m <= left; ++m) {
@@ -94,23 +128,28 @@ double SetsCompositions(int64_t vacancies, int k) {
                   std::lgamma(static_cast<double>(vacancies) + 1) - std::lgamma(patterns));
 }
 
-double ExactCochranPower(int64_t vacancies, const std::vector<double>& rates, double alpha) {
+namespace {
+
+// Both powers by exact enumeration ({overall, holm}).
+std::pair<double, double> ExactPowers(int64_t vacancies, const std::vector<double>& rates, double alpha) {
   const Patterns p = MakePatterns(rates, alpha);
-  Enumerate e{p, std::vector<int64_t>(p.prob.size(), 0), {}, std::lgamma(static_cast<double>(vacancies) + 1), 0};
+  Enumerate e{p, std::vector<int64_t>(p.prob.size(), 0), {}, std::lgamma(static_cast<double>(vacancies) + 1), 0, 0};
   for (double q : p.prob) e.log_prob.push_back(q > 0 ? std::log(q) : -HUGE_VAL);
   e.Walk(0, vacancies, 0.0);
-  return std::min(1.0, e.power);
+  return {std::min(1.0, e.power), std::min(1.0, e.holm_power)};
 }
 
-double SimulatedCochranPower(int64_t vacancies, const std::vector<double>& rates, double alpha, uint64_t seed,
-                             int replicates) {
+// Both powers from `replicates` simulated studies ({overall, holm}); the
+// Holm evaluation only when asked (the sample-size search does not need it).
+std::pair<double, double> SimulatedPowers(int64_t vacancies, const std::vector<double>& rates, double alpha,
+                                          uint64_t seed, int replicates, bool with_holm) {
   const Patterns p = MakePatterns(rates, alpha);
   std::vector<double> cumulative;
   double total = 0;
   for (double q : p.prob) cumulative.push_back(total += q);
   Rng rng(seed);
   std::vector<int64_t> counts(p.prob.size());
-  int rejected = 0;
+  int rejected = 0, holm_rejected = 0;
   for (int rep = 0; rep < replicates; ++rep) {
     std::fill(counts.begin(), counts.end(), 0);
     for (int64_t v = 0; v < vacancies; ++v) {
@@ -120,8 +159,20 @@ double SimulatedCochranPower(int64_t vacancies, const std::vector<double>& rates
                                                             static_cast<std::ptrdiff_t>(counts.size()) - 1))];
     }
     rejected += Rejects(p, counts);
+    if (with_holm) holm_rejected += HolmRejectsSmallest(p, counts);
   }
-  return static_cast<double>(rejected) / replicates;
+  return {static_cast<double>(rejected) / replicates, static_cast<double>(holm_rejected) / replicates};
+}
+
+}  // namespace
+
+double ExactCochranPower(int64_t vacancies, const std::vector<double>& rates, double alpha) {
+  return ExactPowers(vacancies, rates, alpha).first;
+}
+
+double SimulatedCochranPower(int64_t vacancies, const std::vector<double>& rates, double alpha, uint64_t seed,
+                             int replicates) {
+  return SimulatedPowers(vacancies, rates, alpha, seed, replicates, false).first;
 }
 
 SmallestGap SmallestPairwiseGap(const std::vector<double>& rates) {
@@ -145,12 +196,13 @@ SetsPower PowerForSets(int64_t vacancies, const std::vector<double>& rates, doub
   SetsPower s;
   const int k = static_cast<int>(rates.size());
   if (allow_exact && SetsCompositions(vacancies, k) <= kMaxSetsCompositions) {
-    s.overall = ExactCochranPower(vacancies, rates, alpha);
+    std::tie(s.overall, s.pairwise_holm) = ExactPowers(vacancies, rates, alpha);
     s.overall_exact = true;
   } else {
-    s.overall = SimulatedCochranPower(vacancies, rates, alpha, seed, replicates);
+    std::tie(s.overall, s.pairwise_holm) = SimulatedPowers(vacancies, rates, alpha, seed, replicates, true);
     s.replicates = replicates;
     s.overall_se = std::sqrt(s.overall * (1 - s.overall) / replicates);
+    s.pairwise_holm_se = std::sqrt(s.pairwise_holm * (1 - s.pairwise_holm) / replicates);
   }
   s.alpha_pairwise = alpha / (k * (k - 1) / 2);
   const SmallestGap g = SmallestPairwiseGap(rates);

@@ -20,7 +20,12 @@
 //   the smallest nonzero |r_i - r_j|, tested by the exact McNemar test at
 //   alpha / m with m = k (k - 1) / 2 (Bonferroni, the first and strictest
 //   step of Holm); its power is exact (stats/power_paired.h with p10 =
-//   r_i (1 - r_j), p01 = r_j (1 - r_i)).
+//   r_i (1 - r_j), p01 = r_j (1 - r_i)). That is a lower bound: the
+//   analysis adjusts by Holm's step-down (stats/pairwise.h), which rejects
+//   the pair whenever Bonferroni does and also when the other pairs' smaller
+//   p-values are rejected first. So the power after Holm, as analysed, is
+//   computed too, with the overall test: summed exactly over the
+//   compositions, or from the same simulated studies.
 #include <cstdint>
 #include <vector>
 
@@ -35,7 +40,9 @@ struct SetsPower {
   double overall_se = 0;        // Monte Carlo standard error (0 when exact)
   bool overall_exact = false;
   int replicates = 0;           // simulated studies (0 when exact)
-  double pairwise = 0;          // power for the smallest pairwise gap (exact)
+  double pairwise = 0;          // power for the smallest pairwise gap at alpha / m (exact; Bonferroni)
+  double pairwise_holm = 0;     // the same pair rejected after Holm over all m pairs (as analysed)
+  double pairwise_holm_se = 0;  // its Monte Carlo standard error (0 when exact)
   int pair_first = -1, pair_second = -1;  // that pair (arm indices); -1 when all rates are equal
   double alpha_pairwise = 0;    // alpha / m
 };

@@ -27,7 +27,7 @@ const std::vector<Pattern> kFemale = {{{1, 1, 1}, 10}, {{1, 0, 0}, 9}, {{1, 1, 0
 const std::vector<Pattern> kMale = {{{1, 1, 1}, 8}, {{1, 0, 0}, 5}, {{1, 1, 0}, 4}, {{0, 1, 0}, 5},
                                     {{0, 0, 1}, 3}, {{1, 0, 1}, 2}, {{0, 1, 1}, 4}, {{0, 0, 0}, 25}};
 
-KLevelFactor Age() { return {"age", {"28", "45", "58"}, "28", {28, 45, 58}}; }
+KLevelFactor Age() { return {"age", {"28", "45", "58"}, "28", {28, 45, 58}, "", {}}; }
 
 void Add(KLevelInput& in, const std::vector<Pattern>& patterns, int arm_offset) {
   for (const Pattern& p : patterns) {
@@ -92,8 +92,8 @@ TEST_CASE("k levels: three ages within sets against R (Cochran's Q, pairwise McN
       "fit <- clogit(y ~ age + strata(set), data = long, method = 'exact', control = ctl)\n"
       "cat(format(c(q, pq, pp, p.adjust(pp, 'holm'), coef(fit), 2 * diff(fit$loglik),\n"
       "  pchisq(2 * diff(fit$loglik), 1, lower.tail = FALSE)), digits = 17), sep = '\\n')\n");
-  REQUIRE(r.ok);
   INFO(r.error);
+  REQUIRE(r.ok);
   REQUIRE(r.values.size() == 11);
   // Q and its chi-square p: Cochran's definition, pchisq(q, 2, lower.tail = FALSE).
   CHECK_THAT(f.overall->statistic, WithinRel(r.values[0], 1e-12));
@@ -152,7 +152,7 @@ TEST_CASE("k levels: age within and gender between against R's clogit likelihood
   in.kind = "sets";
   in.arm_labels = {"age=28,gender=f", "age=45,gender=f", "age=58,gender=f",
                    "age=28,gender=m", "age=45,gender=m", "age=58,gender=m"};
-  in.factors = {{"age", {"28", "45", "58"}, "28", {}}, {"gender", {"f", "m"}, "f", {}}};
+  in.factors = {{"age", {"28", "45", "58"}, "28", {}, "", {}}, {"gender", {"f", "m"}, "f", {}, "", {}}};
   Add(in, kFemale, 0);
   Add(in, kMale, 3);
   const KLevelAnalysis k = AnalyzeKLevels(in);
@@ -169,7 +169,7 @@ TEST_CASE("k levels: age within and gender between against R's clogit likelihood
   CHECK(k.model.tests[0].df == 2);
   CHECK_FALSE(k.model.tests[1].estimable);
   CHECK(k.model.tests[1].note ==
-        "varied between vacancies, so constant within every set: compared by the k x 2 test of its levels");
+        "varied between vacancies, so constant within every set: tested by re-assigning its levels to vacancies");
   CHECK(k.model.tests[2].name == "age x gender");
   CHECK(k.model.tests[2].df == 2);
   REQUIRE(k.model.terms.size() == 4);
@@ -244,9 +244,80 @@ TEST_CASE("k levels: an unpaired three-level study against R (chisq.test, fisher
 TEST_CASE("k levels: one two-level factor is left to the paired effects") {
   KLevelInput in;
   in.arm_labels = {"origin=coastal", "origin=inland"};
-  in.factors = {{"origin", {"coastal", "inland"}, "coastal", {}}};
+  in.factors = {{"origin", {"coastal", "inland"}, "coastal", {}, "", {}}};
   in.sets.push_back({{{0, true}, {1, false}}, {}, 3});
   CHECK_FALSE(AnalyzeKLevels(in).present);
   CHECK(LevelOfArm("age=45,gender=m", "gender") == "m");
   CHECK(LevelOfArm("age=45,gender=m", "origin").empty());
+}
+
+TEST_CASE("k levels: two factors both within sets are each tested on blocks of one set and one level of the other, against R") {
+  // Six probes a set: ages 28, 45, 58 of a woman (arms 0-2) and of a man
+  // (arms 3-5); set j has kFemale[j]'s outcomes for the woman's probes and
+  // kMale[j + 1]'s (cyclically) for the man's, kFemale[j].count times.
+  KLevelInput in;
+  in.kind = "sets";
+  in.arm_labels = {"age=28,gender=f", "age=45,gender=f", "age=58,gender=f",
+                   "age=28,gender=m", "age=45,gender=m", "age=58,gender=m"};
+  in.factors = {{"age", {"28", "45", "58"}, "28", {}, "", {}}, {"gender", {"f", "m"}, "f", {}, "", {"woman", "man"}}};
+  std::ostringstream r_rows;  // R: m rows (set, gender) x ages, h rows (set, age) x genders
+  r_rows << "m <- NULL; h <- NULL\n";
+  for (size_t j = 0; j < kFemale.size(); ++j) {
+    SetOutcome s;
+    const auto& f = kFemale[j].outcome;
+    const auto& m = kMale[(j + 1) % kMale.size()].outcome;
+    for (int level = 0; level < 3; ++level) {
+      s.probes.emplace_back(level, f[static_cast<size_t>(level)] == 1);
+      s.probes.emplace_back(3 + level, m[static_cast<size_t>(level)] == 1);
+    }
+    s.count = kFemale[j].count;
+    in.sets.push_back(s);
+    r_rows << "for (i in seq_len(" << s.count << ")) { m <- rbind(m, c(" << f[0] << ", " << f[1] << ", " << f[2]
+           << "), c(" << m[0] << ", " << m[1] << ", " << m[2] << ")); h <- rbind(h, c(" << f[0] << ", " << m[0]
+           << "), c(" << f[1] << ", " << m[1] << "), c(" << f[2] << ", " << m[2] << ")) }\n";
+  }
+  const KLevelAnalysis k = AnalyzeKLevels(in);
+  REQUIRE(k.factors.size() == 2);
+  const FactorAnalysis& age = k.factors[0];
+  const FactorAnalysis& gender = k.factors[1];
+  CHECK(age.within);
+  CHECK(gender.within);
+  REQUIRE(age.overall);
+  REQUIRE(gender.overall);
+  CHECK(age.overall->method == "cochran_q");
+  CHECK(age.overall->blocks_by == "gender");
+  CHECK(gender.overall->blocks_by == "age");
+  CHECK(age.overall->sets == 2 * 67);     // a row of ages per set and gender
+  CHECK(gender.overall->sets == 3 * 67);  // a pair of genders per set and age
+  CHECK(gender.pairwise.size() == 1);
+  CHECK(gender.pairwise[0].first_label == "woman");
+  CHECK_FALSE(gender.vacancy_test.present);  // varied within: no vacancy re-assignment
+  REQUIRE(k.model.present);
+  CHECK(k.model.tests[1].estimable);
+
+  const auto r = testing::RunR(
+      r_rows.str() +
+      // Cochran (1950), Biometrika 37:256-266: Q from its definition on the rows.
+      "cq <- function(x) { k <- ncol(x); C <- colSums(x); R <- rowSums(x); N <- sum(x)\n"
+      "  q <- (k - 1) * (k * sum(C^2) - N^2) / (k * N - sum(R^2)); c(q, pchisq(q, k - 1, lower.tail = FALSE)) }\n"
+      "pp <- c(); for (ij in list(c(1, 2), c(1, 3), c(2, 3))) { b <- sum(m[, ij[1]] == 1 & m[, ij[2]] == 0);\n"
+      "  cc <- sum(m[, ij[1]] == 0 & m[, ij[2]] == 1); pp <- c(pp, binom.test(b, b + cc)$p.value) }\n"
+      "bg <- sum(h[, 1] == 1 & h[, 2] == 0); cg <- sum(h[, 1] == 0 & h[, 2] == 1)\n"
+      "cat(format(c(cq(m), pp, p.adjust(pp, 'holm'), cq(h), binom.test(bg, bg + cg)$p.value), digits = 17), sep = '\\n')\n");
+  INFO(r.error);
+  REQUIRE(r.ok);
+  REQUIRE(r.values.size() == 11);
+  // Age: Q and pchisq(q, 2, lower.tail = FALSE) on the (set, gender) rows.
+  CHECK_THAT(age.overall->statistic, WithinRel(r.values[0], 1e-12));
+  CHECK_THAT(age.overall->p_asymptotic, WithinRel(r.values[1], 1e-9));
+  // Age pairs: binom.test(b, b + c)$p.value on those rows, then p.adjust(p, "holm").
+  for (size_t i = 0; i < 3; ++i) {
+    CHECK_THAT(age.pairwise[i].p, WithinRel(r.values[2 + i], 1e-9));
+    CHECK_THAT(age.pairwise[i].p_adjusted, WithinRel(r.values[5 + i], 1e-9));
+  }
+  // Gender: Q (McNemar's uncorrected chi-square for two levels) on the
+  // (set, age) rows, and binom.test(b, b + c)$p.value.
+  CHECK_THAT(gender.overall->statistic, WithinRel(r.values[8], 1e-12));
+  CHECK_THAT(gender.overall->p_asymptotic, WithinRel(r.values[9], 1e-9));
+  CHECK_THAT(gender.pairwise[0].p, WithinRel(r.values[10], 1e-9));
 }

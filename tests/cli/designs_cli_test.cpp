@@ -32,8 +32,8 @@ TEST_CASE("cli designs: check explains how each factor varies") {
   REQUIRE(r.exit_code == 0);
   CHECK(r.out ==
         "Design ostervale-age-study is valid: sets design, 6 arms, 48 vacancies, 3 templates.\n"
-        "Factors: age varies within each vacancy (3 levels); gender is assigned between vacancies (2 levels, balanced "
-        "within region).\n"
+        "Factors: age (years) (age) varies within each vacancy (3 levels: aged 28, aged 45, aged 58); gender is "
+        "assigned between vacancies (2 levels: woman, man, balanced within region).\n"
         "One-attribute proof: 48 sets rendered (432 renderings compared); the probes differ only in fields a factor "
         "controls (used by the templates: birth_year, full_name, graduation_year, mailbox).\n");
   auto j = nlohmann::json::parse(s.Run({"--json", "check"}).out);
@@ -50,6 +50,10 @@ TEST_CASE("cli designs: plan shows the carry-over table with its test") {
   auto r = s.Run({"plan"});
   INFO(r.err);
   REQUIRE(r.exit_code == 0);
+  // The balance tables name arms by code; the line above them gives their labels.
+  CHECK(r.out.find("\n\nArms by their display labels: age=28,gender=f = aged 28, woman; age=28,gender=m = aged 28, "
+                   "man; age=45,gender=f = aged 45, woman; age=45,gender=m = aged 45, man; age=58,gender=f = aged 58, "
+                   "woman; age=58,gender=m = aged 58, man.\n\nBalance of the plan") != std::string::npos);
   const auto at = r.out.find("Carry-over (probes per arm by the arm sent just before it in the same set;");
   REQUIRE(at != std::string::npos);
   CHECK(r.out.find("  arm x previous arm: X2 = ", at) != std::string::npos);

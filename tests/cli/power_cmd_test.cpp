@@ -240,6 +240,7 @@ TEST_CASE("power cli: sets power for a budget, exact for a small study") {
         "With 12 vacancies (36 applications):\n"
         "  overall test: 42.8% power (exact, summed over every outcome)\n"
         "  smallest pairwise gap: 0.9% power (exact)\n"
+        "  smallest pairwise gap after Holm over the 3 pairs, as analyze adjusts: 0.9% power (exact)\n"
         "Vacancies that call everyone back more readily make a set's outcomes alike; with the same rates that raises "
         "the power of these within-set tests, so the numbers above are conservative.\n");
 }

@@ -74,8 +74,8 @@ TEST_CASE("age study: the design in words, the labels, scores and signal") {
   AgeStudy s;
   const Design& d = s.checked.design;
   CHECK(DescribeVariation(d) ==
-        "age varies within each vacancy (3 levels); gender is assigned between vacancies (2 levels, balanced within "
-        "region)");
+        "age (years) (age) varies within each vacancy (3 levels: aged 28, aged 45, aged 58); gender is assigned "
+        "between vacancies (2 levels: woman, man, balanced within region)");
   CHECK(d.factors[0].DisplayName() == "age (years)");
   CHECK(d.factors[0].LevelLabel("45") == "aged 45");
   CHECK(d.factors[0].scores == std::vector<double>{28, 45, 58});

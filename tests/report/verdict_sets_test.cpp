@@ -83,7 +83,7 @@ TEST_CASE("verdict: a sets study with three ages names Cochran's Q and each pair
   KLevelInput in;
   in.kind = "sets";
   in.arm_labels = {"age=28", "age=45", "age=58"};
-  in.factors = {{"age", {"28", "45", "58"}, "28", {28, 45, 58}}};
+  in.factors = {{"age", {"28", "45", "58"}, "28", {28, 45, 58}, "", {}}};
   in.sets = ThreeAges(0, false);
   AnalysisResult r = FromSets("sets", in.arm_labels, in.sets);
   r.k_levels = AnalyzeKLevels(in);
@@ -123,7 +123,7 @@ TEST_CASE("verdict: a two-factor study states the main effect and the interactio
   in.kind = "sets";
   in.arm_labels = {"age=28,gender=f", "age=45,gender=f", "age=58,gender=f",
                    "age=28,gender=m", "age=45,gender=m", "age=58,gender=m"};
-  in.factors = {{"age", {"28", "45", "58"}, "28", {}}, {"gender", {"f", "m"}, "f", {}}};
+  in.factors = {{"age", {"28", "45", "58"}, "28", {}, "", {}}, {"gender", {"f", "m"}, "f", {}, "", {}}};
   in.sets = ThreeAges(0, false);
   for (const SetOutcome& s : ThreeAges(3, true)) in.sets.push_back(s);
   AnalysisResult r = FromSets("sets", in.arm_labels, in.sets);
@@ -140,9 +140,14 @@ TEST_CASE("verdict: a two-factor study states the main effect and the interactio
         "Of the 3 comparisons of two age groups (exact McNemar tests, two-sided, adjusted by holm), 0 reject equal "
         "treatment. The test of equal positive rates across the 2 levels of gender (k x 2 table of probes) does not "
         "reject equality at alpha 0.05: Freeman-Halton exact p = 0.913; Pearson X^2 = 0.0326 on 1 df, p = 0.857. "
+        // The vacancy test's value is checked against python in tests/analysis/vacancy_test_test.cpp.
+        "The test of gender at the level it was randomised at (its levels re-assigned to the 123 vacancies within "
+        "the 1 block of the plan, 99999 resamples; statistic: the sum over levels of the squared positive count over "
+        "the number of vacancies) does not reject equality at alpha 0.05: Monte Carlo p = 0.934 (standard error "
+        "0.000784). The k x 2 test counts the probes of one vacancy as independent and is descriptive. "
         "age: the likelihood-ratio test rejects the hypothesis of no effect at alpha 0.05: X^2 = 6.02 on 2 df, "
         "p = 0.0493. gender: not estimable by the conditional model (varied between vacancies, so constant within "
-        "every set: compared by the k x 2 test of its levels). age x gender: the likelihood-ratio test does not "
+        "every set: tested by re-assigning its levels to vacancies). age x gender: the likelihood-ratio test does not "
         "reject the hypothesis of no effect at alpha 0.05: X^2 = 3.65 on 2 df, p = 0.161. The 95% confidence "
         "intervals of the callback rates show how high or low each group's true callback rate may plausibly be.");
 }
