@@ -12,6 +12,7 @@
 #include "collector/import_applications.h"
 #include "core/comma_list.h"
 #include "planner/design_file.h"
+#include "report/plain_summary.h"
 #include "report/plural.h"
 
 namespace twinprobe {
@@ -105,8 +106,7 @@ int RunImportApplications(Context& ctx, ApplicationsCmdOptions& o) {
   std::cout << (s.new_plan ? "Created " + std::string(s.kind == "unpaired" ? "an " : "a ") + s.kind +
                                  " study of applications from "
                            : "Added to the study from ")
-            << o.file << ": " << Count(s.rows_landed, "application", "applications") << " in "
-            << Count(s.vacancies_landed, "vacancy", "vacancies");
+            << o.file << ": " << RecordsExtent(s.rows_landed, s.vacancies_landed);
   if (s.new_plan) {
     std::vector<std::string> others(s.arms.begin() + 1, s.arms.end());
     std::cout << "; " << (s.factor.empty() ? "group" : s.factor) << " " << s.arms[0] << " (reference) compared with "

@@ -49,11 +49,7 @@ std::string RecordsWhatWasTested(const AnalysisResult& r) {
   for (const auto& a : r.arms) arms.push_back(ArmName(r, a.label));
   o << "This study asked whether the outcome of job applications differs by the applicant's " << FactorWords(r)
     << " (" << Join(arms, " or ") << "). The data are the records of "
-    << Count(r.probes_planned, "application", "applications")
-    // Without a vacancy column each application is its own vacancy: no
-    // vacancies to speak of.
-    << (r.vacancies == r.probes_planned ? std::string() : " in " + Count(r.vacancies, "vacancy", "vacancies"))
-    << ", each with its recorded outcome.";
+    << RecordsExtent(r.probes_planned, r.vacancies) << ", each with its recorded outcome.";
   if (r.kind == "unpaired")
     o << " The applicants were real and were not matched: they may differ in qualifications, experience and other "
          "respects that the data do not hold.";
@@ -222,6 +218,11 @@ std::string WhatItDoesNotShow() {
 }
 
 }  // namespace
+
+std::string RecordsExtent(int64_t applications, int64_t vacancies) {
+  return Count(applications, "application", "applications") +
+         (vacancies == applications ? std::string() : " in " + Count(vacancies, "vacancy", "vacancies"));
+}
 
 std::string PlainP(double p) { return p < 0.001 ? "p < 0.001" : "p = " + FormatP(p); }
 

@@ -28,6 +28,12 @@ std::string Headline(const AnalysisResult& result);
 // else "p = 0.0312" (3 significant digits). Comparisons only, no arithmetic.
 std::string PlainP(double p);
 
+// How many applicant records a study holds, in the words every output uses:
+// "129 applications in 14 vacancies", or "300 applications" when there is
+// no vacancy column (each application is then its own vacancy, and there
+// are no vacancies to speak of).
+std::string RecordsExtent(int64_t applications, int64_t vacancies);
+
 // A response code for people: underscores become spaces ("info_request" ->
 // "info request").
 std::string CodeName(const std::string& code);

@@ -317,8 +317,7 @@ std::string RenderTextReport(const AnalysisResult& r) {
   if (r.records) {
     // Records have no fieldwork: no sending, no window, no flow of sets.
     o << "Study " << r.study_id << " (" << r.kind << " design, applicant records imported from a file).\n"
-      << Count(r.probes_planned, "application", "applications") << " in " << Count(r.vacancies, "vacancy", "vacancies")
-      << ", each with its recorded outcome.\n\n";
+      << RecordsExtent(r.probes_planned, r.vacancies) << ", each with its recorded outcome.\n\n";
     FindingsBlock(o, r);
     DesignBlock(o, r);
     o << "\n" << RenderPreregistrationText(r.preregistration);

@@ -120,7 +120,7 @@ TEST_CASE("import applications: without a vacancy column every application stand
                    "arm=gender,outcome=invited,probe=applicant", "--reference", "woman", "--positive", "yes"});
   CHECK(r.exit_code == 0);
   CHECK(r.out.rfind("Created an unpaired study of applications from " + HrFile() +
-                        ": 129 applications in 129 vacancies; group woman (reference) compared with man; a positive "
+                        ": 129 applications; group woman (reference) compared with man; a positive "
                         "outcome is yes; strata none.\n",
                     0) == 0);
   auto j = nlohmann::json::parse(RunCli({"--study", study, "--json", "analyze"}).out);
