@@ -106,6 +106,8 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   effects_in.alpha = r.alpha;
   effects_in.equivalence_margin = plan.equivalence_margin;
   for (const auto& a : f.arms) effects_in.arm_labels.push_back(a.label);
+  for (const StoredFactor& sf : stored.factors)
+    if (sf.between) effects_in.between_factors.push_back(sf.name);
   for (const SetShape& s : f.sets) {
     if (!s.complete) continue;
     SetOutcome so;

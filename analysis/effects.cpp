@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <map>
 
+#include "analysis/k_level.h"
 #include "stats/paired_midp.h"
 #include "stats/paired_ratio.h"
 
@@ -83,7 +84,18 @@ Effects ComputeEffects(const EffectsInput& in) {
   std::vector<const SetOutcome*> all;
   for (const auto& s : in.sets) all.push_back(&s);
   const int arms = static_cast<int>(in.arm_labels.size());
+  // Arms with a comparison: all but those that never meet the reference.
+  std::vector<int> compared;
   for (int other = 1; other < arms; ++other) {
+    bool meets = true;
+    if (in.kind != "unpaired")
+      for (const std::string& factor : in.between_factors)
+        meets = meets && LevelOfArm(in.arm_labels[static_cast<size_t>(other)], factor) ==
+                             LevelOfArm(in.arm_labels[0], factor);
+    if (meets) compared.push_back(other);
+    else e.not_with_reference.push_back(in.arm_labels[static_cast<size_t>(other)]);
+  }
+  for (int other : compared) {
     ArmComparison c = Compare(all, other, in);
     if (c.paired && in.equivalence_margin > 0 && c.pairs.n() > 0)
       c.equivalence = stats::PairedEquivalence(c.pairs, -in.equivalence_margin, in.equivalence_margin, in.alpha);
@@ -102,7 +114,7 @@ Effects ComputeEffects(const EffectsInput& in) {
       e.single_strata.push_back({column, values.begin()->first});
       continue;
     }
-    for (int other = 1; other < arms; ++other) {
+    for (int other : compared) {
       AcrossStrata across;
       across.column = column;
       across.other_label = in.arm_labels[static_cast<size_t>(other)];

@@ -67,6 +67,11 @@ struct EffectsInput {
   // get the two one-sided tests of |p1 - p2| < margin at level alpha.
   double equivalence_margin = 0;
   double alpha = 0.05;
+  // Factors varied between vacancies (paired and sets designs): an arm whose
+  // level of one of them differs from the reference arm's never shares a set
+  // with it, so it has no comparison with the reference (and does not enter
+  // the correction's family); the k-level analysis compares the levels.
+  std::vector<std::string> between_factors;
 };
 
 // A test of one arm against the reference, on all data or within a stratum.
@@ -141,6 +146,9 @@ struct Effects {
   std::vector<ArmComparison> comparisons;  // one per non-reference arm, adjusted across arms
   std::vector<StratumComparison> strata;   // per column, comparison and value; adjusted within column x comparison
   std::vector<AcrossStrata> across;        // per column and comparison
+  // Arms that never share a set with the reference by design (a factor varied
+  // between vacancies), in arm order; they have no comparison above.
+  std::vector<std::string> not_with_reference;
 };
 
 // Requires arm_labels.size() >= 2 for any comparison (else empty results),

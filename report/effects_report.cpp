@@ -101,7 +101,7 @@ void ComparisonText(std::ostringstream& o, const ArmComparison& c, const Analysi
       << FormatP(c.mcnemar.mid_p) << "); asymptotic McNemar X^2 = " << Fmt(c.mcnemar.chi2) << " ("
       << PEquals(c.mcnemar.chi2_p) << "), with continuity correction " << Fmt(c.mcnemar.chi2_corrected) << " ("
       << PEquals(c.mcnemar.chi2_corrected_p) << ").\n"
-      << "    callback-rate ratio (a+b)/(a+c) = " << Fmt(c.callback_ratio.estimate) << ", " << cl
+      << "    callback-rate ratio (a+b)/(a+c) (reference over other) = " << Fmt(c.callback_ratio.estimate) << ", " << cl
       << " two-sided CI (Bonett-Price) " << FmtCi(c.callback_ratio.ci) << ".\n"
       << "    conditional odds ratio b/c = " << Fmt(c.conditional_or.estimate) << ", " << cl
       << " two-sided CI exact (Clopper-Pearson) " << FmtCi(c.conditional_or.ci) << ", mid-p "
@@ -172,6 +172,7 @@ nlohmann::json EffectsJson(const AnalysisResult& r) {
     x["other_arm_label"] = ArmName(r, c.other_label);
     j["comparisons"].push_back(x);
   }
+  j["not_with_reference"] = e.not_with_reference;
   j["strata"] = nlohmann::json::array();
   for (const auto& s : e.strata) {
     nlohmann::json x = ComparisonJson(s.result);
@@ -255,6 +256,13 @@ std::string RenderEffectsText(const AnalysisResult& r) {
          "the rate ratio with Koopman's score interval and the rate difference with Newcombe's (1998, method\n"
          "10) interval.\n";
   for (const auto& c : e.comparisons) ComparisonText(o, c, r, ref);
+  if (!e.not_with_reference.empty()) {
+    std::string shown;
+    for (const auto& label : e.not_with_reference) shown += (shown.empty() ? "" : "; ") + ArmShown(r, label);
+    o << "  Not compared with the reference, whose sets they never share (a factor varies between vacancies;\n"
+         "  the factor sections below compare its levels): "
+      << shown << ".\n";
+  }
   if (e.comparisons.size() > 1) {
     o << "  p-values adjusted across the " << e.comparisons.size() << " comparisons (" << e.correction << "):";
     for (const auto& c : e.comparisons) o << " " << c.other_label << " " << Fmt(c.p_adjusted) << ";";
@@ -291,8 +299,8 @@ std::string RenderEffectsText(const AnalysisResult& r) {
       continue;
     }
     o << "\nAcross " << a.column << " (" << a.values << " values, " << ArmShown(r, a.other_label) << " vs " << ref
-      << "; arm x outcome tables):\n"
-      << "  Mantel-Haenszel odds ratio " << Fmt(a.mh.estimate) << ", " << Percent(r.confidence)
+      << (r.records ? "; group x outcome tables):\n" : "; arm x outcome tables):\n")
+      << "  Mantel-Haenszel odds ratio (reference vs other) " << Fmt(a.mh.estimate) << ", " << Percent(r.confidence)
       << " two-sided CI (Robins-Breslow-Greenland) " << FmtCi(a.mh.ci) << "; the CMH test, two-sided: X^2 = "
       << Fmt(a.mh.chi2_corrected) << " with continuity correction (" << PEquals(a.mh.chi2_corrected_p) << "), "
       << Fmt(a.mh.chi2) << " without (" << PEquals(a.mh.chi2_p) << ").\n"
