@@ -30,7 +30,8 @@ DesignSummary SummariseDesign(const Fieldwork& f, const StoredDesign& stored) {
   DesignSummary d;
   if (!f.has_plan) return d;
   d.design_sha256 = f.design_sha256;
-  d.has_seed = f.seed.has_value();
+  // Records were never randomised: the seed an import stores is no seed.
+  d.has_seed = f.seed.has_value() && !stored.records;
   d.seed = f.seed.value_or(0);
   d.plan_created_at = f.plan_created_at;
   if (stored.has_window) d.window_days = stored.scheme.window_days;
@@ -50,6 +51,7 @@ DesignSummary SummariseDesign(const Fieldwork& f, const StoredDesign& stored) {
   d.first_sent_at = f.first_sent_at;
   d.last_sent_at = f.last_sent_at;
   for (const auto& a : f.arms) d.arm_display[a.label] = ArmDisplayText(a.label, stored.factors);
+  d.imported_files = stored.imported_files;
   return d;
 }
 

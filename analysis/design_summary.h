@@ -54,6 +54,9 @@ struct DesignSummary {
   // Arm label -> its display text ("age=45,gender=f" -> "aged 45, f"), each
   // level through StoredFactor::LevelLabel (ArmDisplayText), every arm of the plan.
   std::map<std::string, std::string> arm_display;
+  // Applicant records (`import applications`): the files they came from.
+  // Such a plan has no design hash and no seed (has_seed is false).
+  std::vector<ImportedFile> imported_files;
 };
 
 // The display text of an arm ("age=45,gender=f" -> "aged 45, f"): each

@@ -21,6 +21,7 @@ StoredDesign ReadStoredDesign(Store& store) {
   d.strata_columns = MetaList(store, "strata");
   d.records = MetaValue(store, "data").value_or("") == "applications";
   d.stages = MetaList(store, "stages");
+  if (d.records) d.imported_files = ReadImportedFiles(store);
 
   Stmt p = store.Prepare("SELECT id FROM current_plan");
   if (!p.Step()) return d;
