@@ -61,7 +61,8 @@ std::string OverallSentence(const FactorAnalysis& f, double alpha, bool records)
       << (t.p_exact ? "exact permutation " : "chi-square ") << PEquals(t.p());
     if (t.p_exact) o << " (chi-square " << PEquals(t.p_asymptotic) << ")";
   } else {
-    o << "The test of equal positive rates across the " << levels << " (k x 2 table of " << (records ? "applications" : "probes") << ") " << Verb(t.p(), alpha)
+    o << "The test of equal positive rates across the " << levels << " (k x 2 table of "
+      << (records ? "applications" : "probes") << ") " << Verb(t.p(), alpha)
       << " equality at alpha " << Fmt(alpha) << ": " << (t.p_exact ? "Freeman-Halton exact " : "Pearson chi-square ")
       << PEquals(t.p()) << "; Pearson X^2 = " << Fmt(t.statistic) << " on " << t.df << " df, " << PEquals(t.p_asymptotic);
   }

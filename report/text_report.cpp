@@ -93,7 +93,10 @@ void PlainWords(std::ostringstream& o, const AnalysisResult& r) {
 }
 
 void DesignBlock(std::ostringstream& o, const AnalysisResult& r) {
-  if (r.records) return void(o << RecordsDataText(r));  // no design, employers, hash or seed
+  if (r.records) {  // no design, employers, hash or seed: what the data are
+    o << RecordsDataText(r);
+    return;
+  }
   const auto& d = r.design;
   o << "\nDesign: ";
   for (size_t i = 0; i < d.factors.size(); ++i) {
