@@ -1,36 +1,24 @@
 #include "analysis/design_summary.h"
 
 #include "core/factor_signal.h"
+#include "core/level_labels.h"
 
 #include <set>
 
 namespace twinprobe {
 
 std::string ArmDisplayText(const std::string& arm_label, const std::vector<StoredFactor>& factors) {
-  std::string out;
-  bool any = false;
-  size_t start = 0;
-  while (start <= arm_label.size()) {
-    const size_t comma = arm_label.find(',', start);
-    const std::string part = arm_label.substr(start, comma == std::string::npos ? std::string::npos : comma - start);
-    const size_t eq = part.find('=');
-    std::string shown = eq == std::string::npos ? part : part.substr(eq + 1);
-    if (eq != std::string::npos)
-      for (const StoredFactor& sf : factors)
-        if (sf.name == part.substr(0, eq)) shown = sf.LevelLabel(shown);
-    out += (any ? ", " : "") + shown;
-    any = true;
-    if (comma == std::string::npos) break;
-    start = comma + 1;
-  }
-  return out.empty() ? arm_label : out;
+  std::map<std::string, LevelLabels> by_factor;
+  for (const StoredFactor& sf : factors) by_factor.emplace(sf.name, LevelLabelsOf(sf.levels, sf.level_labels));
+  return ArmDisplay(arm_label, by_factor);
 }
 
 DesignSummary SummariseDesign(const Fieldwork& f, const StoredDesign& stored) {
   DesignSummary d;
   if (!f.has_plan) return d;
   d.design_sha256 = f.design_sha256;
-  d.has_seed = f.seed.has_value();
+  // Records were never randomised: the seed an import stores is no seed.
+  d.has_seed = f.seed.has_value() && !stored.records;
   d.seed = f.seed.value_or(0);
   d.plan_created_at = f.plan_created_at;
   if (stored.has_window) d.window_days = stored.scheme.window_days;
@@ -50,6 +38,7 @@ DesignSummary SummariseDesign(const Fieldwork& f, const StoredDesign& stored) {
   d.first_sent_at = f.first_sent_at;
   d.last_sent_at = f.last_sent_at;
   for (const auto& a : f.arms) d.arm_display[a.label] = ArmDisplayText(a.label, stored.factors);
+  d.imported_files = stored.imported_files;
   return d;
 }
 

@@ -52,14 +52,16 @@ struct DesignSummary {
   std::string first_sent_at;              // fieldwork period ("" when nothing was sent)
   std::string last_sent_at;
   // Arm label -> its display text ("age=45,gender=f" -> "aged 45, f"), each
-  // level through StoredFactor::LevelLabel (ArmDisplayText), every arm of the plan.
+  // level through its display label (ArmDisplayText), every arm of the plan.
   std::map<std::string, std::string> arm_display;
+  // Applicant records (`import applications`): the files they came from.
+  // Such a plan has no design hash and no seed (has_seed is false).
+  std::vector<ImportedFile> imported_files;
 };
 
-// The display text of an arm ("age=45,gender=f" -> "aged 45, f"): each
-// level through its factor's StoredFactor::LevelLabel, joined by ", " in
-// the label's order; a level without one is shown as itself ("f"), a label
-// without '=' as it is. With no factors: the levels without factor names.
+// The display text of an arm ("age=45,gender=f" -> "aged 45, f") with the
+// stored factors' labels: the one rule, ArmDisplay in core/level_labels.h.
+// With no factors: the levels without factor names.
 std::string ArmDisplayText(const std::string& arm_label, const std::vector<StoredFactor>& factors);
 
 // Empty when the fieldwork has no plan.

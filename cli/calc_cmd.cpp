@@ -143,7 +143,7 @@ void PutP(nlohmann::json& j, const std::string& key, const PValue& p) {
 
 std::string Line(const std::string& label, const std::string& value) {
   char buf[320];
-  std::snprintf(buf, sizeof buf, "  %-48s %s\n", label.c_str(), value.c_str());
+  std::snprintf(buf, sizeof buf, "  %s %s\n", PadRight(label, 48).c_str(), value.c_str());
   return buf;
 }
 

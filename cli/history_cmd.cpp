@@ -5,6 +5,7 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
+#include "core/text.h"
 #include "collector/history.h"
 #include "core/terminal_text.h"
 
@@ -99,8 +100,8 @@ int RunHistory(Context& ctx, const std::string& probe) {
   std::cout << "\n  entered               audit  by            what\n";
   for (const auto& e : h.events) {
     char head[96];
-    std::snprintf(head, sizeof head, "  %-20s  %5lld  %-12s  ", e.entered_at.c_str(), static_cast<long long>(e.audit_seq),
-                  ForTerminal(e.entered_by).c_str());
+    std::snprintf(head, sizeof head, "  %-20s  %5lld  %s  ", e.entered_at.c_str(), static_cast<long long>(e.audit_seq),
+                  PadRight(ForTerminal(e.entered_by), 12).c_str());
     std::cout << head << ForTerminal(Describe(e)) << "\n";
     if (!e.note.empty()) std::cout << "  " << std::string(43, ' ') << "note: " << ForTerminal(e.note) << "\n";
     else if (e.note_purged) std::cout << "  " << std::string(43, ' ') << "note: (removed by purge)\n";

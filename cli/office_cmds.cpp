@@ -7,6 +7,7 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
+#include "core/text.h"
 #include "collector/handout.h"
 #include "collector/merge.h"
 #include "core/clock.h"
@@ -190,7 +191,7 @@ int RunStatus(Context& ctx) {
     if (!o.merges.empty())
       merged = Count(static_cast<int64_t>(o.merges.size()), "time", "times") + ", last up to its entry " +
                std::to_string(o.merges.back().seq) + " at " + o.merges.back().at;
-    std::snprintf(line, sizeof line, "  %-20s %9lld %7lld %6lld %7lld  ", ForTerminal(o.office).c_str(),
+    std::snprintf(line, sizeof line, "  %s %9lld %7lld %6lld %7lld  ", PadRight(ForTerminal(o.office), 20).c_str(),
                   static_cast<long long>(o.vacancies), static_cast<long long>(o.probes),
                   static_cast<long long>(o.sent), static_cast<long long>(o.closed));
     std::cout << line << merged << "\n";

@@ -19,6 +19,7 @@
 #include "planner/materials_check.h"
 #include "planner/one_difference.h"
 #include "planner/study_check.h"
+#include "report/plural.h"
 
 namespace twinprobe {
 namespace {
@@ -82,7 +83,7 @@ int RunRender(Context& ctx, const RenderOptions& o) {
                      .dump(2)
               << "\n";
   } else {
-    std::cout << "Rendered " << w.probes << " probes of plan " << plan_id.value_or(0) << " into " << out << " (" << w.files
+    std::cout << "Rendered " << Count(w.probes, "probe", "probes") << " of plan " << plan_id.value_or(0) << " into " << out << " (" << w.files
               << " files: PROBE.md, PROBE.txt and PROBE.html each, and manifest.csv with their SHA-256).\n";
   }
   return 0;

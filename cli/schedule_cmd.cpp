@@ -8,6 +8,7 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.h"
+#include "core/text.h"
 #include "collector/declines.h"
 #include "core/clock.h"
 #include "core/ethics_gate.h"
@@ -109,17 +110,17 @@ int RunSchedule(Context& ctx, const ScheduleOptions& o) {
     return 0;
   }
   PrintDeclines(ctx, declines, hours);
-  std::cout << probes.size() << (probes.size() == 1 ? " probe" : " probes")
+  std::cout << Count(static_cast<int64_t>(probes.size()), "probe", "probes")
             << (o.all ? " in the plan" : " to send") << (o.due.empty() ? "" : " by " + o.due)
             << " (times UTC; mark each with 'twinprobe sent PROBE --at TIME'):\n";
   if (probes.empty()) return 0;
   size_t w_arm = 3, w_profile = 7, w_vac = 7;
   for (const auto& p : probes) {
-    w_arm = std::max(w_arm, p.arm.size());
-    w_profile = std::max(w_profile, p.profile.size());
-    w_vac = std::max(w_vac, p.vacancy.size());
+    w_arm = std::max(w_arm, CodePoints(p.arm));
+    w_profile = std::max(w_profile, CodePoints(p.profile));
+    w_vac = std::max(w_vac, CodePoints(p.vacancy));
   }
-  auto pad = [](const std::string& s, size_t w) { return s + std::string(w > s.size() ? w - s.size() : 0, ' '); };
+  const auto pad = [](const std::string& s, size_t w) { return PadRight(s, w); };
   std::cout << "  " << pad("planned", 17) << "  " << pad("probe", 7) << "  " << pad("vacancy", w_vac) << "  "
             << pad("employer", 12) << "  #  " << pad("arm", w_arm) << "  " << pad("profile", w_profile)
             << "  template" << (o.all ? "  sent" : "") << "\n";

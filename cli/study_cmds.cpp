@@ -11,6 +11,7 @@
 #include <nlohmann/json.hpp>
 
 #include "analysis/balance.h"
+#include "core/text.h"
 #include "cli/command.h"
 #include "cli/near_duplicate_output.h"
 #include "core/material_files.h"
@@ -136,21 +137,21 @@ std::string RenderCarryOverText(const CarryOverBalance& b) {
     return b.possible[i][j - 1] ? std::to_string(b.after[i][j - 1]) : "-";
   };
   size_t label_width = 0;
-  for (const auto& a : b.arms) label_width = std::max(label_width, a.size());
+  for (const auto& a : b.arms) label_width = std::max(label_width, CodePoints(a));
   std::vector<size_t> widths;
   for (size_t j = 0; j < columns.size(); ++j) {
-    size_t w = columns[j].size();
-    for (size_t i = 0; i < b.arms.size(); ++i) w = std::max(w, cell(i, j).size());
+    size_t w = CodePoints(columns[j]);
+    for (size_t i = 0; i < b.arms.size(); ++i) w = std::max(w, CodePoints(cell(i, j)));
     widths.push_back(w);
   }
   o << "    " << std::string(label_width, ' ');
-  for (size_t j = 0; j < columns.size(); ++j) o << "  " << std::string(widths[j] - columns[j].size(), ' ') << columns[j];
+  for (size_t j = 0; j < columns.size(); ++j) o << "  " << PadLeft(columns[j], widths[j]);
   o << "\n";
   for (size_t i = 0; i < b.arms.size(); ++i) {
-    o << "    " << b.arms[i] << std::string(label_width - b.arms[i].size(), ' ');
+    o << "    " << PadRight(b.arms[i], label_width);
     for (size_t j = 0; j < columns.size(); ++j) {
       std::string c = cell(i, j);
-      o << "  " << std::string(widths[j] - c.size(), ' ') << c;
+      o << "  " << PadLeft(c, widths[j]);
     }
     o << "\n";
   }

@@ -3,12 +3,11 @@
 #include <algorithm>
 #include <cstdio>
 
+#include "core/level_labels.h"
+
 namespace twinprobe {
 
-std::string Factor::LevelLabel(const std::string& level) const {
-  auto it = labels.find(level);
-  return it == labels.end() ? level : it->second;
-}
+std::string Factor::LevelLabel(const std::string& level) const { return LevelDisplay(labels, level); }
 
 bool OutcomeScheme::is_positive(const std::string& code) const {
   return std::find(positive.begin(), positive.end(), code) != positive.end();

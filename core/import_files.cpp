@@ -18,4 +18,11 @@ void RecordImportFile(Store& store, int64_t seq, const std::string& kind, const 
   ins.Bind(1, kind).Bind(2, sha256).Bind(3, path).Bind(4, rows_landed).Bind(5, rows_rejected).Bind(6, seq).Run();
 }
 
+std::vector<ImportedFile> ReadImportedFiles(Store& store) {
+  std::vector<ImportedFile> files;
+  Stmt s = store.Prepare("SELECT kind, sha256, path, rows_landed, rows_rejected FROM import_file ORDER BY id");
+  while (s.Step()) files.push_back({s.Text(0), s.Text(1), s.Text(2), s.Int(3), s.Int(4)});
+  return files;
+}
+
 }  // namespace twinprobe

@@ -3,6 +3,7 @@
 // same bytes adds nothing. Used by every CSV import.
 #include <cstdint>
 #include <string>
+#include <vector>
 
 namespace twinprobe {
 
@@ -14,5 +15,18 @@ bool AlreadyImported(Store& store, const std::string& kind, const std::string& s
 // Records an imported file under audit entry `seq`.
 void RecordImportFile(Store& store, int64_t seq, const std::string& kind, const std::string& sha256,
                       const std::string& path, int64_t rows_landed, int64_t rows_rejected);
+
+// One imported file as the store recorded it: the path as given on the
+// command line, the SHA-256 of its bytes and the rows it landed.
+struct ImportedFile {
+  std::string kind;  // "pairs" (also `import applications`), "outcomes", "sendings"
+  std::string sha256;
+  std::string path;
+  int64_t rows_landed = 0;
+  int64_t rows_rejected = 0;
+};
+
+// Every imported file in the order of import (empty when none).
+std::vector<ImportedFile> ReadImportedFiles(Store& store);
 
 }  // namespace twinprobe

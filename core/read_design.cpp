@@ -1,5 +1,6 @@
 #include "core/read_design.h"
 
+#include "core/level_labels.h"
 #include "core/meta.h"
 #include "core/store.h"
 #include "core/stored_codes.h"
@@ -7,9 +8,7 @@
 namespace twinprobe {
 
 std::string StoredFactor::LevelLabel(const std::string& level) const {
-  for (size_t i = 0; i < levels.size() && i < level_labels.size(); ++i)
-    if (levels[i] == level && !level_labels[i].empty()) return level_labels[i];
-  return level;
+  return LevelDisplay(LevelLabelsOf(levels, level_labels), level);
 }
 
 StoredDesign ReadStoredDesign(Store& store) {
@@ -21,6 +20,7 @@ StoredDesign ReadStoredDesign(Store& store) {
   d.strata_columns = MetaList(store, "strata");
   d.records = MetaValue(store, "data").value_or("") == "applications";
   d.stages = MetaList(store, "stages");
+  if (d.records) d.imported_files = ReadImportedFiles(store);
 
   Stmt p = store.Prepare("SELECT id FROM current_plan");
   if (!p.Step()) return d;

@@ -12,6 +12,7 @@
 
 #include "core/design.h"
 #include "core/factor_signal.h"
+#include "core/import_files.h"
 
 namespace twinprobe {
 
@@ -47,6 +48,9 @@ struct StoredDesign {
   // Hiring stages in order (`import applications --stages`; meta "stages"):
   // each application's outcome is the furthest stage it reached.
   std::vector<std::string> stages;
+  // The files the records came from (core/import_files.h), read only when
+  // `records`: what the data are, in place of a design hash and seed.
+  std::vector<ImportedFile> imported_files;
 };
 
 // Reads the meta table and, when there is a current plan, its factors,

@@ -1,5 +1,7 @@
 #include "planner/design_words.h"
 
+#include "core/level_labels.h"
+
 namespace twinprobe {
 
 std::string DescribeVariation(const Design& d) {
@@ -28,14 +30,10 @@ std::string DescribeArmLabels(const Design& d) {
   bool labelled = false;
   for (const Factor& f : d.factors) labelled = labelled || !f.labels.empty();
   if (!labelled) return "";
+  std::map<std::string, LevelLabels> by_factor;
+  for (const Factor& f : d.factors) by_factor.emplace(f.name, f.labels);
   std::string out = "Arms by their display labels:";
-  for (size_t a = 0; a < d.arms.size(); ++a) {
-    std::string shown;
-    for (const auto& [factor, level] : d.arms[a].levels)
-      for (const Factor& f : d.factors)
-        if (f.name == factor) shown += (shown.empty() ? "" : ", ") + f.LevelLabel(level);
-    out += (a ? "; " : " ") + d.arms[a].label + " = " + shown;
-  }
+  for (size_t a = 0; a < d.arms.size(); ++a) out += (a ? "; " : " ") + d.arms[a].label + " = " + ArmDisplay(d.arms[a].label, by_factor);
   return out + ".";
 }
 

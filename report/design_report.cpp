@@ -5,6 +5,7 @@
 #include <cstdio>
 #include <sstream>
 
+#include "core/text.h"
 #include "report/text_report.h"
 
 namespace twinprobe {
@@ -33,22 +34,22 @@ std::string RenderBalanceText(const BalanceReport& b) {
     o << "  " << t.title << ": " << TestLine(t.test) << "; largest difference between arms in a column: "
       << t.max_spread << "\n";
     size_t label_width = 0;
-    for (const auto& a : t.arms) label_width = std::max(label_width, a.size());
+    for (const auto& a : t.arms) label_width = std::max(label_width, CodePoints(a));
     std::vector<size_t> widths;
     for (size_t j = 0; j < t.columns.size(); ++j) {
-      size_t w = t.columns[j].size();
+      size_t w = CodePoints(t.columns[j]);
       for (const auto& row : t.counts) w = std::max(w, std::to_string(row[j]).size());
       widths.push_back(w);
     }
     o << "    " << std::string(label_width, ' ');
     for (size_t j = 0; j < t.columns.size(); ++j)
-      o << "  " << std::string(widths[j] - t.columns[j].size(), ' ') << t.columns[j];
+      o << "  " << PadLeft(t.columns[j], widths[j]);
     o << "\n";
     for (size_t i = 0; i < t.arms.size(); ++i) {
-      o << "    " << t.arms[i] << std::string(label_width - t.arms[i].size(), ' ');
+      o << "    " << PadRight(t.arms[i], label_width);
       for (size_t j = 0; j < t.columns.size(); ++j) {
         std::string n = std::to_string(t.counts[i][j]);
-        o << "  " << std::string(widths[j] - n.size(), ' ') << n;
+        o << "  " << PadLeft(n, widths[j]);
       }
       o << "\n";
     }

@@ -5,6 +5,7 @@
 #include <cstdio>
 #include <sstream>
 
+#include "core/text.h"
 #include "report/fieldwork_state.h"
 #include "report/json_number.h"
 #include "report/plain_summary.h"
@@ -279,13 +280,13 @@ std::string RenderEffectsText(const AnalysisResult& r) {
       const auto& c = s.result;
       char line[400];
       if (paired)
-        std::snprintf(line, sizeof line, "  %-12s %-18s %-14s b %4lld  c %4lld  p %-10s adj %-8s OR %s %s\n", s.column.c_str(),
-                      s.value.c_str(), c.other_label.c_str(), static_cast<long long>(c.pairs.b),
+        std::snprintf(line, sizeof line, "  %s %s %s b %4lld  c %4lld  p %-10s adj %-8s OR %s %s\n",
+                      PadRight(s.column, 12).c_str(), PadRight(s.value, 18).c_str(), PadRight(c.other_label, 14).c_str(), static_cast<long long>(c.pairs.b),
                       static_cast<long long>(c.pairs.c), FormatP(c.p).c_str(), Fmt(c.p_adjusted).c_str(),
                       Fmt(c.conditional_or.estimate).c_str(), FmtCi(c.conditional_or.ci).c_str());
       else
-        std::snprintf(line, sizeof line, "  %-12s %-18s %-14s %lld/%lld vs %lld/%lld  p %-10s adj %-8s OR %s %s\n",
-                      s.column.c_str(), s.value.c_str(), c.other_label.c_str(), static_cast<long long>(c.table.c),
+        std::snprintf(line, sizeof line, "  %s %s %s %lld/%lld vs %lld/%lld  p %-10s adj %-8s OR %s %s\n",
+                      PadRight(s.column, 12).c_str(), PadRight(s.value, 18).c_str(), PadRight(c.other_label, 14).c_str(), static_cast<long long>(c.table.c),
                       static_cast<long long>(c.table.c + c.table.d), static_cast<long long>(c.table.a),
                       static_cast<long long>(c.table.a + c.table.b), FormatP(c.p).c_str(), Fmt(c.p_adjusted).c_str(),
                       Fmt(c.fisher.estimate).c_str(), FmtCi(c.fisher.ci).c_str());

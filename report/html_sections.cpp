@@ -1,6 +1,7 @@
 #include "report/html_sections.h"
 
 #include "report/fieldwork_state.h"
+#include "report/records_data.h"
 #include "report/declines_report.h"
 #include "report/covariate_model_report.h"
 #include "report/stages_report.h"
@@ -21,6 +22,11 @@ bool HasEmployers(const AnalysisResult& r) { return r.employers.available && Ear
 bool HasListings(const AnalysisResult& r) { return r.listings.present; }
 // A store with ranked lists only has no design, rates or responses.
 bool HasPlan(const AnalysisResult& r) { return !r.listings.listing_only; }
+// Applicant records have no design to describe: their own section says what the data are.
+bool HasRecords(const AnalysisResult& r) { return HasPlan(r) && r.records; }
+bool HasDesign(const AnalysisResult& r) { return HasPlan(r) && !r.records; }
+std::string RecordsGroups(const AnalysisResult& r, const ReportContext&) { return RecordsGroupsPart(r); }
+std::string RecordsFacts(const AnalysisResult& r, const ReportContext&) { return RecordsFactsPart(r); }
 // Nothing sent or nothing closed yet: no rates, tables or employer findings.
 bool HasFindings(const AnalysisResult& r) { return HasPlan(r) && EarlyStateSentence(r).empty(); }
 bool HasPairedFindings(const AnalysisResult& r) { return r.has_paired && HasFindings(r); }
@@ -36,7 +42,8 @@ bool HasEmployerSets(const AnalysisResult& r) { return r.employer_sets.available
 const std::vector<HtmlSection>& HtmlSections() {
   static const std::vector<HtmlSection> sections = {
       {"summary", "Summary", nullptr, {&SummaryKeyFigures, &SummaryParagraphs}},
-      {"design", "How the test was designed", &HasPlan,
+      {"design", "The data", &HasRecords, {&RecordsGroups, &RecordsFacts, &DesignStrata, &DesignPreregistration}},
+      {"design", "How the test was designed", &HasDesign,
        {&DesignFactors, &DesignCounts, &DesignStrata, &DesignIntegrity, &DesignBalance, &DesignPreregistration}},
       {"flow", "Flow of the study", &HasPlan, {&FlowDiagramPart}},
       {"rates", "Positive callbacks by group", &HasFindings, {&RatesChart}},

@@ -7,6 +7,8 @@
 #include "report/html_parts.h"
 #include "report/html_sections.h"
 #include "report/html_table.h"
+#include "report/plain_summary.h"
+#include "report/records_data.h"
 
 namespace twinprobe {
 namespace {
@@ -180,13 +182,16 @@ std::string StampTable(const AnalysisResult& r, const ReportContext& ctx) {
       {"Study", r.study_id},
       {"Design hash (SHA-256)", r.design.design_sha256.empty() ? "none" : r.design.design_sha256},
       {"Random seed", r.design.has_seed ? std::to_string(r.design.seed) : "none"},
-      {"Data", r.records ? Count(r.probes_planned, "application", "applications") + " in " +
-                               Count(r.vacancies, "vacancy", "vacancies") + " (records imported from a file)"
+      {"Data", r.records ? RecordsExtent(r.probes_planned, r.vacancies) + " (records imported from a file)"
                          : std::to_string(r.vacancies) + " vacancies, " + std::to_string(r.probes_planned) +
                                " applications planned, " + std::to_string(r.probes_sent) + " sent, " +
                                std::to_string(r.responses) + " with a response, " + std::to_string(r.sets_analysed) +
                                " sets analysed"},
   };
+  if (r.records) {  // no design file, no randomisation: the files the records came from instead
+    std::erase_if(rows, [](const auto& row) { return row.first == "Design hash (SHA-256)" || row.first == "Random seed"; });
+    for (const std::string& line : RecordsFileLines(r)) rows.push_back({"Imported file", line});
+  }
   if (!ctx.audit_head.empty())
     rows.push_back({"Audit chain", Count(ctx.audit_entries, "entry", "entries") + ", " +
                                        (ctx.audit_intact ? "intact" : "BROKEN (run twinprobe verify)") + ", head " +

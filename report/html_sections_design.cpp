@@ -107,20 +107,22 @@ std::string DesignStrata(const AnalysisResult& r, const ReportContext&) {
   std::string o;
   std::string current;
   HtmlTable t;
+  // Records without a vacancy column stand one application to a vacancy.
+  const std::string counted = r.records && r.vacancies == r.probes_planned ? "applications" : "vacancies";
   for (const auto& s : d.strata) {
     if (s.name != current) {
       if (!t.rows.empty()) o += RenderTable(t);
       t = HtmlTable{};
       current = s.name;
-      t.caption = "Vacancies by " + s.name;
-      t.headers = {s.name, "vacancies"};
+      t.caption = (counted == "vacancies" ? "Vacancies by " : "Applications by ") + s.name;
+      t.headers = {s.name, counted};
       t.css_class = "compact";
     }
     t.rows.push_back({HeadCell(s.value), NumCell(std::to_string(s.vacancies))});
   }
   if (!t.rows.empty()) o += RenderTable(t);
   return html::Heading("Strata") +
-         html::Para("Vacancies were described by " + Joined(d.strata_columns) +
+         html::Para((r.records ? "The records were described by " : "Vacancies were described by ") + Joined(d.strata_columns) +
                     "; the analysis also reports results within each of these strata.") +
          "<div class=\"tables\">" + o + "</div>";
 }

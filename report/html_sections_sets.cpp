@@ -26,13 +26,18 @@ std::string LevelTests(const AnalysisResult& r, const ReportContext&) {
   std::string o;
   for (const FactorAnalysis& f : r.k_levels.factors) {
     HtmlTable t;
-    t.caption = "Positive callbacks by level of " + f.label + (f.within ? " (varied within sets)" : " (varied between vacancies)");
-    t.headers = {"level", "positive", "probes", "rate"};
+    if (r.records) {  // groups of real applications: no callback, no probe
+      t.caption = "Positive outcomes by group of " + f.label;
+      t.headers = {"group", "positive", "applications", "rate"};
+    } else {
+      t.caption = "Positive callbacks by level of " + f.label + (f.within ? " (varied within sets)" : " (varied between vacancies)");
+      t.headers = {"level", "positive", "probes", "rate"};
+    }
     for (const LevelRate& l : f.levels)
       t.rows.push_back({HeadCell(LevelShown(l)), NumCell(std::to_string(l.positive)), NumCell(std::to_string(l.probes)),
                         NumCell(FormatPercent(l.rate))});
     o += RenderTable(t);
-    if (const std::string s = OverallSentence(f, r.alpha); !s.empty()) o += html::Para(s);
+    if (const std::string s = OverallSentence(f, r.alpha, r.records); !s.empty()) o += html::Para(s);
     if (const std::string s = VacancyTestSentence(f, r.alpha); !s.empty()) o += html::Para(s);
     if (const std::string s = TrendSentence(f, r.alpha, r.confidence); !s.empty()) o += html::Para(s);
   }

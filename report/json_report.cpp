@@ -113,7 +113,7 @@ nlohmann::json Steps(const std::vector<CumulativePoint>& points) {
 
 nlohmann::json DesignJson(const DesignSummary& d) {
   nlohmann::json j;
-  j["design_sha256"] = d.design_sha256;
+  j["design_sha256"] = d.design_sha256.empty() ? nlohmann::json(nullptr) : nlohmann::json(d.design_sha256);
   j["seed"] = d.has_seed ? nlohmann::json(d.seed) : nlohmann::json(nullptr);
   // plan_created_at stays out: the plain document must repeat byte for byte
   // for the same data (the demo's reproducibility check); the audit chain

@@ -4,6 +4,7 @@
 #include <cstdio>
 #include <sstream>
 
+#include "core/text.h"
 #include "report/effects_report.h"
 #include "report/json_number.h"
 #include "report/p_value.h"
@@ -43,7 +44,7 @@ std::string LevelShown(const LevelRate& l) {
   return l.label.empty() || l.label == l.level ? l.level : l.label + " (" + l.level + ")";
 }
 
-std::string OverallSentence(const FactorAnalysis& f, double alpha) {
+std::string OverallSentence(const FactorAnalysis& f, double alpha, bool records) {
   if (!f.overall) return "";
   const OverallTest& t = *f.overall;
   std::ostringstream o;
@@ -60,7 +61,8 @@ std::string OverallSentence(const FactorAnalysis& f, double alpha) {
       << (t.p_exact ? "exact permutation " : "chi-square ") << PEquals(t.p());
     if (t.p_exact) o << " (chi-square " << PEquals(t.p_asymptotic) << ")";
   } else {
-    o << "The test of equal positive rates across the " << levels << " (k x 2 table of probes) " << Verb(t.p(), alpha)
+    o << "The test of equal positive rates across the " << levels << " (k x 2 table of "
+      << (records ? "applications" : "probes") << ") " << Verb(t.p(), alpha)
       << " equality at alpha " << Fmt(alpha) << ": " << (t.p_exact ? "Freeman-Halton exact " : "Pearson chi-square ")
       << PEquals(t.p()) << "; Pearson X^2 = " << Fmt(t.statistic) << " on " << t.df << " df, " << PEquals(t.p_asymptotic);
   }
@@ -116,20 +118,24 @@ std::string RenderKLevelText(const AnalysisResult& r) {
   if (!k.present) return "";
   std::ostringstream o;
   for (const FactorAnalysis& f : k.factors) {
-    o << "\nFactor " << f.label << " (" << (f.within ? "varied within sets" : "varied between vacancies or unpaired")
-      << "), positive callback by level:\n";
+    // Records are groups of real applications, not levels a plan varied.
+    if (r.records)
+      o << "\nFactor " << f.label << " (groups of applications), positive outcome by group:\n";
+    else
+      o << "\nFactor " << f.label << " (" << (f.within ? "varied within sets" : "varied between vacancies or unpaired")
+        << "), positive callback by level:\n";
     for (const LevelRate& l : f.levels) {
       char line[160];
       const std::string shown = LevelShown(l);
-      std::snprintf(line, sizeof line, "  %-20s %6lld / %-6lld %7s\n", shown.c_str(), static_cast<long long>(l.positive),
+      std::snprintf(line, sizeof line, "  %s %6lld / %-6lld %7s\n", PadRight(shown, 20).c_str(), static_cast<long long>(l.positive),
                     static_cast<long long>(l.probes), FormatPercent(l.rate).c_str());
       o << line;
     }
-    if (const std::string s = OverallSentence(f, r.alpha); !s.empty()) o << Wrap(s, "  ");
+    if (const std::string s = OverallSentence(f, r.alpha, r.records); !s.empty()) o << Wrap(s, "  ");
     if (const std::string s = VacancyTestSentence(f, r.alpha); !s.empty()) o << Wrap(s, "  ");
     if (!f.pairwise.empty()) {
       const bool blocks = f.overall && !f.overall->blocks_by.empty();
-      o << "  Every pair of levels ("
+      o << (r.records ? "  Every pair of groups (" : "  Every pair of levels (")
         << (!f.within ? "Fisher's exact test"
             : blocks  ? "exact McNemar on the blocks of one set and one level of " + f.overall->blocks_by
                       : "exact McNemar on the sets holding both")

@@ -24,8 +24,9 @@ std::string LevelShown(const LevelRate& level);
 // The overall test of one factor in words, naming the test and its
 // sidedness, e.g. "Cochran's Q test of equal positive rates across the 3
 // levels of age (exact permutation p) rejects equality: Q = 9.33 on 2 df,
-// p = 0.0102." "" when the factor has none.
-std::string OverallSentence(const FactorAnalysis& factor, double alpha);
+// p = 0.0102." "" when the factor has none. With `records` (applicant
+// records, AnalysisResult::records) the table counts applications, not probes.
+std::string OverallSentence(const FactorAnalysis& factor, double alpha, bool records);
 // The test of a factor varied between vacancies by re-assigning its levels
 // to vacancies (analysis/vacancy_test.h) in words, ending by calling the k x
 // 2 test descriptive; "" when the factor has none.

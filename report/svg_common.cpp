@@ -118,13 +118,6 @@ std::string OpenSvg(const std::string& id, double width, double height, std::str
          EscapeHtml(title) + "</title><desc id=\"" + eid + "-desc\">" + EscapeHtml(description) + "</desc>";
 }
 
-size_t CodePoints(std::string_view text) {
-  size_t n = 0;
-  for (unsigned char c : text)
-    if ((c & 0xC0) != 0x80) ++n;
-  return n;
-}
-
 std::string LabelText(std::string_view label, double x, double y, const char* anchor, size_t max_chars,
                       const char* css_class) {
   std::string shown(label);

@@ -10,6 +10,8 @@
 #include <string_view>
 #include <vector>
 
+#include "core/text.h"
+
 namespace twinprobe::svg {
 
 struct NamedColour {
@@ -66,7 +68,8 @@ std::string OpenSvg(const std::string& id, double width, double height, std::str
 std::string LabelText(std::string_view label, double x, double y, const char* anchor, size_t max_chars,
                       const char* css_class = "lbl");
 
-// Number of Unicode code points (for label widths).
-size_t CodePoints(std::string_view text);
+// Number of Unicode code points (for label widths): the one definition in
+// core/text.h.
+using ::twinprobe::CodePoints;
 
 }  // namespace twinprobe::svg

@@ -8,6 +8,7 @@
 #include <sstream>
 
 #include "analysis/strongest_evidence.h"
+#include "core/text.h"
 #include "report/design_report.h"
 #include "report/early_stop_report.h"
 #include "report/effects_report.h"
@@ -18,6 +19,7 @@
 #include "report/covariate_model_report.h"
 #include "report/k_level_report.h"
 #include "report/plain_summary.h"
+#include "report/records_data.h"
 
 namespace twinprobe {
 
@@ -91,6 +93,10 @@ void PlainWords(std::ostringstream& o, const AnalysisResult& r) {
 }
 
 void DesignBlock(std::ostringstream& o, const AnalysisResult& r) {
+  if (r.records) {  // no design, employers, hash or seed: what the data are
+    o << RecordsDataText(r);
+    return;
+  }
   const auto& d = r.design;
   o << "\nDesign: ";
   for (size_t i = 0; i < d.factors.size(); ++i) {
@@ -126,7 +132,7 @@ void ResponseTimesBlock(std::ostringstream& o, const AnalysisResult& r) {
   std::snprintf(line, sizeof line, "  %-8s", "day");
   std::string head = line;
   for (const auto& a : rt.arms) {
-    std::snprintf(line, sizeof line, " %-34s", (ArmName(r, a.label) + " any / positive").c_str());
+    std::snprintf(line, sizeof line, " %s", PadRight(ArmName(r, a.label) + " any / positive", 34).c_str());
     head += line;
   }
   row(head);
@@ -205,7 +211,7 @@ std::string RenderListingText(const ListingAudit& a, double alpha, bool heading)
                 ("top " + std::to_string(a.top_k)).c_str(), "mean pos", "median");
   o << line;
   for (const auto& g : a.groups) {
-    std::snprintf(line, sizeof line, "  %-34s %7lld %9.4f %7s %7s %9.2f %7.1f\n", g.label.c_str(),
+    std::snprintf(line, sizeof line, "  %s %7lld %9.4f %7s %7s %9.2f %7.1f\n", PadRight(g.label, 34).c_str(),
                   static_cast<long long>(g.appearances), g.exposure, FormatPercent(g.exposure_share).c_str(),
                   FormatPercent(g.top_k_share).c_str(), g.mean_position, g.median_position);
     o << line;
@@ -218,9 +224,11 @@ std::string RenderListingText(const ListingAudit& a, double alpha, bool heading)
     o << "    exposure gap " << Signed(c.exposure_gap, 4) << " (" << c.reference << " - " << c.other
       << "), permutation test, two-sided, " << PEquals(c.gap_p) << "\n";
     o << "    earth mover's distance " << Fixed(c.emd, 2) << " places, permutation test (a larger distance is more "
-      << "extreme), " << PEquals(c.emd_p)
-      << "; Mann-Whitney test on positions (two-sided, descriptive only: places are not independent and items\n"
-      << "    recur) " << PEquals(c.mann_whitney_p) << "\n";
+      << "extreme), " << PEquals(c.emd_p) << "\n";
+    // A line of its own, the caution after the p-value: wrapped inside its
+    // parenthesis, the sentence read as two broken halves.
+    o << "    Mann-Whitney test on positions, two-sided, " << PEquals(c.mann_whitney_p)
+      << " (descriptive only: places are not independent and items recur)\n";
     for (const auto& p : a.paired)
       if (p.factor == c.factor && p.other == c.other) {
         o << "    across " << p.strata << " strata the gap favours " << c.reference << " in " << p.sign.positive
@@ -244,8 +252,8 @@ std::string RenderListingText(const ListingAudit& a, double alpha, bool heading)
     o << line;
     for (size_t i = 0; i < rows.size() && i < 8; ++i) {
       const auto& c = *rows[i];
-      std::snprintf(line, sizeof line, "  %-36s %-24s %9s %9s %9s %7.2f\n", Stratum(c).c_str(),
-                    (c.reference + " vs " + c.other).c_str(), Signed(c.exposure_gap, 4).c_str(),
+      std::snprintf(line, sizeof line, "  %s %s %9s %9s %9s %7.2f\n", PadRight(Stratum(c), 36).c_str(),
+                    PadRight(c.reference + " vs " + c.other, 24).c_str(), Signed(c.exposure_gap, 4).c_str(),
                     FormatP(c.gap_p).c_str(), adjusted ? FormatP(*c.gap_p_adjusted).c_str() : "", c.emd);
       o << line;
     }
@@ -262,7 +270,7 @@ std::string RenderListingText(const ListingAudit& a, double alpha, bool heading)
         return s;
       };
       char head[64];
-      std::snprintf(head, sizeof head, "  %-9s most:  ", d.dimension.c_str());
+      std::snprintf(head, sizeof head, "  %s most:  ", PadRight(d.dimension, 9).c_str());
       o << head << list(d.most) << "\n";
       std::snprintf(head, sizeof head, "  %-9s least: ", "");
       o << head << list(d.least) << "\n";
@@ -365,7 +373,7 @@ void FindingsBlock(std::ostringstream& o, const AnalysisResult& r) {
     << "% intervals:\n";
   for (const auto& a : r.arms) {
     char line[256];
-    std::snprintf(line, sizeof line, "  %-28s %6lld / %-6lld %7s   [%s, %s]%s\n", a.label.c_str(),
+    std::snprintf(line, sizeof line, "  %s %6lld / %-6lld %7s   [%s, %s]%s\n", PadRight(a.label, 28).c_str(),
                   static_cast<long long>(a.positive), static_cast<long long>(a.probes), FormatPercent(a.rate).c_str(),
                   FormatPercent(a.ci.low).c_str(), FormatPercent(a.ci.high).c_str(),
                   a.is_reference ? "  (reference)" : "");

@@ -110,7 +110,7 @@ std::string SetsHowSure(const AnalysisResult& r) {
   const int conf = static_cast<int>(std::lround(r.confidence * 100));
   if (r.k_levels.present) {
     for (const FactorAnalysis& f : r.k_levels.factors) {
-      if (const std::string s = OverallSentence(f, r.alpha); !s.empty()) o << s << " ";
+      if (const std::string s = OverallSentence(f, r.alpha, r.records); !s.empty()) o << s << " ";
       if (const std::string s = VacancyTestSentence(f, r.alpha); !s.empty()) o << s << " ";
       int rejected = 0;
       for (const LevelPair& p : f.pairwise) rejected += p.p_adjusted < r.alpha;

@@ -173,6 +173,17 @@ TEST_CASE("cli plan: prints the balance, the same seed gives the same plan, and 
   CHECK(PlanDump(a.study) != PlanDump(b.study));
 }
 
+TEST_CASE("cli render: one probe is counted in the singular") {
+  InitStudy s;
+  REQUIRE(s.Run({"plan"}).exit_code == 0);
+  auto r = s.Run({"render", "--probe", "P00003"});
+  INFO(r.err);
+  REQUIRE(r.exit_code == 0);
+  CHECK(r.out == "Rendered 1 probe of plan 1 into " + s.study +
+                     "/materials (4 files: PROBE.md, PROBE.txt and PROBE.html each, and manifest.csv with their "
+                     "SHA-256).\n" + testing::HeadLine(s.study));
+}
+
 TEST_CASE("cli render: three documents per probe, HTML-escaped, with a manifest of hashes") {
   InitStudy s;
   s.Edit("names/inland.csv", "given_name,family_name\n", "given_name,family_name\n\"<Ada> & \"\"Co\"\"\",O'Brien\n");
