@@ -89,15 +89,17 @@ ResponseTimes ComputeResponseTimes(const Fieldwork& f, const OutcomeScheme& sche
       out.any = Steps(acc.any_days, out.probes_sent);
       out.positive = Steps(acc.positive_days, out.probes_sent);
       const double n = static_cast<double>(out.probes_sent);
-      for (int day : milestone_days) {
+      auto read_at = [&](int day) {
         ResponseMilestone m;
         m.day = day;
         m.any = CountAtOrBefore(acc.any_days, day);
         m.positive = CountAtOrBefore(acc.positive_days, day);
         m.any_share = static_cast<double>(m.any) / n;
         m.positive_share = static_cast<double>(m.positive) / n;
-        out.milestones.push_back(m);
-      }
+        return m;
+      };
+      for (int day : milestone_days) out.milestones.push_back(read_at(day));
+      for (int day = 1; day <= scheme.window_days; ++day) out.by_day.push_back(read_at(day));
     }
     for (const auto& code : scheme.codes) {
       auto it = acc.codes.find(code);

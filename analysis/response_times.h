@@ -60,6 +60,11 @@ struct ArmResponseTimes {
   std::vector<CumulativePoint> any;       // steps of the cumulative share, in day order
   std::vector<CumulativePoint> positive;  // same, first positive response
   std::vector<ResponseMilestone> milestones;
+  // The curves read at every whole day 1 … window (the same counts as
+  // `milestones`, at each day): what `--json` writes instead of the steps,
+  // whose count grows with the distinct response times (one a second in
+  // imported data), so the document stays the size of the window.
+  std::vector<ResponseMilestone> by_day;
   std::vector<CodeCount> codes;  // current outcome of each sent probe, in the scheme's code order
 };
 

@@ -118,6 +118,27 @@ TEST_CASE("response times: first response per sent probe, censored at the window
   CHECK(in.milestones[3].any == 3);
   CHECK(in.milestones[3].positive == 2);
   CHECK(in.milestones[3].positive_share == Approx(2.0 / 3));
+  // Every day of the window (what --json writes): first answers at 0.5, 2
+  // and 5 days, positive ones at 0.5 and 5, so by day 4 two answers and one
+  // positive, by day 5 all three and two positive, unchanged to day 28.
+  REQUIRE(in.by_day.size() == 28);
+  CHECK(in.by_day[0].day == 1);
+  CHECK(in.by_day[0].any == 1);
+  CHECK(in.by_day[3].day == 4);
+  CHECK(in.by_day[3].any == 2);
+  CHECK(in.by_day[3].positive == 1);
+  CHECK(in.by_day[4].day == 5);
+  CHECK(in.by_day[4].any == 3);
+  CHECK(in.by_day[4].positive == 2);
+  CHECK(in.by_day[4].positive_share == Approx(2.0 / 3));
+  CHECK(in.by_day[27].day == 28);
+  CHECK(in.by_day[27].any_share == Approx(1.0));
+  // The milestones are the same reading at their days.
+  for (const auto& m : in.milestones) {
+    INFO("day " << m.day);
+    CHECK(in.by_day[static_cast<size_t>(m.day - 1)].any == m.any);
+    CHECK(in.by_day[static_cast<size_t>(m.day - 1)].positive == m.positive);
+  }
 
   const auto& co = ArmTimes(rt, "origin=coastal");
   CHECK(co.probes_sent == 4);
@@ -165,6 +186,7 @@ TEST_CASE("response times: nothing sent means not available, and no curve") {
   CHECK(rt.arms[0].probes_sent == 0);
   CHECK(rt.arms[0].any.empty());
   CHECK(rt.arms[0].milestones.empty());
+  CHECK(rt.arms[0].by_day.empty());
 }
 
 TEST_CASE("response times: milestone days follow the window") {
