@@ -167,7 +167,8 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   r.covariate_model = FitCovariateModel(reading.covariates, effects_in.arm_labels, scheme, r.confidence);
   r.design = SummariseDesign(f, stored);
   r.response_times = ComputeResponseTimes(f, scheme);
-  r.declines = CountDeclines(reading.declines, scheme, f.study_clock);
+  // Applicant records are real applications: nothing to decline.
+  if (!r.records) r.declines = CountDeclines(reading.declines, scheme, f.study_clock);
   r.employers = paired ? SummariseEmployers(f.employers) : EmployerOutcomes{};
   if (r.kind == "sets") r.employer_sets = SummariseEmployerSets(f.employers, f.arms.size());
   TestByEmployer(r.employers, static_cast<uint64_t>(f.seed.value_or(0)), r.mcnemar_exact_p, r.alpha);

@@ -12,10 +12,13 @@ namespace {
 bool Applies(const HtmlSection& s, const AnalysisResult& r) { return !s.applies || s.applies(r); }
 
 std::string Masthead(const AnalysisResult& r, const ReportContext& ctx) {
-  std::string o = "<header class=\"masthead\"><p class=\"kicker\">Correspondence test report</p><h1>" +
+  std::string o = std::string("<header class=\"masthead\"><p class=\"kicker\">") +
+                  (r.records ? "Applicant records report" : "Correspondence test report") + "</p><h1>" +
                   UserText(r.title) + "</h1><p class=\"meta\">Study " + UserText(r.study_id) + " · " +
                   EscapeHtml(r.kind) + " design · ";
-  o += std::to_string(r.vacancies) + " vacancies · ";
+  // Records: as many applications as vacancies means no vacancy column.
+  if (r.records) o += EscapeHtml(RecordsExtent(r.probes_planned, r.vacancies)) + " · ";
+  else o += std::to_string(r.vacancies) + " vacancies · ";
   o += "made " + EscapeHtml(ctx.generated_at.empty() ? "at an unknown time" : ctx.generated_at) + " with twinprobe " +
        EscapeHtml(ctx.tool_version) + "</p>";
   if (ctx.reveal_employers)

@@ -29,6 +29,13 @@ std::string RecordsGroups(const AnalysisResult& r, const ReportContext&) { retur
 std::string RecordsFacts(const AnalysisResult& r, const ReportContext&) { return RecordsFactsPart(r); }
 // Nothing sent or nothing closed yet: no rates, tables or employer findings.
 bool HasFindings(const AnalysisResult& r) { return HasPlan(r) && EarlyStateSentence(r).empty(); }
+// Records have no sending or callbacks: their rates get their own title, and
+// the response-time section only when the file gave send and response times.
+bool HasTestFindings(const AnalysisResult& r) { return HasFindings(r) && !r.records; }
+bool HasRecordsFindings(const AnalysisResult& r) { return HasFindings(r) && r.records; }
+bool HasTimedFindings(const AnalysisResult& r) {
+  return HasFindings(r) && (!r.records || r.response_times.available);
+}
 bool HasPairedFindings(const AnalysisResult& r) { return r.has_paired && HasFindings(r); }
 bool HasStages(const AnalysisResult& r) { return r.stages.present && HasFindings(r); }
 bool HasKLevels(const AnalysisResult& r) { return r.k_levels.present && HasFindings(r); }
@@ -45,8 +52,9 @@ const std::vector<HtmlSection>& HtmlSections() {
       {"design", "The data", &HasRecords, {&RecordsGroups, &RecordsFacts, &DesignStrata, &DesignPreregistration}},
       {"design", "How the test was designed", &HasDesign,
        {&DesignFactors, &DesignCounts, &DesignStrata, &DesignIntegrity, &DesignBalance, &DesignPreregistration}},
-      {"flow", "Flow of the study", &HasPlan, {&FlowDiagramPart}},
-      {"rates", "Positive callbacks by group", &HasFindings, {&RatesChart}},
+      {"flow", "Flow of the study", &HasDesign, {&FlowDiagramPart}},
+      {"rates", "Positive callbacks by group", &HasTestFindings, {&RatesChart}},
+      {"rates", "Positive outcomes by group", &HasRecordsFindings, {&RatesChart}},
       {"paired", "Pairs: who was treated better", &HasPairedFindings, {&PairedTable, &PairedTest, &PairedEffects}},
       {"comparisons", "Each group against the reference", &HasComparisons, {&ComparisonsForest}},
       {"strata", "Results within each stratum", &HasStrata, {&SingleStrataNote, &StrataForest, &StrataTables, &AcrossStrataTable}},
@@ -54,7 +62,7 @@ const std::vector<HtmlSection>& HtmlSections() {
       {"levels", "Every level compared", &HasKLevels, {&LevelTests, &LevelPairs, &TwoFactorTable}},
       {"adjusted", "Adjusted for template and send position", &HasAdjusted, {&AdjustedTable}},
       {"covariates", "Adjusted for the applications' covariates", &HasCovariateModel, {&CovariateModelPart}},
-      {"responses", "What came back, and how fast", &HasFindings, {&ResponseCodes, &ResponseTimesChart}},
+      {"responses", "What came back, and how fast", &HasTimedFindings, {&ResponseCodes, &ResponseTimesChart}},
       {"declines", "Declines of positive responses", &HasDeclines, {&DeclinesSection}},
       {"employers", "Employers (by pseudonym)", &HasEmployers, {&EmployerTable}},
       {"employers-sets", "Employers (by pseudonym)", &HasEmployerSets, {&EmployerSetsTable}},

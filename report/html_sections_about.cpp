@@ -34,14 +34,22 @@ std::string CorrectionSource(const std::string& method) {
 std::string MethodsText(const AnalysisResult& r, const ReportContext&) {
   const std::string conf = std::to_string(static_cast<int>(std::lround(r.confidence * 100))) + "%";
   std::string o = "<ul class=\"methods\">";
-  o += Item("Data",
-            "Each application (probe) counts with its current outcome: the newest recorded response, or none. A "
-            "corrected response supersedes the earlier one and both are kept. A set enters the analysis only when "
-            "every application in it was sent. Every change to the study store is sealed in a SHA-256 audit chain.",
-            "");
+  if (r.records)
+    o += Item("Data",
+              "Each application counts with the outcome recorded in the imported file. Every change to the study "
+              "store is sealed in a SHA-256 audit chain.",
+              "");
+  else
+    o += Item("Data",
+              "Each application (probe) counts with its current outcome: the newest recorded response, or none. A "
+              "corrected response supersedes the earlier one and both are kept. A set enters the analysis only when "
+              "every application in it was sent. Every change to the study store is sealed in a SHA-256 audit chain.",
+              "");
   if (!r.listings.listing_only)
-    o += Item("Positive callback rate",
-            "The share of a group's applications that received a positive answer, with the exact " + conf +
+    o += Item(r.records ? "Positive outcome rate" : "Positive callback rate",
+            std::string(r.records ? "The share of a group's applications with a positive outcome" :
+                                    "The share of a group's applications that received a positive answer") +
+                ", with the exact " + conf +
                 " confidence interval of Clopper and Pearson (the same as R's binom.test).",
             "Clopper, C. J. & Pearson, E. S. (1934), Biometrika 26:404–413");
   if (r.has_paired)
@@ -82,7 +90,7 @@ std::string MethodsText(const AnalysisResult& r, const ReportContext&) {
               "The paired table is repeated within each value of each stratum column; these tables describe where the "
               "unequal pairs occurred.",
               "");
-  if (!r.listings.listing_only)
+  if (!r.listings.listing_only && (!r.records || r.response_times.available))
     o += Item("Time to first response",
             "Days from sending to the earliest answer other than none, per application; the curves are the cumulative "
             "share of sent applications answered by each day. Answers after the " +

@@ -77,12 +77,13 @@ std::string RatesChart(const AnalysisResult& r, const ReportContext&) {
     return html::Absent("No complete set has been analysed yet, so there are no callback rates to show.");
   svg::IntervalChart chart;
   chart.id = "chart-rates";
-  chart.title = "Positive-callback rate by group, with " + ConfPercent(r.confidence) + " confidence intervals";
+  const std::string rate = r.records ? "Positive-outcome rate" : "Positive-callback rate";
+  chart.title = rate + " by group, with " + ConfPercent(r.confidence) + " confidence intervals";
   chart.axis_label = "share of applications answered positively";
   chart.percent = true;
   std::string desc = "Dot-and-interval chart.";
   HtmlTable t;
-  t.caption = "Positive callbacks by group";
+  t.caption = r.records ? "Positive outcomes by group" : "Positive callbacks by group";
   t.headers = {"Group", "Positive / applications", "Rate", ConfPercent(r.confidence) + " interval"};
   for (const auto& a : r.arms) {
     const std::string text = IntervalText(a.rate, a.ci);
@@ -100,7 +101,7 @@ std::string RatesChart(const AnalysisResult& r, const ReportContext&) {
                     "); the bar around it is the exact " + ConfPercent(r.confidence) +
                     " confidence interval (Clopper–Pearson), the range of true rates the data are compatible with.") +
          html::Figure("fig-rates",
-                      "Positive-callback rate by group. Bars: exact " + ConfPercent(r.confidence) +
+                      rate + " by group. Bars: exact " + ConfPercent(r.confidence) +
                           " confidence intervals.",
                       svg::RenderIntervalChart(chart), RenderTable(t));
 }

@@ -120,7 +120,7 @@ TEST_CASE("issue 19: the HTML design section of records describes the imported f
   INFO(r.err);
   REQUIRE(r.exit_code == 0);
   const std::string html = testing::ReadFile(s.dir / "r.html");
-  const size_t from = html.find("id=\"design\""), to = html.find("id=\"flow\"");
+  const size_t from = html.find("id=\"design\""), to = html.find("id=\"rates\"");
   REQUIRE(from != std::string::npos);
   const std::string design = html.substr(from, to - from);
   CHECK(design.find("<h2>The data</h2>") != std::string::npos);
@@ -129,4 +129,22 @@ TEST_CASE("issue 19: the HTML design section of records describes the imported f
   CHECK(design.find("Design hash") == std::string::npos);
   CHECK(design.find(Sha256Hex(testing::ReadFile(s.file))) != std::string::npos);
   CHECK(design.find("Applications by town") != std::string::npos);
+}
+
+TEST_CASE("issue 19: the HTML report of records speaks of applications and outcomes, not of a test sent out") {
+  RecordsStudy s;
+  auto r = RunCli({"--study", s.study, "report", "--out", s.dir / "r.html"}, {"TWINPROBE_NOW=2027-04-26T14:59:00Z"});
+  INFO(r.err);
+  REQUIRE(r.exit_code == 0);
+  const std::string html = testing::ReadFile(s.dir / "r.html");
+  CHECK(html.find("<p class=\"kicker\">Applicant records report</p>") != std::string::npos);
+  // No vacancy column: the masthead counts applications, not invented vacancies.
+  CHECK(html.find(" · 72 applications · ") != std::string::npos);
+  CHECK(html.find("72 vacancies") == std::string::npos);
+  CHECK(html.find("<h2>Positive outcomes by group</h2>") != std::string::npos);
+  for (const char* word : {"Correspondence test report", "allback", "Flow of the study", "Declines of positive",
+                           "from sending", "Sets analysed", "applicant who does not exist"}) {
+    INFO(word);
+    CHECK(html.find(word) == std::string::npos);
+  }
 }
