@@ -163,7 +163,17 @@ Result<AnalysisResult> Analyze(const StudyReading& reading, const std::string& s
   KLevelInput k_in = KLevelInputFor(effects_in, stored, current_design);
   k_in.seed = static_cast<uint64_t>(f.seed.value_or(0));
   r.k_levels = AnalyzeKLevels(k_in);
-  if (r.kind != "unpaired") r.adjusted = FitAdjustedModel(LaidOutSets(f, reading.layout), effects_in.arm_labels, r.confidence);
+  if (r.kind != "unpaired") {
+    r.adjusted = FitAdjustedModel(LaidOutSets(f, reading.layout), effects_in.arm_labels, r.confidence);
+    // With a factor varied between vacancies, the arms of one between level
+    // fill every set they are in, so their terms are dependent by design (not
+    // because of the data): say so rather than blame the data.
+    if (!r.adjusted.failure.empty() && !effects_in.between_factors.empty())
+      r.adjusted.failure =
+          "its arm terms cannot be estimated in this design: a factor varied between vacancies puts the same arms "
+          "in every set of a level, so within sets their terms are dependent; the factor sections give each "
+          "factor's tests";
+  }
   r.covariate_model = FitCovariateModel(reading.covariates, effects_in.arm_labels, scheme, r.confidence);
   r.design = SummariseDesign(f, stored);
   r.response_times = ComputeResponseTimes(f, scheme);

@@ -72,6 +72,13 @@ TEST_CASE("cli labels: analyze shows the display labels of factors and levels be
   CHECK(r.out.find("  age (years) aged 28 vs aged 45: 52.1% vs 37.5% in 48 sets (a 10, only aged 28 15, only aged 45 8, d 15);") !=
         std::string::npos);
   CHECK(r.out.find("  woman (f)  ") != std::string::npos);
+  // Gender varies between vacancies: the arms are compared with the reference
+  // only within its gender, and the template/position model says why its arm
+  // terms cannot be estimated (the design, not the data).
+  CHECK(r.out.find("  Not compared with the reference, whose sets they never share") != std::string::npos);
+  CHECK(r.out.find("  p-values adjusted across the 2 comparisons (holm):") != std::string::npos);
+  CHECK(r.out.find("its arm terms cannot be estimated in this design: a factor varied between vacancies") !=
+        std::string::npos);
   CHECK(r.out.find("  odds ratio aged 45 x man = ") != std::string::npos);
   CHECK(r.out.find("age (years) x gender: the likelihood-ratio test") != std::string::npos);
   // Technical lines name the arm's code first, then its labels.
