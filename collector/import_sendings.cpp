@@ -108,17 +108,11 @@ Result<SendingsImportSummary> ImportSendings(Store& store, const std::string& pa
     if (!s.ok()) return s.error();
   }
   if (reader.error()) return *reader.error();  // a malformed CSV fails even with --skip-bad
-  if (data_rows == 0)
-    return BadInput(path + ":2", "the file has no data rows", "add one row per sending under the header");
-  if (shown) {
-    shown->Update(FileSize(path));
-    shown->Finish();
-  }
-  Status closed = rejects.Close();
-  if (!closed.ok()) return closed.error();
-  summary.rows_rejected = rejects.rows();
-  if (summary.rows_rejected) summary.reject_path = rejects.path();
-  RecordImportFile(store, write.seq(), "sendings", sha.value(), path, summary.rows_landed, summary.rows_rejected);
+  auto end = FinishRowImport(store, write.seq(), "sendings", sha.value(), path, data_rows, summary.rows_landed, "sending",
+                             shown.get(), rejects);
+  if (!end.ok()) return end.error();
+  summary.rows_rejected = end.value().rows_rejected;
+  summary.reject_path = end.value().reject_path;
   summary.audit_hash = write.Commit(ImportSendingsSummary(path, summary.rows_landed, summary.rows_rejected));
   return summary;
 }

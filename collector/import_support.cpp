@@ -4,6 +4,7 @@
 
 #include "core/csv.h"
 #include "core/input_file.h"
+#include "core/progress.h"
 #include "core/sha256.h"
 #include "core/suggest.h"
 #include "core/spreadsheet_cell.h"
@@ -86,6 +87,24 @@ Status RejectWriter::Close() {
   Status s = out_->Commit();
   if (!s.ok()) return BadInput(path_, "cannot write the reject file", "check that the folder is writable");
   return {};
+}
+
+Result<RowImportEnd> FinishRowImport(Store& store, int64_t seq, const std::string& kind, const std::string& sha,
+                                     const std::string& path, int64_t data_rows, int64_t rows_landed,
+                                     const std::string& row_noun, Progress* shown, RejectWriter& rejects) {
+  if (data_rows == 0)
+    return BadInput(path + ":2", "the file has no data rows", "add one row per " + row_noun + " under the header");
+  if (shown) {
+    shown->Update(FileSize(path));
+    shown->Finish();
+  }
+  Status closed = rejects.Close();
+  if (!closed.ok()) return closed.error();
+  RowImportEnd end;
+  end.rows_rejected = rejects.rows();
+  if (end.rows_rejected) end.reject_path = rejects.path();
+  RecordImportFile(store, seq, kind, sha, path, rows_landed, end.rows_rejected);
+  return end;
 }
 
 }  // namespace twinprobe

@@ -63,4 +63,22 @@ class RejectWriter {
 // The default reject file for `path`: "FILE.rejects.csv".
 std::string DefaultRejectPath(const std::string& path);
 
+class Progress;
+class Store;
+
+struct RowImportEnd {
+  int64_t rows_rejected = 0;
+  std::string reject_path;  // "" when no row was rejected
+};
+
+// The end every import of one row per probe shares (outcomes, sendings),
+// after its last row: a file without data rows is refused ("add one row per
+// `row_noun` under the header"), the progress bar (if any) is finished, the
+// reject file closed, and the file recorded under `kind` with its digest and
+// counts in the audit entry `seq` (core/import_files.h), so the same bytes
+// twice add nothing.
+Result<RowImportEnd> FinishRowImport(Store& store, int64_t seq, const std::string& kind, const std::string& sha,
+                                     const std::string& path, int64_t data_rows, int64_t rows_landed,
+                                     const std::string& row_noun, Progress* shown, RejectWriter& rejects);
+
 }  // namespace twinprobe
